@@ -1,0 +1,53 @@
+//! # cyclorb-field: exact arithmetic in cyclotomic fields Q(ζ_n)
+//!
+//! The foundation of cyclorb. A [`CyclotomicField`] is the context for Q(ζ_n),
+//! ζ_n = exp(2πi/n) under the standard embedding: conductor n, degree φ(n), the cyclotomic
+//! polynomial Φ_n, the residues of x^e modulo Φ_n and the reduction fast path (negacyclic
+//! fold when n is a power of two). A [`Cyc`] is a value: φ(n) integer numerators in the
+//! power basis 1, ζ, …, ζ^{φ−1} over one positive denominator, always canonical, so `Eq`
+//! and `Hash` compare stored words. Operations are methods of the context.
+//!
+//! ```
+//! use cyclorb_field::CyclotomicField;
+//! let q16 = CyclotomicField::new(16).unwrap();
+//! let sqrt2 = q16.parse("sqrt(2)").unwrap();
+//! let two = q16.mul(&sqrt2, &sqrt2).unwrap();
+//! assert_eq!(two, q16.int(2));
+//! let theta_sigma = q16.zeta_pow(1); // Ising's twist exp(2πi/16)
+//! assert_eq!(q16.root_of_unity_order(&theta_sigma).unwrap(), Some(16));
+//! assert_eq!(q16.parse(&sqrt2.to_string()).unwrap(), sqrt2);
+//! ```
+//!
+//! ## Performance
+//! Numerators live in `i64`; kernels compute in checked `i128` and repeat on `BigInt` only
+//! when a step overflows. Sums of products ([`DotAccumulator`]) fold modulo Φ_n once per
+//! sum, not once per product. Inversion solves the multiplication matrix fraction-free
+//! (Bareiss), so coefficient growth stays polynomial.
+//!
+//! ## Untrusted input
+//! [`CyclotomicField::parse`] reports the byte offset and reason of any error; division by
+//! zero and operands from different fields are [`FieldError`] values, never panics.
+
+#![deny(missing_docs)]
+
+mod arith;
+mod context;
+mod dot;
+mod element;
+mod error;
+mod galois;
+mod modp;
+pub mod numtheory;
+mod rational;
+mod ring;
+mod sqrt;
+mod text;
+
+pub use context::{CyclotomicField, Reduction, MAX_CONDUCTOR};
+pub use dot::DotAccumulator;
+pub use element::Cyc;
+pub use error::FieldError;
+pub use galois::common_conductor;
+pub use modp::PrimeReduction;
+pub use rational::Rational;
+pub use text::CycText;
