@@ -1,0 +1,34 @@
+//! Errors of matrix operations.
+
+use std::fmt;
+
+use cyclorb_field::FieldError;
+
+/// What can go wrong in a matrix operation.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub enum MatrixError {
+    /// An arithmetic error from the field (division by zero, mismatched fields).
+    Field(FieldError),
+    /// Shapes do not fit (the text says how).
+    Shape(String),
+    /// A square matrix is singular where an inverse was needed.
+    Singular,
+}
+
+impl fmt::Display for MatrixError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            MatrixError::Field(e) => write!(f, "{e}"),
+            MatrixError::Shape(s) => write!(f, "shape mismatch: {s}"),
+            MatrixError::Singular => write!(f, "matrix is singular"),
+        }
+    }
+}
+
+impl std::error::Error for MatrixError {}
+
+impl From<FieldError> for MatrixError {
+    fn from(e: FieldError) -> Self {
+        MatrixError::Field(e)
+    }
+}

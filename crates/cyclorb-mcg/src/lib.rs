@@ -1,0 +1,1 @@
+//! Placeholder crate root; the generators issue fills it.

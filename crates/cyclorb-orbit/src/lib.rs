@@ -1,0 +1,1 @@
+//! Placeholder crate root; the orbit issue fills it.

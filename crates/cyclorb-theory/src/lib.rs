@@ -1,0 +1,1 @@
+//! Placeholder crate root; the theory issue fills it.
