@@ -1,0 +1,82 @@
+//! Outcomes, exit codes and the two output modes (text for people, one JSON object for programs).
+
+use std::io::IsTerminal;
+use std::process::ExitCode;
+
+use serde_json::Value;
+
+/// The result of a subcommand, before it is printed.
+pub enum Outcome {
+    /// Finished; the report is printed (exit 0).
+    Done(Report),
+    /// A check failed; the report is printed (exit 1).
+    CheckFailed(Report),
+    /// Stopped by a limit or an interrupt with a partial result (exit 3).
+    Stopped(Report),
+    /// The input was invalid: message on stderr (exit 1).
+    Invalid(String),
+}
+
+/// What a subcommand prints: a JSON object and its human-readable text.
+pub struct Report {
+    /// The machine-readable form (printed alone with `--json`).
+    pub json: Value,
+    /// The text form.
+    pub text: String,
+    /// Whether to print JSON.
+    pub as_json: bool,
+}
+
+impl Report {
+    /// A report printed as JSON when `as_json`, else as text.
+    pub fn new(json: Value, text: String, as_json: bool) -> Report {
+        Report {
+            json,
+            text,
+            as_json,
+        }
+    }
+
+    fn print(&self) {
+        if self.as_json {
+            println!(
+                "{}",
+                serde_json::to_string_pretty(&self.json).expect("JSON values serialise")
+            );
+        } else {
+            print!("{}", self.text);
+            if !self.text.ends_with('\n') {
+                println!();
+            }
+        }
+    }
+}
+
+impl Outcome {
+    /// Print and map to the exit code of the contract.
+    pub fn finish(self) -> ExitCode {
+        match self {
+            Outcome::Done(r) => {
+                r.print();
+                ExitCode::SUCCESS
+            }
+            Outcome::CheckFailed(r) => {
+                r.print();
+                ExitCode::from(1)
+            }
+            Outcome::Stopped(r) => {
+                r.print();
+                ExitCode::from(3)
+            }
+            Outcome::Invalid(msg) => {
+                eprintln!("cyclorb: {msg}");
+                ExitCode::from(1)
+            }
+        }
+    }
+}
+
+/// Whether progress displays may be drawn: a terminal on stderr and not JSON mode.
+pub fn progress_allowed(json: bool) -> bool {
+    !json && std::io::stderr().is_terminal()
+}
