@@ -1,4 +1,5 @@
-//! Dense matrices over Q(ζ_n), row-major.
+//! Dense matrices over Q(ζ_n), row-major: storage, entry access and the ring operations
+//! (sum, difference, scaling, product, conjugate transpose, trace).
 
 use cyclorb_field::{Cyc, CyclotomicField, DotAccumulator, FieldError};
 
@@ -122,11 +123,7 @@ impl Matrix {
                 data.push(acc.finish());
             }
         }
-        Ok(Matrix {
-            rows: self.rows,
-            cols: other.cols,
-            data,
-        })
+        Ok(Matrix::from_parts(self.rows, other.cols, data))
     }
 
     /// Entrywise map (used for conjugation, Galois action, scaling).
@@ -134,11 +131,8 @@ impl Matrix {
         &self,
         f: impl FnMut(&Cyc) -> Result<Cyc, FieldError>,
     ) -> Result<Matrix, MatrixError> {
-        Ok(Matrix {
-            rows: self.rows,
-            cols: self.cols,
-            data: self.data.iter().map(f).collect::<Result<_, _>>()?,
-        })
+        let data = self.data.iter().map(f).collect::<Result<_, _>>()?;
+        Ok(Matrix::from_parts(self.rows, self.cols, data))
     }
 
     /// The transpose.
@@ -149,21 +143,18 @@ impl Matrix {
                 data.push(self.get(i, j).clone());
             }
         }
-        Matrix {
-            rows: self.cols,
-            cols: self.rows,
-            data,
-        }
+        Matrix::from_parts(self.cols, self.rows, data)
     }
 
-    /// The conjugate transpose X†.
+    /// The conjugate transpose X† (complex conjugation is ζ_n ↦ ζ_n⁻¹).
     pub fn adjoint(&self, field: &CyclotomicField) -> Matrix {
-        let t = self.transpose();
-        Matrix {
-            rows: t.rows,
-            cols: t.cols,
-            data: t.data.iter().map(|x| field.conj(x)).collect(),
+        let mut data = Vec::with_capacity(self.data.len());
+        for j in 0..self.cols {
+            for i in 0..self.rows {
+                data.push(field.conj(self.get(i, j)));
+            }
         }
+        Matrix::from_parts(self.cols, self.rows, data)
     }
 
     /// Entrywise sum.
@@ -206,6 +197,31 @@ impl Matrix {
         }
     }
 
+    /// True when rows = cols.
+    pub fn is_square(&self) -> bool {
+        self.rows == self.cols
+    }
+
+    /// The trace Σ_i X_ii of a square matrix.
+    pub fn trace(&self, field: &CyclotomicField) -> Result<Cyc, MatrixError> {
+        self.require_square("trace")?;
+        Ok(field.sum((0..self.rows).map(|i| self.get(i, i)))?)
+    }
+
+    /// An error naming `operation` unless the matrix is square.
+    pub(crate) fn require_square(&self, operation: &str) -> Result<(), MatrixError> {
+        if self.is_square() {
+            Ok(())
+        } else {
+            Err(MatrixError::Shape(format!(
+                "{operation} needs a square matrix, not {}×{}",
+                self.rows, self.cols
+            )))
+        }
+    }
+
+    /// A matrix from its shape and row-major entries; the caller guarantees
+    /// `data.len() == rows * cols` (crate-internal constructors only).
     pub(crate) fn from_parts(rows: usize, cols: usize, data: Vec<Cyc>) -> Matrix {
         debug_assert_eq!(data.len(), rows * cols);
         Matrix { rows, cols, data }

@@ -13,6 +13,8 @@ pub enum MatrixError {
     Shape(String),
     /// A square matrix is singular where an inverse was needed.
     Singular,
+    /// A linear system A·x = b has no solution.
+    Inconsistent,
 }
 
 impl fmt::Display for MatrixError {
@@ -21,6 +23,7 @@ impl fmt::Display for MatrixError {
             MatrixError::Field(e) => write!(f, "{e}"),
             MatrixError::Shape(s) => write!(f, "shape mismatch: {s}"),
             MatrixError::Singular => write!(f, "matrix is singular"),
+            MatrixError::Inconsistent => write!(f, "the linear system has no solution"),
         }
     }
 }

@@ -51,7 +51,8 @@ pub enum Operator {
 }
 
 impl Operator {
-    /// Check the shape invariants (block sizes, disjoint indices, columns in range).
+    /// Check the shape invariants (square dense matrix; block sizes and pairwise disjoint
+    /// indices in range; sparse columns in range and distinct within a row).
     pub fn validate(&self) -> Result<(), MatrixError> {
         match self {
             Operator::Dense(m) if m.rows() != m.cols() => {
@@ -77,12 +78,21 @@ impl Operator {
             }
             Operator::SparseRows { dim, rows } => {
                 if rows.len() != *dim || rows.iter().flatten().any(|(j, _)| j >= dim) {
-                    Err(MatrixError::Shape(
+                    return Err(MatrixError::Shape(
                         "sparse rows do not fit the dimension".into(),
-                    ))
-                } else {
-                    Ok(())
+                    ));
                 }
+                let mut seen = vec![usize::MAX; *dim];
+                for (i, row) in rows.iter().enumerate() {
+                    for &(j, _) in row {
+                        if std::mem::replace(&mut seen[j], i) == i {
+                            return Err(MatrixError::Shape(format!(
+                                "row {i} lists column {j} twice"
+                            )));
+                        }
+                    }
+                }
+                Ok(())
             }
             _ => Ok(()),
         }
