@@ -192,7 +192,9 @@ impl LinearMap for Operator {
                 let covered: usize = blocks.iter().map(|b| b.indices.len()).sum();
                 dim - covered + blocks.iter().map(|b| b.matrix.nonzeros()).sum::<usize>()
             }
-            Operator::SparseRows { rows, .. } => rows.iter().map(Vec::len).sum(),
+            Operator::SparseRows { rows, .. } => {
+                rows.iter().flatten().filter(|(_, x)| !x.is_zero()).count()
+            }
         }
     }
 }
