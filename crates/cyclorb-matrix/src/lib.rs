@@ -35,6 +35,9 @@
 //! assert_eq!(d.pow(&q4, 2).unwrap().is_scalar(&q4), Some(q4.int(-1)));
 //! ```
 //!
+//! Matrices serialise (serde) as their conductor and rows of entries in the text syntax of
+//! `cyclorb-field`.
+//!
 //! ## Performance
 //! Entries are canonical field elements; sums of products go through
 //! [`cyclorb_field::DotAccumulator`] (one reduction per output entry). Elimination costs one
@@ -59,6 +62,7 @@ mod operator;
 mod operator_algebra;
 mod order;
 mod power;
+mod serial;
 
 pub use dense::Matrix;
 pub use error::MatrixError;

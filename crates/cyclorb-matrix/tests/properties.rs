@@ -253,3 +253,26 @@ fn scalar_tests_and_commutation() {
         }
     }
 }
+
+#[test]
+fn serde_round_trip() {
+    let mut rng = XorShift::new(8);
+    for f in fields() {
+        let a = random_matrix(&f, &mut rng, 3, 2);
+        let json = serde_json::to_string(&a).unwrap();
+        assert!(
+            json.contains(&format!("\"conductor\":{}", f.conductor())),
+            "{json}"
+        );
+        let back: Matrix = serde_json::from_str(&json).unwrap();
+        assert_eq!(back, a);
+    }
+    let ragged = r#"{"conductor": 4, "rows": [["1", "z"], ["2"]]}"#;
+    assert!(serde_json::from_str::<Matrix>(ragged).is_err());
+    let bad_entry = r#"{"conductor": 4, "rows": [["1 +"]]}"#;
+    assert!(serde_json::from_str::<Matrix>(bad_entry).is_err());
+    let f = CyclotomicField::new(16).unwrap();
+    let read: Matrix =
+        serde_json::from_str(r#"{"conductor": 16, "rows": [["z^8", "sqrt(2)"]]}"#).unwrap();
+    assert_eq!(read.get(0, 0), &f.int(-1)); // ζ16^8 = −1
+}
