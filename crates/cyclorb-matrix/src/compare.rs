@@ -46,15 +46,15 @@ impl Matrix {
             return Ok(None);
         }
         let pairs = || self.entries().iter().zip(other.entries());
-        // cheap rejection first: a non-zero multiple has the same zero pattern
         let Some((a, b)) = pairs().find(|(_, b)| !b.is_zero()) else {
             let all_zero = self.entries().iter().all(Cyc::is_zero);
             return Ok(all_zero.then(|| field.zero()));
         };
-        let c = field.div(a, b)?;
-        if !c.is_zero() && pairs().any(|(x, y)| x.is_zero() != y.is_zero()) {
+        // cheap rejection before any division: a non-zero multiple keeps the zero pattern
+        if !a.is_zero() && pairs().any(|(x, y)| x.is_zero() != y.is_zero()) {
             return Ok(None);
         }
+        let c = field.div(a, b)?;
         for (x, y) in pairs() {
             if *x != field.mul(&c, y)? {
                 return Ok(None);
