@@ -1,1 +1,102 @@
-//! Placeholder crate root; the orbit issue fills it.
+//! # cyclorb-orbit: exact orbits of lines and their Poincaré sums
+//!
+//! Given invertible matrices X_1, …, X_m over Q(ζ_n) (a [`GeneratorSet`], for a theory the
+//! Dehn twists of a genus-g block space) and a seed vector v₀ (a [`Seed`], the vacuum block),
+//! this crate enumerates the orbit of the line [v₀] (v₀ up to a unit scalar) under the group
+//! the X_i generate, proves it closed, and sums it: B = Σ over the orbit of v v†.
+//!
+//! - [`OrbitProblem`] validates the input and precomputes integer forms of the generators.
+//! - [`OrbitProblem::enumerate`] saturates the orbit breadth-first into an [`Orbit`]: lines in
+//!   order of discovery, layer sizes, a Schreier record (parent, generator) per line
+//!   ([`Orbit::word`]). [`OrbitOptions`] sets a line limit, a memory ceiling, threads, a stop
+//!   flag ([`install_stop_handler`] hooks SIGINT/SIGTERM) and periodic checkpoints;
+//!   [`OrbitProblem::resume`] continues from a checkpoint to the identical answer.
+//! - [`OrbitProblem::poincare_sum`] computes B exactly, checks tr(B·G) = |orbit|·⟨v₀, v₀⟩_G,
+//!   tests B = λ·G⁻¹, and otherwise writes B over the invariant matrices.
+//! - [`OrbitReport`] is the JSON result of the command-line contract.
+//!
+//! ```
+//! use cyclorb_field::CyclotomicField;
+//! use cyclorb_matrix::{Matrix, Operator};
+//! use cyclorb_orbit::{GeneratorSet, OrbitOptions, OrbitProblem, Seed, Silent};
+//!
+//! // The single-qubit Clifford group over Q(ζ_8): H and the phase gate S = diag(1, i).
+//! let q8 = CyclotomicField::new(8).unwrap();
+//! let e = |t: &str| q8.parse(t).unwrap();
+//! let h = Matrix::from_rows(vec![
+//!     vec![e("1/sqrt(2)"), e("1/sqrt(2)")],
+//!     vec![e("1/sqrt(2)"), e("-1/sqrt(2)")],
+//! ])
+//! .unwrap();
+//! let generators = GeneratorSet {
+//!     conductor: 8,
+//!     dimension: 2,
+//!     names: vec!["H".into(), "S".into()],
+//!     operators: vec![Operator::Dense(h), Operator::Diagonal(vec![e("1"), e("i")])],
+//!     basis_labels: vec!["0".into(), "1".into()],
+//!     form: None,
+//!     theory: None,
+//!     genus: None,
+//! };
+//! let problem = OrbitProblem::new(generators, &Seed::basis_vector(&q8, 2, 0)).unwrap();
+//! let orbit = problem.enumerate(&OrbitOptions::default(), &mut Silent).unwrap();
+//! // the six stabilizer states of one qubit (common practice)
+//! assert_eq!(orbit.len(), 6);
+//! assert!(orbit.is_saturated());
+//! let sum = problem.poincare_sum(&orbit, 1).unwrap();
+//! assert_eq!(sum.scalar, Some(q8.int(3)));
+//! ```
+//!
+//! ## Keys and equality
+//! A line is keyed by w = v / v_k, k its first non-zero coordinate, stored as integer
+//! numerators over one shared denominator (math.md §5). A fingerprint modulo two primes
+//! p ≡ 1 (mod n) picks the hash bucket; equality is always exact (see the `image` and
+//! `fingerprint` modules). No floating-point number takes part in any decision.
+//!
+//! ## Performance
+//! Generators are compiled once to sparse integer matrices acting on numerator vectors, so
+//! the search runs in machine integers with explicit overflow bounds, falling back to exact
+//! `Cyc` arithmetic (big integers) whenever a bound fails. A field inversion is needed only
+//! for new lines. Keys are packed at 1, 2, 4 or 8 bytes per numerator in one flat arena.
+//! The frontier is split over threads; insertion is sequential in a fixed order, so results
+//! do not depend on the thread count.
+//!
+//! ## Untrusted input
+//! Generator-set and seed files are read with errors naming the file, the JSON path and the
+//! reason ([`FormatError`]); checkpoints are checked (magic, version, problem hash, sizes,
+//! checksum) before use. Nothing here panics on bad input.
+
+#![deny(missing_docs)]
+
+mod checkpoint;
+mod commutant;
+mod compiled;
+mod engine;
+mod error;
+mod fingerprint;
+mod format;
+mod generators;
+mod hash;
+mod image;
+mod key;
+mod memory;
+mod poincare;
+mod poly;
+mod problem;
+mod report;
+mod signal;
+mod sparse;
+mod store;
+
+pub use commutant::{Decomposition, InvariantTerm};
+pub use engine::{
+    CheckpointPlan, Orbit, OrbitOptions, Progress, ProgressObserver, Silent, StopReason,
+};
+pub use error::{FormatError, OrbitError};
+pub use format::{FORMAT_VERSION, GENERATORS_FORMAT, SEED_FORMAT};
+pub use generators::{GeneratorSet, Seed};
+pub use memory::peak_memory_bytes;
+pub use poincare::PoincareSum;
+pub use problem::OrbitProblem;
+pub use report::{InvariantReport, OrbitReport, PoincareReport};
+pub use signal::install_stop_handler;

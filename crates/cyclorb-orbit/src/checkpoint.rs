@@ -1,0 +1,312 @@
+//! Binary checkpoints: the whole state of a partial orbit, to resume to the identical answer.
+//!
+//! Layout (all integers little-endian):
+//!
+//! | field | bytes |
+//! | --- | --- |
+//! | magic `CYCORBCK` | 8 |
+//! | format version (1) | u32 |
+//! | conductor n, dimension d, degree φ(n), number of generators | 4 × u32 |
+//! | content hash of generators and seed ([`OrbitProblem::content_hash`]) | u128 |
+//! | elements N, processed, number of layer ends L | 3 × u64 |
+//! | layer ends | L × u64 |
+//! | compute seconds so far | f64 bits as u64 |
+//! | numerator width w (1, 2, 4, 8) | u8 |
+//! | packed keys | N · d · φ · w |
+//! | parents (u32::MAX for the seed) | N × u32 |
+//! | generators (u16::MAX for the seed) | N × u16 |
+//! | number of big keys B, then per key: index (u32) and d·φ numerators, each as a byte length (u32) and signed little-endian bytes | … |
+//! | FNV-1a 128 of every byte above | u128 |
+//!
+//! Fingerprints and the hash table are rebuilt when the file is read. A file is refused when
+//! its header does not match the problem (another field, dimension or generator set), when
+//! the checksum fails, or when a record is out of range.
+
+use std::fs::File;
+use std::io::{BufReader, BufWriter, Read, Write};
+use std::path::Path;
+
+use num_bigint::BigInt;
+
+use crate::engine::Orbit;
+use crate::error::OrbitError;
+use crate::hash::Fnv128;
+use crate::problem::OrbitProblem;
+use crate::store::{KeyArena, OrbitSet, Width};
+
+const MAGIC: &[u8; 8] = b"CYCORBCK";
+const VERSION: u32 = 1;
+
+/// A writer that hashes what it writes.
+struct HashingWriter<W: Write> {
+    inner: W,
+    hash: Fnv128,
+}
+
+impl<W: Write> HashingWriter<W> {
+    fn put(&mut self, bytes: &[u8]) -> std::io::Result<()> {
+        self.hash.write(bytes);
+        self.inner.write_all(bytes)
+    }
+}
+
+/// A reader that hashes what it reads and never asks for more than the file holds.
+struct HashingReader<R: Read> {
+    inner: R,
+    hash: Fnv128,
+    remaining: u64,
+}
+
+impl<R: Read> HashingReader<R> {
+    fn take(&mut self, len: usize) -> Result<Vec<u8>, String> {
+        if len as u64 > self.remaining {
+            return Err("truncated file".into());
+        }
+        self.remaining -= len as u64;
+        let mut buf = vec![0u8; len];
+        self.inner
+            .read_exact(&mut buf)
+            .map_err(|_| "truncated file".to_string())?;
+        self.hash.write(&buf);
+        Ok(buf)
+    }
+
+    fn u8(&mut self) -> Result<u8, String> {
+        Ok(self.take(1)?[0])
+    }
+
+    fn u16(&mut self) -> Result<u16, String> {
+        let b = self.take(2)?;
+        Ok(u16::from_le_bytes([b[0], b[1]]))
+    }
+
+    fn u32(&mut self) -> Result<u32, String> {
+        let b = self.take(4)?;
+        Ok(u32::from_le_bytes(b.try_into().expect("4 bytes")))
+    }
+
+    fn u64(&mut self) -> Result<u64, String> {
+        let b = self.take(8)?;
+        Ok(u64::from_le_bytes(b.try_into().expect("8 bytes")))
+    }
+
+    fn u128(&mut self) -> Result<u128, String> {
+        let b = self.take(16)?;
+        Ok(u128::from_le_bytes(b.try_into().expect("16 bytes")))
+    }
+
+    /// A count that must fit in memory sensibly (at most `max`).
+    fn count(&mut self, max: u64, what: &str) -> Result<usize, String> {
+        let c = self.u64()?;
+        if c > max {
+            return Err(format!("{what} {c} is out of range"));
+        }
+        Ok(c as usize)
+    }
+}
+
+fn io_error(path: &Path, e: impl std::fmt::Display) -> OrbitError {
+    OrbitError::Checkpoint {
+        path: path.display().to_string(),
+        reason: e.to_string(),
+    }
+}
+
+impl OrbitProblem {
+    /// Write the state of `orbit` to `path` (through `path.tmp` and a rename, so a crash
+    /// while writing leaves the previous checkpoint intact).
+    pub fn write_checkpoint(&self, orbit: &Orbit, path: &Path) -> Result<(), OrbitError> {
+        let mut tmp = path.as_os_str().to_owned();
+        tmp.push(".tmp");
+        let tmp = std::path::PathBuf::from(tmp);
+        let file = File::create(&tmp).map_err(|e| io_error(&tmp, e))?;
+        let mut w = HashingWriter {
+            inner: BufWriter::new(file),
+            hash: Fnv128::new(),
+        };
+        self.write_state(orbit, &mut w)
+            .map_err(|e| io_error(&tmp, e))?;
+        let checksum = w.hash.finish().to_le_bytes();
+        w.inner
+            .write_all(&checksum)
+            .and_then(|_| w.inner.flush())
+            .map_err(|e| io_error(&tmp, e))?;
+        drop(w);
+        std::fs::rename(&tmp, path).map_err(|e| io_error(path, e))
+    }
+
+    fn write_state<W: Write>(
+        &self,
+        orbit: &Orbit,
+        w: &mut HashingWriter<W>,
+    ) -> std::io::Result<()> {
+        let set = &orbit.set;
+        w.put(MAGIC)?;
+        w.put(&VERSION.to_le_bytes())?;
+        for x in [
+            self.generators.conductor,
+            self.generators.dimension as u32,
+            self.kernel.degree() as u32,
+            self.generators.operators.len() as u32,
+        ] {
+            w.put(&x.to_le_bytes())?;
+        }
+        w.put(&self.content_hash().to_le_bytes())?;
+        for x in [set.len(), orbit.processed, orbit.layer_ends.len()] {
+            w.put(&(x as u64).to_le_bytes())?;
+        }
+        for &e in &orbit.layer_ends {
+            w.put(&(e as u64).to_le_bytes())?;
+        }
+        w.put(&orbit.compute_seconds.to_bits().to_le_bytes())?;
+        w.put(&[set.keys.width() as u8])?;
+        w.put(set.keys.raw_bytes())?;
+        for &p in &set.parents {
+            w.put(&p.to_le_bytes())?;
+        }
+        for &g in &set.generators {
+            w.put(&g.to_le_bytes())?;
+        }
+        let big: Vec<(u32, &[BigInt])> = set.keys.big_keys().collect();
+        w.put(&(big.len() as u64).to_le_bytes())?;
+        for (index, numbers) in big {
+            w.put(&index.to_le_bytes())?;
+            for x in numbers {
+                let bytes = x.to_signed_bytes_le();
+                w.put(&(bytes.len() as u32).to_le_bytes())?;
+                w.put(&bytes)?;
+            }
+        }
+        Ok(())
+    }
+
+    /// Read a checkpoint written for this problem; the orbit can then be continued with
+    /// [`OrbitProblem::extend`].
+    pub fn read_checkpoint(&self, path: &Path) -> Result<Orbit, OrbitError> {
+        let file = File::open(path).map_err(|e| io_error(path, e))?;
+        let size = file.metadata().map_err(|e| io_error(path, e))?.len();
+        let mut r = HashingReader {
+            inner: BufReader::new(file),
+            hash: Fnv128::new(),
+            remaining: size.saturating_sub(16),
+        };
+        let orbit = self.read_state(&mut r).map_err(|e| io_error(path, e))?;
+        let expected = r.hash.finish();
+        let mut trailer = [0u8; 16];
+        r.inner
+            .read_exact(&mut trailer)
+            .map_err(|_| io_error(path, "truncated file"))?;
+        if u128::from_le_bytes(trailer) != expected {
+            return Err(io_error(path, "corrupt file (checksum mismatch)"));
+        }
+        let mut extra = [0u8; 1];
+        if r.inner.read(&mut extra).map_err(|e| io_error(path, e))? != 0 {
+            return Err(io_error(path, "unexpected bytes after the checksum"));
+        }
+        Ok(orbit)
+    }
+
+    fn read_state<R: Read>(&self, r: &mut HashingReader<R>) -> Result<Orbit, String> {
+        if r.take(8)? != MAGIC {
+            return Err("not a cyclorb orbit checkpoint".into());
+        }
+        let version = r.u32()?;
+        if version != VERSION {
+            return Err(format!(
+                "checkpoint version {version}; this program reads {VERSION}"
+            ));
+        }
+        let header = [r.u32()?, r.u32()?, r.u32()?, r.u32()?];
+        let ours = [
+            self.generators.conductor,
+            self.generators.dimension as u32,
+            self.kernel.degree() as u32,
+            self.generators.operators.len() as u32,
+        ];
+        let names = ["conductor", "dimension", "degree", "number of generators"];
+        for ((theirs, mine), name) in header.iter().zip(ours).zip(names) {
+            if *theirs != mine {
+                return Err(format!(
+                    "made for another problem: {name} {theirs}, this problem has {mine}"
+                ));
+            }
+        }
+        if r.u128()? != self.content_hash() {
+            return Err("made for other generators or another seed (content hash differs)".into());
+        }
+        let count = r.count(u32::MAX as u64, "element count")?;
+        if count == 0 {
+            return Err("no elements".into());
+        }
+        let processed = r.count(count as u64, "processed count")?;
+        let layers = r.count(count as u64 + 1, "layer count")?;
+        let mut layer_ends = Vec::new();
+        for _ in 0..layers {
+            let e = r.count(count as u64, "layer end")?;
+            if layer_ends.last().is_some_and(|&last| e <= last) || e == 0 {
+                return Err("layer ends are not increasing".into());
+            }
+            layer_ends.push(e);
+        }
+        if layer_ends.is_empty() || processed > *layer_ends.last().unwrap_or(&0) {
+            return Err("inconsistent layers".into());
+        }
+        let compute_seconds = f64::from_bits(r.u64()?);
+        let width = Width::from_bytes(r.u8()?).ok_or("bad numerator width")?;
+        let len = self.key_len();
+        let bytes = r.take(count * len * width as usize)?;
+        let mut parents = Vec::new();
+        for i in 0..count {
+            let p = r.u32()?;
+            if (i == 0) != (p == u32::MAX) || (i > 0 && p as usize >= i) {
+                return Err(format!("element {i}: bad parent {p}"));
+            }
+            parents.push(p);
+        }
+        let gens = self.generators.operators.len();
+        let mut generators = Vec::new();
+        for i in 0..count {
+            let g = r.u16()?;
+            if (i == 0) != (g == u16::MAX) || (i > 0 && g as usize >= gens) {
+                return Err(format!("element {i}: bad generator {g}"));
+            }
+            generators.push(g);
+        }
+        let big_count = r.count(count as u64, "big key count")?;
+        let mut big = Vec::new();
+        for _ in 0..big_count {
+            let index = r.u32()?;
+            let mut numbers = Vec::new();
+            for _ in 0..len {
+                let n = r.u32()? as usize;
+                if n > 1 << 24 {
+                    return Err("a big numerator is implausibly long".into());
+                }
+                numbers.push(BigInt::from_signed_bytes_le(&r.take(n)?));
+            }
+            big.push((index, numbers.into_boxed_slice()));
+        }
+        let keys = KeyArena::from_parts(len, width, bytes, big).ok_or("inconsistent key sizes")?;
+        let fingerprints = (0..count)
+            .map(|i| self.key_fingerprint(&keys.key(i)))
+            .collect();
+        Ok(Orbit {
+            set: OrbitSet::from_parts(keys, parents, generators, fingerprints),
+            processed,
+            layer_ends,
+            stop: None,
+            compute_seconds,
+        })
+    }
+
+    /// Read a checkpoint and continue the enumeration it holds.
+    pub fn resume(
+        &self,
+        path: &Path,
+        options: &crate::engine::OrbitOptions,
+        observer: &mut dyn crate::engine::ProgressObserver,
+    ) -> Result<Orbit, OrbitError> {
+        let orbit = self.read_checkpoint(path)?;
+        self.extend(orbit, options, observer)
+    }
+}

@@ -1,0 +1,449 @@
+//! Breadth-first saturation of an orbit of lines, with limits, stops, checkpoints, threads.
+//!
+//! Elements are numbered in the order found; the seed's line is element 0. Layer L+1 is the
+//! set of lines first reached from layer L. The frontier is processed in chunks: the images
+//! of a chunk's elements under every generator are computed and looked up in parallel (the
+//! store is read-only then), and the new lines are inserted afterwards on one thread, in the
+//! order (element, generator). So the element order, the layer sizes and the Schreier
+//! records do not depend on the number of threads or on the chunk size, and a run stopped
+//! between chunks and resumed finds exactly what an uninterrupted run finds.
+//!
+//! The orbit is saturated when every stored element has been processed: then every generator
+//! maps every stored line to a stored line. Forward images suffice (math.md §5): a finite
+//! set closed under an invertible map is permuted by it, hence closed under its inverse.
+
+use std::ops::Range;
+use std::path::PathBuf;
+use std::sync::atomic::{AtomicBool, Ordering};
+use std::sync::Arc;
+use std::time::{Duration, Instant};
+
+use cyclorb_field::Cyc;
+use serde::{Deserialize, Serialize};
+
+use crate::error::OrbitError;
+use crate::image::{same_key, Outcome, Workspace};
+use crate::key::KeyNumbers;
+use crate::problem::OrbitProblem;
+use crate::store::OrbitSet;
+
+/// Where and how often to write checkpoints.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct CheckpointPlan {
+    /// The checkpoint file (written to `path` + `.tmp`, then renamed).
+    pub path: PathBuf,
+    /// Time between periodic checkpoints; one is also written when a run stops early.
+    pub every: Duration,
+}
+
+/// How to run an enumeration.
+#[derive(Debug, Clone)]
+pub struct OrbitOptions {
+    /// Stop (unsaturated) rather than store more than this many lines.
+    pub limit: Option<usize>,
+    /// Stop (unsaturated) once the store holds more than this many bytes.
+    pub memory_ceiling: Option<usize>,
+    /// Worker threads (1 or more); the result does not depend on it.
+    pub threads: usize,
+    /// Frontier elements per chunk (between chunks the run can stop or checkpoint).
+    pub chunk_size: usize,
+    /// Periodic checkpoints.
+    pub checkpoint: Option<CheckpointPlan>,
+    /// Set (e.g. by [`crate::install_stop_handler`]) to stop after the current chunk.
+    pub stop: Option<Arc<AtomicBool>>,
+}
+
+impl Default for OrbitOptions {
+    fn default() -> Self {
+        OrbitOptions {
+            limit: None,
+            memory_ceiling: None,
+            threads: 1,
+            chunk_size: 2048,
+            checkpoint: None,
+            stop: None,
+        }
+    }
+}
+
+/// Why a run ended before saturation.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum StopReason {
+    /// The line limit was reached.
+    Limit,
+    /// The memory ceiling was reached.
+    Memory,
+    /// The stop flag was set (Ctrl-C, SIGTERM, or the caller).
+    Interrupted,
+}
+
+/// A snapshot for progress displays, sent after every chunk.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Progress {
+    /// The breadth-first depth being processed (the seed is depth 0).
+    pub layer: usize,
+    /// Lines found so far.
+    pub lines: usize,
+    /// Elements processed so far (all of their images are stored).
+    pub processed: usize,
+    /// End of the layer being processed: `processed` reaches it when the layer is done.
+    pub layer_end: usize,
+    /// Lines found per second in this run.
+    pub lines_per_second: f64,
+    /// Bytes held by the store.
+    pub store_bytes: usize,
+    /// Time since this run started.
+    pub elapsed: Duration,
+}
+
+/// Receives [`Progress`] snapshots; the library itself prints nothing.
+pub trait ProgressObserver {
+    /// Called after every chunk.
+    fn progress(&mut self, progress: &Progress);
+}
+
+impl<F: FnMut(&Progress)> ProgressObserver for F {
+    fn progress(&mut self, progress: &Progress) {
+        self(progress)
+    }
+}
+
+/// An observer that ignores everything.
+#[derive(Debug, Clone, Copy, Default)]
+pub struct Silent;
+
+impl ProgressObserver for Silent {
+    fn progress(&mut self, _: &Progress) {}
+}
+
+/// The lines found, in order, with their Schreier records and layers.
+#[derive(Debug, Clone)]
+pub struct Orbit {
+    pub(crate) set: OrbitSet,
+    pub(crate) processed: usize,
+    /// End index of every layer whose extent is known (layer 0 = the seed).
+    pub(crate) layer_ends: Vec<usize>,
+    pub(crate) stop: Option<StopReason>,
+    pub(crate) compute_seconds: f64,
+}
+
+impl Orbit {
+    /// Number of distinct lines found.
+    pub fn len(&self) -> usize {
+        self.set.len()
+    }
+
+    /// Never true: the seed's line is always there.
+    pub fn is_empty(&self) -> bool {
+        self.set.len() == 0
+    }
+
+    /// True when every generator maps every stored line to a stored line: the orbit is
+    /// complete.
+    pub fn is_saturated(&self) -> bool {
+        self.processed == self.set.len()
+    }
+
+    /// Why the run stopped early (`None` when saturated).
+    pub fn stop_reason(&self) -> Option<StopReason> {
+        if self.is_saturated() {
+            None
+        } else {
+            self.stop
+        }
+    }
+
+    /// Number of elements whose images have all been stored.
+    pub fn processed(&self) -> usize {
+        self.processed
+    }
+
+    /// New lines found at each breadth-first depth (the last entry may be a layer still
+    /// being generated when the run stopped early).
+    pub fn layer_sizes(&self) -> Vec<usize> {
+        let mut sizes = Vec::with_capacity(self.layer_ends.len() + 1);
+        let mut start = 0;
+        for &end in &self.layer_ends {
+            sizes.push(end - start);
+            start = end;
+        }
+        if self.set.len() > start {
+            sizes.push(self.set.len() - start);
+        }
+        sizes
+    }
+
+    /// The generators (indices) whose product maps the seed's line to element `index`, in
+    /// the order they are applied: the line is X_{w[m−1]} ⋯ X_{w[0]} · seed. Empty for the seed
+    /// itself and for an index out of range.
+    pub fn word(&self, index: usize) -> Vec<usize> {
+        let mut word = Vec::new();
+        let mut at = index;
+        while at < self.set.len() && at != 0 {
+            word.push(self.set.generators[at] as usize);
+            at = self.set.parents[at] as usize;
+        }
+        word.reverse();
+        word
+    }
+
+    /// The Schreier record of element `index`: (parent, generator), `None` for the seed.
+    pub fn schreier(&self, index: usize) -> Option<(usize, usize)> {
+        match (self.set.parents.get(index), self.set.generators.get(index)) {
+            (Some(&p), Some(&g)) if index != 0 => Some((p as usize, g as usize)),
+            _ => None,
+        }
+    }
+
+    /// Bytes held by the store (keys, records, fingerprints, hash table).
+    pub fn store_bytes(&self) -> usize {
+        self.set.bytes_used()
+    }
+
+    /// Store bytes per line.
+    pub fn bytes_per_element(&self) -> f64 {
+        self.store_bytes() as f64 / self.len().max(1) as f64
+    }
+
+    /// Bytes per stored key numerator (1, 2, 4 or 8; big keys are kept apart).
+    pub fn numerator_width(&self) -> usize {
+        self.set.keys.width() as usize
+    }
+
+    /// Seconds spent enumerating, over every run that led here (resumed runs included).
+    pub fn compute_seconds(&self) -> f64 {
+        self.compute_seconds
+    }
+}
+
+/// A new line found while processing a chunk.
+struct Candidate {
+    parent: u32,
+    generator: u16,
+    key: KeyNumbers,
+    fingerprint: u64,
+}
+
+fn split(range: Range<usize>, parts: usize) -> Vec<Range<usize>> {
+    let len = range.len();
+    let parts = parts.clamp(1, len.max(1));
+    (0..parts)
+        .map(|p| range.start + len * p / parts..range.start + len * (p + 1) / parts)
+        .collect()
+}
+
+impl OrbitProblem {
+    /// The orbit with only the seed's line, nothing processed.
+    pub fn start(&self) -> Orbit {
+        let mut set = OrbitSet::new(self.key_len());
+        let fp = self.key_fingerprint(&self.seed_key);
+        set.insert(&self.seed_key, fp, u32::MAX, u16::MAX);
+        Orbit {
+            set,
+            processed: 0,
+            layer_ends: vec![1],
+            stop: None,
+            compute_seconds: 0.0,
+        }
+    }
+
+    /// Enumerate the orbit of the seed's line from the start.
+    pub fn enumerate(
+        &self,
+        options: &OrbitOptions,
+        observer: &mut dyn ProgressObserver,
+    ) -> Result<Orbit, OrbitError> {
+        self.extend(self.start(), options, observer)
+    }
+
+    /// Continue a partial orbit (from a run that stopped, or from [`Self::resume`]) until it
+    /// saturates or stops again.
+    pub fn extend(
+        &self,
+        mut orbit: Orbit,
+        options: &OrbitOptions,
+        observer: &mut dyn ProgressObserver,
+    ) -> Result<Orbit, OrbitError> {
+        let started = Instant::now();
+        let base_seconds = orbit.compute_seconds;
+        let found_before = orbit.len();
+        let mut last_checkpoint = Instant::now();
+        orbit.stop = None;
+        let threads = options.threads.max(1);
+        let mut workspaces: Vec<Workspace> = (0..threads).map(|_| Workspace::new(self)).collect();
+        let chunk_size = options.chunk_size.max(1);
+        loop {
+            let end = *orbit.layer_ends.last().unwrap_or(&0);
+            if orbit.processed == end {
+                if orbit.set.len() == end {
+                    break;
+                }
+                orbit.layer_ends.push(orbit.set.len());
+                continue;
+            }
+            if let Some(reason) = self.should_stop(&orbit, options) {
+                orbit.stop = Some(reason);
+                break;
+            }
+            let chunk = orbit.processed..end.min(orbit.processed + chunk_size);
+            let candidates = self.expand_chunk(&orbit.set, chunk.clone(), &mut workspaces)?;
+            if !self.insert_candidates(&mut orbit.set, candidates, options.limit) {
+                orbit.stop = Some(StopReason::Limit);
+                break;
+            }
+            orbit.processed = chunk.end;
+            let elapsed = started.elapsed();
+            orbit.compute_seconds = base_seconds + elapsed.as_secs_f64();
+            observer.progress(&Progress {
+                layer: orbit.layer_ends.len() - 1,
+                lines: orbit.len(),
+                processed: orbit.processed,
+                layer_end: end,
+                lines_per_second: (orbit.len() - found_before) as f64
+                    / elapsed.as_secs_f64().max(1e-9),
+                store_bytes: orbit.store_bytes(),
+                elapsed,
+            });
+            if let Some(plan) = &options.checkpoint {
+                if last_checkpoint.elapsed() >= plan.every {
+                    self.write_checkpoint(&orbit, &plan.path)?;
+                    last_checkpoint = Instant::now();
+                }
+            }
+        }
+        orbit.compute_seconds = base_seconds + started.elapsed().as_secs_f64();
+        if orbit.stop.is_some() {
+            if let Some(plan) = &options.checkpoint {
+                self.write_checkpoint(&orbit, &plan.path)?;
+            }
+        }
+        Ok(orbit)
+    }
+
+    fn should_stop(&self, orbit: &Orbit, options: &OrbitOptions) -> Option<StopReason> {
+        if options
+            .stop
+            .as_ref()
+            .is_some_and(|f| f.load(Ordering::SeqCst))
+        {
+            return Some(StopReason::Interrupted);
+        }
+        if options
+            .memory_ceiling
+            .is_some_and(|ceiling| orbit.store_bytes() > ceiling)
+        {
+            return Some(StopReason::Memory);
+        }
+        None
+    }
+
+    /// Images of the chunk's elements that are not stored yet, in (element, generator)
+    /// order, computed on as many threads as there are workspaces.
+    fn expand_chunk(
+        &self,
+        set: &OrbitSet,
+        chunk: Range<usize>,
+        workspaces: &mut [Workspace],
+    ) -> Result<Vec<Candidate>, OrbitError> {
+        let parts = split(chunk, workspaces.len());
+        if parts.len() == 1 {
+            return self.expand_range(set, parts[0].clone(), &mut workspaces[0]);
+        }
+        std::thread::scope(|scope| {
+            let (first, rest) = workspaces.split_at_mut(1);
+            let handles: Vec<_> = parts[1..]
+                .iter()
+                .zip(rest.iter_mut())
+                .map(|(range, ws)| {
+                    let range = range.clone();
+                    scope.spawn(move || self.expand_range(set, range, ws))
+                })
+                .collect();
+            let mut all = self.expand_range(set, parts[0].clone(), &mut first[0]);
+            for handle in handles {
+                let part = handle.join().unwrap_or_else(|_| {
+                    Err(OrbitError::Invalid("a worker thread panicked".into()))
+                });
+                all = match (all, part) {
+                    (Ok(mut a), Ok(b)) => {
+                        a.extend(b);
+                        Ok(a)
+                    }
+                    (Err(e), _) | (_, Err(e)) => Err(e),
+                };
+            }
+            all
+        })
+    }
+
+    fn expand_range(
+        &self,
+        set: &OrbitSet,
+        range: Range<usize>,
+        ws: &mut Workspace,
+    ) -> Result<Vec<Candidate>, OrbitError> {
+        let mut out = Vec::new();
+        for element in range {
+            ws.load(set, element);
+            for generator in 0..self.generators.operators.len() {
+                if let Outcome::New { key, fingerprint } = self.classify(set, ws, generator)? {
+                    out.push(Candidate {
+                        parent: element as u32,
+                        generator: generator as u16,
+                        key,
+                        fingerprint,
+                    });
+                }
+            }
+        }
+        Ok(out)
+    }
+
+    /// Insert the candidates that are still new, in order; `false` when the limit stopped it.
+    fn insert_candidates(
+        &self,
+        set: &mut OrbitSet,
+        candidates: Vec<Candidate>,
+        limit: Option<usize>,
+    ) -> bool {
+        let mut buf = vec![0i64; self.key_len()];
+        for c in candidates {
+            let present = set
+                .find(c.fingerprint, |i| same_key(set, &mut buf, i, &c.key))
+                .is_some();
+            if present {
+                continue;
+            }
+            if limit.is_some_and(|l| set.len() >= l) {
+                return false;
+            }
+            set.insert(&c.key, c.fingerprint, c.parent, c.generator);
+        }
+        true
+    }
+
+    /// The key of element `index` as a vector of field elements (first non-zero entry 1).
+    pub fn line(&self, orbit: &Orbit, index: usize) -> Result<Vec<Cyc>, OrbitError> {
+        if index >= orbit.len() {
+            return Err(OrbitError::Invalid(format!(
+                "element {index} of an orbit with {} lines",
+                orbit.len()
+            )));
+        }
+        Ok(orbit
+            .set
+            .keys
+            .key(index)
+            .to_line(&self.field, self.kernel.degree())?)
+    }
+
+    /// The word of element `index` as generator names, in the order they are applied.
+    pub fn word_names(&self, orbit: &Orbit, index: usize) -> Vec<String> {
+        orbit
+            .word(index)
+            .into_iter()
+            .map(|g| self.generators.names[g].clone())
+            .collect()
+    }
+}

@@ -1,0 +1,89 @@
+//! Errors of the orbit crate: values, never panics.
+
+use std::fmt;
+
+use cyclorb_field::FieldError;
+use cyclorb_matrix::MatrixError;
+
+/// A generator-set or seed file that cannot be read: which file, where in it, and why.
+///
+/// `place` is a JSON path such as `generators[3].rows[7]`, or `line 4 column 17` for a
+/// JSON syntax error, or empty when the problem concerns the whole file.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct FormatError {
+    /// The file (its path as given, or a description such as `<memory>`).
+    pub file: String,
+    /// Where in the file.
+    pub place: String,
+    /// What is wrong there.
+    pub reason: String,
+}
+
+impl fmt::Display for FormatError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        if self.place.is_empty() {
+            write!(f, "{}: {}", self.file, self.reason)
+        } else {
+            write!(f, "{}: at {}: {}", self.file, self.place, self.reason)
+        }
+    }
+}
+
+impl std::error::Error for FormatError {}
+
+/// What can go wrong when setting up or running an orbit computation.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub enum OrbitError {
+    /// A generator-set or seed file is malformed.
+    Format(FormatError),
+    /// The problem does not make sense (shapes, fields, a zero seed, a singular generator).
+    Invalid(String),
+    /// Exact arithmetic failed (a field or matrix error).
+    Arithmetic(String),
+    /// A checkpoint cannot be written, read or used for this problem.
+    Checkpoint {
+        /// The checkpoint file.
+        path: String,
+        /// Why.
+        reason: String,
+    },
+    /// A file could not be read or written.
+    Io {
+        /// The file.
+        path: String,
+        /// The operating system's message.
+        reason: String,
+    },
+}
+
+impl fmt::Display for OrbitError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            OrbitError::Format(e) => write!(f, "{e}"),
+            OrbitError::Invalid(s) => write!(f, "invalid orbit problem: {s}"),
+            OrbitError::Arithmetic(s) => write!(f, "arithmetic error: {s}"),
+            OrbitError::Checkpoint { path, reason } => write!(f, "checkpoint {path}: {reason}"),
+            OrbitError::Io { path, reason } => write!(f, "{path}: {reason}"),
+        }
+    }
+}
+
+impl std::error::Error for OrbitError {}
+
+impl From<FormatError> for OrbitError {
+    fn from(e: FormatError) -> Self {
+        OrbitError::Format(e)
+    }
+}
+
+impl From<FieldError> for OrbitError {
+    fn from(e: FieldError) -> Self {
+        OrbitError::Arithmetic(e.to_string())
+    }
+}
+
+impl From<MatrixError> for OrbitError {
+    fn from(e: MatrixError) -> Self {
+        OrbitError::Arithmetic(e.to_string())
+    }
+}

@@ -1,0 +1,193 @@
+//! The canonical key of a line and its integer form.
+//!
+//! The line through v ≠ 0 is represented by w = v / v_k, k the first non-zero coordinate
+//! (math.md §5): w_k = 1 and w does not depend on which non-zero multiple of v is given.
+//! Its integer form packs all coordinates over one shared denominator: S = D·w with D > 0
+//! the least positive integer making every numerator integral, so the gcd of D and all
+//! numerators is 1 and S_k = (D, 0, …, 0) (the denominator is stored for free as the
+//! constant term of coordinate k). Two lines are equal exactly when their keys are equal.
+
+use cyclorb_field::{Cyc, CyclotomicField, FieldError};
+use num_bigint::BigInt;
+use num_integer::Integer;
+use num_traits::{One, ToPrimitive, Zero};
+
+use crate::poly::PolyKernel;
+
+/// The numerators S of a key (d blocks of φ coefficients): machine words when they fit.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub(crate) enum KeyNumbers {
+    /// Every numerator fits an `i64`.
+    Small(Vec<i64>),
+    /// Some numerator does not.
+    Big(Vec<BigInt>),
+}
+
+impl KeyNumbers {
+    /// Machine words when every number fits, big integers otherwise.
+    pub(crate) fn from_big(numbers: Vec<BigInt>) -> KeyNumbers {
+        let small: Option<Vec<i64>> = numbers.iter().map(ToPrimitive::to_i64).collect();
+        match small {
+            Some(s) => KeyNumbers::Small(s),
+            None => KeyNumbers::Big(numbers),
+        }
+    }
+
+    /// All numerators as big integers.
+    pub(crate) fn to_big(&self) -> Vec<BigInt> {
+        match self {
+            KeyNumbers::Small(s) => s.iter().map(|&x| BigInt::from(x)).collect(),
+            KeyNumbers::Big(b) => b.clone(),
+        }
+    }
+
+    /// The canonical key of the line through `v`; `None` when v = 0.
+    pub(crate) fn of_line(
+        field: &CyclotomicField,
+        v: &[Cyc],
+    ) -> Result<Option<KeyNumbers>, FieldError> {
+        let Some(k) = v.iter().position(|x| !x.is_zero()) else {
+            return Ok(None);
+        };
+        let inverse = field.inv(&v[k])?;
+        let mut w = Vec::with_capacity(v.len());
+        for (i, x) in v.iter().enumerate() {
+            w.push(match i.cmp(&k) {
+                std::cmp::Ordering::Less => field.zero(),
+                std::cmp::Ordering::Equal => field.one(),
+                std::cmp::Ordering::Greater => field.mul(x, &inverse)?,
+            });
+        }
+        Ok(Some(KeyNumbers::over_common_denominator(&w)))
+    }
+
+    /// S = D·w with D the least common denominator of the entries of w.
+    fn over_common_denominator(w: &[Cyc]) -> KeyNumbers {
+        let parts: Vec<(Vec<BigInt>, BigInt)> = w.iter().map(Cyc::to_big_parts).collect();
+        let lcd = parts.iter().fold(BigInt::one(), |acc, (_, d)| acc.lcm(d));
+        let numbers = parts
+            .into_iter()
+            .flat_map(|(num, den)| {
+                let scale = &lcd / den;
+                num.into_iter().map(move |c| c * &scale)
+            })
+            .collect();
+        KeyNumbers::from_big(numbers)
+    }
+
+    /// The line's key as field elements: w = S / D.
+    pub(crate) fn to_line(
+        &self,
+        field: &CyclotomicField,
+        phi: usize,
+    ) -> Result<Vec<Cyc>, FieldError> {
+        let big = self.to_big();
+        let k = first_nonzero_block(&big, phi).unwrap_or(0);
+        let den = big[k * phi].clone();
+        big.chunks(phi)
+            .map(|block| field.from_parts(block, &den))
+            .collect()
+    }
+}
+
+/// Index of the first block of φ numbers that is not all zero.
+pub(crate) fn first_nonzero_block<T: Zero>(numbers: &[T], phi: usize) -> Option<usize> {
+    numbers
+        .chunks(phi)
+        .position(|block| block.iter().any(|x| !x.is_zero()))
+}
+
+/// The key of the line through the integer vector `u` (first non-zero block k), computed in
+/// machine words when possible: with (u_k)⁻¹ = P/q, w_i = u_i·P/q, then divided by the gcd
+/// of q and all numerators.
+pub(crate) fn key_of_integer_vector(
+    field: &CyclotomicField,
+    kernel: &PolyKernel,
+    u: &[i64],
+    k: usize,
+) -> Result<KeyNumbers, FieldError> {
+    let phi = kernel.degree();
+    let uk: Vec<BigInt> = u[k * phi..(k + 1) * phi]
+        .iter()
+        .map(|&c| BigInt::from(c))
+        .collect();
+    let inverse = field.inv(&field.from_parts(&uk, &BigInt::one())?)?;
+    if let Some((p, q)) = inverse.small_parts() {
+        if let Some(key) = small_key(kernel, u, k, p, q) {
+            return Ok(key);
+        }
+    }
+    let line: Vec<Cyc> = u
+        .chunks(phi)
+        .map(|block| {
+            let num: Vec<BigInt> = block.iter().map(|&c| BigInt::from(c)).collect();
+            field.from_parts(&num, &BigInt::one())
+        })
+        .collect::<Result<_, _>>()?;
+    Ok(KeyNumbers::of_line(field, &line)?.expect("u_k is not zero"))
+}
+
+fn small_key(kernel: &PolyKernel, u: &[i64], k: usize, p: &[i64], q: i64) -> Option<KeyNumbers> {
+    let phi = kernel.degree();
+    let mut m = vec![0i128; phi * phi];
+    kernel.mult_matrix(p, &mut m)?;
+    let mut wide = vec![0i128; u.len()];
+    for (block, out) in u.chunks(phi).zip(wide.chunks_mut(phi)).skip(k) {
+        for (t, o) in out.iter_mut().enumerate() {
+            let mut acc = 0i128;
+            for (s, &x) in block.iter().enumerate() {
+                acc = acc.checked_add(m[t * phi + s].checked_mul(x as i128)?)?;
+            }
+            *o = acc;
+        }
+    }
+    let mut g = q.unsigned_abs() as u128;
+    for &x in &wide {
+        if g == 1 {
+            break;
+        }
+        g = g.gcd(&x.unsigned_abs());
+    }
+    let g = g as i128;
+    let small: Option<Vec<i64>> = wide.iter().map(|&x| i64::try_from(x / g).ok()).collect();
+    small.map(KeyNumbers::Small)
+}
+
+/// max |x| over a slice of numerators.
+pub(crate) fn max_abs(numbers: &[i64]) -> u64 {
+    numbers.iter().map(|x| x.unsigned_abs()).max().unwrap_or(0)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn key_is_scalar_invariant_and_matches_fast_path() {
+        let f = CyclotomicField::new(16).unwrap();
+        let kernel = PolyKernel::new(&f);
+        let v: Vec<Cyc> = ["0", "(1 + z)/3", "z^3 - 2", "5/7"]
+            .iter()
+            .map(|t| f.parse(t).unwrap())
+            .collect();
+        let key = KeyNumbers::of_line(&f, &v).unwrap().unwrap();
+        let c = f.parse("(2 - z^5)/11").unwrap();
+        let scaled: Vec<Cyc> = v.iter().map(|x| f.mul(x, &c).unwrap()).collect();
+        assert_eq!(KeyNumbers::of_line(&f, &scaled).unwrap().unwrap(), key);
+        // integer multiple of v, through the machine-word path
+        let u: Vec<i64> = [
+            "0",
+            "(1 + z)*7*(1 - z^2)",
+            "(z^3 - 2)*21*(1 - z^2)",
+            "15*(1 - z^2)",
+        ]
+        .iter()
+        .flat_map(|t| f.parse(t).unwrap().small_parts().unwrap().0.to_vec())
+        .collect();
+        let fast = key_of_integer_vector(&f, &kernel, &u, 1).unwrap();
+        assert_eq!(fast, key);
+        let back = key.to_line(&f, 8).unwrap();
+        assert_eq!(back[1], f.one());
+        assert_eq!(back[3], f.div(&v[3], &v[1]).unwrap());
+    }
+}

@@ -1,0 +1,450 @@
+//! The Poincaré sum B = Σ over the orbit of v v†, exactly.
+//!
+//! For each line take the representative v of G-norm N = ⟨v₀, v₀⟩_G (every generator
+//! preserves G, so every orbit vector has that norm; the phase of v does not matter in v v†).
+//! With the key S = D·w of the line (w_k = 1) this is
+//!
+//!   v v† = N · S S† / ⟨S, S⟩_G,   ⟨S, S⟩_G = Σ_i G_i S_i conj(S_i),
+//!
+//! so D cancels. Writing G = G'/E with G' integral, ⟨S, S⟩_G = q/E with q ∈ Z[ζ_n], and
+//! B = N·E·Σ_q (1/q)·A_q with A_q = Σ_{lines with this q} S S†. The sums A_q are kept as
+//! unreduced integer products S_i·conj(S_j) (length 2φ − 1, `i128`, with a running bound) and
+//! reduced, divided by q and added to B in `Cyc` arithmetic only when flushed; lines whose
+//! numbers are too large for the bound go through `Cyc` arithmetic directly.
+//!
+//! Checks and reading of B: tr(B·G) = |orbit|·N always; B = λ·G⁻¹ (λ·I in an orthonormal
+//! basis) is tested entry by entry, and when it fails B is decomposed over the invariant
+//! matrices ([`crate::commutant`]).
+
+use cyclorb_field::{Cyc, CyclotomicField, DotAccumulator};
+use cyclorb_matrix::Matrix;
+use hashbrown::HashMap;
+use num_bigint::BigInt;
+use num_integer::Integer;
+use num_traits::{One, ToPrimitive};
+
+use crate::commutant::{decompose, Decomposition};
+use crate::engine::Orbit;
+use crate::error::OrbitError;
+use crate::poly::PolyKernel;
+use crate::problem::OrbitProblem;
+use crate::store::StoredKey;
+
+/// The Poincaré sum of a saturated orbit and what it says.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct PoincareSum {
+    /// B = Σ v v† (Hermitian), in the generators' basis.
+    pub matrix: Matrix,
+    /// N = ⟨v₀, v₀⟩_G of the seed.
+    pub norm: Cyc,
+    /// Number of lines summed.
+    pub orbit_size: usize,
+    /// Whether tr(B·G) = orbit size × N (it must hold; false reveals an error).
+    pub trace_check: bool,
+    /// λ when B = λ·G⁻¹.
+    pub scalar: Option<Cyc>,
+    /// When B is not scalar: B over a basis of the invariant matrices (`None` when the
+    /// commutant was too large to compute).
+    pub decomposition: Option<Decomposition>,
+}
+
+/// Largest number of unknowns of the commutant system solved exactly.
+const MAX_COMMUTANT_UNKNOWNS: usize = 400;
+/// Distinct values of q kept as separate integer sums before flushing them, at most …
+const MAX_OPEN_SUMS: usize = 64;
+/// … and at most this many bytes of integer sums per thread.
+const OPEN_SUM_BYTES: usize = 64 << 20;
+
+/// The integer form of G: G = G'/E with G' integral.
+struct IntegerForm {
+    scale: Cyc,
+    /// Multiplication matrices of G'_i (φ×φ), `None` where G'_i = 1 for every i.
+    entries: Option<Vec<Vec<i128>>>,
+}
+
+/// Unreduced sums S_i·conj(S_j) (i ≤ j) for one value of q.
+struct OpenSum {
+    sums: Vec<i128>,
+    bound: u128,
+}
+
+/// One thread's share of B.
+struct Partial<'a> {
+    problem: &'a OrbitProblem,
+    form: &'a IntegerForm,
+    factor_numerator: Cyc,
+    open: HashMap<Vec<i128>, OpenSum>,
+    max_open: usize,
+    /// Upper triangle of the exact part of B, row-major d×d (lower entries unused).
+    exact: Vec<Cyc>,
+    key: Vec<i64>,
+    conj: Vec<i64>,
+}
+
+impl OrbitProblem {
+    /// B for a saturated orbit, with its checks and decomposition, computed on `threads`
+    /// threads (the result does not depend on it). An error when the orbit is not saturated,
+    /// when a generator does not preserve G (then B is not a sum over a group orbit of
+    /// vectors of one norm), or when a line is isotropic for G.
+    pub fn poincare_sum(&self, orbit: &Orbit, threads: usize) -> Result<PoincareSum, OrbitError> {
+        if !orbit.is_saturated() {
+            return Err(OrbitError::Invalid(
+                "the Poincaré sum needs a saturated orbit".into(),
+            ));
+        }
+        if let Some(g) = self.generators.first_non_unitary(&self.field)? {
+            return Err(OrbitError::Invalid(format!(
+                "generator {} does not preserve the invariant form (X†GX ≠ G)",
+                self.generators.names[g]
+            )));
+        }
+        let field = &self.field;
+        let g = self.generators.form_diagonal(field);
+        let norm = self.form_norm(&self.seed, &g)?;
+        let form = integer_form(field, &self.kernel, &g)?;
+        let factor_numerator = field.mul(&norm, &form.scale)?;
+        let d = self.dimension();
+        let parts = split_range(orbit.len(), threads.max(1));
+        let results: Vec<Result<Vec<Cyc>, OrbitError>> = std::thread::scope(|scope| {
+            let handles: Vec<_> = parts
+                .iter()
+                .map(|range| {
+                    let range = range.clone();
+                    let form = &form;
+                    let factor = factor_numerator.clone();
+                    scope.spawn(move || {
+                        let mut partial = Partial::new(self, form, factor);
+                        for index in range {
+                            partial.add_line(orbit, index)?;
+                        }
+                        partial.finish()
+                    })
+                })
+                .collect();
+            handles
+                .into_iter()
+                .map(|h| {
+                    h.join().unwrap_or_else(|_| {
+                        Err(OrbitError::Invalid("a worker thread panicked".into()))
+                    })
+                })
+                .collect()
+        });
+        let mut upper = vec![field.zero(); d * d];
+        for part in results {
+            for (acc, x) in upper.iter_mut().zip(part?) {
+                if !x.is_zero() {
+                    *acc = field.add(acc, &x)?;
+                }
+            }
+        }
+        let mut b = Matrix::zeros(field, d, d);
+        for i in 0..d {
+            for j in i..d {
+                let x = &upper[i * d + j];
+                b.set(i, j, x.clone());
+                if i != j {
+                    b.set(j, i, field.conj(x));
+                }
+            }
+        }
+        let size = orbit.len();
+        let trace = field.dot((0..d).map(|i| (b.get(i, i), &g[i])))?;
+        let trace_check = trace == field.mul(&field.int(size as i64), &norm)?;
+        let scalar = scalar_of(field, &b, &g)?;
+        let decomposition = match scalar {
+            Some(_) => None,
+            None => decompose(field, &self.generators, &b, MAX_COMMUTANT_UNKNOWNS)?,
+        };
+        Ok(PoincareSum {
+            matrix: b,
+            norm,
+            orbit_size: size,
+            trace_check,
+            scalar,
+            decomposition,
+        })
+    }
+
+    /// ⟨v, v⟩_G = Σ_i G_i |v_i|².
+    fn form_norm(&self, v: &[Cyc], g: &[Cyc]) -> Result<Cyc, OrbitError> {
+        let field = &self.field;
+        let mut acc = DotAccumulator::new(field);
+        for (x, gi) in v.iter().zip(g) {
+            if !x.is_zero() {
+                acc.add_product(&field.mul(gi, x)?, &field.conj(x))?;
+            }
+        }
+        Ok(acc.finish())
+    }
+}
+
+/// λ when B = λ·G⁻¹, i.e. B is diagonal with B_ii·G_i = λ for every i.
+fn scalar_of(field: &CyclotomicField, b: &Matrix, g: &[Cyc]) -> Result<Option<Cyc>, OrbitError> {
+    let d = b.rows();
+    for i in 0..d {
+        for j in 0..d {
+            if i != j && !b.get(i, j).is_zero() {
+                return Ok(None);
+            }
+        }
+    }
+    let lambda = field.mul(b.get(0, 0), &g[0])?;
+    for (i, gi) in g.iter().enumerate().skip(1) {
+        if field.mul(b.get(i, i), gi)? != lambda {
+            return Ok(None);
+        }
+    }
+    Ok(Some(lambda))
+}
+
+fn integer_form(
+    field: &CyclotomicField,
+    kernel: &PolyKernel,
+    g: &[Cyc],
+) -> Result<IntegerForm, OrbitError> {
+    if g.iter().all(Cyc::is_one) {
+        return Ok(IntegerForm {
+            scale: field.one(),
+            entries: None,
+        });
+    }
+    let lcd = g
+        .iter()
+        .fold(BigInt::one(), |acc, x| acc.lcm(&x.to_big_parts().1));
+    let phi = kernel.degree();
+    let mut entries = Vec::with_capacity(g.len());
+    for x in g {
+        let (num, den) = x.to_big_parts();
+        let scale = &lcd / den;
+        let scaled: Option<Vec<i64>> = num.iter().map(|c| (c * &scale).to_i64()).collect();
+        let scaled = scaled.ok_or_else(|| {
+            OrbitError::Invalid("the invariant form has entries too large for machine words".into())
+        })?;
+        let mut m = vec![0i128; phi * phi];
+        kernel.mult_matrix(&scaled, &mut m).ok_or_else(|| {
+            OrbitError::Invalid("the invariant form has entries too large for machine words".into())
+        })?;
+        entries.push(m);
+    }
+    Ok(IntegerForm {
+        scale: field.big_rational(&lcd, &BigInt::one())?,
+        entries: Some(entries),
+    })
+}
+
+fn split_range(len: usize, parts: usize) -> Vec<std::ops::Range<usize>> {
+    let parts = parts.clamp(1, len.max(1));
+    (0..parts)
+        .map(|p| len * p / parts..len * (p + 1) / parts)
+        .collect()
+}
+
+impl<'a> Partial<'a> {
+    fn new(problem: &'a OrbitProblem, form: &'a IntegerForm, factor_numerator: Cyc) -> Self {
+        let d = problem.dimension();
+        let len = problem.key_len();
+        let sum_bytes = d * d * (2 * problem.kernel.degree() - 1) * 16;
+        Partial {
+            problem,
+            form,
+            factor_numerator,
+            open: HashMap::new(),
+            max_open: (OPEN_SUM_BYTES / sum_bytes.max(1)).clamp(1, MAX_OPEN_SUMS),
+            exact: vec![problem.field.zero(); d * d],
+            key: vec![0; len],
+            conj: vec![0; len],
+        }
+    }
+
+    fn add_line(&mut self, orbit: &Orbit, index: usize) -> Result<(), OrbitError> {
+        let max = match orbit.set.keys.get(index, &mut self.key) {
+            StoredKey::Small(m) => m,
+            StoredKey::Big(_) => return self.add_line_exact(orbit, index),
+        };
+        if !self.add_line_small(max)? {
+            return self.add_line_exact(orbit, index);
+        }
+        Ok(())
+    }
+
+    /// The machine-word route; `false` when a bound fails (nothing was added then).
+    fn add_line_small(&mut self, max: u64) -> Result<bool, OrbitError> {
+        let kernel = &self.problem.kernel;
+        let phi = kernel.degree();
+        let d = self.problem.dimension();
+        let conj_max = kernel.conj_bound(max);
+        let Some(term_bound) = (phi as u128)
+            .checked_mul(max as u128)
+            .and_then(|x| x.checked_mul(conj_max))
+        else {
+            return Ok(false);
+        };
+        if term_bound >= 1 << 120 {
+            return Ok(false);
+        }
+        for (block, out) in self.key.chunks(phi).zip(self.conj.chunks_mut(phi)) {
+            if kernel.conj_into(block, out).is_none() {
+                return Ok(false);
+            }
+        }
+        let Some(q) = self.form_value() else {
+            return Ok(false);
+        };
+        if q.iter().all(|&x| x == 0) {
+            return Err(OrbitError::Invalid(
+                "a line of the orbit is isotropic for the form (⟨w, w⟩_G = 0)".into(),
+            ));
+        }
+        if !self.open.contains_key(&q) && self.open.len() >= self.max_open {
+            self.flush_all()?;
+        }
+        let wide = 2 * phi - 1;
+        let needs_flush = self
+            .open
+            .get(&q)
+            .is_some_and(|s| s.bound.saturating_add(term_bound) >= 1 << 126);
+        if needs_flush {
+            self.flush(&q)?;
+        }
+        let entry = self.open.entry(q).or_insert_with(|| OpenSum {
+            sums: vec![0; d * d * wide],
+            bound: 0,
+        });
+        entry.bound += term_bound;
+        let nonzero: Vec<usize> = (0..d)
+            .filter(|&i| self.key[i * phi..(i + 1) * phi].iter().any(|&x| x != 0))
+            .collect();
+        for (a, &i) in nonzero.iter().enumerate() {
+            let si = &self.key[i * phi..(i + 1) * phi];
+            for &j in &nonzero[a..] {
+                let cj = &self.conj[j * phi..(j + 1) * phi];
+                let out = &mut entry.sums[(i * d + j) * wide..(i * d + j + 1) * wide];
+                for (s, &x) in si.iter().enumerate() {
+                    if x == 0 {
+                        continue;
+                    }
+                    for (t, &y) in cj.iter().enumerate() {
+                        out[s + t] += x as i128 * y as i128;
+                    }
+                }
+            }
+        }
+        Ok(true)
+    }
+
+    /// q = Σ_i G'_i S_i conj(S_i) reduced mod Φ_n (checked; `None` on overflow).
+    fn form_value(&self) -> Option<Vec<i128>> {
+        let kernel = &self.problem.kernel;
+        let phi = kernel.degree();
+        let mut q = vec![0i128; phi];
+        let mut product = vec![0i128; 2 * phi - 1];
+        for (i, (s, c)) in self.key.chunks(phi).zip(self.conj.chunks(phi)).enumerate() {
+            if s.iter().all(|&x| x == 0) {
+                continue;
+            }
+            product.fill(0);
+            for (a, &x) in s.iter().enumerate() {
+                for (b, &y) in c.iter().enumerate() {
+                    product[a + b] =
+                        product[a + b].checked_add((x as i128).checked_mul(y as i128)?)?;
+                }
+            }
+            let mut folded = vec![0i128; phi];
+            for (e, &p) in product.iter().enumerate() {
+                if p == 0 {
+                    continue;
+                }
+                for &(t, r) in kernel.residue(e) {
+                    folded[t] = folded[t].checked_add(p.checked_mul(r as i128)?)?;
+                }
+            }
+            match &self.form.entries {
+                None => {
+                    for (acc, x) in q.iter_mut().zip(&folded) {
+                        *acc = acc.checked_add(*x)?;
+                    }
+                }
+                Some(entries) => {
+                    let m = &entries[i];
+                    for (t, acc) in q.iter_mut().enumerate() {
+                        for (u, x) in folded.iter().enumerate() {
+                            *acc = acc.checked_add(m[t * phi + u].checked_mul(*x)?)?;
+                        }
+                    }
+                }
+            }
+        }
+        Some(q)
+    }
+
+    /// Add (N·E/q)·A_q to the exact part and drop the integer sum.
+    fn flush(&mut self, q: &[i128]) -> Result<(), OrbitError> {
+        let Some(sum) = self.open.remove(q) else {
+            return Ok(());
+        };
+        let field = &self.problem.field;
+        let kernel = &self.problem.kernel;
+        let one = BigInt::one();
+        let q_big: Vec<BigInt> = q.iter().map(|&x| BigInt::from(x)).collect();
+        let factor = field.div(&self.factor_numerator, &field.from_parts(&q_big, &one)?)?;
+        let d = self.problem.dimension();
+        let wide = 2 * kernel.degree() - 1;
+        for (cell, chunk) in sum.sums.chunks(wide).enumerate() {
+            if chunk.iter().all(|&x| x == 0) {
+                continue;
+            }
+            let big: Vec<BigInt> = chunk.iter().map(|&x| BigInt::from(x)).collect();
+            let value = field.from_parts(&kernel.fold_big(&big), &one)?;
+            let term = field.mul(&value, &factor)?;
+            let (i, j) = (cell / d, cell % d);
+            let acc = &mut self.exact[i * d + j];
+            *acc = field.add(acc, &term)?;
+        }
+        Ok(())
+    }
+
+    fn flush_all(&mut self) -> Result<(), OrbitError> {
+        let keys: Vec<Vec<i128>> = self.open.keys().cloned().collect();
+        for q in keys {
+            self.flush(&q)?;
+        }
+        Ok(())
+    }
+
+    /// The `Cyc` route: c = N/⟨w, w⟩_G and B += c·w w† (upper triangle).
+    fn add_line_exact(&mut self, orbit: &Orbit, index: usize) -> Result<(), OrbitError> {
+        let problem = self.problem;
+        let field = &problem.field;
+        let w = problem.line(orbit, index)?;
+        let g = problem.generators.form_diagonal(field);
+        let wnorm = problem.form_norm(&w, &g)?;
+        if wnorm.is_zero() {
+            return Err(OrbitError::Invalid(
+                "a line of the orbit is isotropic for the form (⟨w, w⟩_G = 0)".into(),
+            ));
+        }
+        let norm = field.div(&self.factor_numerator, &self.form.scale)?;
+        let c = field.div(&norm, &wnorm)?;
+        let d = problem.dimension();
+        let conj: Vec<Cyc> = w.iter().map(|x| field.conj(x)).collect();
+        for (i, wi) in w.iter().enumerate() {
+            if wi.is_zero() {
+                continue;
+            }
+            let cw = field.mul(&c, wi)?;
+            for (j, cj) in conj.iter().enumerate().skip(i) {
+                if !cj.is_zero() {
+                    let acc = &mut self.exact[i * d + j];
+                    *acc = field.add(acc, &field.mul(&cw, cj)?)?;
+                }
+            }
+        }
+        Ok(())
+    }
+
+    fn finish(mut self) -> Result<Vec<Cyc>, OrbitError> {
+        self.flush_all()?;
+        Ok(self.exact)
+    }
+}

@@ -1,0 +1,178 @@
+//! Machine-integer kernels for Z[ζ_n] in the power basis 1, ζ, …, ζ^{φ−1}.
+//!
+//! An element with integer numerators a = Σ_u a_u ζ^u acts on Z[ζ_n] by multiplication; in
+//! the power basis that is the φ×φ integer matrix M(a) with a·ζ^s = Σ_t M(a)[t][s] ζ^t,
+//! M(a)[t][s] = Σ_u a_u · [ζ^t](ζ^{u+s} mod Φ_n). Complex conjugation ζ^s ↦ ζ^{−s} is the
+//! integer matrix C with C[t][s] = [ζ^t](ζ^{−s} mod Φ_n). Products a·b of two coefficient
+//! vectors before reduction have length 2φ − 1 and are folded with the same residues.
+//!
+//! Every routine here is exact: it either returns the correct integers or `None` when a
+//! machine word would overflow, and the caller then uses exact `Cyc` arithmetic.
+
+use cyclorb_field::CyclotomicField;
+use num_bigint::BigInt;
+
+/// The residues of ζ^e and the conjugation matrix, in sparse form.
+#[derive(Debug, Clone)]
+pub(crate) struct PolyKernel {
+    n: usize,
+    phi: usize,
+    /// `residues[e]` = the non-zero (t, c) with ζ^e = Σ c ζ^t, for 0 ≤ e < n.
+    residues: Vec<Vec<(usize, i64)>>,
+    /// Non-zero (t, s, c) of the conjugation matrix C.
+    conj: Vec<(usize, usize, i64)>,
+    /// max over t of Σ_s |C[t][s]|.
+    conj_row_bound: u128,
+}
+
+impl PolyKernel {
+    /// The kernel of a field context.
+    pub(crate) fn new(field: &CyclotomicField) -> PolyKernel {
+        let n = field.conductor() as usize;
+        let phi = field.degree();
+        let residues: Vec<Vec<(usize, i64)>> = (0..n.max(1))
+            .map(|e| {
+                field
+                    .residue(e as i64)
+                    .iter()
+                    .enumerate()
+                    .filter(|(_, c)| **c != 0)
+                    .map(|(t, c)| (t, *c))
+                    .collect()
+            })
+            .collect();
+        let mut conj = Vec::new();
+        let mut row_sums = vec![0u128; phi];
+        for s in 0..phi {
+            let e = (n - s % n.max(1)) % n.max(1);
+            for &(t, c) in &residues[e] {
+                conj.push((t, s, c));
+                row_sums[t] += c.unsigned_abs() as u128;
+            }
+        }
+        let conj_row_bound = row_sums.into_iter().max().unwrap_or(0);
+        PolyKernel {
+            n: n.max(1),
+            phi,
+            residues,
+            conj,
+            conj_row_bound,
+        }
+    }
+
+    /// The degree φ(n).
+    pub(crate) fn degree(&self) -> usize {
+        self.phi
+    }
+
+    /// The residue of ζ^e (sparse), for any e ≥ 0.
+    pub(crate) fn residue(&self, e: usize) -> &[(usize, i64)] {
+        &self.residues[e % self.n]
+    }
+
+    /// The non-zero entries (t, s, M[t][s]) of the multiplication matrix of `a`, or `None`
+    /// when an entry does not fit an `i64`.
+    pub(crate) fn mult_entries(&self, a: &[i64]) -> Option<Vec<(usize, usize, i64)>> {
+        let mut dense = vec![0i128; self.phi * self.phi];
+        self.mult_matrix(a, &mut dense)?;
+        let mut out = Vec::new();
+        for t in 0..self.phi {
+            for s in 0..self.phi {
+                let c = dense[t * self.phi + s];
+                if c != 0 {
+                    out.push((t, s, i64::try_from(c).ok()?));
+                }
+            }
+        }
+        Some(out)
+    }
+
+    /// The dense multiplication matrix of `a` (row t, column s, row-major) into `out`
+    /// (length φ²); `None` on `i128` overflow.
+    pub(crate) fn mult_matrix(&self, a: &[i64], out: &mut [i128]) -> Option<()> {
+        out.fill(0);
+        for (u, &au) in a.iter().enumerate() {
+            if au == 0 {
+                continue;
+            }
+            for s in 0..self.phi {
+                for &(t, r) in self.residue(u + s) {
+                    let cell = &mut out[t * self.phi + s];
+                    *cell = cell.checked_add((au as i128).checked_mul(r as i128)?)?;
+                }
+            }
+        }
+        Some(())
+    }
+
+    /// conj(a) for integer numerators `a`, into `out`; `None` when a result leaves `i64`.
+    pub(crate) fn conj_into(&self, a: &[i64], out: &mut [i64]) -> Option<()> {
+        let mut stack = [0i128; 64];
+        let mut heap = Vec::new();
+        let buf: &mut [i128] = if self.phi <= stack.len() {
+            &mut stack[..self.phi]
+        } else {
+            heap.resize(self.phi, 0);
+            &mut heap
+        };
+        for &(t, s, c) in &self.conj {
+            buf[t] = buf[t].checked_add((a[s] as i128).checked_mul(c as i128)?)?;
+        }
+        for (o, w) in out.iter_mut().zip(buf.iter()) {
+            *o = i64::try_from(*w).ok()?;
+        }
+        Some(())
+    }
+
+    /// A bound on the coefficients of conj(a): max_t Σ_s |C[t][s]| · max|a|.
+    pub(crate) fn conj_bound(&self, max_abs: u64) -> u128 {
+        self.conj_row_bound.saturating_mul(max_abs as u128)
+    }
+
+    /// Fold an unreduced product (exponents 0..len) modulo Φ_n, exactly.
+    pub(crate) fn fold_big(&self, wide: &[BigInt]) -> Vec<BigInt> {
+        let mut low = vec![BigInt::from(0); self.phi];
+        for (e, c) in wide.iter().enumerate() {
+            if num_traits::Zero::is_zero(c) {
+                continue;
+            }
+            for &(t, r) in self.residue(e) {
+                low[t] += c * BigInt::from(r);
+            }
+        }
+        low
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn multiplication_matrix_agrees_with_field_product() {
+        for n in [3u32, 8, 12, 15, 16] {
+            let f = CyclotomicField::new(n).unwrap();
+            let k = PolyKernel::new(&f);
+            let a = f.parse("3 - 2*z + z^2").unwrap();
+            let b = f.parse("1 + 5*z^3 - z").unwrap();
+            let (an, _) = a.small_parts().unwrap();
+            let (bn, _) = b.small_parts().unwrap();
+            let mut m = vec![0i128; k.degree() * k.degree()];
+            k.mult_matrix(an, &mut m).unwrap();
+            let prod: Vec<i128> = (0..k.degree())
+                .map(|t| {
+                    (0..k.degree())
+                        .map(|s| m[t * k.degree() + s] * bn[s] as i128)
+                        .sum()
+                })
+                .collect();
+            let expect = f.mul(&a, &b).unwrap();
+            let (en, _) = expect.small_parts().unwrap();
+            let en: Vec<i128> = en.iter().map(|&c| c as i128).collect();
+            assert_eq!(prod, en, "n={n}");
+            let mut c = vec![0i64; k.degree()];
+            k.conj_into(an, &mut c).unwrap();
+            assert_eq!(c.as_slice(), f.conj(&a).small_parts().unwrap().0, "n={n}");
+        }
+    }
+}

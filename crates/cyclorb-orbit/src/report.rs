@@ -1,0 +1,177 @@
+//! The serialisable result of an orbit run, with the keys of the command-line contract
+//! (`cyclorb orbit --json`).
+
+use std::time::Duration;
+
+use cyclorb_field::Cyc;
+use cyclorb_matrix::Matrix;
+use serde::{Deserialize, Serialize};
+
+use crate::engine::{Orbit, StopReason};
+use crate::memory::peak_memory_bytes;
+use crate::poincare::PoincareSum;
+use crate::problem::OrbitProblem;
+
+/// One term of B over the invariant matrices.
+#[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
+pub struct InvariantReport {
+    /// The exact coefficient (text syntax of cyclorb elements; a rational such as `3/2`).
+    pub coefficient: String,
+    /// The invariant matrix, row by row, entries in text syntax.
+    pub matrix: Vec<Vec<String>>,
+}
+
+/// What the Poincaré sum says. Every field is `null` when the orbit is not saturated.
+#[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize, Default)]
+pub struct PoincareReport {
+    /// Whether B = λ·G⁻¹.
+    pub is_scalar: Option<bool>,
+    /// λ (an exact rational such as `384` when it is rational).
+    pub prefactor: Option<String>,
+    /// N = ⟨v₀, v₀⟩_G of the seed.
+    pub seed_norm: Option<String>,
+    /// Whether tr(B·G) = orbit size × N.
+    pub trace_check: Option<bool>,
+    /// Dimension of the space of invariant matrices (when B is not scalar and it was
+    /// computed).
+    pub commutant_dimension: Option<usize>,
+    /// Whether `invariants` uses the physical basis.
+    pub physical_basis: Option<bool>,
+    /// B = Σ coefficient · matrix when B is not scalar (empty when it is scalar).
+    pub invariants: Option<Vec<InvariantReport>>,
+    /// B itself, when it is not scalar.
+    pub matrix: Option<Vec<Vec<String>>>,
+    /// Why the sum is missing or incomplete, when it is.
+    pub note: Option<String>,
+}
+
+/// The result of `cyclorb orbit`, serialisable as the JSON of the contract.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct OrbitReport {
+    /// The theory spec (filled by the caller or from the generator file).
+    pub theory: Option<String>,
+    /// The genus (filled by the caller or from the generator file).
+    pub genus: Option<u32>,
+    /// Dimension of the block space.
+    pub dimension: usize,
+    /// n of Q(ζ_n).
+    pub conductor: u32,
+    /// Number of generators.
+    pub generators: usize,
+    /// Their names.
+    pub generator_names: Vec<String>,
+    /// Distinct lines found.
+    pub orbit_size: usize,
+    /// Whether the orbit is proven closed under every generator.
+    pub saturated: bool,
+    /// Why the run stopped early (`limit`, `memory`, `interrupted`), or null.
+    pub stop_reason: Option<StopReason>,
+    /// New lines at each breadth-first depth.
+    pub layer_sizes: Vec<usize>,
+    /// The Poincaré sum.
+    pub poincare_sum: PoincareReport,
+    /// Wall time of this run (given by the caller).
+    pub elapsed_seconds: f64,
+    /// Enumeration time over all runs that built this orbit (resumed runs included).
+    pub compute_seconds: f64,
+    /// Peak resident memory of the process.
+    pub peak_memory_bytes: Option<u64>,
+    /// Bytes held by the orbit store.
+    pub store_bytes: usize,
+    /// Store bytes per line.
+    pub bytes_per_element: f64,
+    /// Bytes per stored key numerator.
+    pub numerator_width: usize,
+}
+
+fn matrix_text(m: &Matrix) -> Vec<Vec<String>> {
+    (0..m.rows())
+        .map(|i| m.row(i).iter().map(Cyc::to_string).collect())
+        .collect()
+}
+
+impl PoincareReport {
+    /// The report of a computed sum.
+    pub fn from_sum(sum: &PoincareSum) -> PoincareReport {
+        let mut r = PoincareReport {
+            is_scalar: Some(sum.scalar.is_some()),
+            prefactor: sum.scalar.as_ref().map(Cyc::to_string),
+            seed_norm: Some(sum.norm.to_string()),
+            trace_check: Some(sum.trace_check),
+            ..PoincareReport::default()
+        };
+        if sum.scalar.is_some() {
+            r.invariants = Some(Vec::new());
+            return r;
+        }
+        r.matrix = Some(matrix_text(&sum.matrix));
+        match &sum.decomposition {
+            Some(dec) => {
+                r.commutant_dimension = Some(dec.commutant_dimension);
+                r.physical_basis = Some(dec.physical);
+                r.invariants = Some(
+                    dec.terms
+                        .iter()
+                        .map(|t| InvariantReport {
+                            coefficient: t.coefficient.to_string(),
+                            matrix: matrix_text(&t.matrix),
+                        })
+                        .collect(),
+                );
+            }
+            None => {
+                r.note = Some("the space of invariant matrices is too large to compute here".into())
+            }
+        }
+        r
+    }
+
+    /// The report when the sum is not available, with the reason.
+    pub fn missing(reason: impl Into<String>) -> PoincareReport {
+        PoincareReport {
+            note: Some(reason.into()),
+            ..PoincareReport::default()
+        }
+    }
+}
+
+impl OrbitReport {
+    /// The report of `orbit`. `poincare` is the sum (when computed) or the reason it is
+    /// missing; `elapsed` is the caller's wall time. Theory and genus come from the
+    /// generator set (the caller may overwrite them).
+    pub fn new(
+        problem: &OrbitProblem,
+        orbit: &Orbit,
+        poincare: Result<&PoincareSum, String>,
+        elapsed: Duration,
+    ) -> OrbitReport {
+        let g = problem.generators();
+        let poincare_sum = if !orbit.is_saturated() {
+            PoincareReport::missing("the orbit is not saturated")
+        } else {
+            match poincare {
+                Ok(sum) => PoincareReport::from_sum(sum),
+                Err(reason) => PoincareReport::missing(reason),
+            }
+        };
+        OrbitReport {
+            theory: g.theory.clone(),
+            genus: g.genus,
+            dimension: g.dimension,
+            conductor: g.conductor,
+            generators: g.operators.len(),
+            generator_names: g.names.clone(),
+            orbit_size: orbit.len(),
+            saturated: orbit.is_saturated(),
+            stop_reason: orbit.stop_reason(),
+            layer_sizes: orbit.layer_sizes(),
+            poincare_sum,
+            elapsed_seconds: elapsed.as_secs_f64(),
+            compute_seconds: orbit.compute_seconds(),
+            peak_memory_bytes: peak_memory_bytes(),
+            store_bytes: orbit.store_bytes(),
+            bytes_per_element: orbit.bytes_per_element(),
+            numerator_width: orbit.numerator_width(),
+        }
+    }
+}
