@@ -211,6 +211,11 @@ impl Orbit {
         self.set.keys.width() as usize
     }
 
+    /// Number of keys with a numerator beyond `i64` (kept as big integers).
+    pub fn big_keys(&self) -> usize {
+        self.set.keys.big_keys().count()
+    }
+
     /// Seconds spent enumerating, over every run that led here (resumed runs included).
     pub fn compute_seconds(&self) -> f64 {
         self.compute_seconds

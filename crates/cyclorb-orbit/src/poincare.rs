@@ -58,8 +58,17 @@ const OPEN_SUM_BYTES: usize = 64 << 20;
 /// The integer form of G: G = G'/E with G' integral.
 struct IntegerForm {
     scale: Cyc,
-    /// Multiplication matrices of G'_i (φ×φ), `None` where G'_i = 1 for every i.
-    entries: Option<Vec<Vec<i128>>>,
+    /// How ⟨S, S⟩_G is formed in machine words.
+    entries: FormEntries,
+}
+
+enum FormEntries {
+    /// G = identity: q = Σ_i S_i conj(S_i).
+    Identity,
+    /// Multiplication matrices of G'_i (φ×φ).
+    Integral(Vec<Vec<i128>>),
+    /// G' does not fit machine words: every line takes the `Cyc` route.
+    TooLarge,
 }
 
 /// Unreduced sums S_i·conj(S_j) (i ≤ j) for one value of q.
@@ -206,30 +215,33 @@ fn integer_form(
     if g.iter().all(Cyc::is_one) {
         return Ok(IntegerForm {
             scale: field.one(),
-            entries: None,
+            entries: FormEntries::Identity,
         });
     }
     let lcd = g
         .iter()
         .fold(BigInt::one(), |acc, x| acc.lcm(&x.to_big_parts().1));
     let phi = kernel.degree();
+    let scale = field.big_rational(&lcd, &BigInt::one())?;
     let mut entries = Vec::with_capacity(g.len());
     for x in g {
         let (num, den) = x.to_big_parts();
-        let scale = &lcd / den;
-        let scaled: Option<Vec<i64>> = num.iter().map(|c| (c * &scale).to_i64()).collect();
-        let scaled = scaled.ok_or_else(|| {
-            OrbitError::Invalid("the invariant form has entries too large for machine words".into())
-        })?;
+        let factor = &lcd / den;
+        let scaled: Option<Vec<i64>> = num.iter().map(|c| (c * &factor).to_i64()).collect();
         let mut m = vec![0i128; phi * phi];
-        kernel.mult_matrix(&scaled, &mut m).ok_or_else(|| {
-            OrbitError::Invalid("the invariant form has entries too large for machine words".into())
-        })?;
-        entries.push(m);
+        match scaled.and_then(|s| kernel.mult_matrix(&s, &mut m)) {
+            Some(()) => entries.push(m),
+            None => {
+                return Ok(IntegerForm {
+                    scale,
+                    entries: FormEntries::TooLarge,
+                })
+            }
+        }
     }
     Ok(IntegerForm {
-        scale: field.big_rational(&lcd, &BigInt::one())?,
-        entries: Some(entries),
+        scale,
+        entries: FormEntries::Integral(entries),
     })
 }
 
@@ -270,6 +282,9 @@ impl<'a> Partial<'a> {
 
     /// The machine-word route; `false` when a bound fails (nothing was added then).
     fn add_line_small(&mut self, max: u64) -> Result<bool, OrbitError> {
+        if matches!(self.form.entries, FormEntries::TooLarge) {
+            return Ok(false);
+        }
         let kernel = &self.problem.kernel;
         let phi = kernel.degree();
         let d = self.problem.dimension();
@@ -360,12 +375,13 @@ impl<'a> Partial<'a> {
                 }
             }
             match &self.form.entries {
-                None => {
+                FormEntries::TooLarge => return None,
+                FormEntries::Identity => {
                     for (acc, x) in q.iter_mut().zip(&folded) {
                         *acc = acc.checked_add(*x)?;
                     }
                 }
-                Some(entries) => {
+                FormEntries::Integral(entries) => {
                     let m = &entries[i];
                     for (t, acc) in q.iter_mut().enumerate() {
                         for (u, x) in folded.iter().enumerate() {

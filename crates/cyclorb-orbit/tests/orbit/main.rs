@@ -1,0 +1,10 @@
+//! Integration tests of cyclorb-orbit: orbits with known sizes and Poincaré sums, limits,
+//! stops and resumption, thread independence, checkpoints and file formats. Every check
+//! against an outside value names its source beside it.
+
+mod common;
+mod formats;
+mod groups;
+mod ising;
+mod poincare;
+mod runs;
