@@ -1,0 +1,185 @@
+//! Operations on theories: Deligne products, Galois conjugates, renaming labels.
+
+use std::sync::Arc;
+
+use cyclorb_field::{Cyc, CyclotomicField};
+use cyclorb_matrix::Matrix;
+use hashbrown::HashMap;
+use num_integer::Integer;
+
+use crate::arith::SameField;
+use crate::assemble::{assemble, RawF, RawStructure, RawTheory};
+use crate::error::TheoryError;
+use crate::fusion::FusionRules;
+use crate::roots::canonical_conductor;
+use crate::structure::{key3, FSource};
+use crate::theory::Theory;
+
+/// The Deligne product A ⊠ B: labels are pairs (a, b) with index a·rank(B) + b and name
+/// "a*b"; N, F, R, θ, d and vertex weights multiply, S = S_A ⊗ S_B, c adds. The field is
+/// Q(ζ_lcm(n_A, n_B)). F-blocks are Kronecker products, computed on first use. When either
+/// factor is modular data alone, so is the product.
+pub fn product(left: &Theory, right: &Theory) -> Result<Theory, TheoryError> {
+    let n = canonical_conductor((left.conductor() as u64).lcm(&(right.conductor() as u64)));
+    let field = CyclotomicField::new(n as u32)?;
+    let (r1, r2) = (left.rank(), right.rank());
+    let rank = r1 * r2;
+    let emb = |x: &Cyc| field.embed(x);
+    let both =
+        |x: &Cyc, y: &Cyc| -> Result<Cyc, TheoryError> { Ok(field.times(&emb(x)?, &emb(y)?)) };
+    let mut labels = Vec::with_capacity(rank);
+    let mut dims = Vec::with_capacity(rank);
+    let mut twists = Vec::with_capacity(rank);
+    for a in 0..r1 {
+        for b in 0..r2 {
+            labels.push(format!("{}*{}", left.label(a), right.label(b)));
+            dims.push(both(left.quantum_dim(a), right.quantum_dim(b))?);
+            twists.push(both(left.twist(a), right.twist(b))?);
+        }
+    }
+    let mut triples = Vec::new();
+    for (a1, b1, c1, m1) in left.fusion().triples() {
+        for (a2, b2, c2, m2) in right.fusion().triples() {
+            triples.push((a1 * r2 + a2, b1 * r2 + b2, c1 * r2 + c2, m1 * m2));
+        }
+    }
+    let fusion = FusionRules::from_triples(rank, triples)
+        .map_err(|e| TheoryError::Internal(format!("product fusion: {e:?}")))?;
+    let structure = if left.has_fr() && right.has_fr() {
+        let mut r = HashMap::new();
+        let mut weights = HashMap::new();
+        for (a1, b1, c1, _) in left.fusion().triples() {
+            for (a2, b2, c2, _) in right.fusion().triples() {
+                let key = key3(rank, a1 * r2 + a2, b1 * r2 + b2, c1 * r2 + c2);
+                r.insert(
+                    key,
+                    both(&left.r_symbol(a1, b1, c1), &right.r_symbol(a2, b2, c2))?,
+                );
+                let w = both(
+                    &left.vertex_weight(a1, b1, c1),
+                    &right.vertex_weight(a2, b2, c2),
+                )?;
+                if !w.is_one() {
+                    weights.insert(key, w);
+                }
+            }
+        }
+        RawStructure::Braided {
+            f: RawF::Lazy(FSource::Product {
+                left: Arc::new(left.clone()),
+                right: Arc::new(right.clone()),
+            }),
+            r,
+            weights,
+        }
+    } else {
+        let (sa, sb) = (left.s_matrix_ref(), right.s_matrix_ref());
+        let mut s = Matrix::zeros(&field, rank, rank);
+        for a in 0..rank {
+            for b in 0..rank {
+                let x = both(sa.get(a / r2, b / r2), sb.get(a % r2, b % r2))?;
+                s.set(a, b, x);
+            }
+        }
+        RawStructure::ModularData { s }
+    };
+    assemble(RawTheory {
+        name: format!("{}*{}", left.name(), right.name()),
+        field,
+        labels,
+        fusion,
+        dims,
+        twists,
+        structure,
+    })
+}
+
+/// The Galois conjugate σ_k (ζ_n ↦ ζ_n^k, gcd(k, n) = 1) of every number of the theory:
+/// F, R, θ, d, vertex weights (and S for modular data). D is recomputed (positive), c with it.
+/// Since σ_k commutes with complex conjugation, σ_k of an invariant Hermitian form is one for
+/// the conjugate theory, so the weights stay meaningful (the form may become indefinite).
+pub fn galois(theory: &Theory, k: i64) -> Result<Theory, TheoryError> {
+    let field = theory.field().clone();
+    let n = field.conductor() as i64;
+    let name = if k.rem_euclid(n.max(2)) == (n - 1).rem_euclid(n.max(2)) {
+        format!("conj({})", theory.name())
+    } else {
+        format!("galois:{k}({})", theory.name())
+    };
+    if k.gcd(&n) != 1 {
+        return Err(TheoryError::Spec {
+            spec: name,
+            reason: format!("σ_{k} needs gcd({k}, {n}) = 1 (the conductor is {n})"),
+        });
+    }
+    let sigma = |x: &Cyc| -> Result<Cyc, TheoryError> { Ok(field.galois(x, k)?) };
+    let dims = theory
+        .quantum_dims()
+        .iter()
+        .map(sigma)
+        .collect::<Result<Vec<_>, _>>()?;
+    let twists = theory
+        .twists()
+        .iter()
+        .map(sigma)
+        .collect::<Result<Vec<_>, _>>()?;
+    let structure = match &theory.braiding {
+        Some(braiding) => RawStructure::Braided {
+            f: RawF::Lazy(FSource::Galois {
+                base: Arc::new(theory.clone()),
+                k,
+            }),
+            r: braiding
+                .r
+                .iter()
+                .map(|(key, x)| Ok((*key, sigma(x)?)))
+                .collect::<Result<_, TheoryError>>()?,
+            weights: theory
+                .weights
+                .iter()
+                .map(|(key, x)| Ok((*key, sigma(x)?)))
+                .collect::<Result<_, TheoryError>>()?,
+        },
+        None => RawStructure::ModularData {
+            s: theory.s_matrix_ref().map(|x| field.galois(x, k))?,
+        },
+    };
+    assemble(RawTheory {
+        name,
+        field: field.clone(),
+        labels: theory.labels().to_vec(),
+        fusion: theory.fusion().clone(),
+        dims,
+        twists,
+        structure,
+    })
+}
+
+/// Complex conjugation σ_{−1}: R, θ and S conjugated (c ↦ −c); F conjugated too.
+pub fn conjugate(theory: &Theory) -> Result<Theory, TheoryError> {
+    galois(theory, -1)
+}
+
+/// The same theory under a new name and new label names (one per label, distinct).
+pub fn renamed(theory: &Theory, name: &str, labels: Vec<String>) -> Result<Theory, TheoryError> {
+    let mut sorted = labels.clone();
+    sorted.sort();
+    sorted.dedup();
+    if labels.len() != theory.rank() || sorted.len() != labels.len() {
+        return Err(TheoryError::Spec {
+            spec: name.to_string(),
+            reason: "label names must be distinct, one per label".into(),
+        });
+    }
+    let mut t = theory.clone();
+    t.name = name.to_string();
+    t.labels = labels;
+    t.hash = Default::default();
+    Ok(t)
+}
+
+impl Theory {
+    pub(crate) fn s_matrix_ref(&self) -> &Matrix {
+        &self.s
+    }
+}

@@ -1,0 +1,488 @@
+//! Checks of the F- and R-symbols: normalisation, invertibility, pentagon, hexagons, twists,
+//! balancing, Frobenius–Schur consistency and the invariant Hermitian form.
+
+use cyclorb_field::{Cyc, CyclotomicField, DotAccumulator};
+use cyclorb_matrix::Matrix;
+use hashbrown::HashMap;
+
+use crate::arith::SameField;
+use crate::fmatrix::FMatrix;
+use crate::theory::Theory;
+use crate::verify::{Check, CheckId, Tally};
+
+fn names(t: &Theory, pairs: &[(&str, usize)]) -> String {
+    pairs
+        .iter()
+        .map(|(k, v)| format!("{k}={}", t.label(*v)))
+        .collect::<Vec<_>>()
+        .join(" ")
+}
+
+/// F and R with a vacuum leg are the 1×1 identity.
+pub(crate) fn unit_normalisation(t: &Theory) -> Check {
+    let mut tally = Tally::new(CheckId::UnitNormalisation);
+    for (a, b, c, d) in t.f_block_labels() {
+        if a != 0 && b != 0 && c != 0 {
+            continue;
+        }
+        let ok = t
+            .f_block(a, b, c, d)
+            .is_some_and(|m| m.rows.len() == 1 && m.cols.len() == 1 && m.matrix.get(0, 0).is_one());
+        if !tally.record(ok, || {
+            format!(
+                "F^{{abc}}_d at {} is not the 1×1 identity",
+                names(t, &[("a", a), ("b", b), ("c", c), ("d", d)])
+            )
+        }) {
+            return tally.finish();
+        }
+    }
+    for (a, b, c, _) in t.fusion().triples() {
+        if a != 0 && b != 0 {
+            continue;
+        }
+        let r = t.r_symbol(a, b, c);
+        if !tally.record(r.is_one(), || {
+            format!(
+                "R^{{ab}}_c = {r} at {}",
+                names(t, &[("a", a), ("b", b), ("c", c)])
+            )
+        }) {
+            return tally.finish();
+        }
+    }
+    tally.finish()
+}
+
+/// Every F-matrix is square, has an inverse, and F·F⁻¹ = 1.
+pub(crate) fn f_invertible(t: &Theory) -> Check {
+    let mut tally = Tally::new(CheckId::FInvertible);
+    let field = t.field();
+    for (a, b, c, d) in t.f_block_labels() {
+        let at = || names(t, &[("a", a), ("b", b), ("c", c), ("d", d)]);
+        let Some(fwd) = t.f_block(a, b, c, d) else {
+            continue;
+        };
+        let inv = t.f_inverse_block(a, b, c, d);
+        let ok = match inv {
+            Some(inv) if fwd.rows.len() == fwd.cols.len() => fwd
+                .matrix
+                .mul(field, &inv.matrix)
+                .is_ok_and(|p| p == Matrix::identity(field, fwd.rows.len())),
+            _ => false,
+        };
+        if !tally.record(ok, || {
+            format!("F^{{abc}}_d at {} is not square or not invertible", at())
+        }) {
+            return tally.finish();
+        }
+    }
+    tally.finish()
+}
+
+/// Entry lookups that read an absent entry as zero.
+struct Lookup<'t> {
+    theory: &'t Theory,
+    zero: Cyc,
+}
+
+impl<'t> Lookup<'t> {
+    fn block(&self, a: usize, b: usize, c: usize, d: usize) -> Option<&'t FMatrix> {
+        self.theory.f_block(a, b, c, d)
+    }
+
+    fn entry(&self, blk: Option<&'t FMatrix>, e: usize, f: usize) -> &Cyc {
+        blk.and_then(|m| m.get(e, f)).unwrap_or(&self.zero)
+    }
+}
+
+/// The pentagon for all non-vacuum a, b, c, d, split over the available cores by a.
+pub(crate) fn pentagon(t: &Theory) -> Check {
+    let r = t.rank();
+    let threads = std::thread::available_parallelism()
+        .map_or(1, |n| n.get())
+        .clamp(1, r.max(1));
+    let results: Vec<(usize, Option<(usize, String)>)> = std::thread::scope(|scope| {
+        let handles: Vec<_> = (0..threads)
+            .map(|worker| {
+                scope.spawn(move || {
+                    let mut instances = 0;
+                    let mut a = 1 + worker;
+                    while a < r {
+                        let (n, failure) = pentagon_at(t, a);
+                        instances += n;
+                        if let Some(f) = failure {
+                            return (instances, Some((a, f)));
+                        }
+                        a += threads;
+                    }
+                    (instances, None)
+                })
+            })
+            .collect();
+        handles
+            .into_iter()
+            .map(|h| {
+                h.join()
+                    .unwrap_or((0, Some((0, "a verification thread failed".into()))))
+            })
+            .collect()
+    });
+    let mut tally = Tally::new(CheckId::Pentagon);
+    let instances: usize = results.iter().map(|(n, _)| n).sum();
+    let failure = results
+        .into_iter()
+        .filter_map(|(_, f)| f)
+        .min_by_key(|(a, _)| *a)
+        .map(|(_, f)| f);
+    tally.add_instances(instances.saturating_sub(1));
+    tally.record(failure.is_none(), || failure.unwrap_or_default());
+    tally.finish()
+}
+
+/// Pentagon equations with first label a: (instances checked, first failure).
+fn pentagon_at(t: &Theory, a: usize) -> (usize, Option<String>) {
+    let field = t.field();
+    let look = Lookup {
+        theory: t,
+        zero: field.zero(),
+    };
+    let r = t.rank();
+    let out = |x: usize, y: usize| t.fusion_outcomes(x, y);
+    let mut instances = 0;
+    for b in 1..r {
+        for c in 1..r {
+            for d in 1..r {
+                // paths ((ab)_f c)_g d → e grouped by (e, g); a (b (cd)_h)_k → e by (e, k)
+                let mut left: HashMap<(usize, usize), Vec<usize>> = HashMap::new();
+                for &f in out(a, b) {
+                    for &g in out(f, c) {
+                        for &e in out(g, d) {
+                            left.entry((e, g)).or_default().push(f);
+                        }
+                    }
+                }
+                let mut right: HashMap<(usize, usize), Vec<usize>> = HashMap::new();
+                for &h in out(c, d) {
+                    for &k in out(b, h) {
+                        for &e in out(a, k) {
+                            right.entry((e, k)).or_default().push(h);
+                        }
+                    }
+                }
+                let mut lefts: Vec<_> = left.into_iter().collect();
+                lefts.sort_unstable();
+                for ((e, g), fs) in lefts {
+                    let Some(f_abc_g) = look.block(a, b, c, g) else {
+                        continue;
+                    };
+                    let f_fcd: Vec<_> = fs.iter().map(|&f| look.block(f, c, d, e)).collect();
+                    let mut ks: Vec<_> = right.iter().filter(|((e2, _), _)| *e2 == e).collect();
+                    ks.sort_unstable();
+                    for (&(_, k), hs) in ks {
+                        let f_bcd_k = look.block(b, c, d, k);
+                        // m_l = [F^{ald}_e]_{gk} for the columns l of F^{abc}_g
+                        let m: Vec<Cyc> = f_abc_g
+                            .cols
+                            .iter()
+                            .map(|&l| {
+                                if t.fuses(l, d, k) {
+                                    look.entry(look.block(a, l, d, e), g, k).clone()
+                                } else {
+                                    field.zero()
+                                }
+                            })
+                            .collect();
+                        for (fi, &f) in fs.iter().enumerate() {
+                            let row: Vec<Cyc> = f_abc_g
+                                .cols
+                                .iter()
+                                .zip(&m)
+                                .map(|(&l, ml)| field.times(look.entry(Some(f_abc_g), f, l), ml))
+                                .collect();
+                            for &h in hs {
+                                let lhs = if t.fuses(f, h, e) {
+                                    field.times(
+                                        look.entry(f_fcd[fi], g, h),
+                                        look.entry(look.block(a, b, h, e), f, k),
+                                    )
+                                } else {
+                                    field.zero()
+                                };
+                                let mut acc = DotAccumulator::new(field);
+                                for (&l, x) in f_abc_g.cols.iter().zip(&row) {
+                                    if !x.is_zero() {
+                                        acc.add_product(x, look.entry(f_bcd_k, l, h))
+                                            .expect("same field");
+                                    }
+                                }
+                                let rhs = acc.finish();
+                                instances += 1;
+                                if lhs != rhs {
+                                    let at = names(
+                                        t,
+                                        &[
+                                            ("a", a),
+                                            ("b", b),
+                                            ("c", c),
+                                            ("d", d),
+                                            ("e", e),
+                                            ("f", f),
+                                            ("g", g),
+                                            ("h", h),
+                                            ("k", k),
+                                        ],
+                                    );
+                                    return (
+                                        instances,
+                                        Some(format!("at {at}: left side {lhs}, right side {rhs}")),
+                                    );
+                                }
+                            }
+                        }
+                    }
+                }
+            }
+        }
+    }
+    (instances, None)
+}
+
+/// The first hexagon, or with `inverse` the second one (R^{xy}_z ↦ (R^{yx}_z)⁻¹), for all
+/// non-vacuum a, b, c.
+pub(crate) fn hexagon(t: &Theory, inverse: bool) -> Check {
+    let id = if inverse {
+        CheckId::HexagonInverse
+    } else {
+        CheckId::Hexagon
+    };
+    let mut tally = Tally::new(id);
+    let field = t.field();
+    let look = Lookup {
+        theory: t,
+        zero: field.zero(),
+    };
+    // (R^{yx}_z)⁻¹, computed once per triple (conjugation when |R| = 1)
+    let mut inverses = HashMap::new();
+    if inverse {
+        for (x, y, z, _) in t.fusion().triples() {
+            let r = t.r_symbol(y, x, z);
+            let conj = field.conj(&r);
+            let inv = if field.times(&r, &conj).is_one() {
+                conj
+            } else {
+                field.inverse(&r).unwrap_or_else(|| field.zero())
+            };
+            inverses.insert((x, y, z), inv);
+        }
+    }
+    let braid = |x: usize, y: usize, z: usize| -> Cyc {
+        if inverse {
+            inverses
+                .get(&(x, y, z))
+                .cloned()
+                .unwrap_or_else(|| field.zero())
+        } else {
+            t.r_symbol(x, y, z)
+        }
+    };
+    let r = t.rank();
+    for a in 1..r {
+        for b in 1..r {
+            for c in 1..r {
+                let mut ds: Vec<usize> = t
+                    .fusion_outcomes(a, b)
+                    .iter()
+                    .flat_map(|&f| t.fusion_outcomes(f, c).iter().copied())
+                    .collect();
+                ds.sort_unstable();
+                ds.dedup();
+                for d in ds {
+                    let Some(f_acb) = look.block(a, c, b, d) else {
+                        continue;
+                    };
+                    let f_cab = look.block(c, a, b, d);
+                    let f_abc = look.block(a, b, c, d);
+                    for &e in &f_acb.rows {
+                        for &g in &f_acb.cols {
+                            let lhs = field.product([
+                                &braid(c, a, e),
+                                look.entry(Some(f_acb), e, g),
+                                &braid(c, b, g),
+                            ]);
+                            let mut rhs = field.zero();
+                            if let Some(m) = f_cab {
+                                for &f in &m.cols {
+                                    let term = field.product([
+                                        look.entry(f_cab, e, f),
+                                        &braid(c, f, d),
+                                        look.entry(f_abc, f, g),
+                                    ]);
+                                    rhs = field.plus(&rhs, &term);
+                                }
+                            }
+                            if !tally.record(lhs == rhs, || {
+                                format!(
+                                    "at {}: left side {lhs}, right side {rhs}",
+                                    names(
+                                        t,
+                                        &[
+                                            ("a", a),
+                                            ("b", b),
+                                            ("c", c),
+                                            ("d", d),
+                                            ("e", e),
+                                            ("g", g)
+                                        ]
+                                    )
+                                )
+                            }) {
+                                return tally.finish();
+                            }
+                        }
+                    }
+                }
+            }
+        }
+    }
+    tally.finish()
+}
+
+/// θ_a d_a = Σ_c d_c R^{aa}_c, θ_0 = 1, θ_a = θ_a*.
+pub(crate) fn twist(t: &Theory) -> Check {
+    let mut tally = Tally::new(CheckId::Twist);
+    let field = t.field();
+    if !tally.record(t.twist(0).is_one(), || format!("θ_0 = {}", t.twist(0))) {
+        return tally.finish();
+    }
+    for a in 0..t.rank() {
+        let lhs = field.times(t.twist(a), t.quantum_dim(a));
+        let rhs = field.dot_same(
+            t.fusion_outcomes(a, a)
+                .iter()
+                .filter_map(|&c| t.r_ref(a, a, c).map(|r| (t.quantum_dim(c), r))),
+        );
+        if !tally.record(lhs == rhs, || {
+            format!(
+                "at a={}: θ_a d_a = {lhs}, Σ_c d_c R^{{aa}}_c = {rhs}",
+                t.label(a)
+            )
+        }) {
+            return tally.finish();
+        }
+        let ad = t.dual(a);
+        if !tally.record(t.twist(a) == t.twist(ad), || {
+            format!(
+                "θ_{} = {} but θ_{} = {}",
+                t.label(a),
+                t.twist(a),
+                t.label(ad),
+                t.twist(ad)
+            )
+        }) {
+            return tally.finish();
+        }
+    }
+    tally.finish()
+}
+
+/// R^{ba}_c R^{ab}_c θ_a θ_b = θ_c.
+pub(crate) fn balancing(t: &Theory) -> Check {
+    let mut tally = Tally::new(CheckId::Balancing);
+    let field = t.field();
+    for (a, b, c, _) in t.fusion().triples() {
+        let lhs = field.product([
+            &t.r_symbol(b, a, c),
+            &t.r_symbol(a, b, c),
+            t.twist(a),
+            t.twist(b),
+        ]);
+        if !tally.record(&lhs == t.twist(c), || {
+            format!(
+                "at a={} b={} c={}: R^{{ba}}_c R^{{ab}}_c θ_a θ_b = {lhs}, θ_c = {}",
+                t.label(a),
+                t.label(b),
+                t.label(c),
+                t.twist(c)
+            )
+        }) {
+            return tally.finish();
+        }
+    }
+    tally.finish()
+}
+
+/// d_a d_a* [F^{a a* a}_a]_00 [F^{a* a a*}_a*]_00 = 1.
+pub(crate) fn frobenius_schur(t: &Theory) -> Check {
+    let mut tally = Tally::new(CheckId::FrobeniusSchur);
+    let field = t.field();
+    for a in 1..t.rank() {
+        let ad = t.dual(a);
+        let x = t.f_symbol(a, ad, a, a, 0, 0);
+        let y = t.f_symbol(ad, a, ad, ad, 0, 0);
+        let value = field.product([t.quantum_dim(a), t.quantum_dim(ad), &x, &y]);
+        if !tally.record(value.is_one(), || {
+            format!("at a={}: the product is {value}", t.label(a))
+        }) {
+            return tally.finish();
+        }
+    }
+    tally.finish()
+}
+
+fn weight(t: &Theory, a: usize, b: usize, c: usize) -> Cyc {
+    t.vertex_weight(a, b, c)
+}
+
+/// [F⁻¹]_{fe} w(a,b,e) w(e,c,d) = conj([F]_{ef}) w(b,c,f) w(a,f,d) and
+/// R^{ab}_c conj(R^{ab}_c) w(b,a,c) = w(a,b,c): the gauge is unitary relative to the weights,
+/// so every generator built from it preserves the form G of math.md §4.5.
+pub(crate) fn invariant_form(t: &Theory) -> Check {
+    let mut tally = Tally::new(CheckId::InvariantForm);
+    let field: &CyclotomicField = t.field();
+    for (a, b, c, d) in t.f_block_labels() {
+        let Some(fwd) = t.f_block(a, b, c, d) else {
+            continue;
+        };
+        let inv = t.f_inverse_block(a, b, c, d);
+        for (i, &e) in fwd.rows.iter().enumerate() {
+            let row_w = field.times(&weight(t, a, b, e), &weight(t, e, c, d));
+            for (j, &f) in fwd.cols.iter().enumerate() {
+                let col_w = field.times(&weight(t, b, c, f), &weight(t, a, f, d));
+                let inv_entry = inv
+                    .and_then(|m| m.get(f, e))
+                    .cloned()
+                    .unwrap_or_else(|| field.zero());
+                let lhs = field.times(&inv_entry, &row_w);
+                let rhs = field.times(&field.conj(fwd.matrix.get(i, j)), &col_w);
+                if !tally.record(lhs == rhs, || {
+                    format!(
+                        "at {}: [F⁻¹]_fe w w = {lhs}, conj(F_ef) w w = {rhs}",
+                        names(
+                            t,
+                            &[("a", a), ("b", b), ("c", c), ("d", d), ("e", e), ("f", f)]
+                        )
+                    )
+                }) {
+                    return tally.finish();
+                }
+            }
+        }
+    }
+    for (a, b, c, _) in t.fusion().triples() {
+        let rr = t.r_symbol(a, b, c);
+        let lhs = field.product([&rr, &field.conj(&rr), &weight(t, b, a, c)]);
+        let rhs = weight(t, a, b, c);
+        if !tally.record(lhs == rhs, || {
+            format!(
+                "at a={} b={} c={}: |R^{{ab}}_c|² w(b,a,c) = {lhs}, w(a,b,c) = {rhs}",
+                t.label(a),
+                t.label(b),
+                t.label(c)
+            )
+        }) {
+            return tally.finish();
+        }
+    }
+    tally.finish()
+}
