@@ -1,0 +1,102 @@
+//! The genus-g block space of a theory: comb basis, invariant form and Dehn twists.
+
+use cyclorb_field::Cyc;
+use cyclorb_matrix::Operator;
+use cyclorb_theory::Theory;
+
+use crate::alpha::alpha_twist;
+use crate::basis::{CombBasis, CombState};
+use crate::beta::beta_twist;
+use crate::curves::{Curve, GeneratingSet};
+use crate::error::McgError;
+use crate::form::invariant_form;
+use crate::gamma::gamma_twist;
+
+/// V_g for one theory: the comb basis, the diagonal invariant Hermitian form G, and the
+/// Dehn twists about the curves of math.md §4.2.
+#[derive(Clone, Debug)]
+pub struct BlockSpace {
+    theory: Theory,
+    basis: CombBasis,
+    form: Vec<Cyc>,
+}
+
+impl BlockSpace {
+    /// Build V_g (g ≥ 1). Genus ≥ 2 needs F- and R-symbols; genus 1 needs only S and T
+    /// when the theory has no F-symbols (then only α and β twists exist, from S and T).
+    pub fn new(theory: Theory, genus: usize) -> Result<BlockSpace, McgError> {
+        if genus >= 2 && !theory.has_fr() {
+            return Err(McgError::NoFusionData {
+                theory: theory.name().to_string(),
+                genus,
+            });
+        }
+        let basis = CombBasis::new(&theory, genus)?;
+        let form = if theory.has_fr() {
+            invariant_form(&theory, &basis)?
+        } else {
+            vec![theory.field().one(); basis.dimension()]
+        };
+        Ok(BlockSpace {
+            theory,
+            basis,
+            form,
+        })
+    }
+
+    /// The theory.
+    pub fn theory(&self) -> &Theory {
+        &self.theory
+    }
+
+    /// The genus g.
+    pub fn genus(&self) -> usize {
+        self.basis.genus()
+    }
+
+    /// dim V_g.
+    pub fn dimension(&self) -> usize {
+        self.basis.dimension()
+    }
+
+    /// The comb basis vectors.
+    pub fn states(&self) -> &[CombState] {
+        self.basis.states()
+    }
+
+    /// The comb basis.
+    pub fn basis(&self) -> &CombBasis {
+        &self.basis
+    }
+
+    /// The diagonal of the invariant Hermitian form G.
+    pub fn form(&self) -> &[Cyc] {
+        &self.form
+    }
+
+    /// The Dehn twist about one curve, in its sparse form.
+    pub fn twist(&self, curve: Curve) -> Result<Operator, McgError> {
+        let g = self.genus();
+        let h = match curve {
+            Curve::Alpha(h) | Curve::Beta(h) => h,
+            Curve::Gamma(h) => h + 1,
+        };
+        if h >= g {
+            return Err(McgError::Genus(g));
+        }
+        match curve {
+            Curve::Alpha(h) => Ok(alpha_twist(&self.theory, &self.basis, h)),
+            Curve::Beta(h) if self.theory.has_fr() => beta_twist(&self.theory, &self.basis, h),
+            Curve::Beta(_) => crate::modular::beta_from_modular_data(&self.theory),
+            Curve::Gamma(h) => gamma_twist(&self.theory, &self.basis, h),
+        }
+    }
+
+    /// The twists of a generating set, with their curves.
+    pub fn generators(&self, set: GeneratingSet) -> Result<Vec<(Curve, Operator)>, McgError> {
+        set.curves(self.genus())
+            .into_iter()
+            .map(|c| Ok((c, self.twist(c)?)))
+            .collect()
+    }
+}
