@@ -1,0 +1,145 @@
+//! Exact univariate polynomials with integer coefficients, constant term first, kept
+//! trimmed (no zero leading coefficient; the zero polynomial is empty): products, exact
+//! division by monic polynomials, primitive parts, cyclotomic polynomials and evaluation
+//! modulo a prime. Rational polynomials enter through [`from_rationals`], which clears
+//! denominators (a polynomial over Q and its primitive integer multiple have the same
+//! roots and the same factors up to constants).
+
+use num_bigint::BigInt;
+use num_integer::Integer;
+use num_traits::{One, Signed, ToPrimitive, Zero};
+
+use cyclorb_field::numtheory::moebius;
+
+/// A polynomial over Z, constant term first, trimmed.
+pub(crate) type IntPoly = Vec<BigInt>;
+
+/// Drop zero leading coefficients.
+pub(crate) fn trim(mut p: IntPoly) -> IntPoly {
+    while p.last().is_some_and(Zero::is_zero) {
+        p.pop();
+    }
+    p
+}
+
+/// The degree (0 for constants, and for the zero polynomial by convention).
+pub(crate) fn degree(p: &[BigInt]) -> usize {
+    p.len().saturating_sub(1)
+}
+
+/// a·b.
+pub(crate) fn mul(a: &[BigInt], b: &[BigInt]) -> IntPoly {
+    if a.is_empty() || b.is_empty() {
+        return Vec::new();
+    }
+    let mut out = vec![BigInt::zero(); a.len() + b.len() - 1];
+    for (i, x) in a.iter().enumerate() {
+        if x.is_zero() {
+            continue;
+        }
+        for (j, y) in b.iter().enumerate() {
+            out[i + j] += x * y;
+        }
+    }
+    trim(out)
+}
+
+/// p / m when the monic polynomial m divides p exactly, `None` otherwise.
+pub(crate) fn div_exact_monic(p: &[BigInt], m: &[BigInt]) -> Option<IntPoly> {
+    let dm = m.len().checked_sub(1)?;
+    if !m[dm].is_one() {
+        return None;
+    }
+    if p.len() < m.len() {
+        return p.iter().all(Zero::is_zero).then(Vec::new);
+    }
+    let mut rem = p.to_vec();
+    let mut quot = vec![BigInt::zero(); p.len() - dm];
+    for i in (0..quot.len()).rev() {
+        let c = rem[i + dm].clone();
+        if c.is_zero() {
+            continue;
+        }
+        for (j, mj) in m.iter().enumerate() {
+            rem[i + j] -= &c * mj;
+        }
+        quot[i] = c;
+    }
+    rem.iter().all(Zero::is_zero).then(|| trim(quot))
+}
+
+/// The primitive part: divided by the gcd of the coefficients, leading coefficient positive.
+pub(crate) fn primitive_part(p: IntPoly) -> IntPoly {
+    let p = trim(p);
+    let Some(lead) = p.last() else {
+        return p;
+    };
+    let content = p.iter().fold(BigInt::zero(), |g, c| g.gcd(c));
+    let sign = if lead.is_negative() {
+        -BigInt::one()
+    } else {
+        BigInt::one()
+    };
+    let divisor = content * sign;
+    p.into_iter().map(|c| c / &divisor).collect()
+}
+
+/// The primitive integer polynomial proportional to Σ (num_k/den_k) x^k (denominators
+/// positive); empty for the zero polynomial.
+pub(crate) fn from_rationals(coefficients: &[(BigInt, BigInt)]) -> IntPoly {
+    let common = coefficients
+        .iter()
+        .fold(BigInt::one(), |l, (_, d)| l.lcm(d));
+    let scaled = coefficients
+        .iter()
+        .map(|(n, d)| n * (&common / d))
+        .collect();
+    primitive_part(scaled)
+}
+
+/// The cyclotomic polynomial Φ_m = Π_{d | m} (x^d − 1)^{μ(m/d)}: the factors with
+/// μ = +1 multiplied, then those with μ = −1 divided out exactly (they are monic).
+pub(crate) fn cyclotomic(m: u64) -> IntPoly {
+    let binomial = |d: u64| -> IntPoly {
+        let mut p = vec![BigInt::zero(); d as usize + 1];
+        p[0] = -BigInt::one();
+        p[d as usize] = BigInt::one();
+        p
+    };
+    let divisors: Vec<u64> = (1..=m).filter(|d| m % d == 0).collect();
+    let mut acc: IntPoly = vec![BigInt::one()];
+    for &d in &divisors {
+        if moebius(m / d) == 1 {
+            acc = mul(&acc, &binomial(d));
+        }
+    }
+    for &d in &divisors {
+        if moebius(m / d) == -1 {
+            acc = div_exact_monic(&acc, &binomial(d)).expect("Φ_m is a polynomial");
+        }
+    }
+    acc
+}
+
+/// p(x) mod q for a prime q < 2^63 and x < q.
+pub(crate) fn eval_mod(p: &[BigInt], x: u64, q: u64) -> u64 {
+    let modulus = BigInt::from(q);
+    p.iter().rev().fold(0u64, |acc, c| {
+        let c = c.mod_floor(&modulus).to_u64().expect("reduced below q");
+        ((acc as u128 * x as u128 + c as u128) % q as u128) as u64
+    })
+}
+
+/// Integer coefficients as decimal strings.
+pub(crate) fn to_strings(p: &[BigInt]) -> Vec<String> {
+    p.iter().map(ToString::to_string).collect()
+}
+
+/// Decimal strings back to a trimmed polynomial; `None` on a malformed number.
+pub(crate) fn from_strings(texts: &[String]) -> Option<IntPoly> {
+    texts
+        .iter()
+        .map(|t| t.parse::<BigInt>().ok())
+        .collect::<Option<Vec<_>>>()
+        .map(trim)
+}
