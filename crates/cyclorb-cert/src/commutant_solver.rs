@@ -97,6 +97,14 @@ fn unknowns_of(classes: &[usize]) -> usize {
     sizes.iter().map(|s| s * s).sum()
 }
 
+/// A diagonalisable generator and the cut its eigenbasis gives.
+struct Candidate<E> {
+    generator: usize,
+    unknowns: usize,
+    classes: Vec<usize>,
+    vectors: Rows<E>,
+}
+
 /// Choose the frame: the diagonal generators if any; else the diagonalisable generator
 /// (among `candidates`) leaving the fewest unknowns; else no cut.
 fn choose_frame<S: Scalars>(
@@ -128,22 +136,33 @@ fn choose_frame<S: Scalars>(
         });
     }
     let roots = s.roots_of_unity();
-    let mut best: Option<(usize, usize, Vec<usize>, Rows<S::E>)> = None;
-    for &g in candidates {
-        let Some((values, vectors)) = eigenbasis(s, &gens[g], &roots)? else {
+    let mut best: Option<Candidate<S::E>> = None;
+    for &generator in candidates {
+        let Some(basis) = eigenbasis(s, &gens[generator], &roots)? else {
             continue;
         };
-        let classes = classes_by(d, |i| values[i].clone());
+        let classes = classes_by(d, |i| basis.values[i].clone());
         let unknowns = unknowns_of(&classes);
         let better = match &best {
-            Some((_, fewest, _, _)) => unknowns < *fewest,
+            Some(b) => unknowns < b.unknowns,
             None => true,
         };
         if better {
-            best = Some((g, unknowns, classes, vectors));
+            best = Some(Candidate {
+                generator,
+                unknowns,
+                classes,
+                vectors: basis.vectors,
+            });
         }
     }
-    let Some((g, _, classes, vectors)) = best else {
+    let Some(Candidate {
+        generator: g,
+        classes,
+        vectors,
+        ..
+    }) = best
+    else {
         return Ok(Frame {
             reduction: Reduction::None,
             classes: vec![0; d],
@@ -189,10 +208,10 @@ pub(crate) fn solve<S: Scalars>(
     };
     let mut index = vec![vec![None; d]; d];
     let mut unknowns = 0;
-    for i in 0..d {
-        for j in 0..d {
-            if frame.classes[i] == frame.classes[j] {
-                index[i][j] = Some(unknowns);
+    for (row, class_i) in index.iter_mut().zip(&frame.classes) {
+        for (slot, class_j) in row.iter_mut().zip(&frame.classes) {
+            if class_i == class_j {
+                *slot = Some(unknowns);
                 unknowns += 1;
             }
         }

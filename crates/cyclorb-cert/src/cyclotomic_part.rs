@@ -100,3 +100,43 @@ pub(crate) fn strip(p: &[BigInt]) -> Stripped {
 pub(crate) fn has_no_cyclotomic_factor(p: &[BigInt]) -> bool {
     strip(p).factors.is_empty()
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::poly::mul;
+
+    fn ints(cs: &[i64]) -> IntPoly {
+        cs.iter().map(|&c| BigInt::from(c)).collect()
+    }
+
+    #[test]
+    fn every_cyclotomic_factor_is_removed() {
+        // (x − 1)² · Φ_3 · Φ_105 · (x² − 34x + 1)
+        let mut p = mul(&ints(&[-1, 1]), &ints(&[-1, 1]));
+        p = mul(&p, &ints(&[1, 1, 1]));
+        p = mul(&p, &cyclotomic(105));
+        p = mul(&p, &ints(&[1, -34, 1]));
+        let stripped = strip(&p);
+        let orders: Vec<(u64, u32)> = stripped
+            .factors
+            .iter()
+            .map(|f| (f.order, f.multiplicity))
+            .collect();
+        assert_eq!(orders, vec![(1, 2), (3, 1), (105, 1)]);
+        assert_eq!(stripped.rest, ints(&[1, -34, 1]));
+        assert!(has_no_cyclotomic_factor(&stripped.rest));
+        // x^12 − 1 is the product of Φ_d over d | 12: nothing remains
+        let stripped = strip(&ints(&[-1, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 1]));
+        assert_eq!(stripped.rest, ints(&[1]));
+        assert_eq!(stripped.factors.len(), 6);
+    }
+
+    #[test]
+    fn the_sieve_matches_euler_phi() {
+        let table = phi_table(200);
+        for m in 1..=200u64 {
+            assert_eq!(table[m as usize], cyclorb_field::numtheory::euler_phi(m));
+        }
+    }
+}

@@ -157,14 +157,19 @@ pub(crate) fn inverse<S: Scalars>(s: &S, a: &Rows<S::E>) -> Result<Rows<S::E>, C
     Ok(work.into_iter().map(|row| row[d..].to_vec()).collect())
 }
 
+/// A basis of eigenvectors and their eigenvalues (`values[k]` belongs to `vectors[k]`).
+pub(crate) struct Eigenbasis<E> {
+    pub(crate) values: Vec<E>,
+    pub(crate) vectors: Rows<E>,
+}
+
 /// An eigenbasis of `a` with eigenvalues taken from `candidates`, when `a` is diagonalisable
-/// with all its eigenvalues among them: the eigenvalue of each basis vector and the basis
-/// vectors (one per returned eigenvalue, in order). `None` otherwise.
+/// with all its eigenvalues among them; `None` otherwise.
 pub(crate) fn eigenbasis<S: Scalars>(
     s: &S,
     a: &Rows<S::E>,
     candidates: &[S::E],
-) -> Result<Option<(Vec<S::E>, Rows<S::E>)>, CertError> {
+) -> Result<Option<Eigenbasis<S::E>>, CertError> {
     let d = a.len();
     let mut values = Vec::with_capacity(d);
     let mut vectors = Vec::with_capacity(d);
@@ -183,5 +188,5 @@ pub(crate) fn eigenbasis<S: Scalars>(
             break;
         }
     }
-    Ok((vectors.len() == d).then_some((values, vectors)))
+    Ok((vectors.len() == d).then_some(Eigenbasis { values, vectors }))
 }

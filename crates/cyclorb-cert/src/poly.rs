@@ -143,3 +143,45 @@ pub(crate) fn from_strings(texts: &[String]) -> Option<IntPoly> {
         .collect::<Option<Vec<_>>>()
         .map(trim)
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn ints(cs: &[i64]) -> IntPoly {
+        cs.iter().map(|&c| BigInt::from(c)).collect()
+    }
+
+    #[test]
+    fn cyclotomic_polynomials() {
+        // Φ_1 = x − 1, Φ_6 = x² − x + 1, Φ_12 = x⁴ − x² + 1 (textbook values; common practice)
+        assert_eq!(cyclotomic(1), ints(&[-1, 1]));
+        assert_eq!(cyclotomic(6), ints(&[1, -1, 1]));
+        assert_eq!(cyclotomic(12), ints(&[1, 0, -1, 0, 1]));
+        // Φ_105 is the first with a coefficient outside {0, ±1}: −2 at x⁷ and x⁴¹
+        // (Migotti 1883; common practice), of degree φ(105) = 48
+        let phi105 = cyclotomic(105);
+        assert_eq!(degree(&phi105), 48);
+        assert_eq!(phi105[7], BigInt::from(-2));
+        assert_eq!(phi105[41], BigInt::from(-2));
+        assert!(phi105
+            .iter()
+            .enumerate()
+            .all(|(k, c)| k == 7 || k == 41 || c.magnitude() <= &1u32.into()));
+    }
+
+    #[test]
+    fn exact_division_and_primitive_parts() {
+        let p = mul(&ints(&[-1, 1]), &ints(&[1, 1, 1])); // x³ − 1
+        assert_eq!(p, ints(&[-1, 0, 0, 1]));
+        assert_eq!(div_exact_monic(&p, &ints(&[-1, 1])), Some(ints(&[1, 1, 1])));
+        assert_eq!(div_exact_monic(&p, &ints(&[1, 1])), None);
+        assert_eq!(primitive_part(ints(&[-4, 6, -2])), ints(&[2, -3, 1]));
+        let halves = [
+            (BigInt::from(1), BigInt::from(2)),
+            (BigInt::from(-3), BigInt::from(4)),
+        ];
+        assert_eq!(from_rationals(&halves), ints(&[-2, 3]));
+        assert_eq!(eval_mod(&ints(&[1, 0, 1]), 3, 7), 3);
+    }
+}

@@ -112,10 +112,10 @@ fn candidate_blocks(w: &Matrix) -> Vec<Vec<usize>> {
         let mut next = 0;
         while let Some(&i) = members.get(next) {
             next += 1;
-            for j in 0..d {
+            for (j, slot) in component.iter_mut().enumerate() {
                 let linked = !w.get(i, j).is_zero() || !w.get(j, i).is_zero();
-                if linked && component[j] == usize::MAX {
-                    component[j] = id;
+                if linked && *slot == usize::MAX {
+                    *slot = id;
                     members.push(j);
                 }
             }
