@@ -1,5 +1,7 @@
 //! Command-line grammar: one struct per subcommand, shared output options.
 
+use std::path::PathBuf;
+
 use clap::{Args, Parser, Subcommand};
 
 /// Exact orbits of mapping class groups on conformal blocks, over cyclotomic fields.
@@ -19,6 +21,10 @@ pub struct Cli {
 pub enum Command {
     /// Arithmetic of one cyclotomic field: evaluate expressions exactly.
     Field(FieldArgs),
+    /// The genus-G comb basis and Dehn-twist generators of a theory, exactly.
+    Twists(TwistsArgs),
+    /// The orbit of the vacuum line under the mapping class group, and its Poincaré sum.
+    Orbit(OrbitArgs),
 }
 
 /// `cyclorb field`: exact evaluation in Q(ζ_n).
@@ -30,4 +36,64 @@ pub struct FieldArgs {
     /// Expressions to evaluate (syntax: integers, z, i, zeta(m), sqrt(r), + - * / ^, parentheses).
     #[arg(required = true)]
     pub expressions: Vec<String>,
+}
+
+/// `cyclorb twists`: the block space and its Dehn twists.
+#[derive(Args, Debug)]
+pub struct TwistsArgs {
+    /// Theory: a built-in spec (see `cyclorb theories`) or a theory file.
+    pub spec: String,
+    /// Genus of the surface (≥ 1).
+    #[arg(long, short = 'g')]
+    pub genus: usize,
+    /// Generating set of Dehn twists: humphries (2g+1 curves) or lickorish (3g−1 curves).
+    #[arg(long, default_value = "humphries")]
+    pub set: String,
+    /// Verify the mapping class group relations and form invariance exactly.
+    #[arg(long)]
+    pub check: bool,
+    /// Write the generators (exact, sparse) to this file; `cyclorb orbit --matrices` reads it.
+    #[arg(long)]
+    pub out: Option<PathBuf>,
+}
+
+/// `cyclorb orbit`: saturate the orbit of the seed line and sum it.
+#[derive(Args, Debug)]
+pub struct OrbitArgs {
+    /// Theory: a built-in spec or a theory file (omit with --matrices).
+    #[arg(required_unless_present = "matrices", conflicts_with = "matrices")]
+    pub spec: Option<String>,
+    /// Genus of the surface (with SPEC).
+    #[arg(long, short = 'g', required_unless_present = "matrices")]
+    pub genus: Option<usize>,
+    /// Generating set of Dehn twists: humphries or lickorish (with SPEC).
+    #[arg(long, default_value = "humphries")]
+    pub set: String,
+    /// Raw mode: a generator-set file (as written by `cyclorb twists --out`).
+    #[arg(long, requires = "seed")]
+    pub matrices: Option<PathBuf>,
+    /// Raw mode: the seed-vector file.
+    #[arg(long, requires = "matrices")]
+    pub seed: Option<PathBuf>,
+    /// Stop unsaturated (exit 3) after this many lines.
+    #[arg(long)]
+    pub limit: Option<usize>,
+    /// Stop unsaturated (exit 3) once the stored lines take this many MiB.
+    #[arg(long, value_name = "MIB")]
+    pub memory_limit: Option<usize>,
+    /// Worker threads (the answer does not depend on it); default: every core.
+    #[arg(long)]
+    pub threads: Option<usize>,
+    /// Write a resumable checkpoint here periodically and when stopped.
+    #[arg(long)]
+    pub checkpoint: Option<PathBuf>,
+    /// Seconds between periodic checkpoints.
+    #[arg(long, default_value_t = 120)]
+    pub checkpoint_every: u64,
+    /// Continue from this checkpoint (it keeps being updated unless --checkpoint names another file).
+    #[arg(long)]
+    pub resume: Option<PathBuf>,
+    /// Print the word (in generator names) of this many orbit elements, farthest first.
+    #[arg(long, default_value_t = 0)]
+    pub words: usize,
 }

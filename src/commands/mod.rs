@@ -1,18 +1,23 @@
-//! One module per subcommand; each returns an [`Outcome`] that `dispatch` maps to an exit code.
+//! One module per subcommand; each returns an `Outcome` that `dispatch` maps to an exit code.
 
+mod common;
 mod field;
+mod orbit;
 pub mod output;
+mod progress;
+mod twists;
 
 use std::process::ExitCode;
 
 use crate::cli::{Cli, Command};
-pub use output::Outcome;
 
 /// Run the chosen subcommand and turn its outcome into the process exit code.
 pub fn dispatch(cli: Cli) -> ExitCode {
     let json = cli.json;
     let outcome = match &cli.command {
         Command::Field(a) => field::run(a, json),
+        Command::Twists(a) => twists::run(a, json),
+        Command::Orbit(a) => orbit::run(a, json),
     };
     outcome.finish()
 }

@@ -1,0 +1,41 @@
+//! Pieces shared by the theory-driven commands: reading a spec, building the block space,
+//! naming generating sets, and exporting generators in the orbit engine's file format.
+
+use cyclorb_matrix::Operator;
+use cyclorb_mcg::{BlockSpace, Curve, GeneratingSet};
+use cyclorb_orbit::GeneratorSet;
+use cyclorb_theory::parse_spec;
+
+/// The generating set named on the command line.
+pub fn parse_set(name: &str) -> Result<GeneratingSet, String> {
+    match name {
+        "humphries" => Ok(GeneratingSet::Humphries),
+        "lickorish" => Ok(GeneratingSet::Lickorish),
+        other => Err(format!(
+            "unknown generating set {other:?} (known: humphries, lickorish)"
+        )),
+    }
+}
+
+/// Read a theory (built-in spec or file) and build its genus-g block space.
+pub fn build_space(spec: &str, genus: usize) -> Result<BlockSpace, String> {
+    let theory = parse_spec(spec).map_err(|e| e.to_string())?;
+    BlockSpace::new(theory, genus).map_err(|e| e.to_string())
+}
+
+/// The generators of a block space as the orbit engine's generator set (with basis labels,
+/// invariant form, theory and genus recorded).
+pub fn generator_set_file(space: &BlockSpace, gens: &[(Curve, Operator)]) -> GeneratorSet {
+    let theory = space.theory();
+    let unit_form = space.form().iter().all(|g| g.is_one());
+    GeneratorSet {
+        conductor: theory.field().conductor(),
+        dimension: space.dimension(),
+        names: gens.iter().map(|(c, _)| c.to_string()).collect(),
+        operators: gens.iter().map(|(_, op)| op.clone()).collect(),
+        basis_labels: space.states().iter().map(|s| s.describe(theory)).collect(),
+        form: (!unit_form).then(|| space.form().to_vec()),
+        theory: Some(theory.name().to_string()),
+        genus: Some(space.genus() as u32),
+    }
+}

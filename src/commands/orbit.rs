@@ -1,0 +1,197 @@
+//! `cyclorb orbit`: the orbit of the vacuum line (or any seed) and its exact Poincaré sum,
+//! with limits, checkpoints, resume, and a progress display on terminals.
+
+use std::sync::atomic::AtomicBool;
+use std::sync::Arc;
+use std::time::{Duration, Instant};
+
+use cyclorb_orbit::{
+    install_stop_handler, CheckpointPlan, GeneratorSet, Orbit, OrbitOptions, OrbitProblem,
+    OrbitReport, Seed,
+};
+use serde_json::json;
+
+use super::common::{build_space, generator_set_file, parse_set};
+use super::output::{Outcome, Report};
+use super::progress::OrbitProgress;
+use crate::cli::OrbitArgs;
+
+/// The generator set and seed from either a theory or raw files.
+fn load_problem(args: &OrbitArgs) -> Result<OrbitProblem, String> {
+    let (gens, seed): (GeneratorSet, Seed) = match (&args.matrices, &args.seed, &args.spec) {
+        (Some(m), Some(s), _) => (
+            GeneratorSet::read(m).map_err(|e| e.to_string())?,
+            Seed::read(s).map_err(|e| e.to_string())?,
+        ),
+        (_, _, Some(spec)) => {
+            let genus = args.genus.ok_or("--genus is required with a theory")?;
+            let set = parse_set(&args.set)?;
+            let space = build_space(spec, genus)?;
+            let twists = space.generators(set).map_err(|e| e.to_string())?;
+            let gens = generator_set_file(&space, &twists);
+            let seed = Seed::basis_vector(
+                space.theory().field(),
+                space.dimension(),
+                space.basis().vacuum(),
+            );
+            (gens, seed)
+        }
+        _ => return Err("give a theory SPEC with --genus, or --matrices FILE --seed FILE".into()),
+    };
+    OrbitProblem::new(gens, &seed).map_err(|e| e.to_string())
+}
+
+fn options(args: &OrbitArgs, stop: Arc<AtomicBool>) -> OrbitOptions {
+    let threads = args
+        .threads
+        .unwrap_or_else(|| std::thread::available_parallelism().map_or(1, |n| n.get()));
+    let checkpoint_path = args.checkpoint.clone().or_else(|| args.resume.clone());
+    OrbitOptions {
+        limit: args.limit,
+        memory_ceiling: args.memory_limit.map(|m| m << 20),
+        threads,
+        checkpoint: checkpoint_path.map(|path| CheckpointPlan {
+            path,
+            every: Duration::from_secs(args.checkpoint_every.max(1)),
+        }),
+        stop: Some(stop),
+        ..OrbitOptions::default()
+    }
+}
+
+fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
+    let mut t = String::new();
+    if let Some(theory) = &report.theory {
+        t.push_str(&format!("theory {theory}"));
+        if let Some(g) = report.genus {
+            t.push_str(&format!(" at genus {g}"));
+        }
+        t.push('\n');
+    }
+    t.push_str(&format!(
+        "dimension {} over Q(ζ_{}), {} generators ({})\n",
+        report.dimension,
+        report.conductor,
+        report.generators,
+        report.generator_names.join(", ")
+    ));
+    if report.saturated {
+        t.push_str(&format!(
+            "orbit: {} lines, saturated (closed under every generator)\n",
+            report.orbit_size
+        ));
+    } else {
+        t.push_str(&format!(
+            "orbit: not saturated after {} lines (stopped: {})\n",
+            report.orbit_size,
+            report
+                .stop_reason
+                .map_or("unknown".to_string(), |r| format!("{r:?}").to_lowercase())
+        ));
+    }
+    t.push_str(&format!("layer sizes: {:?}\n", report.layer_sizes));
+    let p = &report.poincare_sum;
+    match (p.is_scalar, &p.prefactor) {
+        (Some(true), Some(l)) => t.push_str(&format!("Poincaré sum: B = {l} · G⁻¹ (scalar)\n")),
+        (Some(false), _) => {
+            t.push_str("Poincaré sum: B is not a multiple of G⁻¹\n");
+            if let Some(inv) = &p.invariants {
+                for term in inv {
+                    t.push_str(&format!(
+                        "  coefficient {} on invariant {:?}\n",
+                        term.coefficient, term.matrix
+                    ));
+                }
+            }
+        }
+        _ => t.push_str(&format!(
+            "Poincaré sum: not computed ({})\n",
+            p.note.clone().unwrap_or_default()
+        )),
+    }
+    if let Some(ok) = p.trace_check {
+        t.push_str(&format!(
+            "check tr(B·G) = |orbit|·⟨v₀,v₀⟩_G: {}\n",
+            if ok { "holds" } else { "FAILS" }
+        ));
+    }
+    for (i, w) in words {
+        t.push_str(&format!(
+            "word of line {i}: {}\n",
+            if w.is_empty() {
+                "(seed)".into()
+            } else {
+                w.join(" ")
+            }
+        ));
+    }
+    t.push_str(&format!(
+        "time {:.2} s, store {} bytes ({:.1} bytes per line)",
+        report.elapsed_seconds, report.store_bytes, report.bytes_per_element
+    ));
+    if let Some(m) = report.peak_memory_bytes {
+        t.push_str(&format!(", peak memory {:.1} MiB", m as f64 / 1048576.0));
+    }
+    t.push('\n');
+    t
+}
+
+/// Run `cyclorb orbit`.
+pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
+    let started = Instant::now();
+    let problem = match load_problem(args) {
+        Ok(p) => p,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let stop = Arc::new(AtomicBool::new(false));
+    if let Err(e) = install_stop_handler(&stop) {
+        return Outcome::Invalid(format!("cannot install the interrupt handler: {e}"));
+    }
+    let opts = options(args, stop);
+    let mut progress = OrbitProgress::new(as_json);
+    let result: Result<Orbit, _> = match &args.resume {
+        Some(path) => problem.resume(path, &opts, &mut progress),
+        None => problem.enumerate(&opts, &mut progress),
+    };
+    progress.finish();
+    let orbit = match result {
+        Ok(o) => o,
+        Err(e) => return Outcome::Invalid(e.to_string()),
+    };
+    let sum = if orbit.is_saturated() {
+        Some(
+            problem
+                .poincare_sum(&orbit, opts.threads)
+                .map_err(|e| e.to_string()),
+        )
+    } else {
+        None
+    };
+    let poincare = match &sum {
+        Some(Ok(s)) => Ok(s),
+        Some(Err(e)) => Err(e.clone()),
+        None => Err("the orbit is not saturated".to_string()),
+    };
+    let report = OrbitReport::new(&problem, &orbit, poincare, started.elapsed());
+    let words: Vec<(usize, Vec<String>)> = (0..args.words.min(orbit.len()))
+        .map(|k| orbit.len() - 1 - k)
+        .map(|i| (i, problem.word_names(&orbit, i)))
+        .collect();
+    let mut value = serde_json::to_value(&report).expect("reports serialise");
+    if !words.is_empty() {
+        value["words"] = json!(words
+            .iter()
+            .map(|(i, w)| json!({"line": i, "word": w}))
+            .collect::<Vec<_>>());
+    }
+    let text = text_report(&report, &words);
+    let trace_failed = report.poincare_sum.trace_check == Some(false);
+    let out = Report::new(value, text, as_json);
+    if trace_failed {
+        Outcome::CheckFailed(out)
+    } else if !orbit.is_saturated() {
+        Outcome::Stopped(out)
+    } else {
+        Outcome::Done(out)
+    }
+}
