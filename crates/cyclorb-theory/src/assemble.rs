@@ -39,9 +39,11 @@ pub(crate) enum RawStructure {
     ModularData { s: Matrix },
 }
 
-/// F-symbols: every block given, or a source that computes blocks on first use.
+/// F-symbols: every block given (with or without its inverse), or a source that computes
+/// blocks on first use.
 pub(crate) enum RawF {
     Stored(HashMap<u64, FMatrix>),
+    Blocks(HashMap<u64, FBlock>),
     Lazy(FSource),
 }
 
@@ -171,9 +173,9 @@ impl RawTheory {
                         }
                         RawF::Stored(out)
                     }
-                    RawF::Lazy(_) => {
+                    RawF::Blocks(_) | RawF::Lazy(_) => {
                         return Err(TheoryError::Internal(format!(
-                            "{}: computed F-symbols were prepared in a field without D",
+                            "{}: F-symbols were prepared in a field without D",
                             self.name
                         )))
                     }
@@ -263,6 +265,21 @@ pub(crate) fn assemble(raw: RawTheory) -> Result<Theory, TheoryError> {
                         });
                         let cell = OnceLock::new();
                         cell.set(FBlock { forward, inverse }).expect("fresh cell");
+                        cells.insert(key, cell);
+                    }
+                    FSource::Stored
+                }
+                RawF::Blocks(mut blocks) => {
+                    for (a, b, c, d) in admissible_blocks(&raw.fusion) {
+                        let key = key4(rank, a, b, c, d);
+                        let block = blocks.remove(&key).ok_or_else(|| {
+                            TheoryError::Internal(format!(
+                                "{}: no F-block for ({a}, {b}, {c}, {d})",
+                                raw.name
+                            ))
+                        })?;
+                        let cell = OnceLock::new();
+                        cell.set(block).expect("fresh cell");
                         cells.insert(key, cell);
                     }
                     FSource::Stored

@@ -7,6 +7,7 @@ use crate::theory::Theory;
 
 /// SHA-256 (hex) of the theory's canonical data text.
 pub(crate) fn data_hash(t: &Theory) -> String {
+    t.compute_all_f();
     let text = serde_json::Value::Object(data_json(t)).to_string();
     let mut h = Sha256::new();
     h.update(b"cyclorb-theory/1\n");

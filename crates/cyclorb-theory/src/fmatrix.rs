@@ -61,8 +61,24 @@ impl FMatrix {
 
     /// The same block with every entry mapped (Galois action, embedding, scaling).
     pub(crate) fn map_entries(&self, field: &CyclotomicField, f: impl Fn(&Cyc) -> Cyc) -> FMatrix {
+        self.map_indexed(field, |_, _, x| f(x))
+    }
+
+    /// The same block with entry (row label, column label, value) mapped.
+    pub(crate) fn map_indexed(
+        &self,
+        field: &CyclotomicField,
+        f: impl Fn(usize, usize, &Cyc) -> Cyc,
+    ) -> FMatrix {
         let rows: Vec<Vec<Cyc>> = (0..self.matrix.rows())
-            .map(|i| self.matrix.row(i).iter().map(&f).collect())
+            .map(|i| {
+                self.matrix
+                    .row(i)
+                    .iter()
+                    .enumerate()
+                    .map(|(j, x)| f(self.rows[i], self.cols[j], x))
+                    .collect()
+            })
             .collect();
         let matrix = if rows.is_empty() {
             Matrix::zeros(field, 0, 0)

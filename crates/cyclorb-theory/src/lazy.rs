@@ -99,3 +99,27 @@ impl Theory {
         }
     }
 }
+
+impl Theory {
+    /// Compute every F-block not yet computed, on all available cores (blocks are cached, so
+    /// this only front-loads work that later lookups would do one by one).
+    pub fn compute_all_f(&self) {
+        let labels = self.f_block_labels();
+        if labels.is_empty() {
+            return;
+        }
+        let threads = std::thread::available_parallelism()
+            .map_or(1, |n| n.get())
+            .clamp(1, labels.len());
+        std::thread::scope(|scope| {
+            for worker in 0..threads {
+                let labels = &labels;
+                scope.spawn(move || {
+                    for &(a, b, c, d) in labels.iter().skip(worker).step_by(threads) {
+                        let _ = self.f_block(a, b, c, d);
+                    }
+                });
+            }
+        });
+    }
+}

@@ -24,7 +24,8 @@
 //! ## Where theories come from
 //! - Built-ins ([`builtin_catalogue`]): `ising`, `ising:NU`, `fibonacci`,
 //!   `tricritical-ising`, `su2:K`, `so3:K`, `zn:N:P`, `minimal:P:Q`.
-//! - Products `A*B`, conjugates `conj(A)` and `galois:K(A)`, parentheses ([`parse_spec`]).
+//! - Products `A*B`, conjugates `conj(A)` and `galois:K(A)`, a reproducible non-unitary
+//!   gauge `gauge:SEED(A)`, parentheses ([`parse_spec`]).
 //! - Theory files (JSON, [`theory_from_json`] / [`read_theory_file`]; [`theory_to_json`]
 //!   writes one).
 //!
@@ -86,7 +87,7 @@ pub use exact_real::real_sign;
 pub use file::{read_theory_file, theory_from_json, theory_to_json, FORMAT_NAME, FORMAT_VERSION};
 pub use fmatrix::FMatrix;
 pub use fusion::FusionRules;
-pub use ops::{conjugate, galois, product, renamed};
+pub use ops::{conjugate, galois, product, random_gauge, regauged, renamed};
 pub use roots::root_of_unity;
 pub use spec::parse_spec;
 pub use theory::Theory;

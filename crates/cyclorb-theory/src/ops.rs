@@ -12,7 +12,7 @@ use crate::assemble::{assemble, RawF, RawStructure, RawTheory};
 use crate::error::TheoryError;
 use crate::fusion::FusionRules;
 use crate::roots::canonical_conductor;
-use crate::structure::{key3, FSource};
+use crate::structure::{key3, key4, FBlock, FSource};
 use crate::theory::Theory;
 
 /// The Deligne product A ⊠ B: labels are pairs (a, b) with index a·rank(B) + b and name
@@ -182,4 +182,111 @@ impl Theory {
     pub(crate) fn s_matrix_ref(&self) -> &Matrix {
         &self.s
     }
+}
+
+/// The theory in another gauge: the splitting vertex (a, b → c) is rescaled by u(a, b, c)
+/// (taken as 1 when a or b is the vacuum, so the unit normalisation survives). Following
+/// math.md §3, [F^{abc}_d]_{ef} gains u^{ab}_e u^{ec}_d/(u^{bc}_f u^{af}_d), R^{ab}_c gains
+/// u^{ab}_c/u^{ba}_c and the vertex weight w(a,b,c) gains |u^{ab}_c|². Every block is computed
+/// (the result stores them). Fails for modular data alone or a vanishing factor.
+pub fn regauged(
+    theory: &Theory,
+    name: &str,
+    u: impl Fn(usize, usize, usize) -> Cyc,
+) -> Result<Theory, TheoryError> {
+    let Some(braiding) = &theory.braiding else {
+        return Err(TheoryError::Spec {
+            spec: name.to_string(),
+            reason: "a gauge change needs F- and R-symbols".into(),
+        });
+    };
+    let field = theory.field().clone();
+    let rank = theory.rank();
+    let mut factor = HashMap::new();
+    let mut inverse = HashMap::new();
+    for (a, b, c, _) in theory.fusion().triples() {
+        let x = if a == 0 || b == 0 {
+            field.one()
+        } else {
+            u(a, b, c)
+        };
+        let inv = field.inverse(&x).ok_or_else(|| TheoryError::Spec {
+            spec: name.to_string(),
+            reason: format!("the gauge factor at ({a}, {b}, {c}) vanishes"),
+        })?;
+        factor.insert((a, b, c), x);
+        inverse.insert((a, b, c), inv);
+    }
+    let one = field.one();
+    let fac = |a: usize, b: usize, c: usize| factor.get(&(a, b, c)).unwrap_or(&one);
+    let inv = |a: usize, b: usize, c: usize| inverse.get(&(a, b, c)).unwrap_or(&one);
+    let mut blocks = HashMap::new();
+    for (a, b, c, d) in theory.f_block_labels() {
+        let Some(fwd) = theory.f_block(a, b, c, d) else {
+            continue;
+        };
+        let scale = |e: usize, f: usize| {
+            field.product([fac(a, b, e), fac(e, c, d), inv(b, c, f), inv(a, f, d)])
+        };
+        let forward = fwd.map_indexed(&field, |e, f, x| field.times(x, &scale(e, f)));
+        let backward = theory.f_inverse_block(a, b, c, d).map(|m| {
+            m.map_indexed(&field, |f, e, x| {
+                field.times(x, &field.inverse(&scale(e, f)).expect("non-zero"))
+            })
+        });
+        blocks.insert(
+            key4(rank, a, b, c, d),
+            FBlock {
+                forward,
+                inverse: backward,
+            },
+        );
+    }
+    let mut r = HashMap::new();
+    let mut weights = HashMap::new();
+    for (a, b, c, _) in theory.fusion().triples() {
+        let key = key3(rank, a, b, c);
+        if let Some(x) = braiding.r.get(&key) {
+            r.insert(key, field.product([x, fac(a, b, c), inv(b, a, c)]));
+        }
+        let size = field.times(fac(a, b, c), &field.conj(fac(a, b, c)));
+        let w = field.times(&theory.vertex_weight(a, b, c), &size);
+        if !w.is_one() {
+            weights.insert(key, w);
+        }
+    }
+    assemble(RawTheory {
+        name: name.to_string(),
+        field: field.clone(),
+        labels: theory.labels().to_vec(),
+        fusion: theory.fusion().clone(),
+        dims: theory.quantum_dims().to_vec(),
+        twists: theory.twists().to_vec(),
+        structure: RawStructure::Braided {
+            f: RawF::Blocks(blocks),
+            r,
+            weights,
+        },
+    })
+}
+
+/// A reproducible non-unitary gauge: u(a, b, c) = m + ζ_n^j with m ∈ {2, 3} and j drawn from
+/// a generator seeded by `seed` (|ζ^j| = 1 < m, so u ≠ 0). Spec syntax `gauge:SEED(A)`.
+pub fn random_gauge(theory: &Theory, seed: u64) -> Result<Theory, TheoryError> {
+    let n = theory.conductor() as u64;
+    let field = theory.field().clone();
+    let rank = theory.rank() as u64;
+    let draw = |a: usize, b: usize, c: usize| {
+        // splitmix64 of (seed, a, b, c)
+        let mut x = seed.wrapping_add(0x9e37_79b9_7f4a_7c15).wrapping_add(
+            ((a as u64 * rank + b as u64) * rank + c as u64).wrapping_mul(0xbf58_476d_1ce4_e5b9),
+        );
+        x = (x ^ (x >> 30)).wrapping_mul(0xbf58_476d_1ce4_e5b9);
+        x = (x ^ (x >> 27)).wrapping_mul(0x94d0_49bb_1331_11eb);
+        x ^= x >> 31;
+        let m = 2 + (x % 2) as i64;
+        let j = ((x >> 8) % n.max(1)) as i64;
+        field.plus(&field.int(m), &field.zeta_pow(j))
+    };
+    regauged(theory, &format!("gauge:{seed}({})", theory.name()), draw)
 }

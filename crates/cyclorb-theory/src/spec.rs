@@ -3,7 +3,8 @@
 //! Grammar (whitespace ignored around operators):
 //! ```text
 //! spec   := factor ('*' factor)*
-//! factor := 'conj(' spec ')' | 'galois:' INT '(' spec ')' | '(' spec ')' | atom
+//! factor := 'conj(' spec ')' | 'galois:' INT '(' spec ')' | 'gauge:' INT '(' spec ')'
+//!         | '(' spec ')' | atom
 //! atom   := a built-in name (ising, ising:NU, fibonacci, tricritical-ising, su2:K, so3:K,
 //!           zn:N:P, minimal:P:Q) | a path to a theory file
 //! ```
@@ -14,7 +15,7 @@ use std::path::Path;
 use crate::builtins::{fibonacci, ising_type, minimal, so3, su2, tricritical_ising, zn};
 use crate::error::TheoryError;
 use crate::file::read_theory_file;
-use crate::ops::{galois, product};
+use crate::ops::{galois, product, random_gauge};
 use crate::theory::Theory;
 
 struct Parser<'a> {
@@ -72,6 +73,15 @@ impl<'a> Parser<'a> {
             let inner = self.spec()?;
             self.close()?;
             return galois(&inner, k);
+        }
+        if self.eat("gauge:") {
+            let seed = self.integer()?;
+            if !self.eat("(") {
+                return Err(self.err("expected '(' after gauge:SEED"));
+            }
+            let inner = self.spec()?;
+            self.close()?;
+            return random_gauge(&inner, seed.unsigned_abs());
         }
         if self.eat("(") {
             let inner = self.spec()?;

@@ -33,7 +33,7 @@ pub fn tricritical_ising() -> Result<Theory, TheoryError> {
 
 /// The built-in spec syntax with a one-line description each, for `cyclorb theories`.
 pub fn builtin_catalogue() -> Vec<(String, String)> {
-    let rows: [(&str, &str); 12] = [
+    let rows: [(&str, &str); 13] = [
         ("ising", "Ising anyons 1, sigma, psi; c = 1/2 (= ising:1)"),
         (
             "ising:NU",
@@ -65,6 +65,10 @@ pub fn builtin_catalogue() -> Vec<(String, String)> {
         (
             "galois:K(A)",
             "Galois conjugate zeta_n -> zeta_n^K of a spec, gcd(K, n) = 1, n its conductor",
+        ),
+        (
+            "gauge:SEED(A)",
+            "the same theory in a reproducible non-unitary gauge (vertex weights follow)",
         ),
         ("PATH.json", "a theory file (format: README, 'Theory files')"),
     ];

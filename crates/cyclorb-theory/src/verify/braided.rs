@@ -258,34 +258,24 @@ pub(crate) fn hexagon(t: &Theory, inverse: bool) -> Check {
     };
     let mut tally = Tally::new(id);
     let field = t.field();
-    let look = Lookup {
-        theory: t,
-        zero: field.zero(),
-    };
-    // (R^{yx}_z)⁻¹, computed once per triple (conjugation when |R| = 1)
-    let mut inverses = HashMap::new();
-    if inverse {
-        for (x, y, z, _) in t.fusion().triples() {
+    // the braiding used: R^{xy}_z, or (R^{yx}_z)⁻¹ (conjugation when |R| = 1)
+    let mut braid_table: HashMap<(usize, usize, usize), Cyc> = HashMap::new();
+    for (x, y, z, _) in t.fusion().triples() {
+        let value = if inverse {
             let r = t.r_symbol(y, x, z);
             let conj = field.conj(&r);
-            let inv = if field.times(&r, &conj).is_one() {
+            if field.times(&r, &conj).is_one() {
                 conj
             } else {
                 field.inverse(&r).unwrap_or_else(|| field.zero())
-            };
-            inverses.insert((x, y, z), inv);
-        }
-    }
-    let braid = |x: usize, y: usize, z: usize| -> Cyc {
-        if inverse {
-            inverses
-                .get(&(x, y, z))
-                .cloned()
-                .unwrap_or_else(|| field.zero())
+            }
         } else {
             t.r_symbol(x, y, z)
-        }
-    };
+        };
+        braid_table.insert((x, y, z), value);
+    }
+    let zero = field.zero();
+    let braid = |x: usize, y: usize, z: usize| braid_table.get(&(x, y, z)).unwrap_or(&zero);
     let r = t.rank();
     for a in 1..r {
         for b in 1..r {
@@ -298,29 +288,51 @@ pub(crate) fn hexagon(t: &Theory, inverse: bool) -> Check {
                 ds.sort_unstable();
                 ds.dedup();
                 for d in ds {
-                    let Some(f_acb) = look.block(a, c, b, d) else {
+                    let Some(f_acb) = t.f_block(a, c, b, d) else {
                         continue;
                     };
-                    let f_cab = look.block(c, a, b, d);
-                    let f_abc = look.block(a, b, c, d);
-                    for &e in &f_acb.rows {
-                        for &g in &f_acb.cols {
+                    let (Some(f_cab), Some(f_abc)) = (t.f_block(c, a, b, d), t.f_block(a, b, c, d))
+                    else {
+                        tally.record(false, || {
+                            format!(
+                                "F^{{cab}}_d or F^{{abc}}_d is missing at {}",
+                                names(t, &[("a", a), ("b", b), ("c", c), ("d", d)])
+                            )
+                        });
+                        return tally.finish();
+                    };
+                    // M[e][f] = [F^{cab}_d]_{ef} R^{cf}_d
+                    let m: Vec<Vec<Cyc>> = f_acb
+                        .rows
+                        .iter()
+                        .map(|&e| {
+                            f_cab
+                                .cols
+                                .iter()
+                                .map(|&f| {
+                                    f_cab.get(e, f).map_or_else(
+                                        || field.zero(),
+                                        |x| field.times(x, braid(c, f, d)),
+                                    )
+                                })
+                                .collect()
+                        })
+                        .collect();
+                    for (i, &e) in f_acb.rows.iter().enumerate() {
+                        let left_factor = braid(c, a, e);
+                        for (j, &g) in f_acb.cols.iter().enumerate() {
                             let lhs = field.product([
-                                &braid(c, a, e),
-                                look.entry(Some(f_acb), e, g),
-                                &braid(c, b, g),
+                                left_factor,
+                                f_acb.matrix.get(i, j),
+                                braid(c, b, g),
                             ]);
-                            let mut rhs = field.zero();
-                            if let Some(m) = f_cab {
-                                for &f in &m.cols {
-                                    let term = field.product([
-                                        look.entry(f_cab, e, f),
-                                        &braid(c, f, d),
-                                        look.entry(f_abc, f, g),
-                                    ]);
-                                    rhs = field.plus(&rhs, &term);
+                            let mut acc = DotAccumulator::new(field);
+                            for (mf, &f) in m[i].iter().zip(&f_cab.cols) {
+                                if let Some(x) = f_abc.get(f, g) {
+                                    acc.add_product(mf, x).expect("same field");
                                 }
                             }
+                            let rhs = acc.finish();
                             if !tally.record(lhs == rhs, || {
                                 format!(
                                     "at {}: left side {lhs}, right side {rhs}",
@@ -430,25 +442,27 @@ pub(crate) fn frobenius_schur(t: &Theory) -> Check {
     tally.finish()
 }
 
-fn weight(t: &Theory, a: usize, b: usize, c: usize) -> Cyc {
-    t.vertex_weight(a, b, c)
-}
-
 /// [F⁻¹]_{fe} w(a,b,e) w(e,c,d) = conj([F]_{ef}) w(b,c,f) w(a,f,d) and
 /// R^{ab}_c conj(R^{ab}_c) w(b,a,c) = w(a,b,c): the gauge is unitary relative to the weights,
 /// so every generator built from it preserves the form G of math.md §4.5.
 pub(crate) fn invariant_form(t: &Theory) -> Check {
     let mut tally = Tally::new(CheckId::InvariantForm);
     let field: &CyclotomicField = t.field();
+    let mut weights: HashMap<(usize, usize, usize), Cyc> = HashMap::new();
+    for (a, b, c, _) in t.fusion().triples() {
+        weights.insert((a, b, c), t.vertex_weight(a, b, c));
+    }
+    let one = field.one();
+    let weight = |a: usize, b: usize, c: usize| weights.get(&(a, b, c)).unwrap_or(&one);
     for (a, b, c, d) in t.f_block_labels() {
         let Some(fwd) = t.f_block(a, b, c, d) else {
             continue;
         };
         let inv = t.f_inverse_block(a, b, c, d);
         for (i, &e) in fwd.rows.iter().enumerate() {
-            let row_w = field.times(&weight(t, a, b, e), &weight(t, e, c, d));
+            let row_w = field.times(weight(a, b, e), weight(e, c, d));
             for (j, &f) in fwd.cols.iter().enumerate() {
-                let col_w = field.times(&weight(t, b, c, f), &weight(t, a, f, d));
+                let col_w = field.times(weight(b, c, f), weight(a, f, d));
                 let inv_entry = inv
                     .and_then(|m| m.get(f, e))
                     .cloned()
@@ -471,8 +485,8 @@ pub(crate) fn invariant_form(t: &Theory) -> Check {
     }
     for (a, b, c, _) in t.fusion().triples() {
         let rr = t.r_symbol(a, b, c);
-        let lhs = field.product([&rr, &field.conj(&rr), &weight(t, b, a, c)]);
-        let rhs = weight(t, a, b, c);
+        let lhs = field.product([&rr, &field.conj(&rr), weight(b, a, c)]);
+        let rhs = weight(a, b, c).clone();
         if !tally.record(lhs == rhs, || {
             format!(
                 "at a={} b={} c={}: |R^{{ab}}_c|² w(b,a,c) = {lhs}, w(a,b,c) = {rhs}",

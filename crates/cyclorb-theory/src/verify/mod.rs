@@ -256,6 +256,16 @@ pub fn verify_selected(
     ids: &[CheckId],
     progress: &mut dyn FnMut(CheckId),
 ) -> Verification {
+    let heavy = [
+        CheckId::FInvertible,
+        CheckId::Pentagon,
+        CheckId::Hexagon,
+        CheckId::HexagonInverse,
+        CheckId::InvariantForm,
+    ];
+    if theory.has_fr() && ids.iter().any(|id| heavy.contains(id)) {
+        theory.compute_all_f();
+    }
     let checks = ids
         .iter()
         .filter(|id| theory.has_fr() || !id.needs_fr())

@@ -1,0 +1,157 @@
+//! Every built-in theory (and products, conjugates and gauge changes of them) verifies exactly.
+//!
+//! Full verification (pentagon included) runs for su2:K with K ≤ 8 and so3:K with K ≤ 9.
+//! su2:9..12 run every check except the pentagon; su2:13..20 and so3:11..19 run the checks
+//! that do not need every F-block (fusion, dimensions, unit normalisation, twists, balancing,
+//! Frobenius–Schur, and all modular checks). `cyclorb verify su2:20` runs everything (minutes).
+
+use cyclorb_theory::{parse_spec, verify, verify_selected, CheckId, Theory};
+
+fn load(spec: &str) -> Theory {
+    parse_spec(spec).unwrap_or_else(|e| panic!("{spec}: {e}"))
+}
+
+fn assert_verifies(spec: &str) {
+    let t = load(spec);
+    let v = verify(&t);
+    if let Some(c) = v.first_failure() {
+        panic!("{spec}: check {} fails: {:?}", c.name, c.failure);
+    }
+    let expected = if t.has_fr() { CheckId::ALL.len() } else { 8 };
+    assert_eq!(
+        v.checks.len(),
+        expected,
+        "{spec}: every applicable check ran"
+    );
+    if t.rank() > 1 {
+        assert!(
+            v.checks.iter().all(|c| c.instances > 0),
+            "{spec}: a check saw nothing"
+        );
+    }
+}
+
+fn assert_verifies_except(spec: &str, skipped: &[CheckId]) {
+    let t = load(spec);
+    let ids: Vec<CheckId> = CheckId::ALL
+        .into_iter()
+        .filter(|id| !skipped.contains(id))
+        .collect();
+    let v = verify_selected(&t, &ids, &mut |_| {});
+    if let Some(c) = v.first_failure() {
+        panic!("{spec}: check {} fails: {:?}", c.name, c.failure);
+    }
+}
+
+#[test]
+fn ising_type_theories() {
+    for nu in (1..16).step_by(2) {
+        assert_verifies(&format!("ising:{nu}"));
+    }
+    assert_verifies("ising");
+}
+
+#[test]
+fn fibonacci_and_conjugate() {
+    assert_verifies("fibonacci");
+    assert_verifies("conj(fibonacci)");
+}
+
+#[test]
+fn su2_small_levels_fully() {
+    for k in 1..=8 {
+        assert_verifies(&format!("su2:{k}"));
+    }
+}
+
+/// Checks that need every F-block.
+const HEAVY: [CheckId; 5] = [
+    CheckId::FInvertible,
+    CheckId::Pentagon,
+    CheckId::Hexagon,
+    CheckId::HexagonInverse,
+    CheckId::InvariantForm,
+];
+
+#[test]
+fn su2_levels_9_to_12_without_pentagon() {
+    for k in 9..=12 {
+        assert_verifies_except(&format!("su2:{k}"), &[CheckId::Pentagon]);
+    }
+}
+
+#[test]
+fn su2_levels_13_to_20_light_checks() {
+    for k in 13..=20 {
+        assert_verifies_except(&format!("su2:{k}"), &HEAVY);
+    }
+}
+
+#[test]
+fn so3_odd_levels() {
+    for k in [1, 3, 5, 7, 9] {
+        assert_verifies(&format!("so3:{k}"));
+    }
+    for k in [11, 13, 15, 17, 19] {
+        assert_verifies_except(&format!("so3:{k}"), &HEAVY);
+    }
+}
+
+#[test]
+fn pointed_theories() {
+    for (n, p) in [
+        (1, 0),
+        (2, 1),
+        (2, -1),
+        (2, 3),
+        (3, 2),
+        (3, 4),
+        (4, 1),
+        (4, 3),
+        (5, 2),
+        (6, 1),
+        (7, 2),
+        (8, 3),
+    ] {
+        assert_verifies(&format!("zn:{n}:{p}"));
+    }
+}
+
+#[test]
+fn tricritical_ising() {
+    assert_verifies("tricritical-ising");
+}
+
+#[test]
+fn minimal_models() {
+    for (p, q) in [
+        (3, 2),
+        (4, 3),
+        (5, 4),
+        (6, 5),
+        (5, 2),
+        (5, 3),
+        (7, 2),
+        (7, 4),
+    ] {
+        assert_verifies(&format!("minimal:{p}:{q}"));
+    }
+}
+
+#[test]
+fn products_conjugates_and_gauges() {
+    for spec in [
+        "ising*fibonacci",
+        "su2:2*zn:3:2",
+        "minimal:5:4*ising",
+        "galois:3(su2:3)",
+        "conj(su2:4)",
+        "galois:3(fibonacci)",
+        "gauge:5(su2:4)",
+        "gauge:1(fibonacci)",
+        "gauge:2(ising*fibonacci)",
+        "galois:7(gauge:3(su2:3))",
+    ] {
+        assert_verifies(spec);
+    }
+}
