@@ -50,8 +50,10 @@
 //! the unknowns X_ij with equal diagonal entries, otherwise one generator is diagonalised
 //! mod p over the roots of unity; elimination mod p is in machine words and stops at
 //! nullity 1. Schreier–Sims stores one permutation per basic-orbit point (memory
-//! Σ|Δ_k|·degree words). The witness search filters blocks by exact projective order and
-//! caps the degree of the norm polynomial ((m² − m)·φ(n) for an m × m block).
+//! Σ|Δ_k|·degree words). The witness search forms word products modulo two primes and
+//! screens them by their projective period there, computes exactly only the promising
+//! words, splits them into invariant blocks, and caps the degree of the norm polynomial
+//! ((m² − m)·φ(n) for an m × m block).
 //!
 //! ## Untrusted input
 //! Malformed generators (shapes, singular matrices, a form not preserved), permutations
@@ -76,6 +78,7 @@ mod projective;
 mod ratio;
 mod scalars;
 mod schreier_sims;
+mod screen;
 mod witness;
 mod words;
 

@@ -1,22 +1,22 @@
 //! Witnesses of an infinite projective image: a word whose matrix W has two eigenvalues
 //! whose ratio is not a root of unity, so no power of W is a scalar.
 //!
-//! For each word (see [`crate::words`]) the coordinates split into the connected
-//! components of the non-zero pattern of W; each component spans a W-invariant subspace
-//! (and so does their union), whose eigenvalues are eigenvalues of W. For each such block,
-//! smallest first:
-//! 1. *filter*: when the block has projective order ≤ `order_bound` (exact,
-//!    `Matrix::projective_order`) all its eigenvalue ratios are roots of unity: skip;
-//! 2. *certificate*: f = χ of the block over Q(ζ_n), the ratio polynomial and its norm
-//!    N ∈ Z[x] ([`crate::ratio`]), every cyclotomic factor removed
-//!    ([`crate::cyclotomic_part`]). A non-constant rest proves that some ratio λ_i/λ_j is
-//!    not a root of unity.
+//! For each word (see [`crate::words`]) the product is first formed modulo two primes and
+//! screened ([`crate::screen`]: blocks of small projective period mod p are passed over;
+//! the screen only chooses what to try). For a promising word the exact matrix W is
+//! formed; its coordinates split into the connected components of the non-zero pattern of
+//! W, each spanning a W-invariant subspace (and so does their union), whose eigenvalues are
+//! eigenvalues of W. For each such block, smallest first, that the screen passes:
+//! f = χ of the block over Q(ζ_n), the ratio polynomial and its norm N ∈ Z[x]
+//! ([`crate::ratio`]), every cyclotomic factor removed ([`crate::cyclotomic_part`]). A
+//! non-constant rest proves that some ratio λ_i/λ_j is not a root of unity, so no power of
+//! W is a scalar: the projective image is infinite.
 //!
 //! Blocks whose norm would exceed `max_degree` ((m² − m)·φ(n) for a block of size m) are
 //! skipped and counted.
 
 use cyclorb_field::{Cyc, CyclotomicField};
-use cyclorb_matrix::Matrix;
+use cyclorb_matrix::{Matrix, ModpMatrix};
 use serde::{Deserialize, Serialize};
 
 use crate::cyclotomic_part::{has_no_cyclotomic_factor, strip, CyclotomicFactor};
@@ -24,6 +24,7 @@ use crate::error::{require, CertError};
 use crate::generators::GeneratorSet;
 use crate::poly::{cyclotomic, degree, from_strings, mul, to_strings, IntPoly};
 use crate::ratio::{norm_to_integers, ratio_polynomial};
+use crate::screen::{candidate_blocks, Screen};
 use crate::words::{is_lyndon, next_word, Xorshift};
 
 /// Bounds of the search.
@@ -37,7 +38,8 @@ pub struct WitnessOptions {
     pub random_length: usize,
     /// Seed of the random words (the search is deterministic for a seed).
     pub seed: u64,
-    /// Blocks of projective order at most this are skipped.
+    /// Blocks whose projective period modulo the screening primes is at most this are
+    /// passed over (see [`crate::screen`]; this never affects soundness).
     pub order_bound: u64,
     /// Largest degree of the norm polynomial attempted.
     pub max_degree: usize,
@@ -95,41 +97,6 @@ pub struct WitnessCertificate {
     pub remaining_factor: Vec<String>,
 }
 
-/// The connected components of the non-zero pattern of a square matrix (i ~ j when
-/// W_ij ≠ 0 or W_ji ≠ 0), smallest first; followed by all coordinates when there are
-/// several components.
-fn candidate_blocks(w: &Matrix) -> Vec<Vec<usize>> {
-    let d = w.rows();
-    let mut component = vec![usize::MAX; d];
-    let mut blocks = Vec::new();
-    for start in 0..d {
-        if component[start] != usize::MAX {
-            continue;
-        }
-        let id = blocks.len();
-        component[start] = id;
-        let mut members = vec![start];
-        let mut next = 0;
-        while let Some(&i) = members.get(next) {
-            next += 1;
-            for (j, slot) in component.iter_mut().enumerate() {
-                let linked = !w.get(i, j).is_zero() || !w.get(j, i).is_zero();
-                if linked && *slot == usize::MAX {
-                    *slot = id;
-                    members.push(j);
-                }
-            }
-        }
-        members.sort_unstable();
-        blocks.push(members);
-    }
-    blocks.sort_by_key(|b| (b.len(), b[0]));
-    if blocks.len() > 1 {
-        blocks.push((0..d).collect());
-    }
-    blocks
-}
-
 /// The submatrix on `block` × `block`.
 fn restrict(w: &Matrix, block: &[usize]) -> Result<Matrix, CertError> {
     let rows = block
@@ -163,44 +130,59 @@ fn prove_block(field: &CyclotomicField, sub: &Matrix) -> Result<BlockProof, Cert
     })
 }
 
-/// Try every block of the word's matrix `w`.
-fn try_word(
-    gens: &GeneratorSet,
-    word: &[usize],
-    w: &Matrix,
-    options: &WitnessOptions,
-    report: &mut WitnessSearchReport,
-) -> Result<Option<WitnessCertificate>, CertError> {
-    let field = gens.field();
-    report.words_tried += 1;
-    for block in candidate_blocks(w) {
-        let m = block.len();
-        if m < 2 {
-            continue;
+/// The state of a search: the screen and the counts.
+struct Search<'a> {
+    gens: &'a GeneratorSet,
+    options: &'a WitnessOptions,
+    screen: Screen,
+    report: WitnessSearchReport,
+}
+
+impl Search<'_> {
+    /// Examine one word given its products modulo the screening primes: when the screen
+    /// finds it promising, form its exact matrix and try every exact block the screen
+    /// passes, smallest first.
+    fn examine(
+        &mut self,
+        word: &[usize],
+        reduced: &[ModpMatrix],
+    ) -> Result<Option<WitnessCertificate>, CertError> {
+        self.report.words_tried += 1;
+        if !self.screen.word_is_promising(reduced)? {
+            return Ok(None);
         }
-        let sub = restrict(w, &block)?;
-        if sub.projective_order(field, options.order_bound)?.is_some() {
-            continue;
+        let field = self.gens.field();
+        let w = self.gens.word_matrix(word)?;
+        let linked = |i: usize, j: usize| !w.get(i, j).is_zero();
+        for block in candidate_blocks(w.rows(), linked) {
+            let m = block.len();
+            if m < 2 {
+                continue;
+            }
+            let sub = restrict(&w, &block)?;
+            if !self.screen.block_is_promising(&sub)? {
+                continue;
+            }
+            if (m * m - m) * field.degree() > self.options.max_degree {
+                self.report.blocks_over_degree += 1;
+                continue;
+            }
+            let proof = prove_block(field, &sub)?;
+            if degree(&proof.rest) >= 1 {
+                return Ok(Some(WitnessCertificate {
+                    conductor: field.conductor(),
+                    word: self.gens.names_of(word),
+                    block,
+                    charpoly: proof.charpoly.iter().map(ToString::to_string).collect(),
+                    conjugates: proof.conjugates,
+                    ratio_norm: to_strings(&proof.norm),
+                    cyclotomic_factors: proof.factors,
+                    remaining_factor: to_strings(&proof.rest),
+                }));
+            }
         }
-        if (m * m - m) * field.degree() > options.max_degree {
-            report.blocks_over_degree += 1;
-            continue;
-        }
-        let proof = prove_block(field, &sub)?;
-        if degree(&proof.rest) >= 1 {
-            return Ok(Some(WitnessCertificate {
-                conductor: field.conductor(),
-                word: gens.names_of(word),
-                block,
-                charpoly: proof.charpoly.iter().map(ToString::to_string).collect(),
-                conjugates: proof.conjugates,
-                ratio_norm: to_strings(&proof.norm),
-                cyclotomic_factors: proof.factors,
-                remaining_factor: to_strings(&proof.rest),
-            }));
-        }
+        Ok(None)
     }
-    Ok(None)
 }
 
 /// Search for a witness of infinite projective image (module documentation).
@@ -208,25 +190,29 @@ pub fn find_witness(
     gens: &GeneratorSet,
     options: &WitnessOptions,
 ) -> Result<WitnessOutcome, CertError> {
-    let field = gens.field();
     let letters = gens.len();
-    let mut report = WitnessSearchReport {
-        words_tried: 0,
-        blocks_over_degree: 0,
+    let dim = gens.dim();
+    let mut search = Search {
+        gens,
+        options,
+        screen: Screen::new(gens, options.order_bound)?,
+        report: WitnessSearchReport {
+            words_tried: 0,
+            blocks_over_degree: 0,
+        },
     };
     for length in 1..=options.depth {
         let mut word = vec![0usize; length];
-        // prefixes[k] = product of the first k letters of the current word
-        let mut prefixes = vec![Matrix::identity(field, gens.dim())];
+        // prefixes[k] = the product of the first k letters mod each prime
+        let mut prefixes = vec![search.screen.identity(dim)?];
         loop {
             if is_lyndon(&word) {
                 while prefixes.len() <= length {
                     let k = prefixes.len() - 1;
-                    let next = prefixes[k].mul(field, gens.dense(word[k]))?;
+                    let next = search.screen.step(&prefixes[k], word[k])?;
                     prefixes.push(next);
                 }
-                if let Some(found) = try_word(gens, &word, &prefixes[length], options, &mut report)?
-                {
+                if let Some(found) = search.examine(&word, &prefixes[length])? {
                     return Ok(WitnessOutcome::Found(found));
                 }
             }
@@ -246,12 +232,12 @@ pub fn find_witness(
     for _ in 0..options.tries {
         let length = 1 + random.below(options.random_length.max(1));
         let word: Vec<usize> = (0..length).map(|_| random.below(letters)).collect();
-        let w = gens.word_matrix(&word)?;
-        if let Some(found) = try_word(gens, &word, &w, options, &mut report)? {
+        let reduced = search.screen.product(dim, &word)?;
+        if let Some(found) = search.examine(&word, &reduced)? {
             return Ok(WitnessOutcome::Found(found));
         }
     }
-    Ok(WitnessOutcome::NotFound(report))
+    Ok(WitnessOutcome::NotFound(search.report))
 }
 
 /// A polynomial with decimal coefficients (constant first) in the usual notation,
