@@ -9,7 +9,8 @@ use num_integer::Integer;
 use crate::context::{CyclotomicField, Reduction};
 use crate::element::{Cyc, Data};
 use crate::error::FieldError;
-use crate::ring::{bareiss_solve, convolve, IntRing};
+use crate::ring::{convolve, IntRing};
+use crate::words::gcd_u64;
 
 fn small_wide(c: &Cyc) -> Option<(Vec<i128>, i128)> {
     match &c.data {
@@ -119,6 +120,18 @@ impl CyclotomicField {
     fn lin(&self, a: &Cyc, b: &Cyc, minus: bool) -> Result<Cyc, FieldError> {
         self.check(a.n)?;
         self.check(b.n)?;
+        if let (Data::Small { num: an, den: ad }, Data::Small { num: bn, den: bd }) =
+            (&a.data, &b.data)
+        {
+            // common denominator l = lcm(ad, bd) = ad·(bd/g)
+            let g = gcd_u64(*ad as u64, *bd as u64) as i64;
+            let (sa, sb) = (bd / g, ad / g);
+            if let Some(l) = ad.checked_mul(sa) {
+                if let Some(num) = Self::combine_words(an, sa, bn, sb, minus) {
+                    return Ok(Cyc::from_words(self.conductor(), num, l));
+                }
+            }
+        }
         if let (Some((an, ad)), Some((bn, bd))) = (small_wide(a), small_wide(b)) {
             let l = ad.lcm(&bd);
             let (sa, sb) = (l / ad, l / bd);
@@ -181,6 +194,13 @@ impl CyclotomicField {
     pub fn mul(&self, a: &Cyc, b: &Cyc) -> Result<Cyc, FieldError> {
         self.check(a.n)?;
         self.check(b.n)?;
+        if let (Data::Small { num: an, den: ad }, Data::Small { num: bn, den: bd }) =
+            (&a.data, &b.data)
+        {
+            if let (Some(den), Some(num)) = (ad.checked_mul(*bd), self.mul_words(an, bn)) {
+                return Ok(Cyc::from_words(self.conductor(), num, den));
+            }
+        }
         if a.is_zero() || b.is_zero() {
             return Ok(self.zero());
         }
@@ -202,48 +222,6 @@ impl CyclotomicField {
     /// Multiply by an integer.
     pub fn mul_int(&self, a: &Cyc, m: i64) -> Cyc {
         self.mul(a, &self.int(m)).expect("same field")
-    }
-
-    /// a⁻¹, by a fraction-free (Bareiss) solve of the multiplication matrix of a:
-    /// M·y = D·e₀ with M_{ij} = [x^i] (num(a)·x^j mod Φ_n), so a⁻¹ = den(a)·y / D.
-    pub fn inv(&self, a: &Cyc) -> Result<Cyc, FieldError> {
-        self.check(a.n)?;
-        if a.is_zero() {
-            return Err(FieldError::DivisionByZero);
-        }
-        if let Some((num, den)) = small_wide(a) {
-            if let Some(r) = self.inverse_kernel(num, den) {
-                return Ok(r);
-            }
-        }
-        let (num, den) = a.to_big_parts();
-        Ok(self
-            .inverse_kernel(num, den)
-            .expect("big arithmetic does not overflow; non-zero elements are invertible"))
-    }
-
-    fn inverse_kernel<R: IntRing>(&self, num: Vec<R>, den: R) -> Option<Cyc>
-    where
-        Cyc: FromRing<R>,
-    {
-        let phi = self.degree();
-        // columns: num · x^j, built by repeated multiplication by x
-        let mut cols: Vec<Vec<R>> = Vec::with_capacity(phi);
-        let mut cur = num;
-        for _ in 0..phi {
-            cols.push(cur.clone());
-            let mut shifted = vec![R::zero()];
-            shifted.extend(cur.iter().cloned());
-            cur = self.fold(&shifted)?;
-        }
-        let m: Vec<Vec<R>> = (0..phi)
-            .map(|i| cols.iter().map(|c| c[i].clone()).collect())
-            .collect();
-        let mut rhs = vec![R::zero(); phi];
-        rhs[0] = R::from_i64(1);
-        let (y, d) = bareiss_solve(m, rhs)?;
-        let scaled: Option<Vec<R>> = y.iter().map(|v| v.mul(&den)).collect();
-        Some(Cyc::from_ring(self.conductor(), scaled?, d))
     }
 
     /// a / b.
@@ -276,22 +254,5 @@ impl CyclotomicField {
             acc = self.add(&acc, x)?;
         }
         Ok(acc)
-    }
-}
-
-/// Canonicalising constructor from either integer tier.
-pub(crate) trait FromRing<R> {
-    fn from_ring(n: u32, num: Vec<R>, den: R) -> Cyc;
-}
-
-impl FromRing<i128> for Cyc {
-    fn from_ring(n: u32, num: Vec<i128>, den: i128) -> Cyc {
-        Cyc::from_wide(n, &num, den)
-    }
-}
-
-impl FromRing<BigInt> for Cyc {
-    fn from_ring(n: u32, num: Vec<BigInt>, den: BigInt) -> Cyc {
-        Cyc::from_big(n, num, den)
     }
 }

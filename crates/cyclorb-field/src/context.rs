@@ -1,6 +1,9 @@
 //! The field context: everything about Q(ζ_n) that does not depend on an element.
 
+use std::sync::Arc;
+
 use crate::error::FieldError;
+use crate::modular::{ModPrime, PrimeCache};
 use crate::numtheory::{cyclotomic_polynomial, euler_phi};
 
 /// Largest conductor accepted (tables are n × φ(n) integers).
@@ -18,8 +21,9 @@ pub enum Reduction {
 /// The cyclotomic field Q(ζ_n), ζ_n = exp(2πi/n), in the power basis 1, ζ, …, ζ^{φ(n)−1}.
 ///
 /// Elements ([`crate::Cyc`]) carry only their conductor and coefficients; every operation is a
-/// method of this context, which holds Φ_n, the residues of x^e modulo Φ_n for 0 ≤ e < n, and
-/// the fast path chosen once at construction.
+/// method of this context, which holds Φ_n, the residues of x^e modulo Φ_n for 0 ≤ e < n, the
+/// fast path chosen once at construction, and the word-sized primes p ≡ 1 (mod n) found so far
+/// by multi-modular algorithms (kept across calls; safe to use from several threads).
 #[derive(Debug, Clone)]
 pub struct CyclotomicField {
     n: u32,
@@ -27,7 +31,10 @@ pub struct CyclotomicField {
     cyclotomic: Vec<i64>,
     /// `residues[e]` = x^e mod Φ_n as φ integer coefficients, for 0 ≤ e < n.
     residues: Vec<Vec<i64>>,
+    /// The non-zero coefficients of Φ_n below its leading 1, as (exponent, coefficient).
+    lower_terms: Vec<(usize, i64)>,
     reduction: Reduction,
+    primes: PrimeCache,
 }
 
 impl CyclotomicField {
@@ -60,12 +67,20 @@ impl CyclotomicField {
                 }
             }
         }
+        let lower_terms = cyclotomic[..phi]
+            .iter()
+            .enumerate()
+            .filter(|(_, &c)| c != 0)
+            .map(|(j, &c)| (j, c))
+            .collect();
         Ok(CyclotomicField {
             n,
             phi,
             cyclotomic,
             residues,
+            lower_terms,
             reduction,
+            primes: PrimeCache::default(),
         })
     }
 
@@ -92,6 +107,16 @@ impl CyclotomicField {
     /// x^e mod Φ_n for any integer e (ζ_n^e in the power basis).
     pub fn residue(&self, e: i64) -> &[i64] {
         &self.residues[e.rem_euclid(self.n as i64) as usize]
+    }
+
+    /// The non-zero coefficients of Φ_n below x^φ, as (exponent, coefficient) pairs.
+    pub(crate) fn lower_terms(&self) -> &[(usize, i64)] {
+        &self.lower_terms
+    }
+
+    /// The first `count` primes p ≡ 1 (mod n) of this field (see [`crate::modular`]).
+    pub(crate) fn primes(&self, count: usize) -> Vec<Arc<ModPrime>> {
+        self.primes.first(self.n, &self.cyclotomic, count)
     }
 
     pub(crate) fn check(&self, n: u32) -> Result<(), FieldError> {

@@ -1,7 +1,9 @@
 //! Sums of products with one reduction: the kernel behind dot products and mat-vec.
 //!
 //! Products are accumulated as unreduced polynomials of length 2φ − 1 over one common
-//! denominator and folded modulo Φ_n once, when the sum is finished.
+//! denominator and folded modulo Φ_n once, when the sum is finished. The sum stays in machine
+//! words while a running bound on its coefficients proves that it fits, and moves to big
+//! integers (once, for the rest of the sum) otherwise.
 
 use num_bigint::BigInt;
 use num_integer::Integer;
@@ -10,15 +12,27 @@ use crate::context::CyclotomicField;
 use crate::element::{Cyc, Data};
 use crate::error::FieldError;
 use crate::ring::convolve;
+use crate::words::{gcd_u64, max_abs, sum_fits, with_scratch};
+
+/// The running sum: Σ = wide/den, wide of length 2φ − 1.
+#[derive(Debug, Clone)]
+enum Sum {
+    /// Machine words with |wide_i| ≤ bound ≤ i64::MAX and den > 0.
+    Words {
+        wide: Vec<i64>,
+        den: i64,
+        bound: u64,
+    },
+    /// Big integers, den > 0.
+    Big { wide: Vec<BigInt>, den: BigInt },
+}
 
 /// Σ a_k·b_k accumulated without reduction. Precondition: every operand lies in the
 /// accumulator's field (checked, an error otherwise).
 #[derive(Debug, Clone)]
 pub struct DotAccumulator<'f> {
     field: &'f CyclotomicField,
-    wide: Vec<i128>,
-    den: i128,
-    big: Option<(Vec<BigInt>, BigInt)>,
+    sum: Sum,
 }
 
 impl<'f> DotAccumulator<'f> {
@@ -26,52 +40,12 @@ impl<'f> DotAccumulator<'f> {
     pub fn new(field: &'f CyclotomicField) -> Self {
         DotAccumulator {
             field,
-            wide: vec![0; 2 * field.degree() - 1],
-            den: 1,
-            big: None,
+            sum: Sum::Words {
+                wide: vec![0; 2 * field.degree() - 1],
+                den: 1,
+                bound: 0,
+            },
         }
-    }
-
-    fn try_small(&mut self, a: &Cyc, b: &Cyc) -> Option<()> {
-        let (Data::Small { num: an, den: ad }, Data::Small { num: bn, den: bd }) =
-            (&a.data, &b.data)
-        else {
-            return None;
-        };
-        let pd = (*ad as i128).checked_mul(*bd as i128)?;
-        let l = self.den.lcm(&pd);
-        let (sa, sp) = (l / self.den, l / pd);
-        let mut next = self.wide.clone();
-        if sa != 1 {
-            for c in next.iter_mut() {
-                *c = c.checked_mul(sa)?;
-            }
-        }
-        for (i, &x) in an.iter().enumerate() {
-            if x == 0 {
-                continue;
-            }
-            let x = (x as i128).checked_mul(sp)?;
-            for (j, &y) in bn.iter().enumerate() {
-                if y != 0 {
-                    next[i + j] = next[i + j].checked_add(x.checked_mul(y as i128)?)?;
-                }
-            }
-        }
-        self.wide = next;
-        self.den = l;
-        Some(())
-    }
-
-    fn promote(&mut self) -> &mut (Vec<BigInt>, BigInt) {
-        let wide = &self.wide;
-        let den = self.den;
-        self.big.get_or_insert_with(|| {
-            (
-                wide.iter().map(|&c| BigInt::from(c)).collect(),
-                BigInt::from(den),
-            )
-        })
     }
 
     /// acc += a·b.
@@ -85,10 +59,17 @@ impl<'f> DotAccumulator<'f> {
                 });
             }
         }
-        if a.is_zero() || b.is_zero() {
-            return Ok(());
+        if let (
+            Sum::Words { wide, den, bound },
+            Data::Small { num: an, den: ad },
+            Data::Small { num: bn, den: bd },
+        ) = (&mut self.sum, &a.data, &b.data)
+        {
+            if add_words(wide, den, bound, (an, *ad), (bn, *bd)).is_some() {
+                return Ok(());
+            }
         }
-        if self.big.is_none() && self.try_small(a, b).is_some() {
+        if a.is_zero() || b.is_zero() {
             return Ok(());
         }
         let (an, ad) = a.to_big_parts();
@@ -105,30 +86,87 @@ impl<'f> DotAccumulator<'f> {
         Ok(())
     }
 
-    /// The reduced sum.
-    pub fn finish(self) -> Cyc {
-        let n = self.field.conductor();
-        match self.big {
-            None => match self.field.fold(&self.wide) {
-                Some(low) => Cyc::from_wide(n, &low, self.den),
-                None => {
-                    let wide: Vec<BigInt> = self.wide.iter().map(|&c| BigInt::from(c)).collect();
-                    let low = self
-                        .field
-                        .fold(&wide)
-                        .expect("big arithmetic does not overflow");
-                    Cyc::from_big(n, low, BigInt::from(self.den))
-                }
-            },
-            Some((wide, den)) => {
-                let low = self
-                    .field
-                    .fold(&wide)
-                    .expect("big arithmetic does not overflow");
-                Cyc::from_big(n, low, den)
-            }
+    /// The big-integer form of the sum, converting it the first time.
+    fn promote(&mut self) -> (&mut Vec<BigInt>, &mut BigInt) {
+        if let Sum::Words { wide, den, .. } = &self.sum {
+            self.sum = Sum::Big {
+                wide: wide.iter().map(|&c| BigInt::from(c)).collect(),
+                den: BigInt::from(*den),
+            };
+        }
+        match &mut self.sum {
+            Sum::Big { wide, den } => (wide, den),
+            Sum::Words { .. } => unreachable!("converted above"),
         }
     }
+
+    /// The reduced sum.
+    pub fn finish(mut self) -> Cyc {
+        let field = self.field;
+        let n = field.conductor();
+        let phi = field.degree();
+        if let Sum::Words { wide, den, .. } = &self.sum {
+            // fold a copy, so that an overflow leaves the sum intact for the big tier
+            let folded = with_scratch(wide.len(), |work| {
+                work.copy_from_slice(wide);
+                field.fold_words(work).map(|()| Box::from(&work[..phi]))
+            });
+            if let Some(num) = folded {
+                return Cyc::from_words(n, num, *den);
+            }
+        }
+        let (wide, den) = self.promote();
+        let low = field.fold(wide).expect("big arithmetic does not overflow");
+        Cyc::from_big(n, low, den.clone())
+    }
+}
+
+/// sum += a·b in words, or `None` (sum untouched) when a bound does not prove it fits.
+fn add_words(
+    wide: &mut [i64],
+    den: &mut i64,
+    bound: &mut u64,
+    (an, ad): (&[i64], i64),
+    (bn, bd): (&[i64], i64),
+) -> Option<()> {
+    let (ma, mb) = (max_abs(an), max_abs(bn));
+    if ma == 0 || mb == 0 {
+        return Some(());
+    }
+    let pd = ad.checked_mul(bd)?;
+    // common denominator l = lcm(den, pd): the sum is scaled by sa, the product by sp
+    let (sa, sp) = if *bound == 0 {
+        *den = pd;
+        (1, 1)
+    } else {
+        let g = gcd_u64(*den as u64, pd as u64) as i64;
+        (pd / g, *den / g)
+    };
+    let l = den.checked_mul(sa)?;
+    let scaled = (*bound as u128 * sa as u128).min(u64::MAX as u128) as u64;
+    let mb_scaled = (mb as u128 * sp as u128).min(u64::MAX as u128) as u64;
+    let terms = an.len().min(bn.len());
+    if !sum_fits(scaled, terms, ma, mb_scaled) {
+        return None;
+    }
+    // every step below is bounded by the check above
+    if sa != 1 {
+        for w in wide.iter_mut() {
+            *w *= sa;
+        }
+    }
+    for (i, &x) in an.iter().enumerate() {
+        if x == 0 {
+            continue;
+        }
+        let x = x * sp;
+        for (w, &y) in wide[i..].iter_mut().zip(bn) {
+            *w += x * y;
+        }
+    }
+    *den = l;
+    *bound = scaled + terms as u64 * ma * mb_scaled;
+    Some(())
 }
 
 impl CyclotomicField {

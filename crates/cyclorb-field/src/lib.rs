@@ -19,10 +19,14 @@
 //! ```
 //!
 //! ## Performance
-//! Numerators live in `i64`; kernels compute in checked `i128` and repeat on `BigInt` only
-//! when a step overflows. Sums of products ([`DotAccumulator`]) fold modulo Φ_n once per
-//! sum, not once per product. Inversion solves the multiplication matrix fraction-free
-//! (Bareiss), so coefficient growth stays polynomial.
+//! Numerators live in `i64`. Products, sums and dot products first run in machine words
+//! when a bound proves they cannot overflow (or with overflow flags), then in checked `i128`,
+//! then on `BigInt`: an overflow costs time, never a wrong answer. Sums of products
+//! ([`DotAccumulator`]) fold modulo Φ_n once per sum, not once per product. Inversion is
+//! multi-modular: it evaluates at the roots of Φ_n modulo word-sized primes p ≡ 1 (mod n),
+//! recovers the norm and the cofactors by the Chinese remainder theorem under Hadamard's
+//! bound, and stops early by rational reconstruction (checked exactly) when the inverse is
+//! small; coefficient growth never means big-rational elimination.
 //!
 //! ## Untrusted input
 //! [`CyclotomicField::parse`] reports the byte offset and reason of any error; division by
@@ -36,12 +40,15 @@ mod dot;
 mod element;
 mod error;
 mod galois;
+mod inverse;
 mod modp;
+mod modular;
 pub mod numtheory;
 mod rational;
 mod ring;
 mod sqrt;
 mod text;
+mod words;
 
 pub use context::{CyclotomicField, Reduction, MAX_CONDUCTOR};
 pub use dot::DotAccumulator;

@@ -14,8 +14,6 @@ pub(crate) trait IntRing: Clone + PartialEq {
     fn add(&self, o: &Self) -> Option<Self>;
     fn sub(&self, o: &Self) -> Option<Self>;
     fn mul(&self, o: &Self) -> Option<Self>;
-    /// Exact division (the caller guarantees divisibility).
-    fn div_exact(&self, o: &Self) -> Option<Self>;
 }
 
 impl IntRing for i128 {
@@ -43,10 +41,6 @@ impl IntRing for i128 {
     fn mul(&self, o: &Self) -> Option<Self> {
         self.checked_mul(*o)
     }
-    #[inline]
-    fn div_exact(&self, o: &Self) -> Option<Self> {
-        self.checked_div(*o)
-    }
 }
 
 impl IntRing for BigInt {
@@ -68,9 +62,6 @@ impl IntRing for BigInt {
     fn mul(&self, o: &Self) -> Option<Self> {
         Some(self * o)
     }
-    fn div_exact(&self, o: &Self) -> Option<Self> {
-        Some(self / o)
-    }
 }
 
 /// Product of two coefficient vectors of length φ, without reduction: length 2φ − 1.
@@ -88,41 +79,6 @@ pub(crate) fn convolve<R: IntRing>(a: &[R], b: &[R]) -> Option<Vec<R>> {
         }
     }
     Some(out)
-}
-
-/// Bareiss fraction-free solve of the square system M·y = D·rhs, returning (y, D) with
-/// D = ±det M (the last pivot) and y integral (Cramer numerators). `None` on overflow or
-/// when M is singular (distinguished by the caller: a non-zero field element has an
-/// invertible multiplication matrix).
-pub(crate) fn bareiss_solve<R: IntRing>(mut m: Vec<Vec<R>>, rhs: Vec<R>) -> Option<(Vec<R>, R)> {
-    let size = m.len();
-    for (row, r) in m.iter_mut().zip(rhs) {
-        row.push(r);
-    }
-    let mut prev = R::from_i64(1);
-    for k in 0..size {
-        let pivot_row = (k..size).find(|&r| !m[r][k].is_zero())?;
-        m.swap(k, pivot_row);
-        for i in k + 1..size {
-            for j in k + 1..=size {
-                let v = m[i][j].mul(&m[k][k])?.sub(&m[i][k].mul(&m[k][j])?)?;
-                m[i][j] = v.div_exact(&prev)?;
-            }
-            m[i][k] = R::zero();
-        }
-        prev = m[k][k].clone();
-    }
-    let det = prev;
-    // back substitution: y_i = (D·b_i − Σ_{j>i} U_ij y_j) / U_ii, exact.
-    let mut y = vec![R::zero(); size];
-    for i in (0..size).rev() {
-        let mut acc = det.mul(&m[i][size])?;
-        for j in i + 1..size {
-            acc = acc.sub(&m[i][j].mul(&y[j])?)?;
-        }
-        y[i] = acc.div_exact(&m[i][i])?;
-    }
-    Some((y, det))
 }
 
 /// |x| as a BigInt sign helper used when normalising.
