@@ -27,8 +27,9 @@ pub struct EnumerationCertificate {
     pub order: u64,
 }
 
-/// What the enumeration found.
-#[derive(Debug, Clone, PartialEq, Eq)]
+/// What the enumeration found (serialised with a `"result"` tag: `finite` or `exceeds`).
+#[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(tag = "result", rename_all = "snake_case")]
 pub enum ImageEnumeration {
     /// The image is finite, of the certified order.
     Finite(EnumerationCertificate),

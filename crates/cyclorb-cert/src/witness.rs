@@ -67,8 +67,9 @@ pub struct WitnessSearchReport {
     pub blocks_over_degree: usize,
 }
 
-/// The result of a search.
-#[derive(Debug, Clone, PartialEq, Eq)]
+/// The result of a search (serialised with a `"result"` tag: `found` or `not_found`).
+#[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(tag = "result", rename_all = "snake_case")]
 pub enum WitnessOutcome {
     /// A certified element of infinite projective order.
     Found(WitnessCertificate),

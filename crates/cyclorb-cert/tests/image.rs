@@ -127,8 +127,8 @@ fn an_infinite_image_exceeds_any_cap() {
         None,
     )
     .unwrap();
-    assert_eq!(
-        enumerate_projective_image(&gens, 500).unwrap(),
-        ImageEnumeration::Exceeds { cap: 500 }
-    );
+    let outcome = enumerate_projective_image(&gens, 500).unwrap();
+    assert_eq!(outcome, ImageEnumeration::Exceeds { cap: 500 });
+    let json = serde_json::to_value(&outcome).unwrap();
+    assert_eq!(json, serde_json::json!({"result": "exceeds", "cap": 500}));
 }

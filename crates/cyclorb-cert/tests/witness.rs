@@ -48,6 +48,12 @@ fn the_free_pair_has_a_witness_ab() {
     let text = serde_json::to_string(&cert).unwrap();
     let back: WitnessCertificate = serde_json::from_str(&text).unwrap();
     back.recheck(&gens).unwrap();
+    let outcome = serde_json::to_value(WitnessOutcome::Found(cert)).unwrap();
+    assert_eq!(outcome["result"], "found");
+    assert_eq!(
+        outcome["remaining_factor"],
+        serde_json::json!(["1", "-34", "1"])
+    );
 }
 
 #[test]
