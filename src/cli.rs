@@ -25,6 +25,29 @@ pub enum Command {
     Twists(TwistsArgs),
     /// The orbit of the vacuum line under the mapping class group, and its Poincaré sum.
     Orbit(OrbitArgs),
+    /// The built-in theories and the spec syntax (products, conjugates, files).
+    Theories,
+    /// A theory's labels, fusion rules, dimensions, twists, c mod 8, conductor, S and T.
+    Describe(DescribeArgs),
+    /// Exact checks of a theory's data (pentagon, hexagons, ribbon, modularity).
+    Verify(VerifyArgs),
+}
+
+/// `cyclorb describe`: the exact data of one theory (`--json` output is a theory file).
+#[derive(Args, Debug)]
+pub struct DescribeArgs {
+    /// Theory: a built-in spec (see `cyclorb theories`) or a theory file.
+    pub spec: String,
+}
+
+/// `cyclorb verify`: every check, exit 1 naming the first failing equation.
+#[derive(Args, Debug)]
+pub struct VerifyArgs {
+    /// Theory: a built-in spec (see `cyclorb theories`) or a theory file.
+    pub spec: String,
+    /// Leave out a check by name (repeatable), e.g. `--skip pentagon` for large theories.
+    #[arg(long, value_name = "CHECK")]
+    pub skip: Vec<String>,
 }
 
 /// `cyclorb field`: exact evaluation in Q(ζ_n).

@@ -5,6 +5,7 @@ mod field;
 mod orbit;
 pub mod output;
 mod progress;
+mod theory;
 mod twists;
 
 use std::process::ExitCode;
@@ -18,6 +19,9 @@ pub fn dispatch(cli: Cli) -> ExitCode {
         Command::Field(a) => field::run(a, json),
         Command::Twists(a) => twists::run(a, json),
         Command::Orbit(a) => orbit::run(a, json),
+        Command::Theories => theory::run_theories(json),
+        Command::Describe(a) => theory::run_describe(a, json),
+        Command::Verify(a) => theory::run_verify(a, json),
     };
     outcome.finish()
 }

@@ -1,0 +1,288 @@
+//! `cyclorb theories`, `cyclorb describe` and `cyclorb verify`: the theory catalogue, the
+//! exact data of one theory, and its check-by-check verification.
+
+use std::time::{Duration, Instant};
+
+use cyclorb_field::{Cyc, CyclotomicField};
+use cyclorb_theory::{
+    builtin_catalogue, parse_spec, theory_to_json, verify_selected, CheckId, Theory,
+};
+use indicatif::{ProgressBar, ProgressStyle};
+use serde_json::{json, Value};
+
+use super::output::{progress_allowed, Outcome, Report};
+use crate::cli::{DescribeArgs, VerifyArgs};
+
+const GRAMMAR: &str = "spec := factor ('*' factor)* ; factor := conj(spec) | galois:K(spec) | gauge:SEED(spec) | (spec) | NAME | PATH.json";
+
+/// Run `cyclorb theories`.
+pub fn run_theories(as_json: bool) -> Outcome {
+    let rows = builtin_catalogue();
+    let width = rows.iter().map(|(s, _)| s.len()).max().unwrap_or(0);
+    let mut text = String::from("Theory specs (usable wherever SPEC is asked):\n");
+    for (spec, description) in &rows {
+        text.push_str(&format!("  {spec:width$}  {description}\n"));
+    }
+    text.push_str(&format!(
+        "\nGrammar: {GRAMMAR}\nExamples: ising*fibonacci, conj(su2:3), galois:3(fibonacci), su2:2*zn:3:2\n"
+    ));
+    let json = json!({
+        "theories": rows
+            .iter()
+            .map(|(s, d)| json!({ "spec": s, "description": d }))
+            .collect::<Vec<_>>(),
+        "grammar": GRAMMAR,
+    });
+    Outcome::Done(Report::new(json, text, as_json))
+}
+
+/// exp(2πi h) written as h = e/N when θ is a root of unity.
+fn weight_of(field: &CyclotomicField, theta: &Cyc) -> String {
+    match field.root_of_unity_exponent(theta) {
+        Ok(Some((n, e))) => {
+            let g = gcd(e, n);
+            if e == 0 {
+                "0".to_string()
+            } else if n / g == 1 {
+                format!("{}", e / g)
+            } else {
+                format!("{}/{}", e / g, n / g)
+            }
+        }
+        _ => "?".to_string(),
+    }
+}
+
+fn gcd(a: u64, b: u64) -> u64 {
+    if b == 0 {
+        a.max(1)
+    } else {
+        gcd(b, a % b)
+    }
+}
+
+fn approx(x: &Cyc) -> String {
+    let (re, im) = x.to_complex();
+    if im.abs() < 1e-12 {
+        format!("{re:.6}")
+    } else {
+        format!("{re:.6}{im:+.6}i")
+    }
+}
+
+fn describe_text(t: &Theory) -> String {
+    let field = t.field();
+    let mut out = String::new();
+    out.push_str(&format!("theory {}\n", t.name()));
+    out.push_str(&format!(
+        "field Q(ζ_{n}) (conductor {n}; z = ζ_{n} = exp(2πi/{n}) below)\n",
+        n = t.conductor()
+    ));
+    let d = t.total_dim().expect("D is always computed");
+    out.push_str(&format!(
+        "rank {}, central charge c ≡ {} (mod 8), total dimension D = {d} ≈ {}\n",
+        t.rank(),
+        t.central_charge_mod_8(),
+        approx(d)
+    ));
+    if !t.has_fr() {
+        out.push_str("modular data only (S and T; no F or R): usable at genus 1\n");
+    } else if t.is_unitary_gauge() {
+        out.push_str("gauge: unitary (every vertex weight is 1, invariant form G = 1)\n");
+    } else {
+        out.push_str(
+            "gauge: not unitary; vertex weights w(a,b,c) ≠ 1 give the invariant form (describe --json lists them)\n",
+        );
+    }
+    out.push_str("\nlabels:\n");
+    let width = t.labels().iter().map(String::len).max().unwrap_or(1).max(5);
+    out.push_str(&format!(
+        "  {:>3}  {:width$}  {:width$}  {:>10}  {:>8}  d (exact)  |  θ (exact)\n",
+        "#", "label", "dual", "d ≈", "h"
+    ));
+    for a in 0..t.rank() {
+        out.push_str(&format!(
+            "  {:>3}  {:width$}  {:width$}  {:>10}  {:>8}  {}  |  {}\n",
+            a,
+            t.label(a),
+            t.label(t.dual(a)),
+            approx(t.quantum_dim(a)),
+            weight_of(field, t.twist(a)),
+            t.quantum_dim(a),
+            t.twist(a)
+        ));
+    }
+    out.push_str("\nfusion rules (a × b for a ≤ b):\n");
+    for a in 0..t.rank() {
+        for b in a..t.rank() {
+            let terms: Vec<String> = t
+                .fusion_outcomes(a, b)
+                .iter()
+                .map(|&c| match t.fusion_coefficient(a, b, c) {
+                    1 => t.label(c).to_string(),
+                    m => format!("{m}·{}", t.label(c)),
+                })
+                .collect();
+            out.push_str(&format!(
+                "  {} × {} = {}\n",
+                t.label(a),
+                t.label(b),
+                terms.join(" + ")
+            ));
+        }
+    }
+    let s = t.s_matrix().expect("S is always computed");
+    out.push_str("\nS (normalised, rows and columns in label order):\n");
+    for a in 0..t.rank() {
+        let row: Vec<String> = s.row(a).iter().map(|x| x.to_string()).collect();
+        out.push_str(&format!("  [{}]\n", row.join(", ")));
+    }
+    let twists: Vec<String> = t.twists().iter().map(|x| x.to_string()).collect();
+    out.push_str(&format!("\nT = diag({})\n", twists.join(", ")));
+    out.push_str(&format!("\ndata hash (SHA-256): {}\n", t.data_hash()));
+    out
+}
+
+/// Run `cyclorb describe SPEC`.
+pub fn run_describe(args: &DescribeArgs, as_json: bool) -> Outcome {
+    let theory = match parse_spec(&args.spec) {
+        Ok(t) => t,
+        Err(e) => return Outcome::Invalid(e.to_string()),
+    };
+    let mut json = theory_to_json(&theory);
+    if let Value::Object(obj) = &mut json {
+        obj.insert("spec".into(), json!(args.spec));
+    }
+    let text = if as_json {
+        String::new()
+    } else {
+        describe_text(&theory)
+    };
+    Outcome::Done(Report::new(json, text, as_json))
+}
+
+fn check_names() -> String {
+    CheckId::ALL
+        .iter()
+        .map(|c| c.name())
+        .collect::<Vec<_>>()
+        .join(", ")
+}
+
+/// Run `cyclorb verify SPEC|FILE`.
+pub fn run_verify(args: &VerifyArgs, as_json: bool) -> Outcome {
+    let mut skipped = Vec::new();
+    for name in &args.skip {
+        match CheckId::ALL.iter().find(|c| c.name() == name) {
+            Some(&id) => skipped.push(id),
+            None => {
+                return Outcome::Invalid(format!(
+                    "unknown check {name:?} (known: {})",
+                    check_names()
+                ))
+            }
+        }
+    }
+    let started = Instant::now();
+    let theory = match parse_spec(&args.spec) {
+        Ok(t) => t,
+        Err(e) => return Outcome::Invalid(e.to_string()),
+    };
+    let ids: Vec<CheckId> = CheckId::ALL
+        .into_iter()
+        .filter(|id| !skipped.contains(id))
+        .collect();
+    let bar = progress_allowed(as_json).then(|| {
+        let bar = ProgressBar::new_spinner();
+        bar.set_style(
+            ProgressStyle::with_template("{spinner} [{elapsed_precise}] {msg}")
+                .expect("static template"),
+        );
+        bar.enable_steady_tick(Duration::from_millis(200));
+        bar
+    });
+    let verification = verify_selected(&theory, &ids, &mut |id| {
+        if let Some(bar) = &bar {
+            bar.set_message(format!("checking {id} of {}", theory.name()));
+        }
+    });
+    if let Some(bar) = &bar {
+        bar.finish_and_clear();
+    }
+    let elapsed = started.elapsed().as_secs_f64();
+    let mut text = format!(
+        "verify {} (conductor {}, rank {}{})\n",
+        theory.name(),
+        theory.conductor(),
+        theory.rank(),
+        if theory.has_fr() {
+            ""
+        } else {
+            "; modular data only: F/R checks do not apply"
+        }
+    );
+    for c in &verification.checks {
+        text.push_str(&format!(
+            "  {:4}  {:18} {:>10} instances   {}\n",
+            if c.ok { "ok" } else { "FAIL" },
+            c.name,
+            c.instances,
+            c.equation
+        ));
+        if let Some(f) = &c.failure {
+            text.push_str(&format!("        first failure {f}\n"));
+        }
+    }
+    if !skipped.is_empty() {
+        let names: Vec<&str> = skipped.iter().map(|c| c.name()).collect();
+        text.push_str(&format!("  skipped on request: {}\n", names.join(", ")));
+    }
+    let first = verification.first_failure();
+    match first {
+        None => text.push_str(&format!(
+            "all {} checks hold ({elapsed:.2} s)\n",
+            verification.checks.len()
+        )),
+        Some(c) => text.push_str(&format!(
+            "FAILED: {} — {} fails {}\n",
+            c.name,
+            c.equation,
+            c.failure.as_deref().unwrap_or("")
+        )),
+    }
+    let json = json!({
+        "theory": theory.name(),
+        "spec": args.spec,
+        "conductor": theory.conductor(),
+        "ok": verification.ok(),
+        "checks": verification.checks.iter().map(|c| json!({
+            "name": c.name,
+            "ok": c.ok,
+            "equation": c.equation,
+            "instances": c.instances,
+            "failure": c.failure,
+        })).collect::<Vec<_>>(),
+        "first_failure": first.map(|c| json!({
+            "name": c.name,
+            "equation": c.equation,
+            "failure": c.failure,
+        })),
+        "skipped": skipped.iter().map(|c| c.name()).collect::<Vec<_>>(),
+        "elapsed_seconds": elapsed,
+    });
+    let report = Report::new(json, text, as_json);
+    if verification.ok() {
+        Outcome::Done(report)
+    } else {
+        if as_json {
+            if let Some(c) = first {
+                eprintln!(
+                    "cyclorb: {} fails {}",
+                    c.name,
+                    c.failure.as_deref().unwrap_or("")
+                );
+            }
+        }
+        Outcome::CheckFailed(report)
+    }
+}
