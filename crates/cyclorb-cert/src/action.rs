@@ -46,7 +46,7 @@ fn index_lines(
     Ok(index)
 }
 
-/// For each generator A, the permutation π of the lines with A·[v_k] = [v_{π(k)}]; an
+/// For each generator A, the permutation π of the lines with A·⟨v_k⟩ = ⟨v_{π(k)}⟩; an
 /// error when some image is not among the lines (the set is not saturated).
 pub fn induced_permutations(
     gens: &GeneratorSet,
@@ -71,7 +71,14 @@ pub fn induced_permutations(
     Ok(perms)
 }
 
-/// The data of the faithfulness lemma (module documentation): indices of orbit lines.
+/// The data of the faithfulness lemma: indices of orbit lines.
+///
+/// **Lemma.** Let b_1, …, b_d be orbit vectors forming a basis and w_1, w_2, … further
+/// orbit vectors, w = Σ_i c_i b_i. Join i and j whenever both lie in the support
+/// {i : c_i ≠ 0} of one w. If the joins connect all of 1, …, d, only scalars fix every line
+/// of the orbit. (If g fixes every line, g b_i = λ_i b_i and g w = μ w, so λ_i = μ on the
+/// support of w; connected supports force all λ_i equal.) So the projective image acts
+/// faithfully on a saturated orbit, and its order is that of the permutation group.
 #[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
 pub struct FaithfulnessProof {
     /// d lines whose vectors form a basis.

@@ -75,7 +75,10 @@ pub struct CommutantCertificate {
     /// A basis of the commutant (the identity alone when the dimension is 1).
     pub basis: Vec<Matrix>,
     /// A basis of G-self-adjoint commutant elements X (X* = G⁻¹X†G = X, so X G⁻¹ is
-    /// Hermitian): as many as `dimension` when n ≥ 3 (see [`crate::hermitian`]).
+    /// Hermitian): as many as `dimension` when n ≥ 3. They are X_a + X_a* and
+    /// c·(X_a − X_a*), c = ζ_n − ζ_n⁻¹, reduced to an independent set; the self-adjoint
+    /// commutant elements are exactly their real combinations. For n ≤ 2 (the field Q) only
+    /// the X_a + X_a* are available and span the self-adjoint part.
     pub hermitian_basis: Vec<Matrix>,
 }
 
@@ -212,7 +215,17 @@ fn matrix_of(rows: Rows<cyclorb_field::Cyc>) -> Result<Matrix, CertError> {
     Ok(Matrix::from_rows(rows)?)
 }
 
-/// The commutant of the generators, certified (module documentation).
+/// The commutant {X : X·A = A·X for every generator A}, certified.
+///
+/// Modulo a prime p ≡ 1 (mod n) (ζ_n ↦ a primitive n-th root of unity) every minor of the
+/// system that vanishes exactly vanishes mod p, so nullity mod p ≥ exact nullity ≥ 1 (the
+/// identity commutes): nullity 1 mod p proves the commutant is the scalars. The unknowns
+/// are first cut down: diagonal generators keep only X_ij with equal diagonal entries;
+/// otherwise one generator is diagonalised (mod p) over the roots of unity ±ζ_n^k and
+/// the conjugated system solved (same dimension). When every prime tried gives nullity
+/// k > 1, the system is solved exactly over Q(ζ_n): the basis returned commutes with every
+/// generator (checked), and a prime of nullity equal to its size, or the exact nullity,
+/// bounds the dimension from above.
 pub fn commutant(
     gens: &GeneratorSet,
     options: CommutantOptions,

@@ -41,6 +41,11 @@ pub enum ImageEnumeration {
 }
 
 /// Enumerate the projective image, stopping after `cap` elements.
+///
+/// Elements are canonical projective matrices (divided by their first non-zero entry),
+/// hashed; starting from the identity every element is multiplied on the right by every
+/// generator. For a finite image the closure is the group (inverses are positive powers),
+/// and its size is the order of the image modulo scalars, exactly.
 pub fn enumerate_projective_image(
     gens: &GeneratorSet,
     cap: usize,

@@ -70,7 +70,7 @@ pub(crate) fn independent_subset(
     Ok(kept)
 }
 
-/// A basis of the commutant made of G-self-adjoint elements (module documentation), from
+/// A basis of the commutant made of G-self-adjoint elements (see above), from
 /// any basis of it.
 pub(crate) fn self_adjoint_basis(
     field: &CyclotomicField,

@@ -94,8 +94,11 @@ pub struct PermutationImageCertificate {
 }
 
 /// Certify the projective image order from `lines`, a saturated set of lines given by
-/// representatives (line 0 first; usually the orbit of the vacuum line). An error when the
-/// set is not saturated or the faithfulness lemma does not apply to it.
+/// representatives (line 0 first; usually the orbit of the vacuum line). The generators'
+/// permutations of the lines are computed (an error if some image is not a given line),
+/// the faithfulness lemma of [`FaithfulnessProof`] is established (an error if it does not
+/// apply), and the permutation group is ordered by [`StabiliserChain`]: with a trivial
+/// kernel, its order is the order of the projective image.
 pub fn image_from_orbit(
     gens: &GeneratorSet,
     lines: &[Vec<Cyc>],

@@ -59,7 +59,17 @@ struct Test {
     generator: usize,
 }
 
-/// A base and strong generating set of a permutation group.
+/// A base and strong generating set of a permutation group, by a deterministic
+/// Schreier–Sims algorithm.
+///
+/// Levels k = 0, 1, … have base points b_k (b_0 = 0), generator lists S_k fixing
+/// b_0, …, b_{k−1}, basic orbits Δ_k = b_k^⟨S_k⟩ and transversals. Every pair (point of Δ_k,
+/// element of S_k) is tested once; each Schreier generator is sifted through the later
+/// levels and a non-trivial residue becomes a new strong generator (with a new base point
+/// when it fixes them all). At the end every Schreier generator sifts to the identity, so
+/// (Schreier's lemma, Sims' criterion) |G| = Π_k |Δ_k| exactly, and
+/// |G| = |orbit of 0| × |stabiliser of 0|. Memory: one stored permutation per point of
+/// each basic orbit.
 #[derive(Debug, Clone)]
 pub struct StabiliserChain {
     degree: usize,

@@ -39,7 +39,9 @@ pub struct WitnessOptions {
     /// Seed of the random words (the search is deterministic for a seed).
     pub seed: u64,
     /// Blocks whose projective period modulo the screening primes is at most this are
-    /// passed over (see [`crate::screen`]; this never affects soundness).
+    /// passed over. If a block has projective order d, its reduction's period divides d,
+    /// so finite blocks of order ≤ `order_bound` are always passed over; this choice of
+    /// what to try never affects soundness.
     pub order_bound: u64,
     /// Largest degree of the norm polynomial attempted.
     pub max_degree: usize,
@@ -90,7 +92,7 @@ pub struct WitnessCertificate {
     pub charpoly: Vec<String>,
     /// The number of distinct Galois conjugates of the ratio polynomial multiplied.
     pub conjugates: usize,
-    /// The norm N ∈ Z[x] of the ratio polynomial (primitive), constant first.
+    /// The norm N ∈ `Z[x]` of the ratio polynomial (primitive), constant first.
     pub ratio_norm: Vec<String>,
     /// Its cyclotomic factors.
     pub cyclotomic_factors: Vec<CyclotomicFactor>,
@@ -186,7 +188,18 @@ impl Search<'_> {
     }
 }
 
-/// Search for a witness of infinite projective image (module documentation).
+/// Search for a witness of infinite projective image.
+///
+/// Every Lyndon word up to `depth` letters (shortest first; rotations and powers add
+/// nothing), then `tries` seeded random words. Products are formed modulo two primes and
+/// screened by their projective period there; promising words get their exact matrix W,
+/// split into the W-invariant coordinate blocks of its non-zero pattern (and their
+/// union). For a block with characteristic polynomial f = Π(x − λ_i) over Q(ζ_n):
+/// R(x) = Π_{i,j}(x − λ_i/λ_j)/(x − 1)^m (from power sums), its norm N ∈ `Z[x]` (the
+/// product of its distinct Galois conjugates, made primitive), and N with every Φ_m
+/// divided out (only φ(m) ≤ deg N matters, and φ(m) ≥ √(m/2) bounds m). A non-constant
+/// rest has a root that is not a root of unity; it is σ(λ_i/λ_j) for some Galois σ, so
+/// λ_i/λ_j is not a root of unity and no power of W is a scalar.
 pub fn find_witness(
     gens: &GeneratorSet,
     options: &WitnessOptions,
