@@ -264,3 +264,36 @@ fn bad_generator_sets_are_errors() {
         Err(CertError::Input(_))
     ));
 }
+
+#[test]
+fn over_q_without_a_diagonalisable_generator_all_unknowns_are_kept() {
+    // a ⊕ 1 and b ⊕ 1 with the free pair a = [[1,2],[0,1]], b = [[1,0],[2,1]] (irreducible
+    // on Q², as a and b share no eigenvector; hand check): commutant C·1₂ ⊕ C, dimension 2.
+    // Neither generator is diagonalisable (unipotent), so no cut is possible: 9 unknowns.
+    let f = CyclotomicField::new(1).unwrap();
+    let one = Matrix::identity(&f, 1);
+    let a = Matrix::from_rows(vec![vec![f.one(), f.int(2)], vec![f.zero(), f.one()]]).unwrap();
+    let b = Matrix::from_rows(vec![vec![f.one(), f.zero()], vec![f.int(2), f.one()]]).unwrap();
+    let gens = GeneratorSet::new(
+        f.clone(),
+        vec![
+            ("a".into(), Operator::Dense(direct_sum(&f, &a, &one))),
+            ("b".into(), Operator::Dense(direct_sum(&f, &b, &one))),
+        ],
+        None,
+    )
+    .unwrap();
+    let cert = commutant(&gens, CommutantOptions { primes: 3 }).unwrap();
+    assert_eq!(cert.dimension, 2);
+    assert!(cert
+        .bounds
+        .iter()
+        .all(|b| b.unknowns == 9 && b.nullity == 2));
+    assert_eq!(cert.bounds.len(), 3);
+    // over Q only X + Xᵀ is available; here both basis elements are symmetric already
+    assert_eq!(cert.hermitian_basis.len(), 2);
+    for x in &cert.hermitian_basis {
+        assert_eq!(x.transpose(), *x);
+    }
+    cert.verify(&gens).unwrap();
+}
