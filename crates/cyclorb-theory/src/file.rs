@@ -524,6 +524,11 @@ pub fn theory_from_json(
             .collect();
         (fusion, dims, RawStructure::ModularData { s })
     };
+    let place = if has_f || has_r {
+        "dimensions and twists"
+    } else {
+        "S and twists"
+    };
     assemble(RawTheory {
         name,
         field: reader.field,
@@ -532,6 +537,12 @@ pub fn theory_from_json(
         dims,
         twists,
         structure,
+    })
+    .map_err(|e| match e {
+        TheoryError::NotModular { reason, .. } => {
+            refuse(file, place, format!("not modular: {reason}"))
+        }
+        other => other,
     })
 }
 

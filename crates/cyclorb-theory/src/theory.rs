@@ -15,9 +15,9 @@ use crate::structure::{key3, key4, Braiding, FBlock};
 /// A modular tensor category over Q(ζ_n), in the conventions of math.md §3:
 /// labels 0..rank (0 the vacuum) with names, duals, fusion rules, F- and R-symbols in a
 /// stated gauge (absent for modular-data-only theories), twists θ_a, quantum dimensions d_a,
-/// the unnormalised S̃ and normalised S = S̃/D with D > 0, the central charge mod 8 from
-/// Σ_a d_a² θ_a = D·exp(2πi c/8), and the vertex weights of the gauge's invariant Hermitian
-/// form (math.md §4.5). Every number lies in [`Theory::field`].
+/// the unnormalised S̃ and normalised S = S̃/D (D > 0 when F and R are present), the central
+/// charge mod 8 from Σ_a d_a² θ_a = D·exp(2πi c/8), and the vertex weights of the gauge's
+/// invariant Hermitian form (math.md §4.5). Every number lies in [`Theory::field`].
 #[derive(Clone)]
 pub struct Theory {
     pub(crate) name: String,
@@ -195,7 +195,7 @@ impl Theory {
     }
 
     /// The normalised S = S̃/D. Always present: the field is enlarged at construction until
-    /// it holds D.
+    /// it holds D. S_00 = 1/D.
     pub fn s_matrix(&self) -> Option<&Matrix> {
         Some(&self.s)
     }
@@ -205,7 +205,9 @@ impl Theory {
         &self.s_tilde
     }
 
-    /// The total dimension D > 0, D² = Σ_a d_a². Always present (see [`Theory::s_matrix`]).
+    /// The total dimension D, D² = Σ_a d_a²: D > 0 for theories with F and R; for modular data
+    /// alone D = 1/S_00 of the given S (negative for some non-unitary minimal models, which
+    /// keeps c mod 8 equal to the CFT's c). Always present (see [`Theory::s_matrix`]).
     pub fn total_dim(&self) -> Option<&Cyc> {
         Some(&self.total_dim)
     }

@@ -137,10 +137,11 @@ fn a_wrong_twist_is_not_modular() {
     let mut json = theory_to_json(&load("fibonacci"));
     json["twists"]["tau"] = json!("zeta(5)");
     match reread(&json) {
-        Err(TheoryError::NotModular { reason, .. }) => {
+        Err(TheoryError::File { place, reason, .. }) => {
+            assert_eq!(place, "dimensions and twists");
             assert!(reason.contains("Gauss"), "{reason}")
         }
-        other => panic!("expected NotModular, got {other:?}"),
+        other => panic!("expected a refusal, got {other:?}"),
     }
 }
 
