@@ -12,7 +12,7 @@
 //! | layer ends | L × u64 |
 //! | compute seconds so far | f64 bits as u64 |
 //! | numerator width w (1, 2, 4, 8) | u8 |
-//! | packed keys | N · d · φ · w |
+//! | length A of the packed keys, then the keys (sparse encoding of the `store` module) | u64 + A |
 //! | parents (u32::MAX for the seed) | N × u32 |
 //! | generators (u16::MAX for the seed) | N × u16 |
 //! | number of big keys B, then per key: index (u32) and d·φ numerators, each as a byte length (u32) and signed little-endian bytes | … |
@@ -50,14 +50,13 @@ impl<W: Write> HashingWriter<W> {
     }
 }
 
-/// A reader that hashes what it reads and never asks for more than the file holds.
-struct HashingReader<R: Read> {
+/// A reader that never asks for more than the file holds (before its checksum).
+struct BoundedReader<R: Read> {
     inner: R,
-    hash: Fnv128,
     remaining: u64,
 }
 
-impl<R: Read> HashingReader<R> {
+impl<R: Read> BoundedReader<R> {
     fn take(&mut self, len: usize) -> Result<Vec<u8>, String> {
         if len as u64 > self.remaining {
             return Err("truncated file".into());
@@ -67,7 +66,6 @@ impl<R: Read> HashingReader<R> {
         self.inner
             .read_exact(&mut buf)
             .map_err(|_| "truncated file".to_string())?;
-        self.hash.write(&buf);
         Ok(buf)
     }
 
@@ -103,6 +101,47 @@ impl<R: Read> HashingReader<R> {
         }
         Ok(c as usize)
     }
+}
+
+/// Check the trailing FNV-1a 128 of a checkpoint file; its size when it matches.
+fn verify_checksum(path: &Path) -> Result<u64, OrbitError> {
+    let file = File::open(path).map_err(|e| io_error(path, e))?;
+    let size = file.metadata().map_err(|e| io_error(path, e))?.len();
+    if size < 16 + 8 {
+        return Err(io_error(path, "not a cyclorb orbit checkpoint (too short)"));
+    }
+    let mut reader = BufReader::new(file);
+    let mut hash = Fnv128::new();
+    let mut left = size - 16;
+    let mut buf = vec![0u8; 1 << 16];
+    while left > 0 {
+        let take = left.min(buf.len() as u64) as usize;
+        reader
+            .read_exact(&mut buf[..take])
+            .map_err(|e| io_error(path, e))?;
+        hash.write(&buf[..take]);
+        left -= take as u64;
+    }
+    let mut trailer = [0u8; 16];
+    reader
+        .read_exact(&mut trailer)
+        .map_err(|e| io_error(path, e))?;
+    if u128::from_le_bytes(trailer) != hash.finish() {
+        let mut magic = [0u8; 8];
+        let is_checkpoint = File::open(path)
+            .and_then(|mut f| f.read_exact(&mut magic))
+            .is_ok()
+            && &magic == MAGIC;
+        return Err(io_error(
+            path,
+            if is_checkpoint {
+                "corrupt or truncated file (checksum mismatch)"
+            } else {
+                "not a cyclorb orbit checkpoint"
+            },
+        ));
+    }
+    Ok(size)
 }
 
 fn io_error(path: &Path, e: impl std::fmt::Display) -> OrbitError {
@@ -160,6 +199,7 @@ impl OrbitProblem {
         }
         w.put(&orbit.compute_seconds.to_bits().to_le_bytes())?;
         w.put(&[set.keys.width() as u8])?;
+        w.put(&(set.keys.raw_bytes().len() as u64).to_le_bytes())?;
         w.put(set.keys.raw_bytes())?;
         for &p in &set.parents {
             w.put(&p.to_le_bytes())?;
@@ -181,32 +221,23 @@ impl OrbitProblem {
     }
 
     /// Read a checkpoint written for this problem; the orbit can then be continued with
-    /// [`OrbitProblem::extend`].
+    /// [`OrbitProblem::extend`]. The checksum is verified in a first pass over the file, so
+    /// a damaged file is reported as such before its contents are interpreted.
     pub fn read_checkpoint(&self, path: &Path) -> Result<Orbit, OrbitError> {
+        let size = verify_checksum(path)?;
         let file = File::open(path).map_err(|e| io_error(path, e))?;
-        let size = file.metadata().map_err(|e| io_error(path, e))?.len();
-        let mut r = HashingReader {
+        let mut r = BoundedReader {
             inner: BufReader::new(file),
-            hash: Fnv128::new(),
-            remaining: size.saturating_sub(16),
+            remaining: size - 16,
         };
         let orbit = self.read_state(&mut r).map_err(|e| io_error(path, e))?;
-        let expected = r.hash.finish();
-        let mut trailer = [0u8; 16];
-        r.inner
-            .read_exact(&mut trailer)
-            .map_err(|_| io_error(path, "truncated file"))?;
-        if u128::from_le_bytes(trailer) != expected {
-            return Err(io_error(path, "corrupt file (checksum mismatch)"));
-        }
-        let mut extra = [0u8; 1];
-        if r.inner.read(&mut extra).map_err(|e| io_error(path, e))? != 0 {
-            return Err(io_error(path, "unexpected bytes after the checksum"));
+        if r.remaining != 0 {
+            return Err(io_error(path, "unexpected bytes after the state"));
         }
         Ok(orbit)
     }
 
-    fn read_state<R: Read>(&self, r: &mut HashingReader<R>) -> Result<Orbit, String> {
+    fn read_state<R: Read>(&self, r: &mut BoundedReader<R>) -> Result<Orbit, String> {
         if r.take(8)? != MAGIC {
             return Err("not a cyclorb orbit checkpoint".into());
         }
@@ -254,7 +285,8 @@ impl OrbitProblem {
         let compute_seconds = f64::from_bits(r.u64()?);
         let width = Width::from_bytes(r.u8()?).ok_or("bad numerator width")?;
         let len = self.key_len();
-        let bytes = r.take(count * len * width as usize)?;
+        let arena_len = r.count(u64::MAX, "key arena length")?;
+        let bytes = r.take(arena_len)?;
         let mut parents = Vec::new();
         for i in 0..count {
             let p = r.u32()?;
@@ -286,7 +318,15 @@ impl OrbitProblem {
             }
             big.push((index, numbers.into_boxed_slice()));
         }
-        let keys = KeyArena::from_parts(len, width, bytes, big).ok_or("inconsistent key sizes")?;
+        let keys = KeyArena::from_parts(
+            self.dimension(),
+            self.kernel.degree(),
+            width,
+            bytes,
+            count,
+            big,
+        )
+        .ok_or("the packed keys do not parse")?;
         let fingerprints = (0..count)
             .map(|i| self.key_fingerprint(&keys.key(i)))
             .collect();

@@ -12,14 +12,16 @@ use num_bigint::BigInt;
 use num_integer::Integer;
 use num_traits::{One, ToPrimitive};
 
+use crate::numerators::Numerators;
 use crate::poly::PolyKernel;
 use crate::sparse::operator_rows;
 
-/// E·X as a sparse integer matrix on Z^{dφ} (compressed rows).
+/// E·X as a sparse integer matrix on Z^{dφ}, stored by columns (a source vector is sparse,
+/// so the product walks the columns of its non-zero numerators only).
 #[derive(Debug, Clone)]
 pub(crate) struct CompiledOperator {
-    row_start: Vec<u32>,
-    cols: Vec<u32>,
+    col_start: Vec<u32>,
+    rows: Vec<u32>,
     vals: Vec<i64>,
     /// max over rows of Σ |entry|: |(E·X)S| ≤ row_bound · max|S| coefficientwise.
     row_bound: u128,
@@ -35,63 +37,61 @@ impl CompiledOperator {
     ) -> Option<CompiledOperator> {
         let phi = kernel.degree();
         let rows = operator_rows(field, op);
+        let size = rows.len() * phi;
         let mut lcd = BigInt::one();
         for (_, x) in rows.iter().flatten() {
             let (_, den) = x.to_big_parts();
             lcd = lcd.lcm(&den);
         }
-        let mut row_start = vec![0u32];
-        let mut cols = Vec::new();
-        let mut vals = Vec::new();
-        let mut row_bound = 0u128;
-        for row in &rows {
-            // (t, column, value) for this block of φ integer rows
-            let mut cells: Vec<(usize, u32, i64)> = Vec::new();
+        // (column, row, value) of every non-zero integer entry
+        let mut cells: Vec<(u32, u32, i64)> = Vec::new();
+        let mut row_sums = vec![0u128; size];
+        for (i, row) in rows.iter().enumerate() {
             for (j, x) in row {
                 let (num, den) = x.to_big_parts();
                 let scale = &lcd / den;
                 let scaled: Option<Vec<i64>> = num.iter().map(|c| (c * &scale).to_i64()).collect();
                 for (t, s, c) in kernel.mult_entries(&scaled?)? {
-                    cells.push((t, u32::try_from(j * phi + s).ok()?, c));
+                    let (r, col) = (i * phi + t, j * phi + s);
+                    cells.push((u32::try_from(col).ok()?, u32::try_from(r).ok()?, c));
+                    row_sums[r] += c.unsigned_abs() as u128;
                 }
-            }
-            cells.sort_unstable_by_key(|&(t, col, _)| (t, col));
-            let mut cursor = 0;
-            for t in 0..phi {
-                let mut sum = 0u128;
-                while cursor < cells.len() && cells[cursor].0 == t {
-                    let (_, col, c) = cells[cursor];
-                    cols.push(col);
-                    vals.push(c);
-                    sum += c.unsigned_abs() as u128;
-                    cursor += 1;
-                }
-                row_bound = row_bound.max(sum);
-                row_start.push(u32::try_from(cols.len()).ok()?);
             }
         }
+        cells.sort_unstable_by_key(|&(col, r, _)| (col, r));
+        let mut col_start = Vec::with_capacity(size + 1);
+        col_start.push(0u32);
+        let mut cursor = 0;
+        for col in 0..size {
+            while cursor < cells.len() && cells[cursor].0 as usize == col {
+                cursor += 1;
+            }
+            col_start.push(u32::try_from(cursor).ok()?);
+        }
         Some(CompiledOperator {
-            row_start,
-            cols,
-            vals,
-            row_bound,
+            col_start,
+            rows: cells.iter().map(|c| c.1).collect(),
+            vals: cells.iter().map(|c| c.2).collect(),
+            row_bound: row_sums.into_iter().max().unwrap_or(0),
         })
     }
 
-    /// out = (E·X)·s, or `false` (out untouched) when the bound row_bound·max|s| does not
-    /// guarantee that every `i128` sum is exact.
-    pub(crate) fn apply(&self, s: &[i64], s_max: u64, out: &mut [i128]) -> bool {
-        match self.row_bound.checked_mul(s_max as u128) {
+    /// out += (E·X)·s (out starts at zero), or `false` (out untouched) when the bound
+    /// row_bound·max|s| does not guarantee that every `i128` sum is exact.
+    pub(crate) fn apply(&self, s: &Numerators, out: &mut [i128]) -> bool {
+        match self.row_bound.checked_mul(s.max as u128) {
             Some(b) if b < (1u128 << 126) => {}
             _ => return false,
         }
-        for (r, o) in out.iter_mut().enumerate() {
-            let (a, b) = (self.row_start[r] as usize, self.row_start[r + 1] as usize);
-            let mut acc = 0i128;
-            for (&c, &v) in self.cols[a..b].iter().zip(&self.vals[a..b]) {
-                acc += s[c as usize] as i128 * v as i128;
+        for &c in &s.nonzero {
+            let x = s.dense[c as usize] as i128;
+            let (a, b) = (
+                self.col_start[c as usize] as usize,
+                self.col_start[c as usize + 1] as usize,
+            );
+            for (&r, &v) in self.rows[a..b].iter().zip(&self.vals[a..b]) {
+                out[r as usize] += v as i128 * x;
             }
-            *o = acc;
         }
         true
     }

@@ -22,8 +22,8 @@ use cyclorb_field::Cyc;
 use serde::{Deserialize, Serialize};
 
 use crate::error::OrbitError;
-use crate::image::{same_key, Outcome, Workspace};
-use crate::key::KeyNumbers;
+use crate::image::{same_key, Candidate, Outcome, Pending, Workspace};
+use crate::numerators::Numerators;
 use crate::problem::OrbitProblem;
 use crate::store::OrbitSet;
 
@@ -222,14 +222,6 @@ impl Orbit {
     }
 }
 
-/// A new line found while processing a chunk.
-struct Candidate {
-    parent: u32,
-    generator: u16,
-    key: KeyNumbers,
-    fingerprint: u64,
-}
-
 fn split(range: Range<usize>, parts: usize) -> Vec<Range<usize>> {
     let len = range.len();
     let parts = parts.clamp(1, len.max(1));
@@ -241,7 +233,7 @@ fn split(range: Range<usize>, parts: usize) -> Vec<Range<usize>> {
 impl OrbitProblem {
     /// The orbit with only the seed's line, nothing processed.
     pub fn start(&self) -> Orbit {
-        let mut set = OrbitSet::new(self.key_len());
+        let mut set = OrbitSet::new(self.dimension(), self.kernel.degree());
         let fp = self.key_fingerprint(&self.seed_key);
         set.insert(&self.seed_key, fp, u32::MAX, u16::MAX);
         Orbit {
@@ -388,12 +380,14 @@ impl OrbitProblem {
         range: Range<usize>,
         ws: &mut Workspace,
     ) -> Result<Vec<Candidate>, OrbitError> {
-        let mut out = Vec::new();
+        let mut pending = Pending::default();
         for element in range {
             ws.load(set, element);
             for generator in 0..self.generators.operators.len() {
-                if let Outcome::New { key, fingerprint } = self.classify(set, ws, generator)? {
-                    out.push(Candidate {
+                if let Outcome::New { key, fingerprint } =
+                    self.classify(set, &pending, ws, generator)?
+                {
+                    pending.push(Candidate {
                         parent: element as u32,
                         generator: generator as u16,
                         key,
@@ -402,7 +396,7 @@ impl OrbitProblem {
                 }
             }
         }
-        Ok(out)
+        Ok(pending.list)
     }
 
     /// Insert the candidates that are still new, in order; `false` when the limit stopped it.
@@ -412,7 +406,7 @@ impl OrbitProblem {
         candidates: Vec<Candidate>,
         limit: Option<usize>,
     ) -> bool {
-        let mut buf = vec![0i64; self.key_len()];
+        let mut buf = Numerators::new(self.key_len());
         for c in candidates {
             let present = set
                 .find(c.fingerprint, |i| same_key(set, &mut buf, i, &c.key))

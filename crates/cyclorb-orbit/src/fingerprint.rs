@@ -1,45 +1,42 @@
-//! Fingerprints of lines modulo two primes: they pick hash buckets, never decide equality.
+//! Fingerprints of lines modulo a prime: they pick hash buckets, never decide equality.
 //!
-//! For a prime p ≡ 1 (mod n) let r be the chosen primitive n-th root of unity mod p and
-//! red: Z[ζ_n] → F_p the ring map ζ ↦ r. For a line with key S = D·w (see [`crate::key`]),
-//! its fingerprint modulo p is
+//! Let p ≡ 1 (mod n) be a prime below 2^31, r a primitive n-th root of unity mod p, and 𝔭 the
+//! prime of Z[ζ_n] above p with ζ ≡ r (mod 𝔭); red: Z[ζ_n]_𝔭 → F_p is reduction mod 𝔭. For a
+//! line with key w (w_k = 1, see [`crate::key`]) the fingerprint is
 //!
-//!   F_p = Σ_{i,t} h_{i,t} S_{i,t} / D  (mod p),  h_{i,t} = h_i r^t,
+//!   F = Σ_i h_i red(w_i)  when every w_i is 𝔭-integral,  and the sentinel p otherwise,
 //!
-//! i.e. Σ_i h_i red(w_i), when p ∤ D; when p | D it is the sentinel value p. This is a function
-//! of the line alone. It can be computed from any integer representative U = c·S of the line
-//! without the field inversion that normalising U costs: if p ∤ N(U_k) (the norm of the first
-//! non-zero coordinate), then U_k is a unit at every prime above p, so p ∤ D and
-//! red(S_i)·red(U_k) = D·red(U_i) gives F_p = Σ h_{i,t} U_{i,t} / red(U_k). The norm test is
-//! exact: p | N(U_k) exactly when U_k(r^j) ≡ 0 for some unit j mod n, because p splits
-//! completely in Q(ζ_n). When it fails, the caller normalises U and uses the key.
-//!
-//! Two primes give a 62-bit fingerprint; the weights h_i come from a fixed-seed generator, so
-//! fingerprints are reproducible.
+//! with fixed pseudo-random weights h_i. This is a function of the line alone, computed in
+//! one of two ways that agree:
+//! - from any integer representative U = c·w of the line whose first non-zero coordinate
+//!   has red(U_k) ≠ 0: then w_i = U_i/U_k is 𝔭-integral and F = Σ_{i,t} h_i r^t U_{i,t} / red(U_k)
+//!   (no field inversion: this is the hot path);
+//! - from the key S = D·w: if p ∤ D, F = Σ h_i r^t S_{i,t} / D; if p | D (rare: p is large and
+//!   denominators are products of small primes), w_i is 𝔭-integral exactly when
+//!   S_i(ζ̂) ≡ 0 (mod p^e), e = v_p(D), where ζ̂ ∈ Z_p is the p-adic n-th root of unity
+//!   lifting r (Hensel); then red(w_i) = (S_i(ζ̂)/p^e)·(D/p^e)⁻¹ mod p.
 
-use cyclorb_field::numtheory::pow_mod;
 use cyclorb_field::{CyclotomicField, PrimeReduction};
 use num_bigint::BigInt;
 use num_integer::Integer;
-use num_traits::ToPrimitive;
+use num_traits::{One, Signed, ToPrimitive, Zero};
 
 use crate::key::KeyNumbers;
-
-/// One prime's tables.
-#[derive(Debug, Clone)]
-struct PrimeTables {
-    p: u64,
-    /// h_{i,t} for all d·φ numerators.
-    weights: Vec<u64>,
-    /// r^{j·t mod n} for every unit j mod n (rows) and t < φ (columns); row 0 is j = 1.
-    evaluations: Vec<u64>,
-}
+use crate::numerators::Numerators;
 
 /// Fingerprints of lines of Q(ζ_n)^d.
 #[derive(Debug, Clone)]
 pub(crate) struct Fingerprinter {
     phi: usize,
-    primes: [PrimeTables; 2],
+    n: u64,
+    p: u64,
+    root: u64,
+    /// h_i r^t mod p for all d·φ numerators.
+    weights: Vec<u64>,
+    /// h_i mod p.
+    block_weights: Vec<u64>,
+    /// r^t mod p for t < φ.
+    powers: Vec<u64>,
 }
 
 fn splitmix(state: &mut u64) -> u64 {
@@ -50,130 +47,162 @@ fn splitmix(state: &mut u64) -> u64 {
     z ^ (z >> 31)
 }
 
-impl PrimeTables {
-    fn new(field: &CyclotomicField, dim: usize, index: usize) -> Result<PrimeTables, String> {
-        let reduction = PrimeReduction::nth(field, index).map_err(|e| e.to_string())?;
-        let (p, r) = (reduction.prime(), reduction.root());
-        let n = field.conductor() as u64;
-        let phi = field.degree();
-        let powers: Vec<u64> = (0..phi as u64).map(|t| pow_mod(r, t, p)).collect();
-        let mut state = 0x6379_636C_6F72_6221 ^ (index as u64).wrapping_mul(0x1234_5678_9ABC);
-        let mut weights = Vec::with_capacity(dim * phi);
-        for _ in 0..dim {
-            let h = splitmix(&mut state) % p;
-            weights.extend(
-                powers
-                    .iter()
-                    .map(|&x| (h as u128 * x as u128 % p as u128) as u64),
-            );
-        }
-        let units = (1..n.max(2)).filter(|j| j.gcd(&n) == 1);
-        let mut evaluations = Vec::new();
-        for j in units {
-            let rj = pow_mod(r, j, p);
-            evaluations.extend((0..phi as u64).map(|t| pow_mod(rj, t, p)));
-        }
-        Ok(PrimeTables {
-            p,
-            weights,
-            evaluations,
-        })
+/// a⁻¹ mod p for 0 < a < p < 2^31 (extended Euclid).
+fn inverse_mod(a: u64, p: u64) -> u64 {
+    let (mut r0, mut r1) = (p as i64, a as i64);
+    let (mut s0, mut s1) = (0i64, 1i64);
+    while r1 != 0 {
+        let q = r0 / r1;
+        (r0, r1) = (r1, r0 - q * r1);
+        (s0, s1) = (s1, s0 - q * s1);
     }
-
-    /// Σ weights·u mod p, for machine-word numerators.
-    fn weighted_sum(&self, u: &[i64]) -> u64 {
-        let mut acc = 0i128;
-        for (&w, &x) in self.weights.iter().zip(u) {
-            acc += w as i128 * x as i128;
-        }
-        acc.rem_euclid(self.p as i128) as u64
-    }
-
-    /// red(a) at every prime above p; `None` when one of them is 0 (p | N(a)), else red(a)
-    /// at the chosen prime (j = 1).
-    fn unit_reduction(&self, a: &[i64], phi: usize) -> Option<u64> {
-        let mut first = None;
-        for row in self.evaluations.chunks(phi) {
-            let mut acc = 0i128;
-            for (&e, &x) in row.iter().zip(a) {
-                acc += e as i128 * x as i128;
-            }
-            let v = acc.rem_euclid(self.p as i128) as u64;
-            if v == 0 {
-                return None;
-            }
-            first.get_or_insert(v);
-        }
-        first
-    }
-
-    fn of_representative(&self, u: &[i64], k: usize, phi: usize) -> Option<u64> {
-        let a = self.unit_reduction(&u[k * phi..(k + 1) * phi], phi)?;
-        let s = self.weighted_sum(u);
-        Some((s as u128 * pow_mod(a, self.p - 2, self.p) as u128 % self.p as u128) as u64)
-    }
-
-    fn of_key(&self, key: &KeyNumbers, k: usize, phi: usize) -> u64 {
-        let p = self.p;
-        let (s, d) = match key {
-            KeyNumbers::Small(v) => (self.weighted_sum(v), v[k * phi].rem_euclid(p as i64) as u64),
-            KeyNumbers::Big(v) => {
-                let m = BigInt::from(p);
-                let red = |x: &BigInt| x.mod_floor(&m).to_u64().expect("reduced below p");
-                let mut s = 0u128;
-                for (&w, x) in self.weights.iter().zip(v) {
-                    s = (s + w as u128 * red(x) as u128) % p as u128;
-                }
-                (s as u64, red(&v[k * phi]))
-            }
-        };
-        if d == 0 {
-            return p;
-        }
-        (s as u128 * pow_mod(d, p - 2, p) as u128 % p as u128) as u64
-    }
+    s0.rem_euclid(p as i64) as u64
 }
 
 impl Fingerprinter {
-    /// Tables for Q(ζ_n)^dim, with the first two primes p ≡ 1 (mod n) above 2^30.
+    /// Tables for Q(ζ_n)^dim with the first prime p ≡ 1 (mod n) above 2^30.
     pub(crate) fn new(field: &CyclotomicField, dim: usize) -> Result<Fingerprinter, String> {
+        let reduction = PrimeReduction::nth(field, 0).map_err(|e| e.to_string())?;
+        let (p, root) = (reduction.prime(), reduction.root());
+        let phi = field.degree();
+        let mut powers = Vec::with_capacity(phi);
+        let mut x = 1u64;
+        for _ in 0..phi {
+            powers.push(x);
+            x = x * root % p;
+        }
+        let mut state = 0x6379_636C_6F72_6221u64;
+        let block_weights: Vec<u64> = (0..dim).map(|_| splitmix(&mut state) % p).collect();
+        let weights = block_weights
+            .iter()
+            .flat_map(|&h| powers.iter().map(move |&r| h * r % p))
+            .collect();
         Ok(Fingerprinter {
-            phi: field.degree(),
-            primes: [
-                PrimeTables::new(field, dim, 0)?,
-                PrimeTables::new(field, dim, 1)?,
-            ],
+            phi,
+            n: field.conductor() as u64,
+            p,
+            root,
+            weights,
+            block_weights,
+            powers,
         })
     }
 
-    /// The fingerprint of the line through the integer vector u (first non-zero block k),
-    /// or `None` when the norm test fails at one of the primes (then use [`Self::of_key`]).
-    pub(crate) fn of_representative(&self, u: &[i64], k: usize) -> Option<u64> {
-        let a = self.primes[0].of_representative(u, k, self.phi)?;
-        let b = self.primes[1].of_representative(u, k, self.phi)?;
-        Some(a | (b << 32))
+    /// The fingerprint of the line through `u` (first non-zero block k), or `None` when
+    /// red(u_k) = 0 (then use [`Self::of_key`]).
+    pub(crate) fn of_representative(&self, u: &Numerators, k: usize) -> Option<u32> {
+        let p = self.p as i128;
+        let lead = &u.dense[k * self.phi..(k + 1) * self.phi];
+        let mut a = 0i128;
+        for (&r, &x) in self.powers.iter().zip(lead) {
+            a += r as i128 * x as i128;
+        }
+        let a = a.rem_euclid(p) as u64;
+        if a == 0 {
+            return None;
+        }
+        let mut s = 0i128;
+        for &i in &u.nonzero {
+            s += self.weights[i as usize] as i128 * u.dense[i as usize] as i128;
+        }
+        let s = s.rem_euclid(p) as u64;
+        Some((s * inverse_mod(a, self.p) % self.p) as u32)
     }
 
     /// The fingerprint of a line from its key (first non-zero block k).
-    pub(crate) fn of_key(&self, key: &KeyNumbers, k: usize) -> u64 {
-        let a = self.primes[0].of_key(key, k, self.phi);
-        let b = self.primes[1].of_key(key, k, self.phi);
-        a | (b << 32)
+    pub(crate) fn of_key(&self, key: &KeyNumbers, k: usize) -> u32 {
+        let p = self.p;
+        match key {
+            KeyNumbers::Small(v) if v[k * self.phi] % p as i64 != 0 => {
+                let mut s = 0i128;
+                for (&w, &x) in self.weights.iter().zip(v) {
+                    s += w as i128 * x as i128;
+                }
+                let s = s.rem_euclid(p as i128) as u64;
+                let d = v[k * self.phi].rem_euclid(p as i64) as u64;
+                (s * inverse_mod(d, p) % p) as u32
+            }
+            _ => self.of_big_key(&key.to_big(), k),
+        }
+    }
+
+    /// The general formula, with the p-adic route when p divides the denominator.
+    fn of_big_key(&self, v: &[BigInt], k: usize) -> u32 {
+        let p = BigInt::from(self.p);
+        let mut rest = v[k * self.phi].clone();
+        let mut e = 0u32;
+        while (&rest % &p).is_zero() {
+            rest /= &p;
+            e += 1;
+        }
+        let modulus = p.pow(e + 1);
+        let lift = self.teichmuller_lift(&modulus);
+        let scale = p.pow(e);
+        let rest_inverse = inverse_mod((&rest).mod_floor(&p).to_u64().unwrap_or(0), self.p);
+        let mut f = 0u128;
+        for (block, &h) in v.chunks(self.phi).zip(&self.block_weights) {
+            // S_i(ζ̂) mod p^{e+1}
+            let mut value = BigInt::zero();
+            let mut power = BigInt::one();
+            for c in block {
+                value = (value + c * &power).mod_floor(&modulus);
+                power = (power * &lift).mod_floor(&modulus);
+            }
+            if !(&value % &scale).is_zero() {
+                return self.p as u32;
+            }
+            let reduced = (value / &scale).mod_floor(&p).to_u64().unwrap_or(0);
+            let wi = reduced as u128 * rest_inverse as u128 % self.p as u128;
+            f = (f + h as u128 * wi) % self.p as u128;
+        }
+        f as u32
+    }
+
+    /// The n-th root of unity of Z_p congruent to r, modulo `modulus` (a power of p), by
+    /// Newton's iteration on x^n − 1 (a simple root mod p, as p ∤ n).
+    fn teichmuller_lift(&self, modulus: &BigInt) -> BigInt {
+        let n = BigInt::from(self.n);
+        let mut x = BigInt::from(self.root);
+        let mut precision = 1u32;
+        let mut power = BigInt::from(self.p);
+        while &power < modulus {
+            let f: BigInt = x.modpow(&n, modulus) - 1;
+            let df: BigInt = (&n * x.modpow(&(&n - 1), modulus)).mod_floor(modulus);
+            let inv: BigInt = df.extended_gcd(modulus).x.mod_floor(modulus);
+            let step: BigInt = f * inv;
+            x = (&x - step).mod_floor(modulus);
+            precision *= 2;
+            power = BigInt::from(self.p).pow(precision);
+        }
+        if x.is_negative() {
+            x += modulus;
+        }
+        x
     }
 }
 
 /// The hash-table hash of a fingerprint (spreads the bits hashbrown reads).
-pub(crate) fn bucket_hash(fingerprint: u64) -> u64 {
-    let x = fingerprint.wrapping_mul(0x9E37_79B9_7F4A_7C15);
+pub(crate) fn bucket_hash(fingerprint: u32) -> u64 {
+    let x = (fingerprint as u64 | 1 << 40).wrapping_mul(0x9E37_79B9_7F4A_7C15);
     x ^ (x >> 29)
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::key::{key_of_integer_vector, KeyNumbers};
+    use crate::key::{key_of_integer_vector, InverseCache, KeyNumbers};
     use crate::poly::PolyKernel;
     use cyclorb_field::Cyc;
+
+    fn numerators(f: &CyclotomicField, texts: &[&str]) -> Numerators {
+        let dense: Vec<i64> = texts
+            .iter()
+            .flat_map(|t| f.parse(t).unwrap().small_parts().unwrap().0.to_vec())
+            .collect();
+        let mut u = Numerators::new(dense.len());
+        u.set_dense(&dense);
+        u
+    }
 
     #[test]
     fn representative_and_key_agree() {
@@ -181,23 +210,48 @@ mod tests {
             let f = CyclotomicField::new(n).unwrap();
             let kernel = PolyKernel::new(&f);
             let fp = Fingerprinter::new(&f, 3).unwrap();
-            let v: Vec<Cyc> = ["0", "3 + z", "1 - 2*z^2"]
-                .iter()
-                .map(|t| f.parse(t).unwrap())
-                .collect();
-            let u: Vec<i64> = v
-                .iter()
-                .flat_map(|x| x.small_parts().unwrap().0.to_vec())
-                .collect();
-            let key = key_of_integer_vector(&f, &kernel, &u, 1).unwrap();
+            let texts = ["0", "3 + z", "1 - 2*z^2"];
+            let v: Vec<Cyc> = texts.iter().map(|t| f.parse(t).unwrap()).collect();
+            let u = numerators(&f, &texts);
+            let key =
+                key_of_integer_vector(&f, &kernel, &mut InverseCache::default(), &u, 1).unwrap();
             assert_eq!(key, KeyNumbers::of_line(&f, &v).unwrap().unwrap());
             let from_rep = fp.of_representative(&u, 1).unwrap();
             assert_eq!(from_rep, fp.of_key(&key, 1), "n={n}");
-            let other: Vec<i64> = ["0", "3 + z", "1 + 2*z^2"]
-                .iter()
-                .flat_map(|t| f.parse(t).unwrap().small_parts().unwrap().0.to_vec())
-                .collect();
+            // the p-adic route gives the same value as the plain one when p ∤ D
+            assert_eq!(fp.of_big_key(&key.to_big(), 1), from_rep, "n={n}");
+            let other = numerators(&f, &["0", "3 + z", "1 + 2*z^2"]);
             assert_ne!(fp.of_representative(&other, 1).unwrap(), from_rep);
         }
+    }
+
+    #[test]
+    fn denominators_divisible_by_p_use_the_p_adic_route() {
+        // Q(ζ_4), p ≡ 1 (mod 4), r² ≡ −1. The line w = (1, (ζ − r)/p) is integral at 𝔭 (where
+        // ζ ≡ r) but not at the other prime above p, so its key S = (p, ζ − r) has D = p.
+        // Another representative: U = c·w with c = ζ − r³ = ζ + r − p (a 𝔭-unit), using
+        // (ζ − r)(ζ − r³) = ζ² − pζ + rp − r² = p(−ζ + r − (r² + 1)/p) since ζ² = −1. The two
+        // routes must give the same fingerprint.
+        let f = CyclotomicField::new(4).unwrap();
+        let fp = Fingerprinter::new(&f, 2).unwrap();
+        let (p, r) = (fp.p as i64, fp.root as i64);
+        assert_eq!((r * r + 1) % p, 0);
+        let key = KeyNumbers::Small(vec![p, 0, -r, 1]);
+        let w = vec![f.one(), f.parse(&format!("(z - {r})/{p}")).unwrap()];
+        assert_eq!(KeyNumbers::of_line(&f, &w).unwrap().unwrap(), key);
+        let mut u = Numerators::new(4);
+        u.set_dense(&[r - p, 1, r - (r * r + 1) / p, -1]);
+        let c = f.parse(&format!("z + {r} - {p}")).unwrap();
+        let cw: Vec<Cyc> = w.iter().map(|x| f.mul(&c, x).unwrap()).collect();
+        let expect: Vec<i64> = cw
+            .iter()
+            .flat_map(|x| x.small_parts().unwrap().0.to_vec())
+            .collect();
+        assert_eq!(u.dense, expect);
+        let via_representative = fp.of_representative(&u, 0).unwrap();
+        assert_eq!(fp.of_key(&key, 0), via_representative);
+        // a key that is not 𝔭-integral gets the sentinel: w = (1, 1/p)
+        let key = KeyNumbers::Small(vec![p, 0, 1, 0]);
+        assert_eq!(fp.of_key(&key, 0), fp.p as u32);
     }
 }

@@ -8,10 +8,12 @@
 //! constant term of coordinate k). Two lines are equal exactly when their keys are equal.
 
 use cyclorb_field::{Cyc, CyclotomicField, FieldError};
+use hashbrown::HashMap;
 use num_bigint::BigInt;
 use num_integer::Integer;
 use num_traits::{One, ToPrimitive, Zero};
 
+use crate::numerators::Numerators;
 use crate::poly::PolyKernel;
 
 /// The numerators S of a key (d blocks of φ coefficients): machine words when they fit.
@@ -97,27 +99,56 @@ pub(crate) fn first_nonzero_block<T: Zero>(numbers: &[T], phi: usize) -> Option<
         .position(|block| block.iter().any(|x| !x.is_zero()))
 }
 
+/// Inverses of first coordinates already met: u_k ↦ (P, q) with u_k⁻¹ = P/q, or `None` when
+/// P does not fit machine words. Orbits of finite groups meet few distinct values.
+#[derive(Debug, Default)]
+pub(crate) struct InverseCache {
+    map: HashMap<Box<[i64]>, Option<(Box<[i64]>, i64)>>,
+}
+
+/// Entries kept before the cache is emptied (it only saves time).
+const INVERSE_CACHE_LIMIT: usize = 1 << 16;
+
+impl InverseCache {
+    fn inverse(
+        &mut self,
+        field: &CyclotomicField,
+        lead: &[i64],
+    ) -> Result<Option<(Box<[i64]>, i64)>, FieldError> {
+        if let Some(hit) = self.map.get(lead) {
+            return Ok(hit.clone());
+        }
+        let num: Vec<BigInt> = lead.iter().map(|&c| BigInt::from(c)).collect();
+        let inverse = field.inv(&field.from_parts(&num, &BigInt::one())?)?;
+        let entry = inverse
+            .small_parts()
+            .map(|(p, q)| (p.to_vec().into_boxed_slice(), q));
+        if self.map.len() >= INVERSE_CACHE_LIMIT {
+            self.map.clear();
+        }
+        self.map.insert(lead.into(), entry.clone());
+        Ok(entry)
+    }
+}
+
 /// The key of the line through the integer vector `u` (first non-zero block k), computed in
 /// machine words when possible: with (u_k)⁻¹ = P/q, w_i = u_i·P/q, then divided by the gcd
 /// of q and all numerators.
 pub(crate) fn key_of_integer_vector(
     field: &CyclotomicField,
     kernel: &PolyKernel,
-    u: &[i64],
+    cache: &mut InverseCache,
+    u: &Numerators,
     k: usize,
 ) -> Result<KeyNumbers, FieldError> {
     let phi = kernel.degree();
-    let uk: Vec<BigInt> = u[k * phi..(k + 1) * phi]
-        .iter()
-        .map(|&c| BigInt::from(c))
-        .collect();
-    let inverse = field.inv(&field.from_parts(&uk, &BigInt::one())?)?;
-    if let Some((p, q)) = inverse.small_parts() {
-        if let Some(key) = small_key(kernel, u, k, p, q) {
+    if let Some((p, q)) = cache.inverse(field, &u.dense[k * phi..(k + 1) * phi])? {
+        if let Some(key) = small_key(kernel, u, p.as_ref(), q) {
             return Ok(key);
         }
     }
     let line: Vec<Cyc> = u
+        .dense
         .chunks(phi)
         .map(|block| {
             let num: Vec<BigInt> = block.iter().map(|&c| BigInt::from(c)).collect();
@@ -127,18 +158,24 @@ pub(crate) fn key_of_integer_vector(
     Ok(KeyNumbers::of_line(field, &line)?.expect("u_k is not zero"))
 }
 
-fn small_key(kernel: &PolyKernel, u: &[i64], k: usize, p: &[i64], q: i64) -> Option<KeyNumbers> {
+fn small_key(kernel: &PolyKernel, u: &Numerators, p: &[i64], q: i64) -> Option<KeyNumbers> {
     let phi = kernel.degree();
     let mut m = vec![0i128; phi * phi];
     kernel.mult_matrix(p, &mut m)?;
-    let mut wide = vec![0i128; u.len()];
-    for (block, out) in u.chunks(phi).zip(wide.chunks_mut(phi)).skip(k) {
-        for (t, o) in out.iter_mut().enumerate() {
-            let mut acc = 0i128;
-            for (s, &x) in block.iter().enumerate() {
-                acc = acc.checked_add(m[t * phi + s].checked_mul(x as i128)?)?;
-            }
-            *o = acc;
+    let bound = m
+        .chunks(phi)
+        .map(|row| row.iter().map(|x| x.unsigned_abs()).sum::<u128>())
+        .max()
+        .unwrap_or(0);
+    if bound.checked_mul(u.max as u128)? >= 1 << 126 {
+        return None;
+    }
+    let mut wide = vec![0i128; u.dense.len()];
+    for &i in &u.nonzero {
+        let (block, s) = (i as usize / phi, i as usize % phi);
+        let x = u.dense[i as usize] as i128;
+        for t in 0..phi {
+            wide[block * phi + t] += m[t * phi + s] * x;
         }
     }
     let mut g = q.unsigned_abs() as u128;
@@ -146,16 +183,13 @@ fn small_key(kernel: &PolyKernel, u: &[i64], k: usize, p: &[i64], q: i64) -> Opt
         if g == 1 {
             break;
         }
-        g = g.gcd(&x.unsigned_abs());
+        if x != 0 && x.unsigned_abs() % g != 0 {
+            g = g.gcd(&x.unsigned_abs());
+        }
     }
     let g = g as i128;
     let small: Option<Vec<i64>> = wide.iter().map(|&x| i64::try_from(x / g).ok()).collect();
     small.map(KeyNumbers::Small)
-}
-
-/// max |x| over a slice of numerators.
-pub(crate) fn max_abs(numbers: &[i64]) -> u64 {
-    numbers.iter().map(|x| x.unsigned_abs()).max().unwrap_or(0)
 }
 
 #[cfg(test)]
@@ -184,8 +218,13 @@ mod tests {
         .iter()
         .flat_map(|t| f.parse(t).unwrap().small_parts().unwrap().0.to_vec())
         .collect();
-        let fast = key_of_integer_vector(&f, &kernel, &u, 1).unwrap();
+        let mut numbers = Numerators::new(u.len());
+        numbers.set_dense(&u);
+        let mut cache = InverseCache::default();
+        let fast = key_of_integer_vector(&f, &kernel, &mut cache, &numbers, 1).unwrap();
         assert_eq!(fast, key);
+        let again = key_of_integer_vector(&f, &kernel, &mut cache, &numbers, 1).unwrap();
+        assert_eq!(again, key);
         let back = key.to_line(&f, 8).unwrap();
         assert_eq!(back[1], f.one());
         assert_eq!(back[3], f.div(&v[3], &v[1]).unwrap());

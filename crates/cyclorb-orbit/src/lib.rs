@@ -80,6 +80,7 @@ mod hash;
 mod image;
 mod key;
 mod memory;
+mod numerators;
 mod poincare;
 mod poly;
 mod problem;

@@ -26,6 +26,7 @@ use num_traits::{One, ToPrimitive};
 use crate::commutant::{decompose, Decomposition};
 use crate::engine::Orbit;
 use crate::error::OrbitError;
+use crate::numerators::Numerators;
 use crate::poly::PolyKernel;
 use crate::problem::OrbitProblem;
 use crate::store::StoredKey;
@@ -86,8 +87,20 @@ struct Partial<'a> {
     max_open: usize,
     /// Upper triangle of the exact part of B, row-major d×d (lower entries unused).
     exact: Vec<Cyc>,
-    key: Vec<i64>,
+    key: Numerators,
     conj: Vec<i64>,
+    /// The non-zero blocks of the current key, with ranges into `s_list` and `c_list`.
+    blocks: Vec<BlockEntries>,
+    /// (position in block, value) of the non-zero coefficients of S_i and of conj(S_i).
+    s_list: Vec<(usize, i64)>,
+    c_list: Vec<(usize, i64)>,
+}
+
+/// One non-zero block of a key: its index and its coefficient ranges.
+struct BlockEntries {
+    block: usize,
+    s: std::ops::Range<usize>,
+    c: std::ops::Range<usize>,
 }
 
 impl OrbitProblem {
@@ -264,17 +277,19 @@ impl<'a> Partial<'a> {
             open: HashMap::new(),
             max_open: (OPEN_SUM_BYTES / sum_bytes.max(1)).clamp(1, MAX_OPEN_SUMS),
             exact: vec![problem.field.zero(); d * d],
-            key: vec![0; len],
+            key: Numerators::new(len),
             conj: vec![0; len],
+            blocks: Vec::new(),
+            s_list: Vec::new(),
+            c_list: Vec::new(),
         }
     }
 
     fn add_line(&mut self, orbit: &Orbit, index: usize) -> Result<(), OrbitError> {
-        let max = match orbit.set.keys.get(index, &mut self.key) {
-            StoredKey::Small(m) => m,
-            StoredKey::Big(_) => return self.add_line_exact(orbit, index),
-        };
-        if !self.add_line_small(max)? {
+        if let StoredKey::Big(_) = orbit.set.keys.get(index, &mut self.key) {
+            return self.add_line_exact(orbit, index);
+        }
+        if !self.add_line_small(self.key.max)? {
             return self.add_line_exact(orbit, index);
         }
         Ok(())
@@ -298,10 +313,41 @@ impl<'a> Partial<'a> {
         if term_bound >= 1 << 120 {
             return Ok(false);
         }
-        for (block, out) in self.key.chunks(phi).zip(self.conj.chunks_mut(phi)) {
-            if kernel.conj_into(block, out).is_none() {
+        // non-zero blocks of S, and the non-zero coefficients of S_i and conj(S_i) by block
+        self.blocks.clear();
+        self.s_list.clear();
+        self.c_list.clear();
+        let mut cursor = 0;
+        let nonzero = &self.key.nonzero;
+        while cursor < nonzero.len() {
+            let block = nonzero[cursor] as usize / phi;
+            let s_start = self.s_list.len();
+            while cursor < nonzero.len() && nonzero[cursor] as usize / phi == block {
+                let at = nonzero[cursor] as usize;
+                self.s_list.push((at % phi, self.key.dense[at]));
+                cursor += 1;
+            }
+            let range = block * phi..(block + 1) * phi;
+            if kernel
+                .conj_into(
+                    &self.key.dense[range.clone()],
+                    &mut self.conj[range.clone()],
+                )
+                .is_none()
+            {
                 return Ok(false);
             }
+            let c_start = self.c_list.len();
+            for (t, &y) in self.conj[range].iter().enumerate() {
+                if y != 0 {
+                    self.c_list.push((t, y));
+                }
+            }
+            self.blocks.push(BlockEntries {
+                block,
+                s: s_start..self.s_list.len(),
+                c: c_start..self.c_list.len(),
+            });
         }
         let Some(q) = self.form_value() else {
             return Ok(false);
@@ -327,19 +373,12 @@ impl<'a> Partial<'a> {
             bound: 0,
         });
         entry.bound += term_bound;
-        let nonzero: Vec<usize> = (0..d)
-            .filter(|&i| self.key[i * phi..(i + 1) * phi].iter().any(|&x| x != 0))
-            .collect();
-        for (a, &i) in nonzero.iter().enumerate() {
-            let si = &self.key[i * phi..(i + 1) * phi];
-            for &j in &nonzero[a..] {
-                let cj = &self.conj[j * phi..(j + 1) * phi];
-                let out = &mut entry.sums[(i * d + j) * wide..(i * d + j + 1) * wide];
-                for (s, &x) in si.iter().enumerate() {
-                    if x == 0 {
-                        continue;
-                    }
-                    for (t, &y) in cj.iter().enumerate() {
+        for (a, bi) in self.blocks.iter().enumerate() {
+            for bj in &self.blocks[a..] {
+                let cell = bi.block * d + bj.block;
+                let out = &mut entry.sums[cell * wide..(cell + 1) * wide];
+                for &(s, x) in &self.s_list[bi.s.clone()] {
+                    for &(t, y) in &self.c_list[bj.c.clone()] {
                         out[s + t] += x as i128 * y as i128;
                     }
                 }
@@ -354,13 +393,11 @@ impl<'a> Partial<'a> {
         let phi = kernel.degree();
         let mut q = vec![0i128; phi];
         let mut product = vec![0i128; 2 * phi - 1];
-        for (i, (s, c)) in self.key.chunks(phi).zip(self.conj.chunks(phi)).enumerate() {
-            if s.iter().all(|&x| x == 0) {
-                continue;
-            }
+        for entries in &self.blocks {
+            let i = entries.block;
             product.fill(0);
-            for (a, &x) in s.iter().enumerate() {
-                for (b, &y) in c.iter().enumerate() {
+            for &(a, x) in &self.s_list[entries.s.clone()] {
+                for &(b, y) in &self.c_list[entries.c.clone()] {
                     product[a + b] =
                         product[a + b].checked_add((x as i128).checked_mul(y as i128)?)?;
                 }

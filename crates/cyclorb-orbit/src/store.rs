@@ -1,18 +1,24 @@
 //! The orbit's storage: packed keys in one flat arena, Schreier records, and the hash
 //! table from fingerprints to element indices.
 //!
-//! Keys are stored in the order they were found. Every key of a store uses one width
-//! (1, 2, 4 or 8 bytes per numerator, little-endian two's complement); the width grows, and
+//! A key (d blocks of φ numerators, see [`crate::key`]) is encoded sparsely: a bit mask of
+//! its non-zero blocks (⌈d/8⌉ bytes), then for each non-zero block a bit mask of its non-zero
+//! coefficients (⌈φ/8⌉ bytes) followed by those coefficients. Every coefficient of a store
+//! uses one width (1, 2, 4 or 8 bytes, little-endian two's complement); the width grows, and
 //! the arena is re-encoded, the first time a key needs more. A key with a numerator beyond
-//! `i64` is kept as big integers beside the arena (its arena slot stays zero). The table holds
-//! only element indices; the full 64-bit fingerprints sit in a parallel vector, so a probe
-//! compares fingerprints before it compares keys exactly.
+//! `i64` is kept as big integers beside the arena (its encoding is the empty block mask, which
+//! no real key has). Keys are addressed by 32-bit offsets from a base per segment of keys.
+//!
+//! The arena and the record vectors grow by an eighth at a time (not by doubling), so the
+//! store stays close to its payload. The table holds element indices only; the fingerprints
+//! sit in a parallel vector, so a probe compares fingerprints before it compares keys.
 
 use hashbrown::{HashMap, HashTable};
 use num_bigint::BigInt;
 
 use crate::fingerprint::bucket_hash;
 use crate::key::KeyNumbers;
+use crate::numerators::Numerators;
 
 /// Bytes per stored numerator.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord)]
@@ -54,45 +60,55 @@ impl Width {
     }
 }
 
-/// Append numbers at a width (each fits it: the caller chose the width).
-fn encode_into(bytes: &mut Vec<u8>, width: Width, numbers: &[i64]) {
-    for &x in numbers {
-        match width {
-            Width::W1 => bytes.push(x as i8 as u8),
-            Width::W2 => bytes.extend_from_slice(&(x as i16).to_le_bytes()),
-            Width::W4 => bytes.extend_from_slice(&(x as i32).to_le_bytes()),
-            Width::W8 => bytes.extend_from_slice(&x.to_le_bytes()),
-        }
+/// Grow a vector by at least an eighth when it is full (realloc of large blocks is cheap).
+fn reserve_gently<T>(v: &mut Vec<T>, additional: usize) {
+    if v.capacity() - v.len() < additional {
+        v.reserve_exact(additional.max(v.len() / 8).max(64));
     }
 }
 
 /// A stored key, as read back.
 pub(crate) enum StoredKey<'a> {
-    /// Machine-word numerators (in the caller's buffer) and their largest absolute value.
-    Small(u64),
+    /// Machine-word numerators (in the caller's buffer).
+    Small,
     /// Big numerators.
     Big(&'a [BigInt]),
 }
 
-/// Packed keys of fixed length `len_numbers` each.
+/// Packed keys of d blocks of φ numerators.
 #[derive(Debug, Clone)]
 pub(crate) struct KeyArena {
-    len_numbers: usize,
+    blocks: usize,
+    phi: usize,
     width: Width,
     bytes: Vec<u8>,
+    /// Offset of key i from `bases[i >> shift]`.
+    offsets: Vec<u32>,
+    bases: Vec<u64>,
+    shift: u32,
     big: HashMap<u32, Box<[BigInt]>>,
-    count: usize,
 }
 
 impl KeyArena {
-    pub(crate) fn new(len_numbers: usize) -> KeyArena {
+    pub(crate) fn new(blocks: usize, phi: usize) -> KeyArena {
+        // the longest key must fit 2^shift times in 32 bits of offset
+        let longest = blocks.div_ceil(8) + blocks * (phi.div_ceil(8) + 8 * phi);
+        let shift = (u32::MAX as usize / longest.max(1)).max(1).ilog2().min(16);
         KeyArena {
-            len_numbers,
+            blocks,
+            phi,
             width: Width::W1,
             bytes: Vec::new(),
+            offsets: Vec::new(),
+            bases: Vec::new(),
+            shift,
             big: HashMap::new(),
-            count: 0,
         }
+    }
+
+    /// Number of keys.
+    fn len(&self) -> usize {
+        self.offsets.len()
     }
 
     /// The current width.
@@ -100,7 +116,7 @@ impl KeyArena {
         self.width
     }
 
-    /// The raw arena (checkpoint files).
+    /// The encoded keys (checkpoint files).
     pub(crate) fn raw_bytes(&self) -> &[u8] {
         &self.bytes
     }
@@ -113,123 +129,229 @@ impl KeyArena {
         keys.into_iter()
     }
 
-    /// Rebuild from checkpoint parts; `None` when the sizes do not fit.
+    /// Rebuild from checkpoint parts (`count` keys encoded in `bytes`); `None` when the bytes
+    /// do not parse as exactly `count` keys or the big keys do not fit.
     pub(crate) fn from_parts(
-        len_numbers: usize,
+        blocks: usize,
+        phi: usize,
         width: Width,
         bytes: Vec<u8>,
+        count: usize,
         big: Vec<(u32, Box<[BigInt]>)>,
     ) -> Option<KeyArena> {
-        let stride = len_numbers * width as usize;
-        if stride == 0 || bytes.len() % stride != 0 {
+        let mut arena = KeyArena::new(blocks, phi);
+        arena.width = width;
+        let mut at = 0usize;
+        for i in 0..count {
+            arena.record_offset(i, at as u64)?;
+            at += arena.encoded_len(&bytes[at.min(bytes.len())..])?;
+        }
+        if at != bytes.len() {
             return None;
         }
-        let count = bytes.len() / stride;
-        if big
-            .iter()
-            .any(|(i, k)| *i as usize >= count || k.len() != len_numbers)
-        {
+        arena.bytes = bytes;
+        let len = blocks * phi;
+        for (i, k) in big {
+            let empty = arena.block_mask_is_empty(i as usize);
+            if i as usize >= count || k.len() != len || !empty {
+                return None;
+            }
+            arena.big.insert(i, k);
+        }
+        let mut markers = (0..count).filter(|&i| arena.block_mask_is_empty(i));
+        if markers.any(|i| !arena.big.contains_key(&(i as u32))) {
             return None;
         }
-        Some(KeyArena {
-            len_numbers,
-            width,
-            bytes,
-            big: big.into_iter().collect(),
-            count,
-        })
+        Some(arena)
     }
 
-    /// Bytes held (arena, big keys at an estimate of their heap size).
+    fn record_offset(&mut self, index: usize, at: u64) -> Option<()> {
+        if index >> self.shift == self.bases.len() {
+            self.bases.push(at);
+        }
+        let base = self.bases[index >> self.shift];
+        reserve_gently(&mut self.offsets, 1);
+        self.offsets.push(u32::try_from(at - base).ok()?);
+        Some(())
+    }
+
+    /// Length of the encoding at the start of `bytes`, `None` when it runs past the end.
+    fn encoded_len(&self, bytes: &[u8]) -> Option<usize> {
+        let mask_len = self.blocks.div_ceil(8);
+        let coefficient_mask = self.phi.div_ceil(8);
+        let mut at = mask_len;
+        let blocks_set: u32 = bytes.get(..mask_len)?.iter().map(|b| b.count_ones()).sum();
+        for _ in 0..blocks_set {
+            let set: u32 = bytes
+                .get(at..at + coefficient_mask)?
+                .iter()
+                .map(|b| b.count_ones())
+                .sum();
+            at += coefficient_mask + set as usize * self.width as usize;
+        }
+        (at <= bytes.len()).then_some(at)
+    }
+
+    fn start(&self, i: usize) -> usize {
+        (self.bases[i >> self.shift] + self.offsets[i] as u64) as usize
+    }
+
+    fn block_mask_is_empty(&self, i: usize) -> bool {
+        let at = self.start(i);
+        self.bytes[at..at + self.blocks.div_ceil(8)]
+            .iter()
+            .all(|&b| b == 0)
+    }
+
+    /// Bytes held (arena, offsets, big keys at an estimate of their heap size).
     pub(crate) fn bytes_used(&self) -> usize {
         let big: usize = self
             .big
             .values()
             .map(|k| k.iter().map(|x| 32 + x.bits() as usize / 8).sum::<usize>())
             .sum();
-        self.bytes.capacity() + big
+        self.bytes.capacity() + self.offsets.capacity() * 4 + self.bases.capacity() * 8 + big
     }
 
     /// Append a key.
     pub(crate) fn push(&mut self, key: &KeyNumbers) {
-        let index = self.count as u32;
-        match key {
-            KeyNumbers::Small(numbers) => {
-                let needed = Width::needed(numbers);
-                if needed > self.width {
-                    self.widen(needed);
-                }
-                self.encode(numbers);
-            }
-            KeyNumbers::Big(numbers) => {
-                self.encode(&vec![0; self.len_numbers]);
-                self.big.insert(index, numbers.clone().into_boxed_slice());
+        let index = self.len();
+        if let KeyNumbers::Small(numbers) = key {
+            let needed = Width::needed(numbers);
+            if needed > self.width {
+                self.widen(needed);
             }
         }
-        self.count += 1;
-    }
-
-    fn encode(&mut self, numbers: &[i64]) {
-        encode_into(&mut self.bytes, self.width, numbers);
+        self.record_offset(index, self.bytes.len() as u64)
+            .expect("offsets are sized for the longest key");
+        match key {
+            KeyNumbers::Small(numbers) => {
+                encode_into(&mut self.bytes, self.width, self.phi, numbers);
+            }
+            KeyNumbers::Big(numbers) => {
+                let mask_len = self.blocks.div_ceil(8);
+                reserve_gently(&mut self.bytes, mask_len);
+                self.bytes.extend(std::iter::repeat_n(0u8, mask_len));
+                self.big
+                    .insert(index as u32, numbers.clone().into_boxed_slice());
+            }
+        }
     }
 
     fn widen(&mut self, to: Width) {
-        let mut buf = vec![0i64; self.len_numbers];
-        let mut bytes = Vec::with_capacity(self.count * self.len_numbers * to as usize);
-        for i in 0..self.count {
-            self.decode_small(i, &mut buf);
-            encode_into(&mut bytes, to, &buf);
+        let mut key = Numerators::new(self.blocks * self.phi);
+        let mut fresh = KeyArena {
+            width: to,
+            bytes: Vec::with_capacity(self.bytes.len() * (to as usize) / (self.width as usize)),
+            offsets: Vec::with_capacity(self.offsets.len()),
+            bases: Vec::new(),
+            big: HashMap::new(),
+            ..*self
+        };
+        for i in 0..self.len() {
+            fresh
+                .record_offset(i, fresh.bytes.len() as u64)
+                .expect("offsets are sized for the longest key");
+            if self.big.contains_key(&(i as u32)) {
+                let mask_len = self.blocks.div_ceil(8);
+                fresh.bytes.extend(std::iter::repeat_n(0u8, mask_len));
+            } else {
+                self.decode_small(i, &mut key);
+                encode_into(&mut fresh.bytes, to, self.phi, &key.dense);
+            }
         }
-        self.bytes = bytes;
+        self.bytes = fresh.bytes;
+        self.offsets = fresh.offsets;
+        self.bases = fresh.bases;
         self.width = to;
     }
 
-    /// The machine-word numerators of key i into `buf` (zeros for a big key).
-    fn decode_small(&self, i: usize, buf: &mut [i64]) {
+    /// Key i into `out` (which must be the zero vector or hold a previous key).
+    fn decode_small(&self, i: usize, out: &mut Numerators) {
+        out.clear();
+        let bytes = &self.bytes[self.start(i)..];
+        let mask_len = self.blocks.div_ceil(8);
+        let coefficient_mask = self.phi.div_ceil(8);
         let w = self.width as usize;
-        let at = i * self.len_numbers * w;
-        let src = &self.bytes[at..at + self.len_numbers * w];
-        match self.width {
-            Width::W1 => {
-                for (o, &b) in buf.iter_mut().zip(src) {
-                    *o = b as i8 as i64;
-                }
-            }
-            Width::W2 => {
-                for (o, c) in buf.iter_mut().zip(src.chunks_exact(2)) {
-                    *o = i16::from_le_bytes([c[0], c[1]]) as i64;
-                }
-            }
-            Width::W4 => {
-                for (o, c) in buf.iter_mut().zip(src.chunks_exact(4)) {
-                    *o = i32::from_le_bytes([c[0], c[1], c[2], c[3]]) as i64;
-                }
-            }
-            Width::W8 => {
-                for (o, c) in buf.iter_mut().zip(src.chunks_exact(8)) {
-                    *o = i64::from_le_bytes(c.try_into().expect("8 bytes"));
+        let mut at = mask_len;
+        for (byte_index, &block_bits) in bytes[..mask_len].iter().enumerate() {
+            let mut bits = block_bits;
+            while bits != 0 {
+                let block = byte_index * 8 + bits.trailing_zeros() as usize;
+                bits &= bits - 1;
+                let mask_at = at;
+                at += coefficient_mask;
+                for c in 0..coefficient_mask {
+                    let mut coefficient_bits = bytes[mask_at + c];
+                    while coefficient_bits != 0 {
+                        let t = c * 8 + coefficient_bits.trailing_zeros() as usize;
+                        coefficient_bits &= coefficient_bits - 1;
+                        let v = &bytes[at..at + w];
+                        let value = match self.width {
+                            Width::W1 => v[0] as i8 as i64,
+                            Width::W2 => i16::from_le_bytes([v[0], v[1]]) as i64,
+                            Width::W4 => i32::from_le_bytes([v[0], v[1], v[2], v[3]]) as i64,
+                            Width::W8 => i64::from_le_bytes(v.try_into().expect("8 bytes")),
+                        };
+                        at += w;
+                        out.push(block * self.phi + t, value);
+                    }
                 }
             }
         }
     }
 
-    /// Key i: machine words into `buf` (returning their largest absolute value), or big.
-    pub(crate) fn get<'a>(&'a self, i: usize, buf: &mut [i64]) -> StoredKey<'a> {
+    /// Key i: machine words into `out`, or big.
+    pub(crate) fn get<'a>(&'a self, i: usize, out: &mut Numerators) -> StoredKey<'a> {
         if !self.big.is_empty() {
             if let Some(k) = self.big.get(&(i as u32)) {
                 return StoredKey::Big(k);
             }
         }
-        self.decode_small(i, buf);
-        StoredKey::Small(crate::key::max_abs(buf))
+        self.decode_small(i, out);
+        StoredKey::Small
     }
 
     /// Key i as owned numbers.
     pub(crate) fn key(&self, i: usize) -> KeyNumbers {
-        let mut buf = vec![0i64; self.len_numbers];
-        match self.get(i, &mut buf) {
-            StoredKey::Small(_) => KeyNumbers::Small(buf),
+        let mut out = Numerators::new(self.blocks * self.phi);
+        match self.get(i, &mut out) {
+            StoredKey::Small => KeyNumbers::Small(out.dense),
             StoredKey::Big(b) => KeyNumbers::Big(b.to_vec()),
+        }
+    }
+}
+
+/// Append the sparse encoding of a key at a width that holds all of its numbers.
+fn encode_into(bytes: &mut Vec<u8>, width: Width, phi: usize, numbers: &[i64]) {
+    let blocks = numbers.len() / phi;
+    let mask_len = blocks.div_ceil(8);
+    let coefficient_mask = phi.div_ceil(8);
+    let nonzero = numbers.iter().filter(|&&x| x != 0).count();
+    reserve_gently(
+        bytes,
+        mask_len + blocks * coefficient_mask + nonzero * width as usize,
+    );
+    let mask_at = bytes.len();
+    bytes.extend(std::iter::repeat_n(0u8, mask_len));
+    for (b, block) in numbers.chunks(phi).enumerate() {
+        if block.iter().all(|&x| x == 0) {
+            continue;
+        }
+        bytes[mask_at + b / 8] |= 1 << (b % 8);
+        let at = bytes.len();
+        bytes.extend(std::iter::repeat_n(0u8, coefficient_mask));
+        for (t, &x) in block.iter().enumerate() {
+            if x == 0 {
+                continue;
+            }
+            bytes[at + t / 8] |= 1 << (t % 8);
+            match width {
+                Width::W1 => bytes.push(x as i8 as u8),
+                Width::W2 => bytes.extend_from_slice(&(x as i16).to_le_bytes()),
+                Width::W4 => bytes.extend_from_slice(&(x as i32).to_le_bytes()),
+                Width::W8 => bytes.extend_from_slice(&x.to_le_bytes()),
+            }
         }
     }
 }
@@ -242,14 +364,14 @@ pub(crate) struct OrbitSet {
     pub(crate) parents: Vec<u32>,
     /// Generator that maps the parent to the element (u16::MAX for the seed).
     pub(crate) generators: Vec<u16>,
-    fingerprints: Vec<u64>,
+    fingerprints: Vec<u32>,
     table: HashTable<u32>,
 }
 
 impl OrbitSet {
-    pub(crate) fn new(len_numbers: usize) -> OrbitSet {
+    pub(crate) fn new(blocks: usize, phi: usize) -> OrbitSet {
         OrbitSet {
-            keys: KeyArena::new(len_numbers),
+            keys: KeyArena::new(blocks, phi),
             parents: Vec::new(),
             generators: Vec::new(),
             fingerprints: Vec::new(),
@@ -262,7 +384,7 @@ impl OrbitSet {
         keys: KeyArena,
         parents: Vec<u32>,
         generators: Vec<u16>,
-        fingerprints: Vec<u64>,
+        fingerprints: Vec<u32>,
     ) -> OrbitSet {
         let mut table = HashTable::with_capacity(fingerprints.len());
         for (i, &fp) in fingerprints.iter().enumerate() {
@@ -287,7 +409,7 @@ impl OrbitSet {
     /// The element with this fingerprint for which `same(index)` holds.
     pub(crate) fn find(
         &self,
-        fingerprint: u64,
+        fingerprint: u32,
         mut same: impl FnMut(usize) -> bool,
     ) -> Option<u32> {
         let fps = &self.fingerprints;
@@ -302,12 +424,15 @@ impl OrbitSet {
     pub(crate) fn insert(
         &mut self,
         key: &KeyNumbers,
-        fingerprint: u64,
+        fingerprint: u32,
         parent: u32,
         generator: u16,
     ) {
         let index = self.len() as u32;
         self.keys.push(key);
+        reserve_gently(&mut self.parents, 1);
+        reserve_gently(&mut self.generators, 1);
+        reserve_gently(&mut self.fingerprints, 1);
         self.parents.push(parent);
         self.generators.push(generator);
         self.fingerprints.push(fingerprint);
@@ -323,7 +448,54 @@ impl OrbitSet {
         self.keys.bytes_used()
             + self.parents.capacity() * 4
             + self.generators.capacity() * 2
-            + self.fingerprints.capacity() * 8
+            + self.fingerprints.capacity() * 4
             + self.table.allocation_size()
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn keys_survive_encoding_widening_and_reparsing() {
+        let phi = 4;
+        let keys = [
+            vec![0, 0, 0, 0, 5, 0, -1, 0, 0, 0, 0, 0],
+            vec![3, 0, 0, 0, 0, 0, 0, 0, 0, -128, 127, 0],
+            vec![1, 0, 0, 0, 0, 70000, 0, 0, 0, 0, 0, -2],
+            vec![9, 0, 0, 0, 0, 0, 0, 0, i64::MIN + 1, 0, 0, 1],
+        ];
+        let mut arena = KeyArena::new(3, phi);
+        let mut seen: Vec<KeyNumbers> = Vec::new();
+        for k in &keys {
+            arena.push(&KeyNumbers::Small(k.clone()));
+            seen.push(KeyNumbers::Small(k.clone()));
+            for (i, expect) in seen.iter().enumerate() {
+                assert_eq!(&arena.key(i), expect);
+            }
+        }
+        let big = KeyNumbers::Big(vec![BigInt::from(7); 12]);
+        arena.push(&big);
+        assert_eq!(arena.width(), Width::W8);
+        let rebuilt = KeyArena::from_parts(
+            3,
+            phi,
+            arena.width(),
+            arena.raw_bytes().to_vec(),
+            5,
+            arena
+                .big_keys()
+                .map(|(i, k)| (i, k.to_vec().into_boxed_slice()))
+                .collect(),
+        )
+        .unwrap();
+        for (i, k) in keys.iter().enumerate() {
+            assert_eq!(rebuilt.key(i), KeyNumbers::Small(k.clone()));
+        }
+        assert_eq!(rebuilt.key(4), big);
+        let mut cut = arena.raw_bytes().to_vec();
+        cut.pop();
+        assert!(KeyArena::from_parts(3, phi, Width::W8, cut, 5, Vec::new()).is_none());
     }
 }
