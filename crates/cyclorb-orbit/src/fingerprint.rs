@@ -138,7 +138,7 @@ impl Fingerprinter {
         let modulus = p.pow(e + 1);
         let lift = self.teichmuller_lift(&modulus);
         let scale = p.pow(e);
-        let rest_inverse = inverse_mod((&rest).mod_floor(&p).to_u64().unwrap_or(0), self.p);
+        let rest_inverse = inverse_mod(rest.mod_floor(&p).to_u64().unwrap_or(0), self.p);
         let mut f = 0u128;
         for (block, &h) in v.chunks(self.phi).zip(&self.block_weights) {
             // S_i(ζ̂) mod p^{e+1}

@@ -103,8 +103,11 @@ pub(crate) fn first_nonzero_block<T: Zero>(numbers: &[T], phi: usize) -> Option<
 /// P does not fit machine words. Orbits of finite groups meet few distinct values.
 #[derive(Debug, Default)]
 pub(crate) struct InverseCache {
-    map: HashMap<Box<[i64]>, Option<(Box<[i64]>, i64)>>,
+    map: HashMap<Box<[i64]>, Option<SmallInverse>>,
 }
+
+/// u⁻¹ = P/q with machine-word numerators P and denominator q.
+type SmallInverse = (Box<[i64]>, i64);
 
 /// Entries kept before the cache is emptied (it only saves time).
 const INVERSE_CACHE_LIMIT: usize = 1 << 16;
@@ -114,7 +117,7 @@ impl InverseCache {
         &mut self,
         field: &CyclotomicField,
         lead: &[i64],
-    ) -> Result<Option<(Box<[i64]>, i64)>, FieldError> {
+    ) -> Result<Option<SmallInverse>, FieldError> {
         if let Some(hit) = self.map.get(lead) {
             return Ok(hit.clone());
         }

@@ -231,7 +231,7 @@ impl KeyArena {
             KeyNumbers::Big(numbers) => {
                 let mask_len = self.blocks.div_ceil(8);
                 reserve_gently(&mut self.bytes, mask_len);
-                self.bytes.extend(std::iter::repeat_n(0u8, mask_len));
+                self.bytes.resize(self.bytes.len() + mask_len, 0);
                 self.big
                     .insert(index as u32, numbers.clone().into_boxed_slice());
             }
@@ -254,7 +254,7 @@ impl KeyArena {
                 .expect("offsets are sized for the longest key");
             if self.big.contains_key(&(i as u32)) {
                 let mask_len = self.blocks.div_ceil(8);
-                fresh.bytes.extend(std::iter::repeat_n(0u8, mask_len));
+                fresh.bytes.resize(fresh.bytes.len() + mask_len, 0);
             } else {
                 self.decode_small(i, &mut key);
                 encode_into(&mut fresh.bytes, to, self.phi, &key.dense);
@@ -333,14 +333,14 @@ fn encode_into(bytes: &mut Vec<u8>, width: Width, phi: usize, numbers: &[i64]) {
         mask_len + blocks * coefficient_mask + nonzero * width as usize,
     );
     let mask_at = bytes.len();
-    bytes.extend(std::iter::repeat_n(0u8, mask_len));
+    bytes.resize(bytes.len() + mask_len, 0);
     for (b, block) in numbers.chunks(phi).enumerate() {
         if block.iter().all(|&x| x == 0) {
             continue;
         }
         bytes[mask_at + b / 8] |= 1 << (b % 8);
         let at = bytes.len();
-        bytes.extend(std::iter::repeat_n(0u8, coefficient_mask));
+        bytes.resize(bytes.len() + coefficient_mask, 0);
         for (t, &x) in block.iter().enumerate() {
             if x == 0 {
                 continue;
