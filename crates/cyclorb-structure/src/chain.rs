@@ -1,0 +1,219 @@
+//! Schreier–Sims on the permutation parts of monomial matrices, carrying the monomial
+//! lifts, with the diagonal kernel as a lattice.
+//!
+//! M = ⟨A_1, …, A_r⟩ is a finite group of monomial matrices (π, φ); P is its image in
+//! Sym(d), K = ker(M → P) its diagonal part, a subgroup of (Z/m)^d. Levels k have base
+//! points b_k, generator lists S_k ⊂ M, basic orbits Δ_k = b_k^{⟨π(S_k)⟩} and transversals
+//! T_k (monomial lifts: b_k^{π(T_k[β])} = β). Sifting g from level k replaces it by
+//! g·T_k[b_k^g]⁻¹; an element that passes every level keeps a diagonal residue.
+//!
+//! The construction is the deterministic one of cyclorb-cert (every pair (β ∈ Δ_k,
+//! s ∈ S_k) tested once; Schreier generators sifted from level k + 1; a residue with a
+//! non-trivial permutation becomes a strong generator, with a new base point if needed),
+//! with one addition: every residue that is a non-trivial *diagonal* matrix (including
+//! those of input generators already in the group) is inserted into a lattice K'. At the
+//! end K'' is the closure of K' under the permutations of the input generators (the
+//! normal closure in M: conjugating diag(x) by (π, φ) gives diag(y), y_{π(i)} = x_i).
+//!
+//! Why |P| = Π|Δ_k| and K = K'': Sims' criterion as in cyclorb-cert for the permutation
+//! parts. For the lifts, with U_k = T_{L−1}⋯T_k (products in that order), induction from
+//! the last level shows ⟨S_k⟩ ⊆ K''·U_k: for x = d·v·T_k[β] (d ∈ K'', v ∈ U_{k+1}) and
+//! s ∈ S_k, T_k[β]·s = h·T_k[β^s] with h a Schreier generator, and h = r·w with
+//! w ∈ U_{k+1} and r either a strong generator of level k + 1 or a diagonal residue in
+//! K'; as K'' is normal, x·s ∈ K''·U_{k+1}·T_k. So every element of M is d·u with
+//! d ∈ K'' and u a product of transversal elements; a diagonal one has u = 1, hence
+//! K ⊆ K''; and K'' ⊆ K as K is normal. So |M| = |P|·|K|.
+
+use num_bigint::BigUint;
+
+use crate::lattice::ModLattice;
+use crate::monomial::Monomial;
+
+struct Level {
+    base_point: u32,
+    generators: Vec<Monomial>,
+    transversal: Vec<Option<Monomial>>,
+    orbit: Vec<u32>,
+}
+
+impl Level {
+    fn new(base_point: u32, degree: usize) -> Level {
+        let mut transversal = vec![None; degree];
+        transversal[base_point as usize] = Some(Monomial::identity(degree));
+        Level {
+            base_point,
+            generators: Vec::new(),
+            transversal,
+            orbit: vec![base_point],
+        }
+    }
+}
+
+struct Test {
+    level: usize,
+    point: u32,
+    generator: usize,
+}
+
+/// Base, strong generators, basic orbits and diagonal kernel of a monomial group.
+pub struct MonomialChain {
+    degree: usize,
+    modulus: u32,
+    levels: Vec<Level>,
+    strong: Vec<Monomial>,
+    kernel: ModLattice,
+}
+
+impl MonomialChain {
+    /// The chain of ⟨generators⟩ (checked monomials of one degree, phases modulo m).
+    pub fn new(degree: usize, modulus: u32, generators: &[Monomial]) -> MonomialChain {
+        let mut chain = MonomialChain {
+            degree,
+            modulus,
+            levels: Vec::new(),
+            strong: Vec::new(),
+            kernel: ModLattice::new(degree, modulus),
+        };
+        if degree == 0 {
+            return chain;
+        }
+        chain.levels.push(Level::new(0, degree));
+        let mut queue = Vec::new();
+        for g in generators {
+            let (level, residue) = chain.sift(0, g.clone());
+            if level == chain.levels.len() && residue.is_diagonal() {
+                chain.kernel.insert(&residue.phases);
+            } else {
+                chain.strong.push(g.clone());
+                chain.push_generator(0, g.clone(), &mut queue);
+                chain.run(&mut queue);
+            }
+        }
+        chain.kernel.close_under(generators);
+        chain
+    }
+
+    fn push_generator(&mut self, level: usize, g: Monomial, queue: &mut Vec<Test>) {
+        let l = &mut self.levels[level];
+        l.generators.push(g);
+        let generator = l.generators.len() - 1;
+        queue.extend(l.orbit.iter().map(|&point| Test {
+            level,
+            point,
+            generator,
+        }));
+    }
+
+    /// Sift from level `from`: the level where it failed (the number of levels when it
+    /// passed all) and the residue.
+    fn sift(&self, from: usize, mut g: Monomial) -> (usize, Monomial) {
+        for (k, level) in self.levels.iter().enumerate().skip(from) {
+            let beta = g.perm[level.base_point as usize];
+            match &level.transversal[beta as usize] {
+                Some(rep) => g = g.then_inverse(rep, self.modulus),
+                None => return (k, g),
+            }
+        }
+        (self.levels.len(), g)
+    }
+
+    fn run(&mut self, queue: &mut Vec<Test>) {
+        while let Some(Test {
+            level,
+            point,
+            generator,
+        }) = queue.pop()
+        {
+            let l = &self.levels[level];
+            let rep = l.transversal[point as usize]
+                .as_ref()
+                .expect("queued points lie in the basic orbit");
+            let tau = rep.then(&l.generators[generator], self.modulus);
+            let gamma = tau.perm[l.base_point as usize];
+            match &l.transversal[gamma as usize] {
+                Some(existing) => {
+                    let schreier = tau.then_inverse(existing, self.modulus);
+                    self.add_schreier_generator(level, schreier, queue);
+                }
+                None => {
+                    let l = &mut self.levels[level];
+                    l.transversal[gamma as usize] = Some(tau);
+                    l.orbit.push(gamma);
+                    queue.extend((0..l.generators.len()).map(|generator| Test {
+                        level,
+                        point: gamma,
+                        generator,
+                    }));
+                }
+            }
+        }
+    }
+
+    fn add_schreier_generator(&mut self, level: usize, h: Monomial, queue: &mut Vec<Test>) {
+        let (j, residue) = self.sift(level + 1, h);
+        if j == self.levels.len() {
+            let Some(moved) = residue
+                .perm
+                .iter()
+                .enumerate()
+                .position(|(x, &y)| x as u32 != y)
+            else {
+                self.kernel.insert(&residue.phases);
+                return;
+            };
+            self.levels.push(Level::new(moved as u32, self.degree));
+        }
+        self.strong.push(residue.clone());
+        for k in level + 1..=j {
+            self.push_generator(k, residue.clone(), queue);
+        }
+    }
+
+    /// The number of points.
+    pub fn degree(&self) -> usize {
+        self.degree
+    }
+
+    /// m.
+    pub fn modulus(&self) -> u32 {
+        self.modulus
+    }
+
+    /// |P| = Π_k |Δ_k|.
+    pub fn permutation_order(&self) -> BigUint {
+        self.levels
+            .iter()
+            .map(|l| BigUint::from(l.orbit.len()))
+            .product()
+    }
+
+    /// The base b_0 = 0, b_1, ….
+    pub fn base(&self) -> Vec<u32> {
+        self.levels.iter().map(|l| l.base_point).collect()
+    }
+
+    /// |Δ_0|, |Δ_1|, ….
+    pub fn basic_orbit_lengths(&self) -> Vec<usize> {
+        self.levels.iter().map(|l| l.orbit.len()).collect()
+    }
+
+    /// The strong generators (kept input generators and residues), as monomial lifts.
+    pub fn strong_generators(&self) -> &[Monomial] {
+        &self.strong
+    }
+
+    /// K, the diagonal part of the group, as a subgroup of (Z/m)^d.
+    pub fn kernel(&self) -> &ModLattice {
+        &self.kernel
+    }
+
+    /// |M| = |P|·|K|.
+    pub fn group_order(&self) -> BigUint {
+        self.permutation_order() * self.kernel.order()
+    }
+
+    /// The order of M modulo scalars: |P|·|K| / |K ∩ scalars|.
+    pub fn projective_order(&self) -> BigUint {
+        self.group_order() / BigUint::from(self.kernel.scalar_order())
+    }
+}
