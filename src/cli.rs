@@ -31,6 +31,12 @@ pub enum Command {
     Describe(DescribeArgs),
     /// Exact checks of a theory's data (pentagon, hexagons, ribbon, modularity).
     Verify(VerifyArgs),
+    /// The dimension of the commutant of the generators (1 = irreducible), certified.
+    Commutant(CertArgs),
+    /// The order of the projective image of the mapping class group, with its certificate.
+    Image(ImageArgs),
+    /// A word of infinite projective order, with its exact certificate.
+    Witness(WitnessArgs),
 }
 
 /// `cyclorb describe`: the exact data of one theory (`--json` output is a theory file).
@@ -119,4 +125,51 @@ pub struct OrbitArgs {
     /// Print the word (in generator names) of this many orbit elements, farthest first.
     #[arg(long, default_value_t = 0)]
     pub words: usize,
+}
+
+/// The theory, genus and generating set every certificate command reads.
+#[derive(Args, Debug)]
+pub struct CertArgs {
+    /// Theory: a built-in spec or a theory file.
+    pub spec: String,
+    /// Genus of the surface (≥ 1).
+    #[arg(long, short = 'g')]
+    pub genus: usize,
+    /// Generating set of Dehn twists: humphries or lickorish.
+    #[arg(long, default_value = "humphries")]
+    pub set: String,
+    /// Write the full certificate (JSON) to this file.
+    #[arg(long)]
+    pub out: Option<PathBuf>,
+}
+
+/// `cyclorb image`: the projective image order.
+#[derive(Args, Debug)]
+pub struct ImageArgs {
+    /// Theory, genus, generating set, certificate file.
+    #[command(flatten)]
+    pub common: CertArgs,
+    /// Largest image enumerated element by element before switching to the orbit route.
+    #[arg(long, default_value_t = 20_000)]
+    pub enumeration_cap: usize,
+    /// Largest orbit of lines enumerated for the Schreier–Sims route.
+    #[arg(long, default_value_t = 200_000)]
+    pub orbit_limit: usize,
+}
+
+/// `cyclorb witness`: search for an element of infinite projective order.
+#[derive(Args, Debug)]
+pub struct WitnessArgs {
+    /// Theory, genus, generating set, certificate file.
+    #[command(flatten)]
+    pub common: CertArgs,
+    /// Every word up to this length is tried (Lyndon words).
+    #[arg(long, default_value_t = 6)]
+    pub depth: usize,
+    /// Then this many seeded random words.
+    #[arg(long, default_value_t = 200)]
+    pub tries: usize,
+    /// Seed of the random words.
+    #[arg(long, default_value_t = 1)]
+    pub seed: u64,
 }

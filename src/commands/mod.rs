@@ -1,5 +1,6 @@
 //! One module per subcommand; each returns an `Outcome` that `dispatch` maps to an exit code.
 
+mod certify;
 mod common;
 mod field;
 mod orbit;
@@ -19,6 +20,9 @@ pub fn dispatch(cli: Cli) -> ExitCode {
         Command::Field(a) => field::run(a, json),
         Command::Twists(a) => twists::run(a, json),
         Command::Orbit(a) => orbit::run(a, json),
+        Command::Commutant(a) => certify::commutant(a, json),
+        Command::Image(a) => certify::image(a, json),
+        Command::Witness(a) => certify::witness(a, json),
         Command::Theories => theory::run_theories(json),
         Command::Describe(a) => theory::run_describe(a, json),
         Command::Verify(a) => theory::run_verify(a, json),

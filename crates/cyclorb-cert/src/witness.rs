@@ -254,15 +254,19 @@ pub fn find_witness(
     Ok(WitnessOutcome::NotFound(search.report))
 }
 
-/// A polynomial with decimal coefficients (constant first) in the usual notation,
-/// e.g. `x^2 - 34*x + 1`.
+/// A polynomial with coefficients given as text (constant first) in the usual notation,
+/// e.g. `x^2 - 34*x + 1`; coefficients that are sums, such as `z^2 - z^6`, are parenthesised.
 pub fn polynomial_text(coefficients: &[String]) -> String {
     let mut out = String::new();
     for (k, c) in coefficients.iter().enumerate().rev() {
+        // a coefficient that is itself a sum (an element of Q(ζ_n)) is parenthesised
+        let compound = c.trim_start_matches('-').contains([' ', '+', '-']);
         let (negative, magnitude) = match c.strip_prefix('-') {
-            Some(rest) => (true, rest),
-            None => (false, c.as_str()),
+            Some(rest) if !compound => (true, rest.to_string()),
+            _ if compound => (false, format!("({c})")),
+            _ => (false, c.clone()),
         };
+        let magnitude = magnitude.as_str();
         if magnitude == "0" {
             continue;
         }
