@@ -33,6 +33,8 @@ pub struct CyclotomicField {
     residues: Vec<Vec<i64>>,
     /// The non-zero coefficients of Φ_n below its leading 1, as (exponent, coefficient).
     lower_terms: Vec<(usize, i64)>,
+    /// Sparse residues of x^e for φ ≤ e ≤ 2φ − 2 (the exponents of a product).
+    fold_table: FoldTable,
     reduction: Reduction,
     primes: PrimeCache,
 }
@@ -73,12 +75,14 @@ impl CyclotomicField {
             .filter(|(_, &c)| c != 0)
             .map(|(j, &c)| (j, c))
             .collect();
+        let fold_table = FoldTable::new(&residues, phi);
         Ok(CyclotomicField {
             n,
             phi,
             cyclotomic,
             residues,
             lower_terms,
+            fold_table,
             reduction,
             primes: PrimeCache::default(),
         })
@@ -114,6 +118,11 @@ impl CyclotomicField {
         &self.lower_terms
     }
 
+    /// The sparse residues of the exponents of a product (see [`FoldTable`]).
+    pub(crate) fn fold_table(&self) -> &FoldTable {
+        &self.fold_table
+    }
+
     /// The first `count` primes p ≡ 1 (mod n) of this field (see [`crate::modular`]).
     pub(crate) fn primes(&self, count: usize) -> Vec<Arc<ModPrime>> {
         self.primes.first(self.n, &self.cyclotomic, count)
@@ -128,5 +137,53 @@ impl CyclotomicField {
                 right: n,
             })
         }
+    }
+}
+
+/// The residues x^e mod Φ_n for φ ≤ e ≤ 2φ − 2, stored sparsely: folding an unreduced product
+/// w (length ≤ 2φ − 1) is w_j += Σ_e w_e·[x^j](x^e mod Φ_n), one flat pass with no chain of
+/// dependent steps. `gain` bounds the growth: |folded_j| ≤ gain·max_e |w_e|.
+#[derive(Debug, Clone)]
+pub(crate) struct FoldTable {
+    /// (e − φ, target exponent j < φ, coefficient), sorted by e.
+    entries: Vec<(u32, u32, i64)>,
+    /// `ends[m]` = number of entries with e − φ < m.
+    ends: Vec<usize>,
+    gain: u64,
+}
+
+impl FoldTable {
+    fn new(residues: &[Vec<i64>], phi: usize) -> FoldTable {
+        let mut entries = Vec::new();
+        let mut ends = vec![0];
+        let mut column_sums = vec![1u64; phi];
+        for e in phi..2 * phi - 1 {
+            // ζ^n = 1, so x^e and x^{e mod n} have the same residue
+            let row = &residues[e % residues.len()];
+            for (j, &c) in row.iter().enumerate() {
+                if c != 0 {
+                    entries.push(((e - phi) as u32, j as u32, c));
+                    column_sums[j] = column_sums[j].saturating_add(c.unsigned_abs());
+                }
+            }
+            ends.push(entries.len());
+        }
+        let gain = column_sums.into_iter().max().unwrap_or(1);
+        FoldTable {
+            entries,
+            ends,
+            gain,
+        }
+    }
+
+    /// Upper bound on |folded coefficient| / max |unreduced coefficient|.
+    pub(crate) fn gain(&self) -> u64 {
+        self.gain
+    }
+
+    /// The entries (e − φ, j, [x^j](x^e mod Φ_n)) with e − φ < `high`.
+    #[inline]
+    pub(crate) fn entries(&self, high: usize) -> &[(u32, u32, i64)] {
+        &self.entries[..self.ends[high]]
     }
 }

@@ -36,6 +36,7 @@
 
 mod arith;
 mod context;
+mod convolution;
 mod dot;
 mod element;
 mod error;
@@ -44,6 +45,7 @@ mod inverse;
 mod modp;
 mod modular;
 pub mod numtheory;
+mod packed;
 mod rational;
 mod ring;
 mod sqrt;
