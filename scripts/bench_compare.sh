@@ -3,6 +3,8 @@
 #
 # Both run pinned to one core, workload by workload and alternately, for BENCH_ROUNDS rounds;
 # the table shows the best rate of each and their ratio against the targets of the README.
+# Rates are per second of the measuring thread's CPU time on both sides, so that other load on
+# a shared machine does not distort the ratio.
 #
 #   scripts/bench_compare.sh                 # needs python-flint importable by $PYTHON
 #   PYTHON=/tmp/venv/bin/python BENCH_ROUNDS=5 CYCLORB_BENCH_SECONDS=2 scripts/bench_compare.sh
@@ -43,8 +45,8 @@ done
 
 declare -A target=([mul_q16]=15 [mul_q60]=10 [inv_q16]=1 [inv_q60]=1 [matvec36_q16]=30)
 flint_version=$("$PYTHON" -c "import flint; print(flint.__version__)")
-echo "# best of $ROUNDS rounds, ${CYCLORB_BENCH_SECONDS}s per run, pinned to core $CPU;" \
-  "python-flint $flint_version"
+echo "# best of $ROUNDS rounds, ${CYCLORB_BENCH_SECONDS}s per run, pinned to core $CPU," \
+  "rates per CPU second; python-flint $flint_version"
 printf '%-14s %14s %14s %9s %8s\n' workload cyclorb/s python-flint/s ratio target
 for w in "${workloads[@]}"; do
   awk -v w="$w" -v r="${rust[$w]}" -v f="${flint[$w]}" -v t="${target[$w]}" 'BEGIN {

@@ -11,7 +11,7 @@ Inputs: fixed seed, coefficients n/2^k with |n| <= 8, 0 <= k <= 4 (as in benches
 
 Usage: bench_flint.py [--only WORKLOAD] [SECONDS]
   (time per workload: SECONDS, else env CYCLORB_BENCH_SECONDS, else 1)
-Output: one line per workload, `name<TAB>ops_per_second`.
+Output: one line per workload, `name<TAB>ops_per_second` (per second of thread CPU time).
 """
 
 import os
@@ -38,15 +38,18 @@ def random_element(rng, degree):
 
 
 def rate(budget, ops_per_step, step):
+    """Operations per second of this thread's CPU time, over about `budget` seconds of wall
+    time (as in benches/arith.rs, so other load on the machine does not count)."""
     for i in range(4):
         step(i)
     start = time.perf_counter()
+    cpu_start = time.thread_time()
     steps = 0
     while time.perf_counter() - start < budget:
         for _ in range(16):
             step(steps)
             steps += 1
-    return steps * ops_per_step / (time.perf_counter() - start)
+    return steps * ops_per_step / (time.thread_time() - cpu_start)
 
 
 def bench_mul(n, rng, budget):
@@ -106,7 +109,7 @@ def main():
         ("inv_q60", lambda r: bench_inv(60, r, budget)),
         ("matvec36_q16", lambda r: bench_mat_vec(16, r, budget)),
     ]
-    print(f"# python-flint {flint.__version__}", flush=True)
+    print(f"# python-flint {flint.__version__}; rates per second of thread CPU time", flush=True)
     for name, run in workloads:
         if only is not None and name != only:
             continue
