@@ -577,7 +577,7 @@ fn matrix_json(m: &Matrix) -> Value {
     )
 }
 
-/// The data keys of the file format (what the data hash covers, without "name").
+/// The data keys of the file format (without "name" and the informational keys).
 pub(crate) fn data_json(t: &Theory) -> Map<String, Value> {
     let name = |a: usize| Value::String(t.label(a).to_string());
     let mut obj = Map::new();
