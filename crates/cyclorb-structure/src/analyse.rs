@@ -75,15 +75,17 @@ fn find_monomial_form(
     // every twist of the Lickorish set lies in the group: their powers generate N, and
     // they and their inverses drive the refinement
     let mut twists = Vec::new();
+    let mut names = Vec::new();
     let mut refiners = Vec::new();
-    for (_, op) in space.generators(GeneratingSet::Lickorish)? {
+    for (curve, op) in space.generators(GeneratingSet::Lickorish)? {
+        names.push(curve.to_string());
         twists.push(ColumnMap::from_operator(field, &op)?);
         refiners.push(ColumnMap::from_operator(field, &op.inverse(field)?)?);
     }
     refiners.extend(twists.iter().cloned());
     let mut reasons = Vec::new();
     for k in candidate_powers(order) {
-        let candidate = match power_candidate(field, theory, &twists, k)? {
+        let candidate = match power_candidate(field, theory, &twists, &names, k)? {
             Ok(c) => c,
             Err(reason) => {
                 reasons.push(reason);
@@ -97,15 +99,15 @@ fn find_monomial_form(
         let Some(lines) = refinement.lines() else {
             let largest = dimensions.iter().max().copied().unwrap_or(0);
             reasons.push(format!(
-                "with k = {k}: {} joint eigenspaces of the normal closure of the {k}-th \
-                 powers, the largest of dimension {largest}",
+                "k = {k}: the normal closure of the k-th powers has {} joint \
+                 eigenspaces, the largest of dimension {largest}",
                 dimensions.len()
             ));
             continue;
         };
         match MonomialForm::from_lines(field, roots, &generators.maps, lines) {
             Ok(form) => return Ok((k, form)),
-            Err(StructureError::Absent(reason)) => reasons.push(format!("with k = {k}: {reason}")),
+            Err(StructureError::Absent(reason)) => reasons.push(format!("k = {k}: {reason}")),
             Err(e) => return Err(e),
         }
     }

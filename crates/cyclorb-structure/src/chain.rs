@@ -169,16 +169,6 @@ impl MonomialChain {
         }
     }
 
-    /// The number of points.
-    pub fn degree(&self) -> usize {
-        self.degree
-    }
-
-    /// m.
-    pub fn modulus(&self) -> u32 {
-        self.modulus
-    }
-
     /// |P| = Π_k |Δ_k|.
     pub fn permutation_order(&self) -> BigUint {
         self.levels

@@ -45,20 +45,6 @@ impl ModLattice {
         self.rows.len()
     }
 
-    /// m.
-    pub fn modulus(&self) -> u32 {
-        self.modulus
-    }
-
-    /// The pivots p_0, …, p_{d−1} (each divides m).
-    pub fn pivots(&self) -> Vec<u32> {
-        self.rows
-            .iter()
-            .enumerate()
-            .map(|(i, r)| r[i] as u32)
-            .collect()
-    }
-
     /// The canonical representative of v + L (entries of v are taken modulo m).
     pub fn reduce(&self, v: &[u32]) -> Vec<u32> {
         let m = i64::from(self.modulus);

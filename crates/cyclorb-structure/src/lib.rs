@@ -31,7 +31,7 @@
 //!    (cyclorb-cert's commutant certificate, on the monomial generators plus a few
 //!    diagonal elements of K).
 //!
-//! ```no_run
+//! ```
 //! use cyclorb_structure::{analyse_spec, recheck, StructureOptions};
 //! use cyclorb_mcg::BlockSpace;
 //! let report = analyse_spec("ising", 2, &StructureOptions::default()).unwrap();

@@ -81,11 +81,6 @@ impl Monomial {
         self.perm.iter().enumerate().all(|(i, &p)| p == i as u32)
     }
 
-    /// True for the identity matrix.
-    pub fn is_identity(&self) -> bool {
-        self.is_diagonal() && self.phases.iter().all(|&x| x == 0)
-    }
-
     /// Check that π is a bijection and the phases lie in Z/m.
     pub fn check(&self, degree: usize, modulus: u32) -> Result<(), StructureError> {
         let mut seen = vec![false; degree];

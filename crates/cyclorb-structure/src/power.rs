@@ -52,6 +52,7 @@ pub(crate) fn power_candidate(
     field: &CyclotomicField,
     theory: &Theory,
     maps: &[ColumnMap],
+    names: &[String],
     k: u32,
 ) -> Result<Result<PowerCandidate, String>, StructureError> {
     let mut eigenvalues: Vec<Cyc> = Vec::new();
@@ -66,12 +67,15 @@ pub(crate) fn power_candidate(
         .map(|a| a.power(field, k))
         .collect::<Result<Vec<_>, _>>()?;
     if operators.iter().all(|x| x.scalar().is_some()) {
-        return Ok(Err(format!("every {k}-th power of a twist is scalar")));
+        return Ok(Err(format!(
+            "k = {k}: every k-th power of a twist is scalar"
+        )));
     }
     for (i, x) in operators.iter().enumerate() {
         if !annihilated(field, x, &eigenvalues)? {
             return Ok(Err(format!(
-                "generator {i} to the power {k} has an eigenvalue outside the θ^{k}"
+                "k = {k}: the k-th power of T_{} has an eigenvalue outside the θ^k",
+                names[i]
             )));
         }
     }
@@ -79,7 +83,8 @@ pub(crate) fn power_candidate(
         for j in i + 1..operators.len() {
             if !operators[i].commutes_with(field, &operators[j])? {
                 return Ok(Err(format!(
-                    "the {k}-th powers of generators {i} and {j} do not commute"
+                    "k = {k}: the k-th powers of T_{} and T_{} do not commute",
+                    names[i], names[j]
                 )));
             }
         }

@@ -19,14 +19,6 @@ impl SparseVec {
         self.0.is_empty()
     }
 
-    /// The coordinate at index i (zero when absent).
-    pub fn get(&self, field: &CyclotomicField, i: u32) -> Cyc {
-        match self.0.binary_search_by_key(&i, |(j, _)| *j) {
-            Ok(k) => self.0[k].1.clone(),
-            Err(_) => field.zero(),
-        }
-    }
-
     /// The first non-zero coordinate (index, value).
     pub fn leading(&self) -> Option<&(u32, Cyc)> {
         self.0.first()

@@ -1,0 +1,7 @@
+//! Tests of the structural route, one module per subject.
+
+mod absent;
+mod certificate;
+mod common;
+mod groups;
+mod ising;
