@@ -1,0 +1,208 @@
+//! `cyclorb orbit` end to end against published values.
+
+mod common;
+
+use common::{cyclorb_json, fixture, temp_path};
+
+/// Orbit size and prefactor of a saturated run with a scalar Poincaré sum.
+fn scalar_orbit(args: &[&str]) -> (u64, String) {
+    let (code, v) = cyclorb_json(args);
+    assert_eq!(code, 0, "{args:?}: {v}");
+    assert_eq!(v["saturated"], true, "{args:?}");
+    assert_eq!(v["poincare_sum"]["is_scalar"], true, "{args:?}: {v}");
+    assert_eq!(v["poincare_sum"]["trace_check"], true);
+    let layers: u64 = v["layer_sizes"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|x| x.as_u64().unwrap())
+        .sum();
+    assert_eq!(
+        layers,
+        v["orbit_size"].as_u64().unwrap(),
+        "layer sizes add up to the orbit"
+    );
+    (
+        v["orbit_size"].as_u64().unwrap(),
+        v["poincare_sum"]["prefactor"].as_str().unwrap().to_string(),
+    )
+}
+
+#[test]
+fn ising_genus_one_and_two_match_the_published_sums() {
+    // Castro, Gaberdiel, Hartman, Maloney, Volpato, "The gravity dual of the Ising model",
+    // Phys. Rev. D 85 (2012) 024032: 24 handlebody terms at genus 1, B = 8·I.
+    assert_eq!(
+        scalar_orbit(&["orbit", "ising", "--genus", "1"]),
+        (24, "8".into())
+    );
+    // The all-genus follow-up (2019): genus 2, 3840 terms, B = 384·I.
+    assert_eq!(
+        scalar_orbit(&["orbit", "ising", "--genus", "2"]),
+        (3840, "384".into())
+    );
+}
+
+#[test]
+fn both_generating_sets_give_the_same_orbit() {
+    // Humphries (1979) and Lickorish (1964) twists generate the same mapping class group.
+    for g in ["1", "2"] {
+        let h = scalar_orbit(&["orbit", "ising", "--genus", g, "--set", "humphries"]);
+        let l = scalar_orbit(&["orbit", "ising", "--genus", g, "--set", "lickorish"]);
+        assert_eq!(h, l, "genus {g}");
+    }
+}
+
+#[test]
+fn tricritical_ising_genus_one() {
+    // Castro et al. 2012: tricritical Ising (c = 7/10) at genus 1 gives B = 48·I.
+    let (_, lambda) = scalar_orbit(&["orbit", "tricritical-ising", "--genus", "1"]);
+    assert_eq!(lambda, "48");
+}
+
+#[test]
+fn minimal_model_from_modular_data_alone() {
+    // M(4,3) is the Ising model: the same 24 lines and B = 8·I (Castro et al. 2012).
+    assert_eq!(
+        scalar_orbit(&["orbit", "minimal:4:3", "--genus", "1"]),
+        (24, "8".into())
+    );
+}
+
+#[test]
+fn three_state_potts_mix_at_c_four_fifths() {
+    // Castro et al. 2012: for M(6,5) the genus-1 sum is a positive combination of the
+    // diagonal invariant and the non-diagonal (three-state Potts) invariant.
+    let (code, v) = cyclorb_json(&["orbit", "minimal:6:5", "--genus", "1"]);
+    assert_eq!(code, 0);
+    let p = &v["poincare_sum"];
+    assert_eq!(p["is_scalar"], false);
+    let terms = p["invariants"].as_array().unwrap();
+    assert_eq!(terms.len(), 2, "{p}");
+    let mut saw_diagonal = false;
+    let mut saw_potts = false;
+    for t in terms {
+        let c: i64 = t["coefficient"].as_str().unwrap().parse().unwrap();
+        assert!(c > 0, "coefficients are positive: {t}");
+        let m: Vec<Vec<String>> = serde_json::from_value(t["matrix"].clone()).unwrap();
+        assert_eq!(m[0][0], "1", "physical invariants have vacuum entry 1");
+        let off_diagonal = (0..m.len()).any(|i| (0..m.len()).any(|j| i != j && m[i][j] != "0"));
+        if off_diagonal {
+            saw_potts = true;
+        } else {
+            saw_diagonal = m.iter().enumerate().all(|(i, r)| r[i] == "1");
+        }
+    }
+    assert!(saw_diagonal && saw_potts, "{p}");
+}
+
+#[test]
+fn fibonacci_genus_two_does_not_close() {
+    // Larsen–Wang (2005): the Fibonacci (SO(3) level 3) genus-2 image is dense, so the orbit is
+    // infinite; the run stops at the limit, unsaturated, with exit 3 and growing layers.
+    let (code, v) = cyclorb_json(&["orbit", "fibonacci", "--genus", "2", "--limit", "200000"]);
+    assert_eq!(code, 3);
+    assert_eq!(v["saturated"], false);
+    assert_eq!(v["orbit_size"].as_u64().unwrap(), 200000);
+    assert!(v["poincare_sum"]["prefactor"].is_null());
+    let layers: Vec<u64> = v["layer_sizes"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|x| x.as_u64().unwrap())
+        .collect();
+    let complete = &layers[..layers.len() - 1];
+    assert!(
+        complete.windows(2).rev().take(4).all(|w| w[1] > w[0]),
+        "still growing: {layers:?}"
+    );
+}
+
+#[test]
+fn tricritical_ising_genus_two_does_not_close() {
+    // Larsen–Wang (2005) density for the Fibonacci factor: infinite image at genus 2.
+    let (code, v) = cyclorb_json(&[
+        "orbit",
+        "tricritical-ising",
+        "--genus",
+        "2",
+        "--limit",
+        "20000",
+    ]);
+    assert_eq!(code, 3);
+    assert_eq!(v["saturated"], false);
+}
+
+#[test]
+fn a_stopped_run_resumes_to_the_same_answer() {
+    let ckpt = temp_path("ising2.ckpt");
+    let (code, partial) = cyclorb_json(&[
+        "orbit",
+        "ising",
+        "--genus",
+        "2",
+        "--limit",
+        "1000",
+        "--checkpoint",
+        ckpt.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 3, "{partial}");
+    assert!(ckpt.exists(), "a stopped run leaves a checkpoint");
+    let (code, resumed) = cyclorb_json(&[
+        "orbit",
+        "ising",
+        "--genus",
+        "2",
+        "--resume",
+        ckpt.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 0, "{resumed}");
+    let (_, fresh) = cyclorb_json(&["orbit", "ising", "--genus", "2"]);
+    for key in ["orbit_size", "layer_sizes", "saturated"] {
+        assert_eq!(resumed[key], fresh[key], "{key}");
+    }
+    assert_eq!(resumed["poincare_sum"]["prefactor"], "384");
+    let _ = std::fs::remove_file(ckpt);
+}
+
+#[test]
+fn thread_count_does_not_change_the_answer() {
+    let (_, one) = cyclorb_json(&["orbit", "ising", "--genus", "2", "--threads", "1"]);
+    let (_, two) = cyclorb_json(&["orbit", "ising", "--genus", "2", "--threads", "2"]);
+    assert_eq!(one["layer_sizes"], two["layer_sizes"]);
+    assert_eq!(one["poincare_sum"], two["poincare_sum"]);
+}
+
+#[test]
+fn raw_mode_reads_the_files_twists_writes() {
+    let gens = temp_path("ising1-gens.json");
+    let (code, _) = cyclorb_json(&[
+        "twists",
+        "ising",
+        "--genus",
+        "1",
+        "--out",
+        gens.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 0);
+    let seed = fixture("orbit/vacuum-seed-ising.json");
+    let (code, v) = cyclorb_json(&[
+        "orbit",
+        "--matrices",
+        gens.to_str().unwrap(),
+        "--seed",
+        seed.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["orbit_size"], 24);
+    assert_eq!(v["poincare_sum"]["prefactor"], "8");
+    let _ = std::fs::remove_file(gens);
+}
+
+#[test]
+fn genus_two_needs_fusion_data() {
+    let out = common::cyclorb(&["orbit", "minimal:6:5", "--genus", "2"]);
+    assert_eq!(out.status.code(), Some(1));
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(err.contains("modular data only"), "{err}");
+}
