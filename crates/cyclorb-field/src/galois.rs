@@ -80,16 +80,6 @@ impl CyclotomicField {
         (1..n.max(2)).filter(|k| k.gcd(&n) == 1).collect()
     }
 
-    /// Norm down to Q: the product of all Galois conjugates, as (numerator, positive denominator).
-    pub fn norm(&self, a: &Cyc) -> Result<(BigInt, BigInt), FieldError> {
-        self.check(a.n)?;
-        let mut acc = self.one();
-        for k in self.galois_group() {
-            acc = self.mul(&acc, &self.substituted(a, k))?;
-        }
-        Ok(acc.as_rational().expect("a norm is rational"))
-    }
-
     /// Trace down to Q: the sum of all Galois conjugates.
     pub fn trace(&self, a: &Cyc) -> Result<(BigInt, BigInt), FieldError> {
         self.check(a.n)?;

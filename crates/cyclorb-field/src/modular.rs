@@ -122,11 +122,19 @@ impl Montgomery {
         self.of_u64(x.rem_euclid(self.p as i64) as u64)
     }
 
-    /// Montgomery form of a big integer.
+    /// Montgomery form of a big integer: Horner's rule over its base-2^64 digits, top first,
+    /// with 2^64 ≡ R (so multiplying a Montgomery residue by R's residue is one product).
     pub(crate) fn of_big(&self, x: &BigInt) -> u64 {
-        let r = x.mod_floor(&BigInt::from(self.p));
-        let (_, digits) = r.to_u64_digits();
-        self.of_u64(digits.first().copied().unwrap_or(0))
+        let radix = self.of_u64(((1u128 << 64) % self.p as u128) as u64);
+        let digits: Vec<u64> = x.magnitude().iter_u64_digits().collect();
+        let magnitude = digits.iter().rev().fold(0, |acc, &d| {
+            self.add(self.mul(acc, radix), self.of_u64(d % self.p))
+        });
+        if x.is_negative() {
+            self.sub(0, magnitude)
+        } else {
+            magnitude
+        }
     }
 }
 

@@ -81,7 +81,7 @@ pub enum Repr {
     /// Numerators and denominators near the i64 limits: stored in machine words, but products
     /// overflow i128 and must fall back to big integers.
     Edge,
-    /// Numerators of 70 to 200 bits: stored as big integers from the start.
+    /// Numerators of 65 to 140 bits: stored as big integers from the start.
     Big,
 }
 
@@ -116,11 +116,11 @@ pub fn element(field: &CyclotomicField, rng: &mut Rng, repr: Repr) -> Cyc {
         Repr::Big => {
             let num = (0..phi)
                 .map(|_| {
-                    let bits = rng.range(70, 200) as u32;
+                    let bits = rng.range(65, 140) as u32;
                     rng.big(bits)
                 })
                 .collect();
-            let den_bits = rng.range(1, 100) as u32;
+            let den_bits = rng.range(1, 80) as u32;
             let den = rng.big(den_bits).abs() + BigInt::one();
             (num, den)
         }

@@ -1,5 +1,5 @@
-//! Inversion by evaluation at the roots of Φ_n modulo several primes and exact Chinese
-//! remaindering.
+//! Inversion and norm by evaluation at the roots of Φ_n modulo several primes and exact
+//! Chinese remaindering.
 //!
 //! Write a = A/d with A ∈ Z[ζ_n] (the numerator vector) and d > 0. Let M be the matrix of
 //! multiplication by A in the power basis. Then det M = N(A), the norm, and
@@ -13,7 +13,7 @@
 //! are harmless); Y is recovered by Lagrange interpolation
 //! Y = Σ_k Y(r_k) Φ_n(x) / ((x − r_k) Φ_n'(r_k)). The cost is 3φ² modular products per prime
 //! and O(φ·primes²) for the reconstruction: no big-rational elimination, whatever the size of
-//! the coefficients.
+//! the coefficients. The norm N(a) = N(A)/d^φ(n) needs only the product of the v_k.
 
 use std::sync::Arc;
 
@@ -100,6 +100,34 @@ impl CyclotomicField {
         let norm = values.pop().expect("φ + 1 values");
         let num = values.into_iter().map(|y| y * &den).collect();
         Ok(Cyc::from_big(n, num, norm))
+    }
+
+    /// Norm down to Q, the product of all Galois conjugates, as (numerator, positive
+    /// denominator) in lowest terms: N(a) = N(A)/d^φ with N(A) = Π_k A(r_k) recovered modulo
+    /// primes beyond Hadamard's bound (see the module documentation).
+    pub fn norm(&self, a: &Cyc) -> Result<(BigInt, BigInt), FieldError> {
+        self.check(a.n)?;
+        let (numerators, den) = match &a.data {
+            Data::Small { num, den } => (Numerators::Words(num), BigInt::from(*den)),
+            Data::Big { num, den } => (Numerators::Big(num), den.clone()),
+        };
+        if a.is_zero() {
+            return Ok((BigInt::from(0), BigInt::from(1)));
+        }
+        let count = (self.hadamard_bits(&numerators) + 2).div_ceil(PRIME_BITS) as usize;
+        let primes = self.primes(count);
+        let residues: Vec<Vec<u64>> = primes
+            .iter()
+            .map(|prime| {
+                let m = &prime.mont;
+                let values = self.evaluations_mod(prime, &numerators);
+                vec![values.iter().fold(m.of_u64(1), |acc, &v| m.mul(acc, v))]
+            })
+            .collect();
+        let norm = crt_signed(&primes, &residues).pop().expect("one value");
+        let den = den.pow(self.degree() as u32);
+        let g = norm.gcd(&den);
+        Ok((norm / &g, den / g))
     }
 
     /// Output-sensitive shortcut, tried after 2, 4, 8, … primes while they are at most half
@@ -189,23 +217,30 @@ impl CyclotomicField {
         Some(total.div_ceil(2))
     }
 
-    /// N(A) mod p and the coefficients of Y = N(A)·A⁻¹ mod p (Montgomery residues), as
-    /// φ + 1 values: Y's coefficients, then N(A).
-    fn cofactors_mod(&self, prime: &Arc<ModPrime>, a: &Numerators) -> Vec<u64> {
+    /// v_k = A(r_k) mod p at every root r_k of Φ_n (Montgomery residues), all k in parallel
+    /// by Horner's rule.
+    fn evaluations_mod(&self, prime: &ModPrime, a: &Numerators) -> Vec<u64> {
         let m = &prime.mont;
         let phi = self.degree();
         let coeffs: Vec<u64> = match a {
             Numerators::Words(w) => w.iter().map(|&c| m.of_i64(c)).collect(),
             Numerators::Big(b) => b.iter().map(|c| m.of_big(c)).collect(),
         };
-        // v_k = A(r_k), all k in parallel by Horner
-        let top = coeffs[phi - 1];
-        let mut values = vec![top; phi];
+        let mut values = vec![coeffs[phi - 1]; phi];
         for &c in coeffs[..phi - 1].iter().rev() {
             for (v, &r) in values.iter_mut().zip(&prime.roots) {
                 *v = m.add(m.mul(*v, r), c);
             }
         }
+        values
+    }
+
+    /// N(A) mod p and the coefficients of Y = N(A)·A⁻¹ mod p (Montgomery residues), as
+    /// φ + 1 values: Y's coefficients, then N(A).
+    fn cofactors_mod(&self, prime: &Arc<ModPrime>, a: &Numerators) -> Vec<u64> {
+        let m = &prime.mont;
+        let phi = self.degree();
+        let values = self.evaluations_mod(prime, a);
         // Y(r_k) = Π_{l≠k} v_l by prefix and suffix products; N(A) = Π v_l
         let one = m.of_u64(1);
         let mut cofactor = vec![one; phi];
@@ -261,9 +296,10 @@ impl SquareBits for i128 {
 }
 
 impl SquareBits for BigInt {
+    /// From bit lengths only (squaring big numbers costs more than the bound saves):
+    /// Σ c_i² < φ·2^{2b} with b the largest bit length, so bitlen ≤ 2b + bitlen(φ).
     fn norm_squared_bits(v: &[BigInt]) -> Option<u64> {
-        let s: BigInt = v.iter().map(|c| c * c).sum();
-        debug_assert!(!s.is_negative());
-        Some(s.bits())
+        let b = v.iter().map(|c| c.bits()).max().unwrap_or(0);
+        Some(2 * b + (64 - (v.len() as u64).leading_zeros() as u64))
     }
 }
