@@ -365,31 +365,27 @@ pub fn analyse(
     let kernel = derived.chain.kernel();
     let orbit = &derived.orbit;
     let image = ImageReport {
-        order: derived.image_order.to_string(),
         permutation_order: derived.chain.permutation_order().to_string(),
         kernel_order: kernel.order().to_string(),
         kernel_invariants: kernel.invariants(),
         kernel_scalars: kernel.scalar_order(),
     };
     let orbit_report = OrbitReport {
-        orbit_size: orbit.orbit_size.to_string(),
-        supports: orbit.supports.to_string(),
         support_size: orbit.support.len(),
-        patterns_per_support: orbit.patterns_per_support.to_string(),
         pattern_classes: orbit.pattern_classes,
         lines_per_class: orbit.lines_per_class.to_string(),
         support_action_order: orbit.support_action_order.to_string(),
         support_diagonal_invariants: orbit.support_diagonal_invariants.clone(),
         vacuum_norm: vacuum_norm.to_string(),
-        commutant_dimension: commutant_certificate.dimension,
-        prefactor: prefactor(
-            &orbit.orbit_size,
-            &vacuum_norm,
-            space.dimension(),
-            &commutant_certificate,
-        ),
         line_stabiliser_order: (&derived.image_order / &orbit.orbit_size).to_string(),
     };
+    let prefactor = prefactor(
+        &orbit.orbit_size,
+        &vacuum_norm,
+        space.dimension(),
+        &commutant_certificate,
+    );
+    let commutant_dimension = commutant_certificate.dimension;
     let certificate = StructureCertificate {
         theory: theory.name().to_string(),
         genus: space.genus(),
@@ -416,7 +412,15 @@ pub fn analyse(
         dimension: space.dimension(),
         conductor: field.conductor(),
         route: "structure".into(),
+        generating_set: options.generating_set.name().to_string(),
         generators: generators.names,
+        power,
+        orbit_size: orbit.orbit_size.to_string(),
+        supports: orbit.supports.to_string(),
+        patterns_per_support: orbit.patterns_per_support.to_string(),
+        commutant_dimension,
+        prefactor,
+        image_order: derived.image_order.to_string(),
         image,
         orbit: orbit_report,
         elapsed_seconds: start.elapsed().as_secs_f64(),

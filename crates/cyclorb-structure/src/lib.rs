@@ -35,8 +35,8 @@
 //! use cyclorb_structure::{analyse_spec, recheck, StructureOptions};
 //! use cyclorb_mcg::BlockSpace;
 //! let report = analyse_spec("ising", 2, &StructureOptions::default()).unwrap();
-//! assert_eq!(report.orbit.orbit_size, "3840");
-//! assert_eq!(report.orbit.prefactor.as_deref(), Some("384"));
+//! assert_eq!(report.orbit_size, "3840");
+//! assert_eq!(report.prefactor.as_deref(), Some("384"));
 //! let space = BlockSpace::new(cyclorb_theory::parse_spec("ising").unwrap(), 2).unwrap();
 //! recheck(&space, &report.certificate).unwrap();
 //! ```

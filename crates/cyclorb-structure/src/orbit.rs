@@ -51,8 +51,64 @@ pub struct OrbitCount {
     pub stabiliser_generators: usize,
 }
 
-/// The orbit count, from the monomial generators (degree d, phases mod m), the support
-/// S₀ and the exponents ε_i of c_i/c_{i₀} on it.
+/// Where a transversal element u_s sends S₀: e_{S₀[k]} ↦ ζ_m^{phases[k]}·e_{targets[k]}
+/// (only S₀ matters, so only its images are stored).
+#[derive(Clone, Debug)]
+struct Placement {
+    targets: Vec<u32>,
+    phases: Vec<u32>,
+}
+
+impl Placement {
+    /// u first, then the generator a.
+    fn then(&self, a: &Monomial, m: u32) -> Placement {
+        Placement {
+            targets: self.targets.iter().map(|&x| a.perm[x as usize]).collect(),
+            phases: self
+                .targets
+                .iter()
+                .zip(&self.phases)
+                .map(|(&x, &p)| (p + a.phases[x as usize]) % m)
+                .collect(),
+        }
+    }
+
+    /// The support u(S₀), sorted.
+    fn support(&self) -> Vec<u32> {
+        let mut s = self.targets.clone();
+        s.sort_unstable();
+        s
+    }
+}
+
+/// h = u·w⁻¹ on S₀ (u and w place S₀ on the same support), rescaled by ε:
+/// e_{S₀[k]} ↦ ζ^{p − q + ε_k − ε_l} e_{S₀[l]} where u sends S₀[k] to ζ^p e_x and w sends
+/// S₀[l] to ζ^q e_x.
+fn stabiliser_element(
+    u: &Placement,
+    w: &Placement,
+    epsilon: &[u32],
+    m: u32,
+) -> Result<Monomial, StructureError> {
+    let mut inverse: Vec<(u32, usize)> = w.targets.iter().copied().zip(0..).collect();
+    inverse.sort_unstable();
+    let mut perm = Vec::with_capacity(u.targets.len());
+    let mut phases = Vec::with_capacity(u.targets.len());
+    for (k, (&x, &p)) in u.targets.iter().zip(&u.phases).enumerate() {
+        let l = inverse
+            .binary_search_by_key(&x, |&(y, _)| y)
+            .map(|i| inverse[i].1)
+            .map_err(|_| {
+                StructureError::Rejected("a stabiliser element moves the support".into())
+            })?;
+        perm.push(l as u32);
+        phases.push((p + m - w.phases[l] + epsilon[k] + m - epsilon[l]) % m);
+    }
+    Ok(Monomial { perm, phases })
+}
+
+/// The orbit count, from the monomial generators (phases mod m), the support S₀ and the
+/// exponents ε_i of c_i/c_{i₀} on it.
 pub(crate) fn count_orbit(
     modulus: u32,
     generators: &[Monomial],
@@ -60,32 +116,27 @@ pub(crate) fn count_orbit(
     epsilon: &[u32],
 ) -> Result<OrbitCount, StructureError> {
     let m = modulus;
-    let degree = generators
-        .first()
-        .map(Monomial::degree)
-        .ok_or_else(|| StructureError::Input("no generators".into()))?;
-    let position: HashMap<u32, usize> = support.iter().enumerate().map(|(k, &i)| (i, k)).collect();
-    // supports: breadth-first search with transversals
+    let s = support.len();
+    // supports: breadth-first search, with where a transversal element places S₀
     let mut index: HashMap<Vec<u32>, usize> = HashMap::new();
-    let mut sets: Vec<Vec<u32>> = vec![support.to_vec()];
-    let mut transversal: Vec<Monomial> = vec![Monomial::identity(degree)];
-    index.insert(support.to_vec(), 0);
+    let mut placements = vec![Placement {
+        targets: support.to_vec(),
+        phases: vec![0; s],
+    }];
+    index.insert(placements[0].support(), 0);
     let mut stabiliser: HashSet<Monomial> = HashSet::new();
     let mut next = 0;
-    while next < sets.len() {
+    while next < placements.len() {
         for a in generators {
-            let mut image: Vec<u32> = sets[next].iter().map(|&i| a.perm[i as usize]).collect();
-            image.sort_unstable();
-            let u = transversal[next].then(a, m);
+            let u = placements[next].then(a, m);
+            let image = u.support();
             match index.get(&image) {
                 Some(&t) => {
-                    let h = u.then_inverse(&transversal[t], m);
-                    stabiliser.insert(restrict(&h, support, &position, epsilon, m)?);
+                    stabiliser.insert(stabiliser_element(&u, &placements[t], epsilon, m)?);
                 }
                 None => {
-                    index.insert(image.clone(), sets.len());
-                    sets.push(image);
-                    transversal.push(u);
+                    index.insert(image, placements.len());
+                    placements.push(u);
                 }
             }
         }
@@ -93,7 +144,6 @@ pub(crate) fn count_orbit(
     }
     let mut local: Vec<Monomial> = stabiliser.into_iter().collect();
     local.sort_by(|a, b| (&a.perm, &a.phases).cmp(&(&b.perm, &b.phases)));
-    let s = support.len();
     let chain = MonomialChain::new(s, m, &local);
     let mut classes = chain.kernel().clone();
     classes.insert(&vec![1; s]);
@@ -102,36 +152,15 @@ pub(crate) fn count_orbit(
     let patterns_per_support = &lines_per_class * BigUint::from(pattern_classes);
     Ok(OrbitCount {
         support: support.to_vec(),
-        supports: sets.len(),
+        supports: placements.len(),
         pattern_classes,
-        orbit_size: &patterns_per_support * BigUint::from(sets.len()),
+        orbit_size: &patterns_per_support * BigUint::from(placements.len()),
         lines_per_class,
         patterns_per_support,
         support_action_order: chain.permutation_order(),
         support_diagonal_invariants: chain.kernel().invariants(),
         stabiliser_generators: local.len(),
     })
-}
-
-/// h (which maps S₀ onto itself) restricted to S₀ and rescaled by ε.
-fn restrict(
-    h: &Monomial,
-    support: &[u32],
-    position: &HashMap<u32, usize>,
-    epsilon: &[u32],
-    m: u32,
-) -> Result<Monomial, StructureError> {
-    let mut perm = Vec::with_capacity(support.len());
-    let mut phases = Vec::with_capacity(support.len());
-    for (k, &i) in support.iter().enumerate() {
-        let target = h.perm[i as usize];
-        let &j = position.get(&target).ok_or_else(|| {
-            StructureError::Rejected("a stabiliser element moves the support".into())
-        })?;
-        perm.push(j as u32);
-        phases.push((h.phases[i as usize] + epsilon[k] + m - epsilon[j]) % m);
-    }
-    Ok(Monomial { perm, phases })
 }
 
 /// The orbit of the class of 0 in (Z/m)^s / L under x ↦ y, y_{π(i)} = x_i + φ_i.

@@ -6,7 +6,8 @@ use serde::{Deserialize, Serialize};
 
 use crate::monomial::Monomial;
 
-/// Everything the structural route found, with its certificate.
+/// Everything the structural route found, with its certificate. The headline numbers
+/// are top-level (exact decimal strings); `image` and `orbit` hold how they factor.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct StructureReport {
     /// The theory's name.
@@ -19,11 +20,28 @@ pub struct StructureReport {
     pub conductor: u32,
     /// Always "structure".
     pub route: String,
+    /// "humphries" or "lickorish".
+    pub generating_set: String,
     /// The generator names (Dehn twists), in order.
     pub generators: Vec<String>,
-    /// The order of the projective image and how it factors.
+    /// The power k of the twists whose normal closure N is diagonal in the monomial basis.
+    pub power: u32,
+    /// The number of lines in the orbit of the vacuum line (exact decimal).
+    pub orbit_size: String,
+    /// The number of supports (the orbit of the vacuum's support under P).
+    pub supports: String,
+    /// Phase patterns per support, up to a global phase (exact decimal).
+    pub patterns_per_support: String,
+    /// The commutant dimension (1: irreducible).
+    pub commutant_dimension: usize,
+    /// λ with Σ v v† = λ·G⁻¹ over the orbit (exact rational string), when the commutant
+    /// is 1-dimensional (Schur); null otherwise (not decided by this route).
+    pub prefactor: Option<String>,
+    /// The order of the projective image of the mapping class group (exact decimal).
+    pub image_order: String,
+    /// How the image order factors.
     pub image: ImageReport,
-    /// The orbit of the vacuum line, counted.
+    /// How the orbit factors.
     pub orbit: OrbitReport,
     /// Wall-clock time of the analysis.
     pub elapsed_seconds: f64,
@@ -34,11 +52,9 @@ pub struct StructureReport {
 /// |image| = |P| · |K| / |K ∩ scalars|.
 #[derive(Clone, Debug, PartialEq, Eq, Serialize, Deserialize)]
 pub struct ImageReport {
-    /// The order of the projective image (exact decimal).
-    pub order: String,
-    /// |P|, the permutation image on the lines of the monomial basis.
+    /// |P|, the permutation image on the lines of the monomial basis (exact decimal).
     pub permutation_order: String,
-    /// |K|, the diagonal matrices in the group.
+    /// |K|, the diagonal matrices in the group (exact decimal).
     pub kernel_order: String,
     /// The invariant factors of K (each divides the next).
     pub kernel_invariants: Vec<u64>,
@@ -46,31 +62,21 @@ pub struct ImageReport {
     pub kernel_scalars: u32,
 }
 
-/// The orbit of the vacuum line: supports × patterns per support.
+/// The orbit of the vacuum line: supports × patterns per support, in detail.
 #[derive(Clone, Debug, PartialEq, Eq, Serialize, Deserialize)]
 pub struct OrbitReport {
-    /// The number of lines (exact decimal).
-    pub orbit_size: String,
-    /// The number of supports (the orbit of the vacuum's support).
-    pub supports: String,
     /// |S₀|, the size of each support.
     pub support_size: usize,
-    /// Phase patterns per support, up to a global phase (exact decimal).
-    pub patterns_per_support: String,
-    /// Classes of patterns modulo the diagonal part of the support's stabiliser.
+    /// Classes of patterns modulo the diagonal part D of the support's stabiliser.
     pub pattern_classes: usize,
-    /// Lines per class.
+    /// Lines per class: |D + scalars| / m (exact decimal).
     pub lines_per_class: String,
     /// The order of the permutation group the support's stabiliser induces on it.
     pub support_action_order: String,
-    /// The invariant factors of the diagonal part of the support's stabiliser.
+    /// The invariant factors of D.
     pub support_diagonal_invariants: Vec<u64>,
     /// ⟨v₀, v₀⟩_G in the comb basis (exact text).
     pub vacuum_norm: String,
-    /// The commutant dimension (1: irreducible).
-    pub commutant_dimension: usize,
-    /// λ with Σ v v† = λ·G⁻¹ (exact rational string), when the commutant is 1-dimensional.
-    pub prefactor: Option<String>,
     /// |image| / |orbit|: the order of the stabiliser of the vacuum line in the
     /// projective image (exact decimal).
     pub line_stabiliser_order: String,

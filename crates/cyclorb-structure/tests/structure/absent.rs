@@ -13,7 +13,7 @@ fn absent(spec: &str, genus: usize) -> String {
         Err(e) => panic!("{spec} at genus {genus}: unexpected error {e}"),
         Ok(r) => panic!(
             "{spec} at genus {genus}: a structure was claimed (orbit {})",
-            r.orbit.orbit_size
+            r.orbit_size
         ),
     }
 }
