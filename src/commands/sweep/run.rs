@@ -1,0 +1,254 @@
+//! One run of a sweep: generators, orbit under caps, Poincaré sum, certificates, result.
+//!
+//! Order of work: the Dehn twists of the block space; the orbit of the vacuum line when
+//! the orbit or the image is asked for (continued from `runs/<id>/checkpoint.bin` when a
+//! usable one exists); the Poincaré sum of a saturated orbit; the image order; the
+//! commutant; a witness when the image is not proven finite. Ctrl-C or SIGTERM is honoured
+//! between these stages (and between chunks of the orbit): the run then ends without a
+//! result and the sweep stops, to continue from the checkpoint next time.
+
+use std::path::Path;
+use std::sync::atomic::{AtomicBool, Ordering};
+use std::sync::Arc;
+use std::time::{Duration, Instant};
+
+use cyclorb_orbit::{OrbitProblem, PoincareReport, Seed};
+
+use super::super::common::generator_set_file;
+use super::answers::{
+    certificate_generators, commutant_answer, image_answer, witness_answer, witness_failed,
+    witness_not_needed,
+};
+use super::display::SweepDisplay;
+use super::orbit_stage::{run_orbit, starting_orbit, EngineSettings, OrbitStop};
+use super::plan::{Answer, ImageBounds, WitnessBounds};
+use super::result::{Citation, ImageAnswer, RunResult};
+use super::schedule::PlannedRun;
+
+/// Settings shared by every run of a sweep.
+pub struct SweepSettings<'a> {
+    /// Worker threads of the orbit engine and the Poincaré sum.
+    pub threads: usize,
+    /// Time between periodic checkpoints.
+    pub checkpoint_every: Duration,
+    /// The flag the signal handler sets.
+    pub signal: &'a Arc<AtomicBool>,
+    /// Image certificate bounds.
+    pub image: ImageBounds,
+    /// Witness search bounds.
+    pub witness: WitnessBounds,
+    /// The plan hash recorded in results.
+    pub plan_hash: &'a str,
+    /// The command line recorded in results.
+    pub command: &'a str,
+}
+
+/// How a run ended.
+pub enum RunEnd {
+    /// With a result (written by the caller).
+    Finished(Box<RunResult>),
+    /// Stopped by Ctrl-C or SIGTERM; its checkpoint is on disk.
+    Interrupted,
+}
+
+/// Reset the peak-resident-memory counter (Linux: writing 5 to /proc/self/clear_refs), so
+/// each run reports its own peak. Where that is not possible the peak is the process's.
+fn reset_peak_memory() {
+    let _ = std::fs::write("/proc/self/clear_refs", "5");
+}
+
+/// The result skeleton: inputs, citation, costs filled later.
+fn blank_result(run: &PlannedRun, problem: &OrbitProblem, settings: &SweepSettings) -> RunResult {
+    let g = problem.generators();
+    let version = env!("CARGO_PKG_VERSION");
+    RunResult {
+        id: run.id.clone(),
+        theory: run.spec.clone(),
+        label: run.label.clone(),
+        genus: run.genus,
+        dimension: run.dimension(),
+        conductor: g.conductor,
+        generators: g.operators.len(),
+        generator_names: g.names.clone(),
+        answers: run.answers.iter().map(|a| a.name().to_string()).collect(),
+        orbit_size: None,
+        saturated: None,
+        stop_reason: None,
+        layer_sizes: None,
+        poincare_sum: None,
+        commutant: None,
+        image: None,
+        witness: None,
+        errors: Vec::new(),
+        elapsed_seconds: 0.0,
+        total_seconds: 0.0,
+        peak_memory_bytes: None,
+        store_bytes: None,
+        resumed: false,
+        citation: Citation {
+            theory_data_hash: run.theory_hash.clone(),
+            generator_set: run.set.name().to_string(),
+            field: format!("Q(ζ_{})", g.conductor),
+            conductor: g.conductor,
+            program: format!("cyclorb {version}"),
+            program_version: version.to_string(),
+            command: settings.command.to_string(),
+        },
+        run_hash: run.run_hash.clone(),
+        plan_hash: settings.plan_hash.to_string(),
+    }
+}
+
+/// Run one planned run, checkpointing under `dir`.
+pub fn execute(
+    run: &PlannedRun,
+    dir: &Path,
+    settings: &SweepSettings,
+    display: &SweepDisplay,
+) -> Result<RunEnd, String> {
+    let started = Instant::now();
+    reset_peak_memory();
+    display.start(run);
+    let interrupted = || settings.signal.load(Ordering::SeqCst);
+    let space = &run.space;
+    let twists = space.generators(run.set).map_err(|e| e.to_string())?;
+    let field = space.theory().field();
+    let seed = Seed::basis_vector(field, space.dimension(), space.basis().vacuum());
+    let problem =
+        OrbitProblem::new(generator_set_file(space, &twists), &seed).map_err(|e| e.to_string())?;
+    let mut result = blank_result(run, &problem, settings);
+    let mut earlier_seconds = 0.0;
+    let mut orbit_found = None;
+    if run.wants(Answer::Orbit) || run.wants(Answer::Image) {
+        display.stage(run, "orbit");
+        let start = starting_orbit(&problem, &dir.join("checkpoint.bin"), &run.limits);
+        let mut observer = display.observer(run, run.limits, start.0.compute_seconds());
+        let engine = EngineSettings {
+            threads: settings.threads,
+            checkpoint_every: settings.checkpoint_every,
+            signal: settings.signal,
+        };
+        let attempt = Instant::now();
+        let outcome = run_orbit(
+            &problem,
+            start,
+            &run.limits,
+            &dir.join("checkpoint.bin"),
+            &engine,
+            &mut observer,
+        )?;
+        if outcome.stop == Some(OrbitStop::Interrupted) {
+            return Ok(RunEnd::Interrupted);
+        }
+        let orbit = outcome.orbit;
+        // enumeration time of earlier attempts (the checkpoint keeps it)
+        earlier_seconds = orbit.compute_seconds() - attempt.elapsed().as_secs_f64();
+        result.resumed = outcome.resumed;
+        result.orbit_size = Some(orbit.len());
+        result.saturated = Some(orbit.is_saturated());
+        result.stop_reason = outcome.stop.map(|s| s.name().to_string());
+        result.layer_sizes = Some(orbit.layer_sizes());
+        result.store_bytes = Some(orbit.store_bytes());
+        result.poincare_sum = Some(if orbit.is_saturated() {
+            display.stage(run, "Poincaré sum");
+            match problem.poincare_sum(&orbit, settings.threads) {
+                Ok(sum) => {
+                    if !sum.trace_check {
+                        result
+                            .errors
+                            .push("Poincaré sum: tr(B·G) ≠ |orbit|·⟨v₀, v₀⟩_G".into());
+                    }
+                    PoincareReport::from_sum(&sum)
+                }
+                Err(e) => {
+                    result.errors.push(format!("Poincaré sum: {e}"));
+                    PoincareReport::missing(e.to_string())
+                }
+            }
+        } else {
+            PoincareReport::missing("the orbit is not saturated")
+        });
+        orbit_found = Some(orbit);
+    }
+    if interrupted() {
+        return Ok(RunEnd::Interrupted);
+    }
+    let needs_certificates = [Answer::Image, Answer::Commutant, Answer::Witness]
+        .iter()
+        .any(|&a| run.wants(a));
+    let gens = if needs_certificates {
+        match certificate_generators(&problem) {
+            Ok(g) => Some(g),
+            Err(e) => {
+                result.errors.push(e);
+                None
+            }
+        }
+    } else {
+        None
+    };
+    if let (Some(gens), Some(orbit)) = (&gens, &orbit_found) {
+        if run.wants(Answer::Image) {
+            display.stage(run, "image order");
+            match image_answer(gens, &problem, orbit, &settings.image) {
+                Ok(a) => result.image = Some(a),
+                Err(e) => result.errors.push(e),
+            }
+        }
+    }
+    drop(orbit_found);
+    if interrupted() {
+        return Ok(RunEnd::Interrupted);
+    }
+    if let (Some(gens), true) = (&gens, run.wants(Answer::Commutant)) {
+        display.stage(run, "commutant");
+        match commutant_answer(gens) {
+            Ok(a) => result.commutant = Some(a),
+            Err(e) => result.errors.push(e),
+        }
+    }
+    if interrupted() {
+        return Ok(RunEnd::Interrupted);
+    }
+    if let (Some(gens), true) = (&gens, run.wants(Answer::Witness)) {
+        let finite_order = result
+            .image
+            .as_ref()
+            .filter(|i| i.finite == Some(true))
+            .and_then(|i| i.order.clone());
+        result.witness = Some(match finite_order {
+            Some(order) => witness_not_needed(&order),
+            None => {
+                display.stage(run, "witness search");
+                match witness_answer(gens, &settings.witness) {
+                    Ok(w) => w,
+                    Err(e) => {
+                        result.errors.push(e.clone());
+                        witness_failed(e)
+                    }
+                }
+            }
+        });
+    }
+    if interrupted() {
+        return Ok(RunEnd::Interrupted);
+    }
+    if let (Some(image), Some(true)) = (
+        result.image.as_mut(),
+        result.witness.as_ref().map(|w| w.found),
+    ) {
+        if image.finite.is_none() {
+            *image = ImageAnswer {
+                finite: Some(false),
+                order: None,
+                route: "witness".into(),
+                note: Some("a word of infinite projective order (see witness)".into()),
+            };
+        }
+    }
+    let elapsed = started.elapsed().as_secs_f64();
+    result.elapsed_seconds = elapsed;
+    result.total_seconds = elapsed + earlier_seconds.max(0.0);
+    result.peak_memory_bytes = cyclorb_orbit::peak_memory_bytes();
+    Ok(RunEnd::Finished(Box::new(result)))
+}

@@ -1,0 +1,189 @@
+//! From a checked plan to the list of runs, smallest first.
+//!
+//! Every theory is read once and every (theory, genus) block space built before anything
+//! runs, so an unknown theory or a genus the data cannot reach refuses the whole plan,
+//! naming the entry. Runs are ordered by the dimension of the block space, then by the
+//! degree φ(n) of the field (the two factors of the size of one stored line), then in plan
+//! order. Each run gets an id (its folder under `runs/`) and a run hash of everything its
+//! answer depends on; a finished result is reused only when its run hash matches.
+
+use cyclorb_mcg::{BlockSpace, GeneratingSet};
+use cyclorb_theory::parse_spec;
+
+use super::hash::Fnv64;
+use super::plan::{Answer, Entry, Limits, Plan, PlanError};
+
+/// One run of the sweep: a theory at a genus with its answers and caps.
+pub struct PlannedRun {
+    /// Place in plan order (entry, then genus as listed), for the summary tables.
+    pub position: (usize, usize),
+    /// Folder name under `runs/`: the entry's label and the genus, e.g. `su2-3-g2`.
+    pub id: String,
+    /// The entry's label.
+    pub label: String,
+    /// The spec (or theory file path) as given.
+    pub spec: String,
+    /// The genus.
+    pub genus: usize,
+    /// The block space (theory, comb basis, invariant form).
+    pub space: BlockSpace,
+    /// The generating set.
+    pub set: GeneratingSet,
+    /// What to compute.
+    pub answers: Vec<Answer>,
+    /// Caps.
+    pub limits: Limits,
+    /// SHA-256 of the theory's exact data (`Theory::data_hash`).
+    pub theory_hash: String,
+    /// Hash of everything the run's answer depends on (hex).
+    pub run_hash: String,
+}
+
+impl PlannedRun {
+    /// dim V_g.
+    pub fn dimension(&self) -> usize {
+        self.space.dimension()
+    }
+
+    /// Whether the run computes `answer`.
+    pub fn wants(&self, answer: Answer) -> bool {
+        self.answers.contains(&answer)
+    }
+}
+
+/// The runs of a plan, smallest first, and the plan hash.
+pub struct Schedule {
+    /// The runs in the order they execute.
+    pub runs: Vec<PlannedRun>,
+    /// Hash of the plan's runs (ids and run hashes, in order).
+    pub plan_hash: String,
+}
+
+/// `label` reduced to lowercase letters, digits and single dashes.
+fn slug(label: &str) -> String {
+    let mut out = String::new();
+    for ch in label.chars() {
+        if ch.is_ascii_alphanumeric() {
+            out.push(ch.to_ascii_lowercase());
+        } else if !out.ends_with('-') {
+            out.push('-');
+        }
+    }
+    let trimmed = out.trim_matches('-');
+    if trimmed.is_empty() {
+        "theory".into()
+    } else {
+        trimmed.into()
+    }
+}
+
+fn run_hash(
+    entry: &Entry,
+    genus: usize,
+    theory_hash: &str,
+    plan: &Plan,
+    answers: &[Answer],
+) -> String {
+    let mut h = Fnv64::new();
+    h.line("cyclorb sweep run, version 1");
+    h.line(&format!("spec {}", entry.source.spec_text()));
+    h.line(&format!("theory data {theory_hash}"));
+    h.line(&format!("genus {genus}"));
+    h.line(&format!("set {}", entry.set.name()));
+    for a in answers {
+        h.line(&format!("answer {}", a.name()));
+    }
+    let l = entry.limits;
+    h.line(&format!(
+        "limits {:?} {:?} {:?}",
+        l.lines, l.memory_mib, l.seconds
+    ));
+    if answers.contains(&Answer::Witness) {
+        h.line(&format!(
+            "witness {} {}",
+            plan.witness.depth, plan.witness.tries
+        ));
+    }
+    if answers.contains(&Answer::Image) {
+        h.line(&format!(
+            "image {} {}",
+            plan.image.max_lines, plan.image.enumeration_cap
+        ));
+    }
+    h.hex()
+}
+
+/// Read every theory, build every block space, order the runs.
+pub fn schedule(plan: &Plan) -> Result<Schedule, PlanError> {
+    let mut runs: Vec<(usize, PlannedRun)> = Vec::new();
+    for entry in &plan.entries {
+        let refuse = |reason: String| {
+            PlanError::located(
+                &plan.path,
+                &entry.location,
+                format!(
+                    "theory entry {} ({}): {reason}",
+                    entry.number,
+                    entry.source.spec_text()
+                ),
+            )
+        };
+        let theory = parse_spec(&entry.source.spec_text()).map_err(|e| refuse(e.to_string()))?;
+        let theory_hash = theory.data_hash();
+        for (k, &genus) in entry.genera.iter().enumerate() {
+            let space = BlockSpace::new(theory.clone(), genus)
+                .map_err(|e| refuse(format!("genus {genus}: {e}")))?;
+            let id = format!("{}-g{genus}", slug(&entry.label));
+            if let Some((_, other)) = runs.iter().find(|(_, r)| r.id == id) {
+                return Err(refuse(format!(
+                    "run {id} is already planned (for {}); give this entry another label",
+                    other.spec
+                )));
+            }
+            let run = PlannedRun {
+                position: (entry.number, k),
+                run_hash: run_hash(entry, genus, &theory_hash, plan, &entry.answers),
+                id,
+                label: entry.label.clone(),
+                spec: entry.source.spec_text(),
+                genus,
+                space,
+                set: entry.set,
+                answers: entry.answers.clone(),
+                limits: entry.limits,
+                theory_hash: theory_hash.clone(),
+            };
+            runs.push((entry.number, run));
+        }
+    }
+    runs.sort_by_key(|(number, r)| {
+        (
+            r.dimension(),
+            r.space.theory().field().degree(),
+            *number,
+            r.genus,
+        )
+    });
+    let mut h = Fnv64::new();
+    h.line("cyclorb sweep plan, version 1");
+    for (_, r) in &runs {
+        h.line(&format!("{} {}", r.id, r.run_hash));
+    }
+    Ok(Schedule {
+        runs: runs.into_iter().map(|(_, r)| r).collect(),
+        plan_hash: h.hex(),
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn slugs_are_folder_names() {
+        assert_eq!(slug("su2:3"), "su2-3");
+        assert_eq!(slug("ising*conj(fibonacci)"), "ising-conj-fibonacci");
+        assert_eq!(slug("Tricritical-Ising"), "tricritical-ising");
+        assert_eq!(slug("::"), "theory");
+    }
+}
