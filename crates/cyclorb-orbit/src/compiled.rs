@@ -76,9 +76,10 @@ impl CompiledOperator {
         })
     }
 
-    /// out += (E·X)·s (out starts at zero), or `false` (out untouched) when the bound
-    /// row_bound·max|s| does not guarantee that every `i128` sum is exact.
-    pub(crate) fn apply(&self, s: &Numerators, out: &mut [i128]) -> bool {
+    /// out += (E·X)·s (out starts at zero), setting bit r of `touched` for every row r
+    /// written; or `false` (nothing written) when the bound row_bound·max|s| does not
+    /// guarantee that every `i128` sum is exact.
+    pub(crate) fn apply(&self, s: &Numerators, out: &mut [i128], touched: &mut [u64]) -> bool {
         match self.row_bound.checked_mul(s.max as u128) {
             Some(b) if b < (1u128 << 126) => {}
             _ => return false,
@@ -91,6 +92,7 @@ impl CompiledOperator {
             );
             for (&r, &v) in self.rows[a..b].iter().zip(&self.vals[a..b]) {
                 out[r as usize] += v as i128 * x;
+                touched[r as usize / 64] |= 1 << (r % 64);
             }
         }
         true

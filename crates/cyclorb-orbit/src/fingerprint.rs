@@ -190,7 +190,7 @@ pub(crate) fn bucket_hash(fingerprint: u32) -> u64 {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::key::{key_of_integer_vector, InverseCache, KeyNumbers};
+    use crate::key::{key_of_integer_vector, KeyNumbers, Normaliser};
     use crate::poly::PolyKernel;
     use cyclorb_field::Cyc;
 
@@ -214,7 +214,7 @@ mod tests {
             let v: Vec<Cyc> = texts.iter().map(|t| f.parse(t).unwrap()).collect();
             let u = numerators(&f, &texts);
             let key =
-                key_of_integer_vector(&f, &kernel, &mut InverseCache::default(), &u, 1).unwrap();
+                key_of_integer_vector(&f, &kernel, &mut Normaliser::default(), &u, 1).unwrap();
             assert_eq!(key, KeyNumbers::of_line(&f, &v).unwrap().unwrap());
             let from_rep = fp.of_representative(&u, 1).unwrap();
             assert_eq!(from_rep, fp.of_key(&key, 1), "n={n}");

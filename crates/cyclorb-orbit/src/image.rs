@@ -23,7 +23,7 @@ use num_traits::One;
 
 use crate::error::OrbitError;
 use crate::fingerprint::bucket_hash;
-use crate::key::{first_nonzero_block, key_of_integer_vector, InverseCache, KeyNumbers};
+use crate::key::{first_nonzero_block, key_of_integer_vector, KeyNumbers, Normaliser};
 use crate::numerators::Numerators;
 use crate::problem::OrbitProblem;
 use crate::store::{OrbitSet, StoredKey};
@@ -45,10 +45,35 @@ pub(crate) struct Candidate {
     pub(crate) fingerprint: u32,
 }
 
+/// The non-zero positions and largest |numerator| of a pending machine-word key.
+#[derive(Debug)]
+struct Support {
+    nonzero: Vec<u32>,
+    max: u64,
+}
+
+impl Support {
+    fn of(key: &KeyNumbers) -> Support {
+        match key {
+            KeyNumbers::Small(v) => Support {
+                nonzero: (0..v.len() as u32)
+                    .filter(|&i| v[i as usize] != 0)
+                    .collect(),
+                max: v.iter().map(|x| x.unsigned_abs()).max().unwrap_or(0),
+            },
+            KeyNumbers::Big(_) => Support {
+                nonzero: Vec::new(),
+                max: u64::MAX,
+            },
+        }
+    }
+}
+
 /// The new lines one worker has found in its part of a chunk, in order, with a lookup table.
 #[derive(Debug, Default)]
 pub(crate) struct Pending {
     pub(crate) list: Vec<Candidate>,
+    supports: Vec<Support>,
     table: HashTable<u32>,
 }
 
@@ -61,14 +86,15 @@ impl Pending {
             .insert_unique(bucket_hash(candidate.fingerprint), index, |&i| {
                 bucket_hash(list[i as usize].fingerprint)
             });
+        self.supports.push(Support::of(&candidate.key));
         self.list.push(candidate);
     }
 
-    fn find(&self, fingerprint: u32, mut same: impl FnMut(&KeyNumbers) -> bool) -> bool {
+    fn find(&self, fingerprint: u32, mut same: impl FnMut(&KeyNumbers, &Support) -> bool) -> bool {
         self.table
             .find(bucket_hash(fingerprint), |&i| {
                 let c = &self.list[i as usize];
-                c.fingerprint == fingerprint && same(&c.key)
+                c.fingerprint == fingerprint && same(&c.key, &self.supports[i as usize])
             })
             .is_some()
     }
@@ -83,19 +109,23 @@ pub(crate) struct Workspace {
     /// The source key as numbers (exact path) and as field elements, made on demand.
     source_key: Option<KeyNumbers>,
     source_line: Option<Vec<Cyc>>,
-    /// Zero between uses.
+    /// Zero between uses, with a bit mask of the entries a product wrote.
     wide: Vec<i128>,
+    touched: Vec<u64>,
     image: Numerators,
-    /// Multiplication matrix of the image's first non-zero coordinate and its row bound;
-    /// `lead_state` 0 = not built, 1 = built, 2 = overflow.
-    lead: Vec<i128>,
+    /// Multiplication matrix of the image's first non-zero coordinate, by columns, and its
+    /// largest row sum; `lead_state` 0 = not built, 1 = built, 2 = beyond `i64`.
+    lead: Vec<i64>,
+    lead_wide: Vec<i128>,
     lead_bound: u128,
     lead_state: u8,
     stored: Numerators,
-    scratch: Numerators,
+    /// Number of non-zero blocks of the image.
+    image_blocks: usize,
     /// One block of U_k·S_i.
     rhs: Vec<i128>,
-    inverses: InverseCache,
+    rhs_small: Vec<i64>,
+    normaliser: Normaliser,
 }
 
 impl Workspace {
@@ -109,14 +139,17 @@ impl Workspace {
             source_key: None,
             source_line: None,
             wide: vec![0; len],
+            touched: vec![0; len.div_ceil(64)],
             image: Numerators::new(len),
             lead: vec![0; phi * phi],
+            lead_wide: vec![0; phi * phi],
             lead_bound: 0,
             lead_state: 0,
             stored: Numerators::new(len),
-            scratch: Numerators::new(len),
+            image_blocks: 0,
             rhs: vec![0; phi],
-            inverses: InverseCache::default(),
+            rhs_small: vec![0; phi],
+            normaliser: Normaliser::default(),
         }
     }
 
@@ -147,18 +180,59 @@ impl Workspace {
         Ok(self.source_line.as_deref().unwrap_or(&[]))
     }
 
-    /// Move the nonzero entries of `wide` into `image` (zeroing `wide`); `false` when one
-    /// does not fit an `i64`.
+    /// The multiplication matrix of the image's block k, by columns, when it fits `i64`.
+    fn build_lead(&mut self, problem: &OrbitProblem, k: usize) {
+        let phi = self.phi;
+        let lead = &self.image.dense[k * phi..(k + 1) * phi];
+        self.lead_state = 2;
+        if problem
+            .kernel
+            .mult_matrix(lead, &mut self.lead_wide)
+            .is_none()
+        {
+            return;
+        }
+        let mut bound = 0u128;
+        for t in 0..phi {
+            let row = &self.lead_wide[t * phi..(t + 1) * phi];
+            bound = bound.max(row.iter().map(|x| x.unsigned_abs()).sum());
+            for (s, &x) in row.iter().enumerate() {
+                match i64::try_from(x) {
+                    Ok(v) => self.lead[s * phi + t] = v,
+                    Err(_) => return,
+                }
+            }
+        }
+        self.lead_bound = bound;
+        self.lead_state = 1;
+    }
+
+    /// Move the written entries of `wide` into `image` (zeroing `wide` and `touched`);
+    /// `false` when one does not fit an `i64`.
     fn take_image(&mut self) -> bool {
         self.image.clear();
+        self.image_blocks = 0;
+        let mut last_block = u32::MAX;
         let mut fits = true;
-        for (i, w) in self.wide.iter_mut().enumerate() {
-            if *w != 0 {
-                match i64::try_from(*w) {
-                    Ok(x) if fits => self.image.push(i, x),
-                    _ => fits = false,
+        for (word_index, word) in self.touched.iter_mut().enumerate() {
+            let mut bits = std::mem::take(word);
+            while bits != 0 {
+                let i = word_index * 64 + bits.trailing_zeros() as usize;
+                bits &= bits - 1;
+                let w = std::mem::take(&mut self.wide[i]);
+                if w != 0 {
+                    match i64::try_from(w) {
+                        Ok(x) if fits => {
+                            self.image.push(i, x);
+                            let block = (i / self.phi) as u32;
+                            if block != last_block {
+                                self.image_blocks += 1;
+                                last_block = block;
+                            }
+                        }
+                        _ => fits = false,
+                    }
                 }
-                *w = 0;
             }
         }
         fits
@@ -183,7 +257,7 @@ impl OrbitProblem {
         generator: usize,
     ) -> Result<Outcome, OrbitError> {
         let applied = match (&self.compiled[generator], ws.source_is_small) {
-            (Some(op), true) => op.apply(&ws.source, &mut ws.wide),
+            (Some(op), true) => op.apply(&ws.source, &mut ws.wide, &mut ws.touched),
             _ => false,
         };
         if !applied || !ws.take_image() {
@@ -196,7 +270,7 @@ impl OrbitProblem {
         ws.lead_state = 0;
         let Some(fingerprint) = self.fingerprinter.of_representative(&ws.image, k) else {
             let key =
-                key_of_integer_vector(&self.field, &self.kernel, &mut ws.inverses, &ws.image, k)?;
+                key_of_integer_vector(&self.field, &self.kernel, &mut ws.normaliser, &ws.image, k)?;
             return self.lookup_key(set, pending, ws, key);
         };
         let mut failure = None;
@@ -208,14 +282,17 @@ impl OrbitProblem {
         };
         let stored = set.find(fingerprint, |i| record(self.same_as_stored(set, ws, i, k)));
         let known = stored.is_some()
-            || pending.find(fingerprint, |key| record(self.same_as_key(ws, key, k)));
+            || pending.find(fingerprint, |key, support| {
+                record(self.same_as_key(ws, key, support, k))
+            });
         if let Some(e) = failure {
             return Err(e);
         }
         if known {
             return Ok(Outcome::Known);
         }
-        let key = key_of_integer_vector(&self.field, &self.kernel, &mut ws.inverses, &ws.image, k)?;
+        let key =
+            key_of_integer_vector(&self.field, &self.kernel, &mut ws.normaliser, &ws.image, k)?;
         Ok(Outcome::New { key, fingerprint })
     }
 
@@ -247,7 +324,7 @@ impl OrbitProblem {
         let known = set
             .find(fingerprint, |i| same_key(set, buf, i, &key))
             .is_some()
-            || pending.find(fingerprint, |other| *other == key);
+            || pending.find(fingerprint, |other, _| *other == key);
         Ok(if known {
             Outcome::Known
         } else {
@@ -274,10 +351,14 @@ impl OrbitProblem {
     ) -> Result<bool, OrbitError> {
         let mut stored = std::mem::replace(&mut ws.stored, Numerators::new(0));
         let result = match set.keys.get(i, &mut stored) {
-            StoredKey::Small => match self.image_matches(ws, &stored, k) {
-                Some(same) => Ok(same),
-                None => self.same_line_exact(&ws.image, &KeyNumbers::Small(stored.dense.clone())),
-            },
+            StoredKey::Small => {
+                match self.image_matches(ws, &stored.dense, &stored.nonzero, stored.max, k) {
+                    Some(same) => Ok(same),
+                    None => {
+                        self.same_line_exact(&ws.image, &KeyNumbers::Small(stored.dense.clone()))
+                    }
+                }
+            }
             StoredKey::Big(b) => self.same_line_exact(&ws.image, &KeyNumbers::Big(b.to_vec())),
         };
         ws.stored = stored;
@@ -289,14 +370,11 @@ impl OrbitProblem {
         &self,
         ws: &mut Workspace,
         key: &KeyNumbers,
+        support: &Support,
         k: usize,
     ) -> Result<bool, OrbitError> {
         if let KeyNumbers::Small(s) = key {
-            let mut numbers = std::mem::replace(&mut ws.scratch, Numerators::new(0));
-            numbers.set_dense(s);
-            let same = self.image_matches(ws, &numbers, k);
-            ws.scratch = numbers;
-            if let Some(same) = same {
+            if let Some(same) = self.image_matches(ws, s, &support.nonzero, support.max, k) {
                 return Ok(same);
             }
         }
@@ -308,73 +386,64 @@ impl OrbitProblem {
     ///
     /// Every non-zero block i of S is checked; then U has no other non-zero block when both
     /// have the same number of them (U_k ≠ 0, so S_i ≠ 0 forces U_i ≠ 0).
-    fn image_matches(&self, ws: &mut Workspace, s: &Numerators, k: usize) -> Option<bool> {
+    fn image_matches(
+        &self,
+        ws: &mut Workspace,
+        dense: &[i64],
+        nonzero: &[u32],
+        max: u64,
+        k: usize,
+    ) -> Option<bool> {
         let phi = ws.phi;
-        if s.first_block(phi) != Some(k) {
+        let block_of = &self.block_of;
+        if nonzero.first().map(|&i| block_of[i as usize] as usize) != Some(k) {
             return Some(false);
         }
         if ws.lead_state == 0 {
-            let lead = &ws.image.dense[k * phi..(k + 1) * phi];
-            ws.lead_state = match self.kernel.mult_matrix(lead, &mut ws.lead) {
-                Some(()) => {
-                    ws.lead_bound = ws
-                        .lead
-                        .chunks(phi)
-                        .map(|row| row.iter().map(|x| x.unsigned_abs()).sum::<u128>())
-                        .max()
-                        .unwrap_or(0);
-                    1
-                }
-                None => 2,
-            };
+            ws.build_lead(self, k);
         }
-        let bounded = ws.lead_state == 1
-            && ws
-                .lead_bound
-                .checked_mul(s.max as u128)
-                .is_some_and(|b| b < 1 << 126);
-        if !bounded {
+        if ws.lead_state != 1 {
             return None;
         }
-        let den = s.dense[k * phi] as i128;
-        let rhs = &mut ws.rhs;
+        let bound = ws.lead_bound.checked_mul(max as u128)?;
+        let den = dense[k * phi];
+        let small =
+            bound < 1 << 62 && (den.unsigned_abs() as u128) * (ws.image.max as u128) < 1 << 62;
+        if !small && bound >= 1 << 126 {
+            return None;
+        }
         let mut s_blocks = 0usize;
         let mut cursor = 0;
-        let nonzero = &s.nonzero;
         while cursor < nonzero.len() {
-            let block = nonzero[cursor] as usize / phi;
+            let block = block_of[nonzero[cursor] as usize];
             s_blocks += 1;
-            rhs.fill(0);
-            while cursor < nonzero.len() && nonzero[cursor] as usize / phi == block {
-                let at = nonzero[cursor] as usize;
-                let x = s.dense[at] as i128;
-                let column = at % phi;
-                for (t, r) in rhs.iter_mut().enumerate() {
-                    *r += ws.lead[t * phi + column] * x;
-                }
+            let start = cursor;
+            while cursor < nonzero.len() && block_of[nonzero[cursor] as usize] == block {
                 cursor += 1;
             }
-            if block == k {
+            if block as usize == k {
                 continue;
             }
-            let u = &ws.image.dense[block * phi..(block + 1) * phi];
-            if u.iter()
-                .zip(rhs.iter())
-                .any(|(&ut, &r)| den * ut as i128 != r)
-            {
+            let u = &ws.image.dense[block as usize * phi..(block as usize + 1) * phi];
+            let entries = &nonzero[start..cursor];
+            let same = if small {
+                block_matches_small(
+                    &ws.lead,
+                    &self.slot_of,
+                    dense,
+                    entries,
+                    den,
+                    u,
+                    &mut ws.rhs_small,
+                )
+            } else {
+                block_matches_wide(&ws.lead, &self.slot_of, dense, entries, den, u, &mut ws.rhs)
+            };
+            if !same {
                 return Some(false);
             }
         }
-        let mut u_blocks = 0usize;
-        let mut last = usize::MAX;
-        for &i in &ws.image.nonzero {
-            let block = i as usize / phi;
-            if block != last {
-                u_blocks += 1;
-                last = block;
-            }
-        }
-        Some(u_blocks == s_blocks)
+        Some(ws.image_blocks == s_blocks)
     }
 
     /// Exact test, in `Cyc` arithmetic, that the integer vector u spans the line of `key`.
@@ -410,4 +479,51 @@ pub(crate) fn same_key(set: &OrbitSet, buf: &mut Numerators, i: usize, key: &Key
         // canonical keys are small exactly when every numerator fits an i64
         _ => false,
     }
+}
+
+/// D·u = U_k·S_i for one block, in `i64` (the caller checked the bounds): `lead` holds the
+/// multiplication matrix of U_k by columns, `entries` the non-zero positions of S_i.
+fn block_matches_small(
+    lead: &[i64],
+    slot_of: &[u32],
+    dense: &[i64],
+    entries: &[u32],
+    den: i64,
+    u: &[i64],
+    rhs: &mut [i64],
+) -> bool {
+    let phi = u.len();
+    rhs.fill(0);
+    for &at in entries {
+        let x = dense[at as usize];
+        let column = &lead[slot_of[at as usize] as usize * phi..][..phi];
+        for (r, &m) in rhs.iter_mut().zip(column) {
+            *r += m * x;
+        }
+    }
+    u.iter().zip(rhs.iter()).all(|(&ut, &r)| den * ut == r)
+}
+
+/// The same test in `i128`.
+fn block_matches_wide(
+    lead: &[i64],
+    slot_of: &[u32],
+    dense: &[i64],
+    entries: &[u32],
+    den: i64,
+    u: &[i64],
+    rhs: &mut [i128],
+) -> bool {
+    let phi = u.len();
+    rhs.fill(0);
+    for &at in entries {
+        let x = dense[at as usize] as i128;
+        let column = &lead[slot_of[at as usize] as usize * phi..][..phi];
+        for (r, &m) in rhs.iter_mut().zip(column) {
+            *r += m as i128 * x;
+        }
+    }
+    u.iter()
+        .zip(rhs.iter())
+        .all(|(&ut, &r)| den as i128 * ut as i128 == r)
 }

@@ -99,39 +99,52 @@ pub(crate) fn first_nonzero_block<T: Zero>(numbers: &[T], phi: usize) -> Option<
         .position(|block| block.iter().any(|x| !x.is_zero()))
 }
 
-/// Inverses of first coordinates already met: u_k ↦ (P, q) with u_k⁻¹ = P/q, or `None` when
-/// P does not fit machine words. Orbits of finite groups meet few distinct values.
-#[derive(Debug, Default)]
-pub(crate) struct InverseCache {
-    map: HashMap<Box<[i64]>, Option<SmallInverse>>,
+/// u_k⁻¹ = P/q in the form the key computation uses: the multiplication matrix of P
+/// (φ×φ, row-major), its largest row sum of |entries|, and q > 0.
+#[derive(Debug, Clone)]
+struct SmallInverse {
+    mult: Box<[i128]>,
+    bound: u128,
+    q: i64,
 }
 
-/// u⁻¹ = P/q with machine-word numerators P and denominator q.
-type SmallInverse = (Box<[i64]>, i64);
+/// Turns integer vectors into keys, remembering the inverses of the first coordinates it
+/// has met (orbits of finite groups meet few distinct values), with scratch space.
+#[derive(Debug, Default)]
+pub(crate) struct Normaliser {
+    inverses: HashMap<Box<[i64]>, Option<SmallInverse>>,
+    values: Vec<i128>,
+    blocks: Vec<usize>,
+}
 
-/// Entries kept before the cache is emptied (it only saves time).
+/// Inverses kept before the memory is emptied (it only saves time).
 const INVERSE_CACHE_LIMIT: usize = 1 << 16;
 
-impl InverseCache {
-    fn inverse(
-        &mut self,
-        field: &CyclotomicField,
-        lead: &[i64],
-    ) -> Result<Option<SmallInverse>, FieldError> {
-        if let Some(hit) = self.map.get(lead) {
-            return Ok(hit.clone());
-        }
-        let num: Vec<BigInt> = lead.iter().map(|&c| BigInt::from(c)).collect();
-        let inverse = field.inv(&field.from_parts(&num, &BigInt::one())?)?;
-        let entry = inverse
-            .small_parts()
-            .map(|(p, q)| (p.to_vec().into_boxed_slice(), q));
-        if self.map.len() >= INVERSE_CACHE_LIMIT {
-            self.map.clear();
-        }
-        self.map.insert(lead.into(), entry.clone());
-        Ok(entry)
+fn small_inverse(
+    field: &CyclotomicField,
+    kernel: &PolyKernel,
+    lead: &[i64],
+) -> Result<Option<SmallInverse>, FieldError> {
+    let num: Vec<BigInt> = lead.iter().map(|&c| BigInt::from(c)).collect();
+    let inverse = field.inv(&field.from_parts(&num, &BigInt::one())?)?;
+    let Some((p, q)) = inverse.small_parts() else {
+        return Ok(None);
+    };
+    let phi = kernel.degree();
+    let mut mult = vec![0i128; phi * phi];
+    if kernel.mult_matrix(p, &mut mult).is_none() {
+        return Ok(None);
     }
+    let bound = mult
+        .chunks(phi)
+        .map(|row| row.iter().map(|x| x.unsigned_abs()).sum::<u128>())
+        .max()
+        .unwrap_or(0);
+    Ok(Some(SmallInverse {
+        mult: mult.into_boxed_slice(),
+        bound,
+        q,
+    }))
 }
 
 /// The key of the line through the integer vector `u` (first non-zero block k), computed in
@@ -140,13 +153,26 @@ impl InverseCache {
 pub(crate) fn key_of_integer_vector(
     field: &CyclotomicField,
     kernel: &PolyKernel,
-    cache: &mut InverseCache,
+    normaliser: &mut Normaliser,
     u: &Numerators,
     k: usize,
 ) -> Result<KeyNumbers, FieldError> {
     let phi = kernel.degree();
-    if let Some((p, q)) = cache.inverse(field, &u.dense[k * phi..(k + 1) * phi])? {
-        if let Some(key) = small_key(kernel, u, p.as_ref(), q) {
+    let lead = &u.dense[k * phi..(k + 1) * phi];
+    if !normaliser.inverses.contains_key(lead) {
+        let entry = small_inverse(field, kernel, lead)?;
+        if normaliser.inverses.len() >= INVERSE_CACHE_LIMIT {
+            normaliser.inverses.clear();
+        }
+        normaliser.inverses.insert(lead.into(), entry);
+    }
+    let Normaliser {
+        inverses,
+        values,
+        blocks,
+    } = normaliser;
+    if let Some(Some(inverse)) = inverses.get(lead) {
+        if let Some(key) = small_key(kernel, u, inverse, values, blocks) {
             return Ok(key);
         }
     }
@@ -161,38 +187,68 @@ pub(crate) fn key_of_integer_vector(
     Ok(KeyNumbers::of_line(field, &line)?.expect("u_k is not zero"))
 }
 
-fn small_key(kernel: &PolyKernel, u: &Numerators, p: &[i64], q: i64) -> Option<KeyNumbers> {
+/// gcd(a, b) for a > 0, returning a at once when a | b (the common case here).
+fn gcd_with(a: u128, b: u128) -> u128 {
+    if let (Ok(a64), Ok(b64)) = (u64::try_from(a), u64::try_from(b)) {
+        if b64 % a64 == 0 {
+            return a;
+        }
+        return a64.gcd(&b64) as u128;
+    }
+    if b % a == 0 {
+        a
+    } else {
+        a.gcd(&b)
+    }
+}
+
+fn small_key(
+    kernel: &PolyKernel,
+    u: &Numerators,
+    inverse: &SmallInverse,
+    values: &mut Vec<i128>,
+    blocks: &mut Vec<usize>,
+) -> Option<KeyNumbers> {
     let phi = kernel.degree();
-    let mut m = vec![0i128; phi * phi];
-    kernel.mult_matrix(p, &mut m)?;
-    let bound = m
-        .chunks(phi)
-        .map(|row| row.iter().map(|x| x.unsigned_abs()).sum::<u128>())
-        .max()
-        .unwrap_or(0);
-    if bound.checked_mul(u.max as u128)? >= 1 << 126 {
+    if inverse.bound.checked_mul(u.max as u128)? >= 1 << 126 {
         return None;
     }
-    let mut wide = vec![0i128; u.dense.len()];
-    for &i in &u.nonzero {
-        let (block, s) = (i as usize / phi, i as usize % phi);
-        let x = u.dense[i as usize] as i128;
-        for t in 0..phi {
-            wide[block * phi + t] += m[t * phi + s] * x;
+    values.clear();
+    blocks.clear();
+    let mut cursor = 0;
+    while cursor < u.nonzero.len() {
+        let block = u.nonzero[cursor] as usize / phi;
+        let at = values.len();
+        values.resize(at + phi, 0);
+        blocks.push(block);
+        while cursor < u.nonzero.len() && u.nonzero[cursor] as usize / phi == block {
+            let i = u.nonzero[cursor] as usize;
+            let (s, x) = (i % phi, u.dense[i] as i128);
+            for (t, v) in values[at..].iter_mut().enumerate() {
+                *v += inverse.mult[t * phi + s] * x;
+            }
+            cursor += 1;
         }
     }
-    let mut g = q.unsigned_abs() as u128;
-    for &x in &wide {
+    let mut g = inverse.q.unsigned_abs() as u128;
+    for &x in values.iter() {
         if g == 1 {
             break;
         }
-        if x != 0 && x.unsigned_abs() % g != 0 {
-            g = g.gcd(&x.unsigned_abs());
+        if x != 0 {
+            g = gcd_with(g, x.unsigned_abs());
         }
     }
     let g = g as i128;
-    let small: Option<Vec<i64>> = wide.iter().map(|&x| i64::try_from(x / g).ok()).collect();
-    small.map(KeyNumbers::Small)
+    let mut key = vec![0i64; u.dense.len()];
+    for (&block, chunk) in blocks.iter().zip(values.chunks(phi)) {
+        for (t, &x) in chunk.iter().enumerate() {
+            if x != 0 {
+                key[block * phi + t] = i64::try_from(x / g).ok()?;
+            }
+        }
+    }
+    Some(KeyNumbers::Small(key))
 }
 
 #[cfg(test)]
@@ -223,7 +279,7 @@ mod tests {
         .collect();
         let mut numbers = Numerators::new(u.len());
         numbers.set_dense(&u);
-        let mut cache = InverseCache::default();
+        let mut cache = Normaliser::default();
         let fast = key_of_integer_vector(&f, &kernel, &mut cache, &numbers, 1).unwrap();
         assert_eq!(fast, key);
         let again = key_of_integer_vector(&f, &kernel, &mut cache, &numbers, 1).unwrap();

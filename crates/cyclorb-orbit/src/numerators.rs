@@ -39,6 +39,7 @@ impl Numerators {
     }
 
     /// Copy from a dense slice of the same length.
+    #[cfg(test)]
     pub(crate) fn set_dense(&mut self, values: &[i64]) {
         self.clear();
         for (i, &x) in values.iter().enumerate() {

@@ -52,9 +52,9 @@ pub struct PoincareSum {
 /// Largest number of unknowns of the commutant system solved exactly.
 const MAX_COMMUTANT_UNKNOWNS: usize = 400;
 /// Distinct values of q kept as separate integer sums before flushing them, at most …
-const MAX_OPEN_SUMS: usize = 64;
+const MAX_OPEN_SUMS: usize = 256;
 /// … and at most this many bytes of integer sums per thread.
-const OPEN_SUM_BYTES: usize = 64 << 20;
+const OPEN_SUM_BYTES: usize = 128 << 20;
 
 /// The integer form of G: G = G'/E with G' integral.
 struct IntegerForm {
@@ -72,10 +72,12 @@ enum FormEntries {
     TooLarge,
 }
 
-/// Unreduced sums S_i·conj(S_j) (i ≤ j) for one value of q.
+/// Unreduced sums S_i·conj(S_j) (i ≤ j, upper triangle in row order) for one value of q.
 struct OpenSum {
     sums: Vec<i128>,
     bound: u128,
+    /// When it was last added to (the least recently used sum is flushed first).
+    last_used: u64,
 }
 
 /// One thread's share of B.
@@ -85,6 +87,9 @@ struct Partial<'a> {
     factor_numerator: Cyc,
     open: HashMap<Vec<i128>, OpenSum>,
     max_open: usize,
+    clock: u64,
+    /// Index of pair (i, i) in the upper triangle; pair (i, j) is at row_start[i] + j − i.
+    row_start: Vec<usize>,
     /// Upper triangle of the exact part of B, row-major d×d (lower entries unused).
     exact: Vec<Cyc>,
     key: Numerators,
@@ -123,8 +128,39 @@ impl OrbitProblem {
         let field = &self.field;
         let g = self.generators.form_diagonal(field);
         let norm = self.form_norm(&self.seed, &g)?;
-        let form = integer_form(field, &self.kernel, &g)?;
-        let factor_numerator = field.mul(&norm, &form.scale)?;
+        let b = self.sum_matrix(orbit, threads, &g, &norm, None)?;
+        let d = self.dimension();
+        let size = orbit.len();
+        let trace = field.dot((0..d).map(|i| (b.get(i, i), &g[i])))?;
+        let trace_check = trace == field.mul(&field.int(size as i64), &norm)?;
+        let scalar = scalar_of(field, &b, &g)?;
+        let decomposition = match scalar {
+            Some(_) => None,
+            None => decompose(field, &self.generators, &b, MAX_COMMUTANT_UNKNOWNS)?,
+        };
+        Ok(PoincareSum {
+            matrix: b,
+            norm,
+            orbit_size: size,
+            trace_check,
+            scalar,
+            decomposition,
+        })
+    }
+
+    /// B = Σ v v† over the orbit, for the form diagonal `g` and seed norm `norm`;
+    /// `max_open` overrides the number of integer sums kept open per thread (tests).
+    fn sum_matrix(
+        &self,
+        orbit: &Orbit,
+        threads: usize,
+        g: &[Cyc],
+        norm: &Cyc,
+        max_open: Option<usize>,
+    ) -> Result<Matrix, OrbitError> {
+        let field = &self.field;
+        let form = integer_form(field, &self.kernel, g)?;
+        let factor_numerator = field.mul(norm, &form.scale)?;
         let d = self.dimension();
         let parts = split_range(orbit.len(), threads.max(1));
         let results: Vec<Result<Vec<Cyc>, OrbitError>> = std::thread::scope(|scope| {
@@ -136,6 +172,9 @@ impl OrbitProblem {
                     let factor = factor_numerator.clone();
                     scope.spawn(move || {
                         let mut partial = Partial::new(self, form, factor);
+                        if let Some(m) = max_open {
+                            partial.max_open = m.max(1);
+                        }
                         for index in range {
                             partial.add_line(orbit, index)?;
                         }
@@ -170,22 +209,7 @@ impl OrbitProblem {
                 }
             }
         }
-        let size = orbit.len();
-        let trace = field.dot((0..d).map(|i| (b.get(i, i), &g[i])))?;
-        let trace_check = trace == field.mul(&field.int(size as i64), &norm)?;
-        let scalar = scalar_of(field, &b, &g)?;
-        let decomposition = match scalar {
-            Some(_) => None,
-            None => decompose(field, &self.generators, &b, MAX_COMMUTANT_UNKNOWNS)?,
-        };
-        Ok(PoincareSum {
-            matrix: b,
-            norm,
-            orbit_size: size,
-            trace_check,
-            scalar,
-            decomposition,
-        })
+        Ok(b)
     }
 
     /// ⟨v, v⟩_G = Σ_i G_i |v_i|².
@@ -269,13 +293,19 @@ impl<'a> Partial<'a> {
     fn new(problem: &'a OrbitProblem, form: &'a IntegerForm, factor_numerator: Cyc) -> Self {
         let d = problem.dimension();
         let len = problem.key_len();
-        let sum_bytes = d * d * (2 * problem.kernel.degree() - 1) * 16;
+        let pairs = d * (d + 1) / 2;
+        let sum_bytes = pairs * (2 * problem.kernel.degree() - 1) * 16;
+        let row_start = (0..d)
+            .map(|i| i * d - i * i.saturating_sub(1) / 2)
+            .collect();
         Partial {
             problem,
             form,
             factor_numerator,
             open: HashMap::new(),
             max_open: (OPEN_SUM_BYTES / sum_bytes.max(1)).clamp(1, MAX_OPEN_SUMS),
+            clock: 0,
+            row_start,
             exact: vec![problem.field.zero(); d * d],
             key: Numerators::new(len),
             conj: vec![0; len],
@@ -358,8 +388,16 @@ impl<'a> Partial<'a> {
             ));
         }
         if !self.open.contains_key(&q) && self.open.len() >= self.max_open {
-            self.flush_all()?;
+            let oldest = self
+                .open
+                .iter()
+                .min_by_key(|(_, sum)| sum.last_used)
+                .map(|(key, _)| key.clone());
+            if let Some(oldest) = oldest {
+                self.flush(&oldest)?;
+            }
         }
+        self.clock += 1;
         let wide = 2 * phi - 1;
         let needs_flush = self
             .open
@@ -368,14 +406,17 @@ impl<'a> Partial<'a> {
         if needs_flush {
             self.flush(&q)?;
         }
+        let pairs = d * (d + 1) / 2;
         let entry = self.open.entry(q).or_insert_with(|| OpenSum {
-            sums: vec![0; d * d * wide],
+            sums: vec![0; pairs * wide],
             bound: 0,
+            last_used: 0,
         });
         entry.bound += term_bound;
+        entry.last_used = self.clock;
         for (a, bi) in self.blocks.iter().enumerate() {
             for bj in &self.blocks[a..] {
-                let cell = bi.block * d + bj.block;
+                let cell = self.row_start[bi.block] + bj.block - bi.block;
                 let out = &mut entry.sums[cell * wide..(cell + 1) * wide];
                 for &(s, x) in &self.s_list[bi.s.clone()] {
                     for &(t, y) in &self.c_list[bj.c.clone()] {
@@ -443,16 +484,19 @@ impl<'a> Partial<'a> {
         let factor = field.div(&self.factor_numerator, &field.from_parts(&q_big, &one)?)?;
         let d = self.problem.dimension();
         let wide = 2 * kernel.degree() - 1;
-        for (cell, chunk) in sum.sums.chunks(wide).enumerate() {
-            if chunk.iter().all(|&x| x == 0) {
-                continue;
+        let mut chunks = sum.sums.chunks(wide);
+        for i in 0..d {
+            for j in i..d {
+                let chunk = chunks.next().unwrap_or(&[]);
+                if chunk.iter().all(|&x| x == 0) {
+                    continue;
+                }
+                let big: Vec<BigInt> = chunk.iter().map(|&x| BigInt::from(x)).collect();
+                let value = field.from_parts(&kernel.fold_big(&big), &one)?;
+                let term = field.mul(&value, &factor)?;
+                let acc = &mut self.exact[i * d + j];
+                *acc = field.add(acc, &term)?;
             }
-            let big: Vec<BigInt> = chunk.iter().map(|&x| BigInt::from(x)).collect();
-            let value = field.from_parts(&kernel.fold_big(&big), &one)?;
-            let term = field.mul(&value, &factor)?;
-            let (i, j) = (cell / d, cell % d);
-            let acc = &mut self.exact[i * d + j];
-            *acc = field.add(acc, &term)?;
         }
         Ok(())
     }
@@ -499,5 +543,51 @@ impl<'a> Partial<'a> {
     fn finish(mut self) -> Result<Vec<Cyc>, OrbitError> {
         self.flush_all()?;
         Ok(self.exact)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::engine::{OrbitOptions, Silent};
+    use crate::generators::{GeneratorSet, Seed};
+    use cyclorb_matrix::Operator;
+
+    #[test]
+    fn evicting_open_sums_does_not_change_b() {
+        // Ising at genus 1 (Castro, Gaberdiel, Hartman, Maloney, Volpato, Phys. Rev. D 85
+        // (2012) 024032: B = 8·I), with one open integer sum per thread so that every new
+        // value of ⟨S, S⟩ evicts the previous one.
+        let f = CyclotomicField::new(16).unwrap();
+        let e = |t: &str| f.parse(t).unwrap();
+        let s = Matrix::from_rows(vec![
+            vec![e("1/2"), e("sqrt(2)/2"), e("1/2")],
+            vec![e("sqrt(2)/2"), e("0"), e("-sqrt(2)/2")],
+            vec![e("1/2"), e("-sqrt(2)/2"), e("1/2")],
+        ])
+        .unwrap();
+        let generators = GeneratorSet {
+            conductor: 16,
+            dimension: 3,
+            names: vec!["T".into(), "S".into()],
+            operators: vec![
+                Operator::Diagonal(vec![e("1"), e("z"), e("-1")]),
+                Operator::Dense(s),
+            ],
+            basis_labels: Vec::new(),
+            form: None,
+            theory: None,
+            genus: None,
+        };
+        let problem = OrbitProblem::new(generators, &Seed::basis_vector(&f, 3, 0)).unwrap();
+        let orbit = problem
+            .enumerate(&OrbitOptions::default(), &mut Silent)
+            .unwrap();
+        let g = vec![f.one(); 3];
+        let norm = f.one();
+        let roomy = problem.sum_matrix(&orbit, 1, &g, &norm, None).unwrap();
+        let tight = problem.sum_matrix(&orbit, 2, &g, &norm, Some(1)).unwrap();
+        assert_eq!(tight, roomy);
+        assert_eq!(roomy, Matrix::identity(&f, 3).scale(&f, &f.int(8)).unwrap());
     }
 }

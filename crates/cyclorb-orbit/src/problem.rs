@@ -24,6 +24,10 @@ pub struct OrbitProblem {
     pub(crate) compiled: Vec<Option<CompiledOperator>>,
     pub(crate) fingerprinter: Fingerprinter,
     pub(crate) seed_key: KeyNumbers,
+    /// For each numerator position i·φ + t: its block i and its slot t (no division in the
+    /// hot loops).
+    pub(crate) block_of: Vec<u32>,
+    pub(crate) slot_of: Vec<u32>,
     content_hash: u128,
 }
 
@@ -52,6 +56,10 @@ impl OrbitProblem {
         let fingerprinter =
             Fingerprinter::new(&field, generators.dimension).map_err(OrbitError::Arithmetic)?;
         let content_hash = content_hash(&generators, &seed);
+        let phi = kernel.degree();
+        let positions = generators.dimension * phi;
+        let block_of = (0..positions).map(|i| (i / phi) as u32).collect();
+        let slot_of = (0..positions).map(|i| (i % phi) as u32).collect();
         Ok(OrbitProblem {
             field,
             generators,
@@ -60,6 +68,8 @@ impl OrbitProblem {
             compiled,
             fingerprinter,
             seed_key,
+            block_of,
+            slot_of,
             content_hash,
         })
     }
