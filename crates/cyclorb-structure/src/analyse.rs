@@ -3,9 +3,7 @@
 
 use std::time::Instant;
 
-use cyclorb_cert::{
-    commutant, permutation_group_summary, CommutantCertificate, CommutantOptions, GeneratorSet,
-};
+use cyclorb_cert::{commutant, permutation_group_summary, CommutantOptions, GeneratorSet};
 use cyclorb_field::{Cyc, CyclotomicField, Rational};
 use cyclorb_matrix::Operator;
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
@@ -15,14 +13,15 @@ use num_traits::Zero;
 
 use crate::chain::MonomialChain;
 use crate::error::{require, StructureError};
+use crate::irreducible::{check_irreducibility, monomial_irreducibility, separating_diagonals};
 use crate::lattice::ModLattice;
 use crate::monomial::{Monomial, MonomialForm};
 use crate::orbit::{count_orbit, OrbitCount};
 use crate::power::{candidate_powers, power_candidate, twist_order};
 use crate::refine::Refinement;
 use crate::report::{
-    ChainCertificate, ImageReport, KernelCertificate, OrbitReport, StructureCertificate,
-    StructureReport,
+    ChainCertificate, CommutantProof, ImageReport, KernelCertificate, OrbitReport,
+    StructureCertificate, StructureReport,
 };
 use crate::roots::RootsOfUnity;
 use crate::sparse::{inner, ColumnMap, SparseVec};
@@ -182,30 +181,6 @@ fn support_exponents(
     Ok((support, epsilon))
 }
 
-/// Diagonal elements of K chosen greedily until they separate as many coordinates as K
-/// does (each one kept splits some class of coordinates with equal phases further).
-fn separating_diagonals(kernel: &ModLattice) -> Vec<Vec<u32>> {
-    let d = kernel.dim();
-    let mut classes: Vec<Vec<u32>> = vec![Vec::new(); d];
-    let mut count = 1;
-    let mut chosen = Vec::new();
-    for g in kernel.generators() {
-        let mut refined: Vec<Vec<u32>> = classes.clone();
-        for (i, class) in refined.iter_mut().enumerate() {
-            class.push(g[i]);
-        }
-        let mut distinct = refined.clone();
-        distinct.sort();
-        distinct.dedup();
-        if distinct.len() > count {
-            count = distinct.len();
-            classes = refined;
-            chosen.push(g);
-        }
-    }
-    chosen
-}
-
 /// The monomial generators (and chosen diagonal elements of K) as a generator set over
 /// Q(ζ_n), for the commutant certificate.
 fn monomial_generator_set(
@@ -303,15 +278,65 @@ fn sparse_parse(
     Ok(SparseVec(out))
 }
 
+/// The commutant: the monomial lemma when K separates the coordinates and P is
+/// transitive, otherwise cyclorb-cert's certificate on the monomial generators and a few
+/// separating elements of K.
+fn prove_commutant(
+    field: &CyclotomicField,
+    roots: &RootsOfUnity,
+    names: &[String],
+    form: &MonomialForm,
+    kernel: &ModLattice,
+    primes: usize,
+) -> Result<CommutantProof, StructureError> {
+    if let Some(separating) = monomial_irreducibility(kernel, &form.generators) {
+        return Ok(CommutantProof::Monomial { separating });
+    }
+    let diagonals = separating_diagonals(kernel);
+    let gens = monomial_generator_set(field, roots, names, &form.generators, &diagonals)?;
+    let certificate = commutant(&gens, CommutantOptions { primes })?;
+    Ok(CommutantProof::Solved {
+        certificate,
+        diagonals,
+    })
+}
+
+fn check_commutant(
+    proof: &CommutantProof,
+    field: &CyclotomicField,
+    roots: &RootsOfUnity,
+    names: &[String],
+    form: &MonomialForm,
+    kernel: &ModLattice,
+) -> Result<(), StructureError> {
+    match proof {
+        CommutantProof::Monomial { separating } => {
+            check_irreducibility(kernel, &form.generators, separating)
+        }
+        CommutantProof::Solved {
+            certificate,
+            diagonals,
+        } => {
+            for x in diagonals {
+                require(x.len() == kernel.dim() && kernel.contains(x), || {
+                    "a diagonal generator of the commutant system is not in the kernel".into()
+                })?;
+            }
+            let gens = monomial_generator_set(field, roots, names, &form.generators, diagonals)?;
+            Ok(certificate.verify(&gens)?)
+        }
+    }
+}
+
 /// λ = |orbit|·⟨v₀, v₀⟩_G / dim when the commutant is the scalars (Schur: Σ v v† = λ G⁻¹,
 /// and the trace of Σ v v† G is |orbit|·⟨v₀, v₀⟩_G).
 fn prefactor(
     orbit_size: &BigUint,
     vacuum_norm: &Cyc,
     dim: usize,
-    commutant: &CommutantCertificate,
+    commutant: &CommutantProof,
 ) -> Option<String> {
-    if !commutant.is_irreducible() {
+    if commutant.dimension() != 1 {
         return None;
     }
     let (p, q) = vacuum_norm.as_rational()?;
@@ -347,19 +372,13 @@ pub fn analyse(
     let vacuum = space.basis().vacuum();
     let expansion = vacuum_expansion(field, space.form(), &form.basis, vacuum)?;
     let derived = derive(field, &roots, &form, &expansion)?;
-    let diagonals = separating_diagonals(derived.chain.kernel());
-    let gens = monomial_generator_set(
+    let commutant = prove_commutant(
         field,
         &roots,
         &generators.names,
-        &form.generators,
-        &diagonals,
-    )?;
-    let commutant_certificate = commutant(
-        &gens,
-        CommutantOptions {
-            primes: options.commutant_primes,
-        },
+        &form,
+        derived.chain.kernel(),
+        options.commutant_primes,
     )?;
     let vacuum_norm = space.form()[vacuum].clone();
     let kernel = derived.chain.kernel();
@@ -383,9 +402,9 @@ pub fn analyse(
         &orbit.orbit_size,
         &vacuum_norm,
         space.dimension(),
-        &commutant_certificate,
+        &commutant,
     );
-    let commutant_dimension = commutant_certificate.dimension;
+    let commutant_dimension = commutant.dimension();
     let certificate = StructureCertificate {
         theory: theory.name().to_string(),
         genus: space.genus(),
@@ -403,8 +422,7 @@ pub fn analyse(
         supports: orbit.supports.to_string(),
         patterns_per_support: orbit.patterns_per_support.to_string(),
         orbit_size: orbit.orbit_size.to_string(),
-        commutant: commutant_certificate,
-        commutant_diagonals: diagonals,
+        commutant,
     };
     Ok(StructureReport {
         theory: theory.name().to_string(),
@@ -435,8 +453,9 @@ pub fn analyse(
 /// vector; the vacuum expansion sums to the vacuum. From these verified monomial
 /// generators the chain, the kernel, the image order and the orbit count are derived
 /// again and compared field by field; the order of the permutation image is recomputed by
-/// cyclorb-cert's independent Schreier–Sims; the commutant certificate is verified, after
-/// checking that its extra diagonal generators lie in the kernel.
+/// cyclorb-cert's independent Schreier–Sims; the commutant proof is checked (the monomial
+/// lemma's hypotheses, or cyclorb-cert's certificate after checking that its extra
+/// diagonal generators lie in the kernel).
 pub fn recheck(
     space: &BlockSpace,
     certificate: &StructureCertificate,
@@ -520,18 +539,13 @@ pub fn recheck(
             && derived.orbit.orbit_size.to_string() == certificate.orbit_size,
         || "the image order or the orbit count differ".into(),
     )?;
-    for x in &certificate.commutant_diagonals {
-        require(x.len() == dim && derived.chain.kernel().contains(x), || {
-            "a commutant diagonal is not in the kernel".into()
-        })?;
-    }
-    let gens = monomial_generator_set(
+    check_commutant(
+        &certificate.commutant,
         field,
         &roots,
         &generators.names,
-        &form.generators,
-        &certificate.commutant_diagonals,
+        &form,
+        derived.chain.kernel(),
     )?;
-    certificate.commutant.verify(&gens)?;
     Ok(())
 }

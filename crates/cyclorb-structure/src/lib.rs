@@ -27,9 +27,11 @@
 //! 5. **The orbit** (module `orbit`): supports (orbit of the vacuum's support under P)
 //!    times phase patterns per support (orbit of 0 in (Z/m)^{S₀}/(D + Z𝟙) under the
 //!    support's stabiliser, D its diagonal part).
-//! 6. **The prefactor**: λ = |orbit|·⟨v₀, v₀⟩_G / dim when the commutant is 1-dimensional
-//!    (cyclorb-cert's commutant certificate, on the monomial generators plus a few
-//!    diagonal elements of K).
+//! 6. **The prefactor**: λ = |orbit|·⟨v₀, v₀⟩_G / dim when the commutant is 1-dimensional.
+//!    Irreducibility is proved by Schur's lemma in the monomial basis when K separates
+//!    the coordinates and P is transitive (module `irreducible`: X commuting with K is
+//!    diagonal, commuting with a transitive P it is scalar); otherwise by cyclorb-cert's
+//!    commutant certificate on the monomial generators plus a few diagonal elements of K.
 //!
 //! ```
 //! use cyclorb_structure::{analyse_spec, recheck, StructureOptions};
@@ -56,6 +58,7 @@
 mod analyse;
 mod chain;
 mod error;
+mod irreducible;
 mod lattice;
 mod monomial;
 mod orbit;
@@ -73,8 +76,8 @@ pub use lattice::ModLattice;
 pub use monomial::{Monomial, MonomialForm};
 pub use orbit::OrbitCount;
 pub use report::{
-    ChainCertificate, ImageReport, KernelCertificate, OrbitReport, StructureCertificate,
-    StructureReport,
+    ChainCertificate, CommutantProof, ImageReport, KernelCertificate, OrbitReport,
+    StructureCertificate, StructureReport,
 };
 pub use roots::RootsOfUnity;
 pub use sparse::{ColumnMap, SparseVec};

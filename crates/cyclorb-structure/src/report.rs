@@ -143,10 +143,37 @@ pub struct StructureCertificate {
     pub patterns_per_support: String,
     /// The orbit size.
     pub orbit_size: String,
-    /// Irreducibility (or not) of the generators in the monomial basis, together with the
-    /// diagonal elements of K named `kernel0`, `kernel1`, … (they lie in the group, so the
-    /// commutant is the same).
-    pub commutant: CommutantCertificate,
-    /// The kernel elements added to the commutant's generator set (phase exponents).
-    pub commutant_diagonals: Vec<Vec<u32>>,
+    /// The commutant: irreducibility by the monomial lemma, or cyclorb-cert's certificate.
+    pub commutant: CommutantProof,
+}
+
+/// How the commutant dimension is proved.
+#[derive(Clone, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(tag = "route", rename_all = "snake_case")]
+pub enum CommutantProof {
+    /// Irreducible: these elements of K separate the coordinates and P is transitive
+    /// (Schur's lemma in the monomial basis; see the crate documentation).
+    Monomial {
+        /// Elements of K (phase exponents) whose signatures separate the coordinates.
+        separating: Vec<Vec<u32>>,
+    },
+    /// cyclorb-cert's commutant certificate for the monomial generators together with the
+    /// diagonal elements `diagonals` of K, named `kernel0`, `kernel1`, … (they lie in
+    /// the group, so the commutant is the same).
+    Solved {
+        /// The certificate.
+        certificate: CommutantCertificate,
+        /// The diagonal generators added (phase exponents).
+        diagonals: Vec<Vec<u32>>,
+    },
+}
+
+impl CommutantProof {
+    /// The commutant dimension (1: irreducible).
+    pub fn dimension(&self) -> usize {
+        match self {
+            CommutantProof::Monomial { .. } => 1,
+            CommutantProof::Solved { certificate, .. } => certificate.dimension,
+        }
+    }
 }
