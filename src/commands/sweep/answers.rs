@@ -59,9 +59,14 @@ fn enumerated(
             route: "enumeration".into(),
             note: passed_over,
         }),
-        ImageEnumeration::Exceeds { cap } => Ok(undecided(format!(
-            "the image has more than {cap} elements (image.enumeration_cap)"
-        ))),
+        ImageEnumeration::Exceeds { cap } => {
+            let exceeded =
+                format!("the image has more than {cap} elements (image.enumeration_cap)");
+            Ok(undecided(match passed_over {
+                Some(before) => format!("{before}; {exceeded}"),
+                None => exceeded,
+            }))
+        }
     }
 }
 

@@ -130,10 +130,10 @@ fn dry_run(plan: &Plan, sched: &Schedule, as_json: bool) -> Outcome {
     );
     for r in &sched.runs {
         text.push_str(&format!(
-            "  {:<28} dim {:>7}  Q(ζ_{})  {}\n",
+            "  {:<28} dim {:>7}  {:<9} {}\n",
             r.id,
             r.dimension(),
-            r.space.theory().conductor(),
+            format!("Q(ζ_{})", r.space.theory().conductor()),
             r.answers
                 .iter()
                 .map(|a| a.name())

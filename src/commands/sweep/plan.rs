@@ -492,6 +492,16 @@ mod tests {
     }
 
     #[test]
+    fn files_are_read_relative_to_the_plan() {
+        let text = "[[theory]]\nfile = \"../t/z.json\"\ngenera = [1]\n";
+        let plan = parse_plan(Path::new("plans/p.toml"), text.to_string()).unwrap();
+        let e = &plan.entries[0];
+        assert_eq!(e.source, Source::File(PathBuf::from("plans/../t/z.json")));
+        assert_eq!(e.label, "z");
+        assert_eq!(e.location.line, 2);
+    }
+
+    #[test]
     fn refusals_name_the_line() {
         let cases = [
             (

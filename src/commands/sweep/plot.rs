@@ -2,8 +2,8 @@
 //! drawn as plain SVG text (no plotting library: two panels of lines, markers, ticks and
 //! a legend are a few hundred bytes of markup each).
 //!
-//! Saturated runs are filled dots joined by solid lines. A run stopped at its cap is a
-//! hollow dot with an upward arrow at N, the number of lines found: the orbit has at least
+//! Saturated runs are filled markers joined by solid lines. A run stopped at its cap is a
+//! hollow marker with an upward arrow at N, the number of lines found: the orbit has at least
 //! N lines, so the point is a lower bound, joined by a dashed line. λ_g exists only for
 //! saturated orbits with B = λ_g·G⁻¹. Coordinates are floating-point for drawing only.
 
@@ -11,6 +11,9 @@ use super::result::RunResult;
 
 /// One theory's points: (genus, log₁₀ value, saturated).
 struct Series {
+    /// The theory spec (runs of one spec under several labels share a line).
+    theory: String,
+    /// The label of its first run, for the legend.
     label: String,
     orbit: Vec<(usize, f64, bool)>,
     lambda: Vec<(usize, f64)>,
@@ -69,10 +72,11 @@ fn escape(text: &str) -> String {
 fn series_of(rows: &[&RunResult]) -> Vec<Series> {
     let mut all: Vec<Series> = Vec::new();
     for r in rows {
-        let index = match all.iter().position(|s| s.label == r.label) {
+        let index = match all.iter().position(|s| s.theory == r.theory) {
             Some(i) => i,
             None => {
                 all.push(Series {
+                    theory: r.theory.clone(),
                     label: r.label.clone(),
                     orbit: Vec::new(),
                     lambda: Vec::new(),
@@ -182,15 +186,63 @@ fn polyline(points: &[(f64, f64)], colour: &str, dashed: bool) -> String {
     )
 }
 
-fn dot(x: f64, y: f64, colour: &str, filled: bool) -> String {
+/// Marker shapes, cycled with the colours so that neighbouring theories differ in both.
+#[derive(Clone, Copy)]
+enum Shape {
+    Circle,
+    Square,
+    Triangle,
+    Diamond,
+}
+
+const SHAPES: [Shape; 4] = [
+    Shape::Circle,
+    Shape::Square,
+    Shape::Triangle,
+    Shape::Diamond,
+];
+
+/// Colour and shape of series `i`: colours cycle fastest, shapes change every palette.
+fn style(i: usize) -> (&'static str, Shape) {
+    (
+        PALETTE[i % PALETTE.len()],
+        SHAPES[(i / PALETTE.len() + i) % SHAPES.len()],
+    )
+}
+
+fn marker(x: f64, y: f64, (colour, shape): (&str, Shape), filled: bool) -> String {
     let fill = if filled { colour } else { "white" };
-    let mut s = format!(
-        "<circle cx=\"{x:.1}\" cy=\"{y:.1}\" r=\"4.5\" fill=\"{fill}\" stroke=\"{colour}\" stroke-width=\"2\"/>\n"
-    );
+    let paint = format!("fill=\"{fill}\" stroke=\"{colour}\" stroke-width=\"2\"");
+    let r = 4.5;
+    let mut s = match shape {
+        Shape::Circle => format!("<circle cx=\"{x:.1}\" cy=\"{y:.1}\" r=\"{r}\" {paint}/>\n"),
+        Shape::Square => format!(
+            "<rect x=\"{:.1}\" y=\"{:.1}\" width=\"{:.1}\" height=\"{:.1}\" {paint}/>\n",
+            x - r,
+            y - r,
+            2.0 * r,
+            2.0 * r
+        ),
+        Shape::Triangle => format!(
+            "<path d=\"M{x:.1},{:.1} L{:.1},{:.1} L{:.1},{:.1} Z\" {paint}/>\n",
+            y - r - 1.0,
+            x + r + 0.5,
+            y + r,
+            x - r - 0.5,
+            y + r
+        ),
+        Shape::Diamond => format!(
+            "<path d=\"M{x:.1},{:.1} L{:.1},{y:.1} L{x:.1},{:.1} L{:.1},{y:.1} Z\" {paint}/>\n",
+            y - r - 1.0,
+            x + r + 1.0,
+            y + r + 1.0,
+            x - r - 1.0
+        ),
+    };
     if !filled {
         s.push_str(&format!(
             "<path d=\"M{x:.1},{:.1} L{x:.1},{:.1} M{:.1},{:.1} L{x:.1},{:.1} L{:.1},{:.1}\" fill=\"none\" stroke=\"{colour}\" stroke-width=\"2\"/>\n",
-            y - 6.0,
+            y - 7.0,
             y - 22.0,
             x - 5.0,
             y - 16.0,
@@ -234,11 +286,14 @@ pub fn growth_svg(rows: &[&RunResult]) -> String {
     svg.push_str(&orbit_panel.frame("orbit size (lines of the vacuum)"));
     svg.push_str(&lambda_panel.frame("prefactor λ_g (B = λ_g·G⁻¹)"));
     for (i, s) in series.iter().enumerate() {
-        let colour = PALETTE[i % PALETTE.len()];
+        let look = style(i);
+        let colour = look.0;
+        // a small sideways shift per theory keeps coinciding points apart
+        let shift = (i as f64 - (series.len() as f64 - 1.0) / 2.0) * 2.5;
         let pts: Vec<(f64, f64, bool)> = s
             .orbit
             .iter()
-            .map(|&(g, v, sat)| (orbit_panel.x(g), orbit_panel.y(v), sat))
+            .map(|&(g, v, sat)| (orbit_panel.x(g) + shift, orbit_panel.y(v), sat))
             .collect();
         for pair in pts.windows(2) {
             let dashed = !(pair[0].2 && pair[1].2);
@@ -249,21 +304,22 @@ pub fn growth_svg(rows: &[&RunResult]) -> String {
             ));
         }
         for &(x, y, sat) in &pts {
-            svg.push_str(&dot(x, y, colour, sat));
+            svg.push_str(&marker(x, y, look, sat));
         }
         let lpts: Vec<(f64, f64)> = s
             .lambda
             .iter()
-            .map(|&(g, v)| (lambda_panel.x(g), lambda_panel.y(v)))
+            .map(|&(g, v)| (lambda_panel.x(g) + shift, lambda_panel.y(v)))
             .collect();
         svg.push_str(&polyline(&lpts, colour, false));
         for &(x, y) in &lpts {
-            svg.push_str(&dot(x, y, colour, true));
+            svg.push_str(&marker(x, y, look, true));
         }
     }
     let legend_top = TOP + PANEL_H + 62.0;
     for (i, s) in series.iter().enumerate() {
-        let colour = PALETTE[i % PALETTE.len()];
+        let look = style(i);
+        let colour = look.0;
         let x = LEFT + (i % 4) as f64 * 200.0;
         let y = legend_top + (i / 4) as f64 * 22.0;
         svg.push_str(&format!(
@@ -274,10 +330,11 @@ pub fn growth_svg(rows: &[&RunResult]) -> String {
             y + 4.0,
             escape(&s.label)
         ));
+        svg.push_str(&marker(x + 12.0, y, look, true));
     }
     svg.push_str(&format!(
-        "<text x=\"{LEFT}\" y=\"{:.1}\" font-size=\"12\" fill=\"#444\">filled dot: orbit closed · \
-         hollow dot with arrow, dashed: not closed, at least N lines (stopped at a cap)</text>\n</svg>\n",
+        "<text x=\"{LEFT}\" y=\"{:.1}\" font-size=\"12\" fill=\"#444\">filled marker: orbit closed · \
+         hollow marker with arrow, dashed: not closed, at least N lines (stopped at a cap)</text>\n</svg>\n",
         legend_top + legend_rows as f64 * 22.0 + 6.0
     ));
     svg

@@ -51,9 +51,22 @@ pub enum RunEnd {
     Interrupted,
 }
 
-/// Reset the peak-resident-memory counter (Linux: writing 5 to /proc/self/clear_refs), so
-/// each run reports its own peak. Where that is not possible the peak is the process's.
+/// Give freed heap pages back to the system (glibc's `malloc_trim`) and reset the
+/// peak-resident-memory counter (Linux: 5 written to /proc/self/clear_refs sets VmHWM to
+/// the current resident size), so each run reports its own peak rather than the largest
+/// of the sweep so far. Where either is unavailable the peak is the process's.
 fn reset_peak_memory() {
+    #[cfg(all(target_os = "linux", target_env = "gnu"))]
+    {
+        extern "C" {
+            /// `int malloc_trim(size_t pad)` from the C library.
+            fn malloc_trim(pad: usize) -> i32;
+        }
+        // SAFETY: malloc_trim only returns free pages of the allocator to the system.
+        unsafe {
+            malloc_trim(0);
+        }
+    }
     let _ = std::fs::write("/proc/self/clear_refs", "5");
 }
 
