@@ -17,7 +17,7 @@ use crate::irreducible::{check_irreducibility, monomial_irreducibility, separati
 use crate::lattice::ModLattice;
 use crate::monomial::{Monomial, MonomialForm};
 use crate::orbit::{count_orbit, OrbitCount};
-use crate::power::{candidate_powers, power_candidate, twist_order};
+use crate::power::{candidate_powers, power_candidate, twist_order, PowerCandidate};
 use crate::refine::Refinement;
 use crate::report::{
     ChainCertificate, CommutantProof, ImageReport, KernelCertificate, OrbitReport,
@@ -91,20 +91,9 @@ fn find_monomial_form(
                 continue;
             }
         };
-        let mut refinement = Refinement::new(field, space.form());
-        refinement.split_by_eigenspaces(&candidate)?;
-        refinement.stabilise(&refiners)?;
-        let dimensions = refinement.dimensions();
-        let Some(lines) = refinement.lines() else {
-            let largest = dimensions.iter().max().copied().unwrap_or(0);
-            reasons.push(format!(
-                "k = {k}: the normal closure of the k-th powers has {} joint \
-                 eigenspaces, the largest of dimension {largest}",
-                dimensions.len()
-            ));
-            continue;
-        };
-        match MonomialForm::from_lines(field, roots, &generators.maps, lines) {
+        match lines_of(field, space.form(), &candidate, &refiners)
+            .and_then(|lines| MonomialForm::from_lines(field, roots, &generators.maps, lines))
+        {
             Ok(form) => return Ok((k, form)),
             Err(StructureError::Absent(reason)) => reasons.push(format!("k = {k}: {reason}")),
             Err(e) => return Err(e),
@@ -116,6 +105,27 @@ fn find_monomial_form(
         ));
     }
     Err(StructureError::Absent(reasons.join("; ")))
+}
+
+/// The joint eigenlines proposed by refinement for one candidate power, or why not.
+fn lines_of(
+    field: &CyclotomicField,
+    form: &[Cyc],
+    candidate: &PowerCandidate,
+    refiners: &[ColumnMap],
+) -> Result<Vec<SparseVec>, StructureError> {
+    let mut refinement = Refinement::new(field, form);
+    refinement.split_by_eigenspaces(candidate)?;
+    refinement.stabilise(refiners)?;
+    let dimensions = refinement.dimensions();
+    refinement.lines().ok_or_else(|| {
+        StructureError::Absent(format!(
+            "the normal closure of the k-th powers has {} joint eigenspaces, the largest \
+             of dimension {}",
+            dimensions.len(),
+            dimensions.iter().max().copied().unwrap_or(0)
+        ))
+    })
 }
 
 /// v₀ = e_vac in the monomial basis: c_j = ⟨e_j, e_vac⟩_G / ⟨e_j, e_j⟩_G, then

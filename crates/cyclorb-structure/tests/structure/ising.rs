@@ -123,7 +123,6 @@ fn a_pointed_theory_with_the_structure_agrees_with_brute_force() {
 }
 
 #[test]
-#[ignore = "timed run, about 10 s in release: cargo test --release -p cyclorb-structure -- --ignored"]
 fn genus_four_has_the_symplectic_counts_and_rechecks() {
     let space = space("ising", 4);
     // Verlinde: dim V_4 = 136 for Ising (math.md §4.1)
