@@ -99,6 +99,10 @@ struct Partial<'a> {
     /// (position in block, value) of the non-zero coefficients of S_i and of conj(S_i).
     s_list: Vec<(usize, i64)>,
     c_list: Vec<(usize, i64)>,
+    /// ⟨S, S⟩ scaled to integers (q) and scratch for computing it.
+    q: Vec<i128>,
+    product: Vec<i128>,
+    folded: Vec<i128>,
 }
 
 /// One non-zero block of a key: its index and its coefficient ranges.
@@ -312,6 +316,9 @@ impl<'a> Partial<'a> {
             blocks: Vec::new(),
             s_list: Vec::new(),
             c_list: Vec::new(),
+            q: Vec::new(),
+            product: Vec::new(),
+            folded: Vec::new(),
         }
     }
 
@@ -379,15 +386,15 @@ impl<'a> Partial<'a> {
                 c: c_start..self.c_list.len(),
             });
         }
-        let Some(q) = self.form_value() else {
+        if self.form_value().is_none() {
             return Ok(false);
-        };
-        if q.iter().all(|&x| x == 0) {
+        }
+        if self.q.iter().all(|&x| x == 0) {
             return Err(OrbitError::Invalid(
                 "a line of the orbit is isotropic for the form (⟨w, w⟩_G = 0)".into(),
             ));
         }
-        if !self.open.contains_key(&q) && self.open.len() >= self.max_open {
+        if !self.open.contains_key(self.q.as_slice()) && self.open.len() >= self.max_open {
             let oldest = self
                 .open
                 .iter()
@@ -401,17 +408,24 @@ impl<'a> Partial<'a> {
         let wide = 2 * phi - 1;
         let needs_flush = self
             .open
-            .get(&q)
+            .get(self.q.as_slice())
             .is_some_and(|s| s.bound.saturating_add(term_bound) >= 1 << 126);
         if needs_flush {
+            let q = self.q.clone();
             self.flush(&q)?;
         }
-        let pairs = d * (d + 1) / 2;
-        let entry = self.open.entry(q).or_insert_with(|| OpenSum {
-            sums: vec![0; pairs * wide],
-            bound: 0,
-            last_used: 0,
-        });
+        if !self.open.contains_key(self.q.as_slice()) {
+            let pairs = d * (d + 1) / 2;
+            let fresh = OpenSum {
+                sums: vec![0; pairs * wide],
+                bound: 0,
+                last_used: 0,
+            };
+            self.open.insert(self.q.clone(), fresh);
+        }
+        let Some(entry) = self.open.get_mut(self.q.as_slice()) else {
+            return Ok(false);
+        };
         entry.bound += term_bound;
         entry.last_used = self.clock;
         for (a, bi) in self.blocks.iter().enumerate() {
@@ -429,11 +443,31 @@ impl<'a> Partial<'a> {
     }
 
     /// q = Σ_i G'_i S_i conj(S_i) reduced mod Φ_n (checked; `None` on overflow).
-    fn form_value(&self) -> Option<Vec<i128>> {
+    /// (into `self.q`).
+    fn form_value(&mut self) -> Option<()> {
+        let phi = self.problem.kernel.degree();
+        let mut q = std::mem::take(&mut self.q);
+        let mut product = std::mem::take(&mut self.product);
+        let mut folded = std::mem::take(&mut self.folded);
+        q.clear();
+        q.resize(phi, 0);
+        product.resize(2 * phi - 1, 0);
+        folded.resize(phi, 0);
+        let result = self.form_value_into(&mut q, &mut product, &mut folded);
+        self.q = q;
+        self.product = product;
+        self.folded = folded;
+        result
+    }
+
+    fn form_value_into(
+        &self,
+        q: &mut [i128],
+        product: &mut [i128],
+        folded: &mut [i128],
+    ) -> Option<()> {
         let kernel = &self.problem.kernel;
         let phi = kernel.degree();
-        let mut q = vec![0i128; phi];
-        let mut product = vec![0i128; 2 * phi - 1];
         for entries in &self.blocks {
             let i = entries.block;
             product.fill(0);
@@ -443,7 +477,7 @@ impl<'a> Partial<'a> {
                         product[a + b].checked_add((x as i128).checked_mul(y as i128)?)?;
                 }
             }
-            let mut folded = vec![0i128; phi];
+            folded.fill(0);
             for (e, &p) in product.iter().enumerate() {
                 if p == 0 {
                     continue;
@@ -455,7 +489,7 @@ impl<'a> Partial<'a> {
             match &self.form.entries {
                 FormEntries::TooLarge => return None,
                 FormEntries::Identity => {
-                    for (acc, x) in q.iter_mut().zip(&folded) {
+                    for (acc, x) in q.iter_mut().zip(folded.iter()) {
                         *acc = acc.checked_add(*x)?;
                     }
                 }
@@ -469,7 +503,7 @@ impl<'a> Partial<'a> {
                 }
             }
         }
-        Some(q)
+        Some(())
     }
 
     /// Add (N·E/q)·A_q to the exact part and drop the integer sum.

@@ -10,8 +10,8 @@
 //! no real key has). Keys are addressed by 32-bit offsets from a base per segment of keys.
 //!
 //! The arena and the record vectors grow by an eighth at a time (not by doubling), so the
-//! store stays close to its payload. The table holds element indices only; the fingerprints
-//! sit in a parallel vector, so a probe compares fingerprints before it compares keys.
+//! store stays close to its payload. A table slot holds an element index and its 32-bit
+//! fingerprint, so a probe compares fingerprints before it touches a key.
 
 use hashbrown::{HashMap, HashTable};
 use num_bigint::BigInt;
@@ -356,7 +356,14 @@ fn encode_into(bytes: &mut Vec<u8>, width: Width, phi: usize, numbers: &[i64]) {
     }
 }
 
-/// The elements found so far: keys, Schreier records, fingerprints and the lookup table.
+/// A hash-table slot: an element and its fingerprint.
+#[derive(Debug, Clone, Copy)]
+struct Slot {
+    index: u32,
+    fingerprint: u32,
+}
+
+/// The elements found so far: keys, Schreier records and the lookup table.
 #[derive(Debug, Clone)]
 pub(crate) struct OrbitSet {
     pub(crate) keys: KeyArena,
@@ -364,8 +371,7 @@ pub(crate) struct OrbitSet {
     pub(crate) parents: Vec<u32>,
     /// Generator that maps the parent to the element (u16::MAX for the seed).
     pub(crate) generators: Vec<u16>,
-    fingerprints: Vec<u32>,
-    table: HashTable<u32>,
+    table: HashTable<Slot>,
 }
 
 impl OrbitSet {
@@ -374,7 +380,6 @@ impl OrbitSet {
             keys: KeyArena::new(blocks, phi),
             parents: Vec::new(),
             generators: Vec::new(),
-            fingerprints: Vec::new(),
             table: HashTable::new(),
         }
     }
@@ -387,16 +392,19 @@ impl OrbitSet {
         fingerprints: Vec<u32>,
     ) -> OrbitSet {
         let mut table = HashTable::with_capacity(fingerprints.len());
-        for (i, &fp) in fingerprints.iter().enumerate() {
-            table.insert_unique(bucket_hash(fp), i as u32, |&j| {
-                bucket_hash(fingerprints[j as usize])
+        for (i, &fingerprint) in fingerprints.iter().enumerate() {
+            let slot = Slot {
+                index: i as u32,
+                fingerprint,
+            };
+            table.insert_unique(bucket_hash(fingerprint), slot, |s| {
+                bucket_hash(s.fingerprint)
             });
         }
         OrbitSet {
             keys,
             parents,
             generators,
-            fingerprints,
             table,
         }
     }
@@ -412,12 +420,11 @@ impl OrbitSet {
         fingerprint: u32,
         mut same: impl FnMut(usize) -> bool,
     ) -> Option<u32> {
-        let fps = &self.fingerprints;
         self.table
-            .find(bucket_hash(fingerprint), |&i| {
-                fps[i as usize] == fingerprint && same(i as usize)
+            .find(bucket_hash(fingerprint), |s| {
+                s.fingerprint == fingerprint && same(s.index as usize)
             })
-            .copied()
+            .map(|s| s.index)
     }
 
     /// Append a new element (the caller has checked it is new).
@@ -432,14 +439,12 @@ impl OrbitSet {
         self.keys.push(key);
         reserve_gently(&mut self.parents, 1);
         reserve_gently(&mut self.generators, 1);
-        reserve_gently(&mut self.fingerprints, 1);
         self.parents.push(parent);
         self.generators.push(generator);
-        self.fingerprints.push(fingerprint);
-        let fps = &self.fingerprints;
+        let slot = Slot { index, fingerprint };
         self.table
-            .insert_unique(bucket_hash(fingerprint), index, |&i| {
-                bucket_hash(fps[i as usize])
+            .insert_unique(bucket_hash(fingerprint), slot, |s| {
+                bucket_hash(s.fingerprint)
             });
     }
 
@@ -448,7 +453,6 @@ impl OrbitSet {
         self.keys.bytes_used()
             + self.parents.capacity() * 4
             + self.generators.capacity() * 2
-            + self.fingerprints.capacity() * 4
             + self.table.allocation_size()
     }
 }
