@@ -57,24 +57,29 @@
 
 mod analyse;
 mod chain;
+mod commutant;
 mod error;
 mod irreducible;
 mod lattice;
 mod monomial;
 mod orbit;
 mod power;
+mod recheck;
 mod refine;
 mod report;
 mod roots;
+mod search;
 mod smith;
 mod sparse;
+mod vacuum;
 
-pub use analyse::{analyse, analyse_spec, recheck, StructureOptions};
+pub use analyse::{analyse, analyse_spec, StructureOptions};
 pub use chain::MonomialChain;
 pub use error::StructureError;
 pub use lattice::ModLattice;
 pub use monomial::{Monomial, MonomialForm};
 pub use orbit::OrbitCount;
+pub use recheck::recheck;
 pub use report::{
     ChainCertificate, CommutantProof, ImageReport, KernelCertificate, OrbitReport,
     StructureCertificate, StructureReport,
