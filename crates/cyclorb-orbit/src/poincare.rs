@@ -16,7 +16,7 @@
 //! basis) is tested entry by entry, and when it fails B is decomposed over the invariant
 //! matrices ([`crate::commutant`]).
 
-use cyclorb_field::{Cyc, CyclotomicField, DotAccumulator};
+use cyclorb_field::{Cyc, CyclotomicField, DotAccumulator, Rational};
 use cyclorb_matrix::Matrix;
 use hashbrown::HashMap;
 use num_bigint::BigInt;
@@ -47,6 +47,15 @@ pub struct PoincareSum {
     /// When B is not scalar: B over a basis of the invariant matrices (`None` when the
     /// commutant was too large to compute).
     pub decomposition: Option<Decomposition>,
+}
+
+impl PoincareSum {
+    /// λ as an exact rational, when B = λ·G⁻¹ and λ ∈ Q (always, for a rational seed norm:
+    /// tr(B·G) = |orbit|·N forces λ = |orbit|·N/d).
+    pub fn prefactor(&self) -> Option<Rational> {
+        let (p, q) = self.scalar.as_ref()?.as_rational()?;
+        Rational::new(p, q)
+    }
 }
 
 /// Largest number of unknowns of the commutant system solved exactly.

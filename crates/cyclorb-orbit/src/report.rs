@@ -26,7 +26,8 @@ pub struct InvariantReport {
 pub struct PoincareReport {
     /// Whether B = λ·G⁻¹.
     pub is_scalar: Option<bool>,
-    /// λ (an exact rational such as `384` when it is rational).
+    /// λ: an exact rational such as `384` (the text of a cyclotomic number in the rare case
+    /// of an irrational seed norm).
     pub prefactor: Option<String>,
     /// N = ⟨v₀, v₀⟩_G of the seed.
     pub seed_norm: Option<String>,
@@ -95,7 +96,10 @@ impl PoincareReport {
     pub fn from_sum(sum: &PoincareSum) -> PoincareReport {
         let mut r = PoincareReport {
             is_scalar: Some(sum.scalar.is_some()),
-            prefactor: sum.scalar.as_ref().map(Cyc::to_string),
+            prefactor: match (sum.prefactor(), &sum.scalar) {
+                (Some(r), _) => Some(r.to_string()),
+                (None, scalar) => scalar.as_ref().map(Cyc::to_string),
+            },
             seed_norm: Some(sum.norm.to_string()),
             trace_check: Some(sum.trace_check),
             ..PoincareReport::default()

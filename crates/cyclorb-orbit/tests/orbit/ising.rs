@@ -20,6 +20,7 @@ fn ising_vacuum_orbit_has_24_lines_and_b_is_8() {
     let sum = problem.poincare_sum(&orbit, 1).unwrap();
     let f = problem.field();
     assert_eq!(sum.scalar, Some(f.int(8)));
+    assert_eq!(sum.prefactor(), Some(cyclorb_field::Rational::from_int(8)));
     assert!(sum.trace_check);
     assert_eq!(
         sum.matrix,
