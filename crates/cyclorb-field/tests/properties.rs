@@ -175,9 +175,13 @@ mod laws {
         let (f, mut rng) = setup(n, repr, "dot");
         for _ in 0..rounds {
             let len = rng.range(0, 12) as usize;
+            // mixed representations, and denominators other than powers of two (so the
+            // common denominator grows by odd factors while the sum is accumulated)
             let pick = |rng: &mut Rng| {
                 let r = if rng.one_in(4) { Repr::Small } else { repr };
-                element(&f, rng, r)
+                let x = element(&f, rng, r);
+                let q = [1, 3, 5, 7, 9, 12][rng.below(6) as usize];
+                f.mul(&x, &f.rational(rng.range(-3, 3), q).unwrap()).unwrap()
             };
             let xs: Vec<Cyc> = (0..len).map(|_| pick(&mut rng)).collect();
             let ys: Vec<Cyc> = (0..len).map(|_| pick(&mut rng)).collect();
