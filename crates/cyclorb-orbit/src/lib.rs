@@ -49,17 +49,22 @@
 //!
 //! ## Keys and equality
 //! A line is keyed by w = v / v_k, k its first non-zero coordinate, stored as integer
-//! numerators over one shared denominator (math.md §5). A fingerprint modulo two primes
-//! p ≡ 1 (mod n) picks the hash bucket; equality is always exact (see the `image` and
-//! `fingerprint` modules). No floating-point number takes part in any decision.
+//! numerators over one shared denominator (math.md §5). A 31-bit fingerprint, the reduction
+//! of the line modulo a prime p ≡ 1 (mod n), picks the hash bucket; equality is always
+//! decided exactly, by cross-multiplication D·U_i = U_k·S_i of an image U against a stored key
+//! S (see the `image` and `fingerprint` modules). No floating-point number takes part in any
+//! decision.
 //!
 //! ## Performance
-//! Generators are compiled once to sparse integer matrices acting on numerator vectors, so
-//! the search runs in machine integers with explicit overflow bounds, falling back to exact
-//! `Cyc` arithmetic (big integers) whenever a bound fails. A field inversion is needed only
-//! for new lines. Keys are packed at 1, 2, 4 or 8 bytes per numerator in one flat arena.
-//! The frontier is split over threads; insertion is sequential in a fixed order, so results
-//! do not depend on the thread count.
+//! Generators are compiled once to sparse integer matrices acting on numerator vectors
+//! (stored by columns: orbit vectors are sparse), so the search runs in machine integers
+//! with explicit overflow bounds, falling back to exact `Cyc` arithmetic (big integers)
+//! whenever a bound fails. A field inversion is needed only for a new line, and inverses of
+//! first coordinates are remembered. Keys are packed sparsely (bit masks of non-zero blocks
+//! and coefficients, then the coefficients at 1, 2, 4 or 8 bytes) in one flat arena. The
+//! frontier is split over threads; insertion is sequential in a fixed order, so results do
+//! not depend on the thread count. Ising at genus 3 (8 847 360 lines of Q(ζ16)^36) stores
+//! about 87 bytes per line.
 //!
 //! ## Untrusted input
 //! Generator-set and seed files are read with errors naming the file, the JSON path and the

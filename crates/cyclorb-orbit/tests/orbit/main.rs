@@ -8,3 +8,4 @@ mod groups;
 mod ising;
 mod poincare;
 mod runs;
+mod su2;
