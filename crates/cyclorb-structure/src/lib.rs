@@ -18,15 +18,17 @@
 //! 3. **The monomial form** ([`MonomialForm`]): the lines rescaled along a spanning tree
 //!    of the permutation action, and every generator read off as a [`Monomial`]
 //!    (permutation, phases as exponents of ζ_m, m = lcm(2, n)), exactly. If any step fails
-//!    the theory is reported as lacking the structure ([`StructureError::Absent`]):
-//!    Fibonacci and SU(2)_3 are.
+//!    the theory is reported as lacking the structure ([`StructureError::Absent`], with
+//!    the reason for every power tried): Fibonacci and SU(2)_3 are. Module `search` tries
+//!    the powers in increasing order.
 //! 4. **The image** ([`MonomialChain`]): deterministic Schreier–Sims on the permutation
 //!    parts carrying monomial lifts; the diagonal residues span the kernel K, a subgroup of
 //!    (Z/m)^d held in Hermite form ([`ModLattice`]) with its invariant factors by
 //!    diagonalisation over Z/m. |image| = |P|·|K| / |K ∩ scalars|.
-//! 5. **The orbit** (module `orbit`): supports (orbit of the vacuum's support under P)
-//!    times phase patterns per support (orbit of 0 in (Z/m)^{S₀}/(D + Z𝟙) under the
-//!    support's stabiliser, D its diagonal part).
+//! 5. **The orbit** (module `orbit`): v₀ is expanded in the monomial basis (module
+//!    `vacuum`); the orbit size is the number of supports (the orbit of the vacuum's
+//!    support S₀ under P) times the phase patterns per support (the orbit of 0 in
+//!    (Z/m)^{S₀}/(D + Z𝟙) under the support's stabiliser, D its diagonal part).
 //! 6. **The prefactor**: λ = |orbit|·⟨v₀, v₀⟩_G / dim when the commutant is 1-dimensional.
 //!    Irreducibility is proved by Schur's lemma in the monomial basis when K separates
 //!    the coordinates and P is transitive (module `irreducible`: X commuting with K is
@@ -43,11 +45,19 @@
 //! recheck(&space, &report.certificate).unwrap();
 //! ```
 //!
+//! The report ([`StructureReport`]) carries a [`StructureCertificate`]: the monomial
+//! basis, every generator as a monomial, the vacuum's expansion, the base, basic orbits
+//! and strong generators of P with their lifts, the Hermite rows and invariant factors of
+//! K, the counts and the commutant proof. [`recheck`] verifies the monomial form against
+//! the Dehn twists exactly and derives everything else again (module `recheck`).
+//!
 //! ## Performance
 //! Vectors are sparse; the refinement costs a few sparse mat-vecs and G-inner products per
 //! basis vector and generator per cut (at most d cuts). Schreier–Sims stores one monomial
-//! per basic-orbit point. The orbit count searches the supports (one transversal element
-//! each) and a quotient group of phase patterns; nothing is proportional to the orbit.
+//! per basic-orbit point. The orbit count stores, per support, where a transversal element
+//! places S₀, and searches a quotient group of phase patterns; nothing is proportional to
+//! the orbit. Ising at genus 4 (d = 136, 6·10¹¹ lines) takes under a second, genus 5
+//! (d = 528, 2.7·10¹⁸ lines) about ten seconds.
 //!
 //! ## Untrusted input
 //! Certificates read from files are parsed and re-derived by [`recheck`]; malformed data

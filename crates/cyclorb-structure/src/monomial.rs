@@ -18,7 +18,7 @@ use crate::error::{require, StructureError};
 use crate::roots::RootsOfUnity;
 use crate::sparse::{ColumnMap, SparseVec};
 
-/// The matrix e_i ↦ ζ_m^{phases[i]}·e_{perm[i]}.
+/// The matrix e_i ↦ ζ_m^{φ_i}·e_{π(i)}, π = `perm`, φ = `phases`.
 #[derive(Clone, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
 pub struct Monomial {
     /// π as the list of images.

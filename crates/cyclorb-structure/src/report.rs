@@ -127,7 +127,7 @@ pub struct StructureCertificate {
     pub power: u32,
     /// The monomial basis e_j in comb coordinates: sparse (index, exact value) lists.
     pub basis: Vec<Vec<(u32, String)>>,
-    /// Every generator in that basis: A_a e_j = ζ_m^{phases[j]} e_{perm[j]}.
+    /// Every generator in that basis: A_a e_j = ζ_m^{φ_j}·e_{π(j)} with π = `perm`, φ = `phases`.
     pub monomials: Vec<Monomial>,
     /// The vacuum vector in that basis: (index j, c_j) with v₀ = Σ c_j e_j.
     pub vacuum: Vec<(u32, String)>,
