@@ -19,14 +19,25 @@
 //! ```
 //!
 //! ## Performance
-//! Numerators live in `i64`. Products, sums and dot products first run in machine words
-//! when a bound proves they cannot overflow (or with overflow flags), then in checked `i128`,
-//! then on `BigInt`: an overflow costs time, never a wrong answer. Sums of products
-//! ([`DotAccumulator`]) fold modulo Φ_n once per sum, not once per product. Inversion is
-//! multi-modular: it evaluates at the roots of Φ_n modulo word-sized primes p ≡ 1 (mod n),
-//! recovers the norm and the cofactors by the Chinese remainder theorem under Hadamard's
-//! bound, and stops early by rational reconstruction (checked exactly) when the inverse is
-//! small; coefficient growth never means big-rational elimination.
+//! Numerators live in `i64`. Products and dot products run in machine words whenever a bound
+//! on the coefficients proves that no step can overflow: small ones by Kronecker
+//! substitution (two coefficients per 64-bit digit, so one 64×64→128-bit product does four
+//! coefficient products), larger ones by Karatsuba over unrolled schoolbook kernels;
+//! otherwise in checked `i128`, then on `BigInt`. An overflow costs time, never a wrong
+//! answer. Reduction modulo Φ_n is one pass over a sparse table of the residues of
+//! x^φ, …, x^{2φ−2}. Sums of products ([`CyclotomicField::dot`], [`DotAccumulator`]) reduce
+//! once per sum, not once per product. Inversion and the norm are multi-modular: they
+//! evaluate at the roots of Φ_n modulo word-sized primes p ≡ 1 (mod n) and recover the
+//! integers by the Chinese remainder theorem under Hadamard's bound; inversion stops early by
+//! rational reconstruction (checked exactly) when the inverse is small. `benches/arith.rs` at
+//! the workspace root measures all of this against python-flint.
+//!
+//! ## Modules
+//! `context` (the field and its tables), `element` (values, canonical form), `arith`
+//! (the safe operations and their tiers), `words`, `convolution` and `packed` (machine-word
+//! kernels), `dot` (sums of products), `modular` and `multimodular` (primes p ≡ 1 mod n,
+//! inverse and norm), `galois` (automorphisms, embeddings, trace, roots of unity), `sqrt`,
+//! `text` (syntax and serde), `modp` ([`PrimeReduction`]), [`numtheory`], `rational`.
 //!
 //! ## Untrusted input
 //! [`CyclotomicField::parse`] reports the byte offset and reason of any error; division by
