@@ -37,6 +37,8 @@ pub enum Command {
     Image(ImageArgs),
     /// A word of infinite projective order, with its exact certificate.
     Witness(WitnessArgs),
+    /// A batch of runs over theories × genera, resumable, with summaries and a plot.
+    Sweep(SweepArgs),
 }
 
 /// `cyclorb describe`: the exact data of one theory (`--json` output is a theory file).
@@ -172,4 +174,20 @@ pub struct WitnessArgs {
     /// Seed of the random words.
     #[arg(long, default_value_t = 1)]
     pub seed: u64,
+}
+
+/// `cyclorb sweep`: a plan of runs over theories × genera, resumable, with reports.
+#[derive(Args, Debug)]
+pub struct SweepArgs {
+    /// The plan (TOML; see `fixtures/sweeps/small.toml` and the README).
+    pub plan: PathBuf,
+    /// Output folder (results, checkpoints, summaries, plot); default: PLAN's name + `-sweep`.
+    #[arg(long)]
+    pub out: Option<PathBuf>,
+    /// Worker threads for every run (overrides the plan; answers do not depend on it).
+    #[arg(long)]
+    pub threads: Option<usize>,
+    /// List the runs in the order they would run, with their dimensions, and stop.
+    #[arg(long)]
+    pub dry_run: bool,
 }

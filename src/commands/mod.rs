@@ -6,6 +6,7 @@ mod field;
 mod orbit;
 pub mod output;
 mod progress;
+mod sweep;
 mod theory;
 mod twists;
 
@@ -23,6 +24,7 @@ pub fn dispatch(cli: Cli) -> ExitCode {
         Command::Commutant(a) => certify::commutant(a, json),
         Command::Image(a) => certify::image(a, json),
         Command::Witness(a) => certify::witness(a, json),
+        Command::Sweep(a) => sweep::run(a, json),
         Command::Theories => theory::run_theories(json),
         Command::Describe(a) => theory::run_describe(a, json),
         Command::Verify(a) => theory::run_verify(a, json),
