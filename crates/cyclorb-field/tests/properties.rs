@@ -181,7 +181,8 @@ mod laws {
                 let r = if rng.one_in(4) { Repr::Small } else { repr };
                 let x = element(&f, rng, r);
                 let q = [1, 3, 5, 7, 9, 12][rng.below(6) as usize];
-                f.mul(&x, &f.rational(rng.range(-3, 3), q).unwrap()).unwrap()
+                f.mul(&x, &f.rational(rng.range(-3, 3), q).unwrap())
+                    .unwrap()
             };
             let xs: Vec<Cyc> = (0..len).map(|_| pick(&mut rng)).collect();
             let ys: Vec<Cyc> = (0..len).map(|_| pick(&mut rng)).collect();
