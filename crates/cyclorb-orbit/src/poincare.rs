@@ -8,7 +8,7 @@
 //!
 //! so D cancels. Writing G = G'/E with G' integral, ⟨S, S⟩_G = q/E with q ∈ Z[ζ_n], and
 //! B = N·E·Σ_q (1/q)·A_q with A_q = Σ_{lines with this q} S S†. The sums A_q are kept as
-//! unreduced integer products S_i·conj(S_j) (length 2φ − 1, `i128`, with a running bound) and
+//! unreduced integer products S_i·conj(S_j) (length 2φ − 1, `i64`, with a running bound) and
 //! reduced, divided by q and added to B in `Cyc` arithmetic only when flushed; lines whose
 //! numbers are too large for the bound go through `Cyc` arithmetic directly.
 //!
@@ -83,7 +83,7 @@ enum FormEntries {
 
 /// Unreduced sums S_i·conj(S_j) (i ≤ j, upper triangle in row order) for one value of q.
 struct OpenSum {
-    sums: Vec<i128>,
+    sums: Vec<i64>,
     bound: u128,
     /// When it was last added to (the least recently used sum is flushed first).
     last_used: u64,
@@ -307,7 +307,7 @@ impl<'a> Partial<'a> {
         let d = problem.dimension();
         let len = problem.key_len();
         let pairs = d * (d + 1) / 2;
-        let sum_bytes = pairs * (2 * problem.kernel.degree() - 1) * 16;
+        let sum_bytes = pairs * (2 * problem.kernel.degree() - 1) * 8;
         let row_start = (0..d)
             .map(|i| i * d - i * i.saturating_sub(1) / 2)
             .collect();
@@ -356,7 +356,7 @@ impl<'a> Partial<'a> {
         else {
             return Ok(false);
         };
-        if term_bound >= 1 << 120 {
+        if term_bound >= 1 << 60 {
             return Ok(false);
         }
         // non-zero blocks of S, and the non-zero coefficients of S_i and conj(S_i) by block
@@ -418,7 +418,7 @@ impl<'a> Partial<'a> {
         let needs_flush = self
             .open
             .get(self.q.as_slice())
-            .is_some_and(|s| s.bound.saturating_add(term_bound) >= 1 << 126);
+            .is_some_and(|s| s.bound.saturating_add(term_bound) >= 1 << 62);
         if needs_flush {
             let q = self.q.clone();
             self.flush(&q)?;
@@ -443,7 +443,7 @@ impl<'a> Partial<'a> {
                 let out = &mut entry.sums[cell * wide..(cell + 1) * wide];
                 for &(s, x) in &self.s_list[bi.s.clone()] {
                     for &(t, y) in &self.c_list[bj.c.clone()] {
-                        out[s + t] += x as i128 * y as i128;
+                        out[s + t] += x * y;
                     }
                 }
             }
