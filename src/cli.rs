@@ -127,6 +127,10 @@ pub struct OrbitArgs {
     /// Print the word (in generator names) of this many orbit elements, farthest first.
     #[arg(long, default_value_t = 0)]
     pub words: usize,
+    /// How to find the orbit: `enumerate` lists every line; `structure` counts them through
+    /// the monomial structure of the representation (when it has one; Ising does).
+    #[arg(long, default_value = "enumerate", value_parser = ["enumerate", "structure"])]
+    pub method: String,
 }
 
 /// The theory, genus and generating set every certificate command reads.
@@ -157,6 +161,9 @@ pub struct ImageArgs {
     /// Largest orbit of lines enumerated for the Schreier–Sims route.
     #[arg(long, default_value_t = 200_000)]
     pub orbit_limit: usize,
+    /// Which route to take: `auto` tries structure, enumeration, orbit, then a witness search.
+    #[arg(long, default_value = "auto", value_parser = ["auto", "structure", "enumeration", "orbit"])]
+    pub route: String,
 }
 
 /// `cyclorb witness`: search for an element of infinite projective order.

@@ -15,6 +15,7 @@ use serde_json::json;
 
 use super::common::{build_space, generator_set_file, parse_set};
 use super::output::{Outcome, Report};
+use super::structure::counted;
 use crate::cli::{CertArgs, ImageArgs, WitnessArgs};
 
 /// The block space and its generators as a certificate input.
@@ -120,8 +121,46 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
         "conductor": space.theory().field().conductor(),
         "finite": null, "order": null, "route": null,
     });
+    // route 0: the monomial structure, when the representation has one
+    let allowed = |route: &str| args.route == "auto" || args.route == route;
+    let set = parse_set(&args.common.set).expect("parsed in load");
+    let structure = if allowed("structure") {
+        Some(counted(&space, set))
+    } else {
+        None
+    };
+    match structure {
+        None => {}
+        Some(found) => match found {
+            Ok(Ok(r)) => {
+                if let Err(e) = write_certificate(args.common.out.as_deref(), &r.certificate) {
+                    return Outcome::Invalid(e);
+                }
+                text.push_str(&format!(
+                "projective image: finite, order {} = |P| {} × |K| {} / |K ∩ scalars| {} (monomial structure; certificate re-checked)\n",
+                r.image_order, r.image.permutation_order, r.image.kernel_order, r.image.kernel_scalars
+            ));
+                value["finite"] = json!(true);
+                value["order"] = json!(r.image_order);
+                value["route"] = json!("structure");
+                value["permutation_order"] = json!(r.image.permutation_order);
+                value["kernel_order"] = json!(r.image.kernel_order);
+                value["kernel_invariants"] = json!(r.image.kernel_invariants);
+                value["orbit_size"] = json!(r.orbit_size);
+                value["stabiliser_order"] = json!(r.orbit.line_stabiliser_order);
+                return Outcome::Done(Report::new(value, text, as_json));
+            }
+            Ok(Err(absent)) => text.push_str(&format!("no monomial structure ({absent})\n")),
+            Err(e) => return Outcome::Invalid(e),
+        },
+    }
     // route 1: enumeration of matrices modulo scalars
-    match enumerate_projective_image(&gens, args.enumeration_cap) {
+    let enumerated = if allowed("enumeration") {
+        enumerate_projective_image(&gens, args.enumeration_cap)
+    } else {
+        Ok(ImageEnumeration::Exceeds { cap: 0 })
+    };
+    match enumerated {
         Ok(ImageEnumeration::Finite(cert)) => {
             if let Err(e) = cert
                 .verify(&gens)

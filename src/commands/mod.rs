@@ -6,6 +6,7 @@ mod field;
 mod orbit;
 pub mod output;
 mod progress;
+mod structure;
 mod sweep;
 mod theory;
 mod twists;

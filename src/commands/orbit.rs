@@ -14,6 +14,7 @@ use serde_json::json;
 use super::common::{build_space, generator_set_file, parse_set};
 use super::output::{Outcome, Report};
 use super::progress::OrbitProgress;
+use super::structure::{counted, orbit_json, orbit_text};
 use crate::cli::OrbitArgs;
 
 /// The generator set and seed from either a theory or raw files.
@@ -139,6 +140,9 @@ fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
 /// Run `cyclorb orbit`.
 pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
     let started = Instant::now();
+    if args.method == "structure" {
+        return run_structure(args, as_json, started);
+    }
     let problem = match load_problem(args) {
         Ok(p) => p,
         Err(e) => return Outcome::Invalid(e),
@@ -193,5 +197,27 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         Outcome::Stopped(out)
     } else {
         Outcome::Done(out)
+    }
+}
+
+/// `--method structure`: count the orbit instead of listing it.
+fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
+    let (Some(spec), Some(genus)) = (&args.spec, args.genus) else {
+        return Outcome::Invalid("--method structure needs a theory SPEC and --genus".into());
+    };
+    let space = match parse_set(&args.set).and_then(|set| Ok((set, build_space(spec, genus)?))) {
+        Ok(x) => x,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    match counted(&space.1, space.0) {
+        Ok(Ok(report)) => Outcome::Done(Report::new(
+            orbit_json(&report, started),
+            orbit_text(&report),
+            as_json,
+        )),
+        Ok(Err(absent)) => Outcome::Invalid(format!(
+            "{spec} at genus {genus} has no monomial structure ({absent}); use --method enumerate"
+        )),
+        Err(e) => Outcome::Invalid(e),
     }
 }
