@@ -69,9 +69,9 @@ pub struct FieldArgs {
     pub expressions: Vec<String>,
 }
 
-/// `cyclorb twists`: the block space and its Dehn twists.
+/// The block space a command works on: a theory, a genus and a generating set.
 #[derive(Args, Debug)]
-pub struct TwistsArgs {
+pub struct SpaceArgs {
     /// Theory: a built-in spec (see `cyclorb theories`) or a theory file.
     pub spec: String,
     /// Genus of the surface (≥ 1).
@@ -80,6 +80,14 @@ pub struct TwistsArgs {
     /// Generating set of Dehn twists: humphries (2g+1 curves) or lickorish (3g−1 curves).
     #[arg(long, default_value = "humphries")]
     pub set: String,
+}
+
+/// `cyclorb twists`: the block space and its Dehn twists.
+#[derive(Args, Debug)]
+pub struct TwistsArgs {
+    /// Theory, genus and generating set.
+    #[command(flatten)]
+    pub space: SpaceArgs,
     /// Verify the mapping class group relations and form invariance exactly.
     #[arg(long)]
     pub check: bool,
@@ -136,14 +144,9 @@ pub struct OrbitArgs {
 /// The theory, genus and generating set every certificate command reads.
 #[derive(Args, Debug)]
 pub struct CertArgs {
-    /// Theory: a built-in spec or a theory file.
-    pub spec: String,
-    /// Genus of the surface (≥ 1).
-    #[arg(long, short = 'g')]
-    pub genus: usize,
-    /// Generating set of Dehn twists: humphries or lickorish.
-    #[arg(long, default_value = "humphries")]
-    pub set: String,
+    /// Theory, genus and generating set.
+    #[command(flatten)]
+    pub space: SpaceArgs,
     /// Write the full certificate (JSON) to this file.
     #[arg(long)]
     pub out: Option<PathBuf>,

@@ -20,8 +20,8 @@ use crate::cli::{CertArgs, ImageArgs, WitnessArgs};
 
 /// The block space and its generators as a certificate input.
 fn load(args: &CertArgs) -> Result<(BlockSpace, CertSet), String> {
-    let set = parse_set(&args.set)?;
-    let space = build_space(&args.spec, args.genus)?;
+    let set = parse_set(&args.space.set)?;
+    let space = build_space(&args.space.spec, args.space.genus)?;
     let gens = space.generators(set).map_err(|e| e.to_string())?;
     let named = gens
         .into_iter()
@@ -123,7 +123,7 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
     });
     // route 0: the monomial structure, when the representation has one
     let allowed = |route: &str| args.route == "auto" || args.route == route;
-    let set = parse_set(&args.common.set).expect("parsed in load");
+    let set = parse_set(&args.common.space.set).expect("parsed in load");
     let structure = if allowed("structure") {
         Some(counted(&space, set))
     } else {
@@ -191,7 +191,7 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
         generator_set_file(
             &space,
             &space
-                .generators(parse_set(&args.common.set).expect("parsed in load"))
+                .generators(parse_set(&args.common.space.set).expect("parsed in load"))
                 .expect("built in load"),
         ),
         &Seed::basis_vector(

@@ -8,6 +8,20 @@ use indicatif::{ProgressBar, ProgressStyle};
 
 use super::output::progress_allowed;
 
+/// A ticking spinner with elapsed time and a message, when progress may be shown
+/// (a terminal, not JSON).
+pub fn spinner(as_json: bool) -> Option<ProgressBar> {
+    progress_allowed(as_json).then(|| {
+        let bar = ProgressBar::new_spinner();
+        bar.set_style(
+            ProgressStyle::with_template("{spinner} [{elapsed_precise}] {msg}")
+                .expect("static template"),
+        );
+        bar.enable_steady_tick(Duration::from_millis(200));
+        bar
+    })
+}
+
 /// Drives one spinner from the engine's progress snapshots.
 pub struct OrbitProgress {
     bar: Option<ProgressBar>,
@@ -16,16 +30,9 @@ pub struct OrbitProgress {
 impl OrbitProgress {
     /// A display when allowed (terminal, not JSON), otherwise a silent observer.
     pub fn new(as_json: bool) -> OrbitProgress {
-        let bar = progress_allowed(as_json).then(|| {
-            let bar = ProgressBar::new_spinner();
-            bar.set_style(
-                ProgressStyle::with_template("{spinner} [{elapsed_precise}] {msg}")
-                    .expect("static template"),
-            );
-            bar.enable_steady_tick(Duration::from_millis(200));
-            bar
-        });
-        OrbitProgress { bar }
+        OrbitProgress {
+            bar: spinner(as_json),
+        }
     }
 
     /// Remove the display.

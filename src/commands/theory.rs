@@ -1,16 +1,16 @@
 //! `cyclorb theories`, `cyclorb describe` and `cyclorb verify`: the theory catalogue, the
 //! exact data of one theory, and its check-by-check verification.
 
-use std::time::{Duration, Instant};
+use std::time::Instant;
 
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_theory::{
     builtin_catalogue, parse_spec, theory_to_json, verify_selected, CheckId, Theory,
 };
-use indicatif::{ProgressBar, ProgressStyle};
 use serde_json::{json, Value};
 
-use super::output::{progress_allowed, Outcome, Report};
+use super::output::{Outcome, Report};
+use super::progress::spinner;
 use crate::cli::{DescribeArgs, VerifyArgs};
 
 const GRAMMAR: &str = "spec := factor ('*' factor)* ; factor := conj(spec) | galois:K(spec) | gauge:SEED(spec) | (spec) | NAME | PATH.json";
@@ -192,15 +192,7 @@ pub fn run_verify(args: &VerifyArgs, as_json: bool) -> Outcome {
         .into_iter()
         .filter(|id| !skipped.contains(id))
         .collect();
-    let bar = progress_allowed(as_json).then(|| {
-        let bar = ProgressBar::new_spinner();
-        bar.set_style(
-            ProgressStyle::with_template("{spinner} [{elapsed_precise}] {msg}")
-                .expect("static template"),
-        );
-        bar.enable_steady_tick(Duration::from_millis(200));
-        bar
-    });
+    let bar = spinner(as_json);
     let verification = verify_selected(&theory, &ids, &mut |id| {
         if let Some(bar) = &bar {
             bar.set_message(format!("checking {id} of {}", theory.name()));

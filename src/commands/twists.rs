@@ -26,11 +26,11 @@ fn kind(op: &Operator) -> String {
 
 /// Run `cyclorb twists`.
 pub fn run(args: &TwistsArgs, as_json: bool) -> Outcome {
-    let set = match parse_set(&args.set) {
+    let set = match parse_set(&args.space.set) {
         Ok(s) => s,
         Err(e) => return Outcome::Invalid(e),
     };
-    let space: BlockSpace = match build_space(&args.spec, args.genus) {
+    let space: BlockSpace = match build_space(&args.space.spec, args.space.genus) {
         Ok(s) => s,
         Err(e) => return Outcome::Invalid(e),
     };
@@ -43,7 +43,7 @@ pub fn run(args: &TwistsArgs, as_json: bool) -> Outcome {
     let mut text = format!(
         "theory {} at genus {}: dim V_g = {} over Q(ζ_{})\n",
         theory.name(),
-        args.genus,
+        args.space.genus,
         space.dimension(),
         field.conductor()
     );
@@ -64,7 +64,7 @@ pub fn run(args: &TwistsArgs, as_json: bool) -> Outcome {
     }
     let mut json = json!({
         "theory": theory.name(),
-        "genus": args.genus,
+        "genus": args.space.genus,
         "dimension": space.dimension(),
         "conductor": field.conductor(),
         "set": set.name(),
