@@ -206,3 +206,33 @@ fn genus_two_needs_fusion_data() {
     let err = String::from_utf8_lossy(&out.stderr);
     assert!(err.contains("modular data only"), "{err}");
 }
+
+/// Orbit size of a run that must saturate.
+fn closed_orbit_size(spec: &str, genus: &str) -> u64 {
+    let (code, v) = cyclorb_json(&["orbit", spec, "--genus", genus]);
+    assert_eq!(code, 0, "{spec} genus {genus}: {v}");
+    assert_eq!(v["saturated"], true);
+    v["orbit_size"].as_u64().unwrap()
+}
+
+#[test]
+fn galois_conjugates_have_the_same_orbit_sizes() {
+    // A Galois automorphism σ of Q(ζ_n) maps the twists of a theory to those of its conjugate
+    // and the orbit of the vacuum line bijectively onto the conjugate's orbit (a fact of the
+    // construction: every step is a polynomial identity over Q), so finite orbits match.
+    for (spec, conjugate, genera) in [
+        ("su2:2", "galois:5(su2:2)", &["1", "2"][..]),
+        ("su2:4", "galois:5(su2:4)", &["1"][..]),
+        ("zn:3:2", "conj(zn:3:2)", &["1", "2"][..]),
+        ("zn:5:2", "galois:2(zn:5:2)", &["1", "2"][..]),
+        ("ising*zn:3:2", "conj(ising*zn:3:2)", &["1"][..]),
+    ] {
+        for g in genera {
+            assert_eq!(
+                closed_orbit_size(spec, g),
+                closed_orbit_size(conjugate, g),
+                "{spec} vs {conjugate}, genus {g}"
+            );
+        }
+    }
+}

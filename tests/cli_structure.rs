@@ -79,3 +79,24 @@ fn theories_without_the_structure_are_refused() {
     assert_eq!(out.status.code(), Some(1));
     assert!(String::from_utf8_lossy(&out.stderr).contains("no monomial structure"));
 }
+
+#[test]
+fn ising_type_and_pointed_theories_agree_with_enumeration() {
+    // Where both routes run they must agree exactly (orbit size and prefactor, or no prefactor
+    // when the commutant is larger: Z_4 is reducible at genus 1 and 2).
+    for spec in ["ising:3", "ising:7", "ising:15", "su2:2", "zn:4:1"] {
+        for g in ["1", "2"] {
+            let (_, counted) =
+                cyclorb_json(&["orbit", spec, "--genus", g, "--method", "structure"]);
+            let (_, listed) = cyclorb_json(&["orbit", spec, "--genus", g]);
+            assert_eq!(
+                counted["orbit_size"], listed["orbit_size"],
+                "{spec} genus {g}"
+            );
+            assert_eq!(
+                counted["poincare_sum"]["prefactor"], listed["poincare_sum"]["prefactor"],
+                "{spec} genus {g}"
+            );
+        }
+    }
+}
