@@ -93,6 +93,7 @@ mod report;
 mod signal;
 mod sparse;
 mod store;
+mod sum;
 
 pub use commutant::{Decomposition, InvariantTerm};
 pub use engine::{

@@ -19,8 +19,8 @@ pub(crate) struct PolyKernel {
     phi: usize,
     /// `residues[e]` = the non-zero (t, c) with ζ^e = Σ c ζ^t, for 0 ≤ e < n.
     residues: Vec<Vec<(usize, i64)>>,
-    /// Non-zero (t, s, c) of the conjugation matrix C.
-    conj: Vec<(usize, usize, i64)>,
+    /// Column s of the conjugation matrix C: the non-zero (t, C[t][s]).
+    conj_columns: Vec<Vec<(usize, i64)>>,
     /// max over t of Σ_s |C[t][s]|.
     conj_row_bound: u128,
 }
@@ -41,21 +41,20 @@ impl PolyKernel {
                     .collect()
             })
             .collect();
-        let mut conj = Vec::new();
+        // conj(ζ^s) = ζ^{n−s}
+        let conj_columns: Vec<Vec<(usize, i64)>> = (0..phi)
+            .map(|s| residues[(n - s % n.max(1)) % n.max(1)].clone())
+            .collect();
         let mut row_sums = vec![0u128; phi];
-        for s in 0..phi {
-            let e = (n - s % n.max(1)) % n.max(1);
-            for &(t, c) in &residues[e] {
-                conj.push((t, s, c));
-                row_sums[t] += c.unsigned_abs() as u128;
-            }
+        for &(t, c) in conj_columns.iter().flatten() {
+            row_sums[t] += c.unsigned_abs() as u128;
         }
         let conj_row_bound = row_sums.into_iter().max().unwrap_or(0);
         PolyKernel {
             n: n.max(1),
             phi,
             residues,
-            conj,
+            conj_columns,
             conj_row_bound,
         }
     }
@@ -105,23 +104,9 @@ impl PolyKernel {
         Some(())
     }
 
-    /// conj(a) for integer numerators `a`, into `out`; `None` when a result leaves `i64`.
-    pub(crate) fn conj_into(&self, a: &[i64], out: &mut [i64]) -> Option<()> {
-        let mut stack = [0i128; 64];
-        let mut heap = Vec::new();
-        let buf: &mut [i128] = if self.phi <= stack.len() {
-            &mut stack[..self.phi]
-        } else {
-            heap.resize(self.phi, 0);
-            &mut heap
-        };
-        for &(t, s, c) in &self.conj {
-            buf[t] = buf[t].checked_add((a[s] as i128).checked_mul(c as i128)?)?;
-        }
-        for (o, w) in out.iter_mut().zip(buf.iter()) {
-            *o = i64::try_from(*w).ok()?;
-        }
-        Some(())
+    /// Column s of the conjugation matrix: conj(ζ^s) = Σ c·ζ^t over the returned (t, c).
+    pub(crate) fn conj_column(&self, s: usize) -> &[(usize, i64)] {
+        &self.conj_columns[s]
     }
 
     /// A bound on the coefficients of conj(a): max_t Σ_s |C[t][s]| · max|a|.
@@ -171,7 +156,11 @@ mod tests {
             let en: Vec<i128> = en.iter().map(|&c| c as i128).collect();
             assert_eq!(prod, en, "n={n}");
             let mut c = vec![0i64; k.degree()];
-            k.conj_into(an, &mut c).unwrap();
+            for (s, &x) in an.iter().enumerate() {
+                for &(t, m) in k.conj_column(s) {
+                    c[t] += m * x;
+                }
+            }
             assert_eq!(c.as_slice(), f.conj(&a).small_parts().unwrap().0, "n={n}");
         }
     }
