@@ -60,6 +60,32 @@ fn options(args: &OrbitArgs, stop: Arc<AtomicBool>) -> OrbitOptions {
     }
 }
 
+/// The non-zero entries of a matrix given as text, `(i,j)=v` separated by spaces, shortened
+/// after 24 entries.
+fn nonzero_entries(m: &[Vec<String>]) -> String {
+    let entries: Vec<String> = m
+        .iter()
+        .enumerate()
+        .flat_map(|(i, row)| {
+            row.iter()
+                .enumerate()
+                .filter(|(_, v)| v.as_str() != "0")
+                .map(move |(j, v)| format!("({i},{j})={v}"))
+        })
+        .collect();
+    let shown = entries
+        .iter()
+        .take(24)
+        .cloned()
+        .collect::<Vec<_>>()
+        .join(" ");
+    if entries.len() > 24 {
+        format!("{shown} … ({} non-zero entries in all)", entries.len())
+    } else {
+        shown
+    }
+}
+
 fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
     let mut t = String::new();
     if let Some(theory) = &report.theory {
@@ -97,10 +123,12 @@ fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
         (Some(false), _) => {
             t.push_str("Poincaré sum: B is not a multiple of G⁻¹\n");
             if let Some(inv) = &p.invariants {
+                t.push_str("  B = Σ coefficient × invariant; non-zero entries (row,column)=value in basis order:\n");
                 for term in inv {
                     t.push_str(&format!(
-                        "  coefficient {} on invariant {:?}\n",
-                        term.coefficient, term.matrix
+                        "  {} × {}\n",
+                        term.coefficient,
+                        nonzero_entries(&term.matrix)
                     ));
                 }
             }
