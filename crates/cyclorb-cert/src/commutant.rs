@@ -93,13 +93,7 @@ impl CommutantCertificate {
     /// nullity is k (dimension ≤ k), and the self-adjoint basis is sound.
     pub fn verify(&self, gens: &GeneratorSet) -> Result<(), CertError> {
         let field = gens.field();
-        require(self.conductor == field.conductor(), || {
-            format!(
-                "conductor {} for generators over Q(ζ_{})",
-                self.conductor,
-                field.conductor()
-            )
-        })?;
+        gens.require_conductor(self.conductor)?;
         require(
             self.basis.len() == self.dimension && self.dimension >= 1,
             || {

@@ -25,6 +25,14 @@ pub struct GeneratorSet {
 }
 
 impl GeneratorSet {
+    /// Refuse a certificate made over another field Q(ζ_n).
+    pub(crate) fn require_conductor(&self, conductor: u32) -> Result<(), CertError> {
+        let own = self.field().conductor();
+        crate::error::require(conductor == own, || {
+            format!("conductor {conductor} for generators over Q(ζ_{own})")
+        })
+    }
+
     /// Check and store the generators: at least one, distinct non-empty names, valid
     /// operators of one size with entries in `field`, each invertible (full rank modulo a
     /// prime p ≡ 1 mod n, or exactly); and, when given, a form of non-zero real diagonal

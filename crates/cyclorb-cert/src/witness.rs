@@ -306,13 +306,7 @@ impl WitnessCertificate {
     /// N = Π Φ_m^{e_m} · rest, and that the rest is non-constant with no cyclotomic factor.
     pub fn recheck(&self, gens: &GeneratorSet) -> Result<(), CertError> {
         let field = gens.field();
-        require(self.conductor == field.conductor(), || {
-            format!(
-                "conductor {} for generators over Q(ζ_{})",
-                self.conductor,
-                field.conductor()
-            )
-        })?;
+        gens.require_conductor(self.conductor)?;
         let word = gens.indices_of(&self.word)?;
         require(!word.is_empty(), || "the word is empty".into())?;
         let w = gens.word_matrix(&word)?;
