@@ -500,11 +500,16 @@ fn kind(v: &Value) -> &'static str {
     }
 }
 
-fn read_text(path: &Path) -> Result<String, OrbitError> {
-    std::fs::read_to_string(path).map_err(|e| OrbitError::Io {
+/// Read a file and parse it with `parse(text, file name)`.
+fn read_file<T>(
+    path: &Path,
+    parse: fn(&str, &str) -> Result<T, FormatError>,
+) -> Result<T, OrbitError> {
+    let text = std::fs::read_to_string(path).map_err(|e| OrbitError::Io {
         path: path.display().to_string(),
         reason: e.to_string(),
-    })
+    })?;
+    Ok(parse(&text, &path.display().to_string())?)
 }
 
 fn write_text(path: &Path, text: &str) -> Result<(), OrbitError> {
@@ -587,8 +592,7 @@ impl GeneratorSet {
 
     /// Read a generator-set file.
     pub fn read(path: &Path) -> Result<GeneratorSet, OrbitError> {
-        let text = read_text(path)?;
-        Ok(GeneratorSet::from_json(&text, &path.display().to_string())?)
+        read_file(path, GeneratorSet::from_json)
     }
 
     /// The JSON text of the set (format version 1, deterministic).
@@ -642,8 +646,7 @@ impl Seed {
 
     /// Read a seed file.
     pub fn read(path: &Path) -> Result<Seed, OrbitError> {
-        let text = read_text(path)?;
-        Ok(Seed::from_json(&text, &path.display().to_string())?)
+        read_file(path, Seed::from_json)
     }
 
     /// The JSON text of the seed (dense `vector`).
