@@ -21,7 +21,7 @@ use std::time::{Duration, Instant};
 use cyclorb_field::Cyc;
 use serde::{Deserialize, Serialize};
 
-use crate::error::OrbitError;
+use crate::error::{joined, OrbitError};
 use crate::image::{same_key, Candidate, Outcome, Pending, Workspace};
 use crate::numerators::Numerators;
 use crate::problem::OrbitProblem;
@@ -359,9 +359,7 @@ impl OrbitProblem {
                 .collect();
             let mut all = self.expand_range(set, parts[0].clone(), &mut first[0]);
             for handle in handles {
-                let part = handle.join().unwrap_or_else(|_| {
-                    Err(OrbitError::Invalid("a worker thread panicked".into()))
-                });
+                let part = joined(handle);
                 all = match (all, part) {
                     (Ok(mut a), Ok(b)) => {
                         a.extend(b);

@@ -87,3 +87,12 @@ impl From<MatrixError> for OrbitError {
         OrbitError::Arithmetic(e.to_string())
     }
 }
+
+/// The result of a scoped worker thread; a panicked worker becomes an error value.
+pub(crate) fn joined<T>(
+    handle: std::thread::ScopedJoinHandle<'_, Result<T, OrbitError>>,
+) -> Result<T, OrbitError> {
+    handle
+        .join()
+        .unwrap_or_else(|_| Err(OrbitError::Invalid("a worker thread panicked".into())))
+}

@@ -17,7 +17,7 @@ use num_integer::Integer;
 use num_traits::{One, ToPrimitive};
 
 use crate::engine::Orbit;
-use crate::error::OrbitError;
+use crate::error::{joined, OrbitError};
 use crate::numerators::Numerators;
 use crate::poly::PolyKernel;
 use crate::problem::OrbitProblem;
@@ -411,13 +411,7 @@ fn group_lines(
                 })
             })
             .collect();
-        handles
-            .into_iter()
-            .map(|h| {
-                h.join()
-                    .unwrap_or_else(|_| Err(OrbitError::Invalid("a worker thread panicked".into())))
-            })
-            .collect()
+        handles.into_iter().map(joined).collect()
     });
     let mut global: HashMap<Vec<i128>, u32> = HashMap::new();
     let mut values: Vec<Vec<i128>> = Vec::new();
@@ -521,13 +515,7 @@ pub(crate) fn sum_matrix(
                 })
             })
             .collect();
-        handles
-            .into_iter()
-            .map(|h| {
-                h.join()
-                    .unwrap_or_else(|_| Err(OrbitError::Invalid("a worker thread panicked".into())))
-            })
-            .collect()
+        handles.into_iter().map(joined).collect()
     });
     let mut upper = vec![field.zero(); d * d];
     for part in results {
