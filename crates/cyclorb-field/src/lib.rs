@@ -37,7 +37,8 @@
 //! (the safe operations and their tiers), `words`, `convolution` and `packed` (machine-word
 //! kernels), `dot` (sums of products), `modular` and `multimodular` (primes p ≡ 1 mod n,
 //! inverse and norm), `galois` (automorphisms, embeddings, trace, roots of unity), `sqrt`,
-//! `text` (syntax and serde), `modp` ([`PrimeReduction`]), [`numtheory`], `rational`.
+//! `text` (syntax and serde), `modp` ([`PrimeReduction`]), `residues` ([`ResidueMap`]: residues
+//! at many prime ideals and the zero test they give), [`numtheory`], `rational`.
 //!
 //! ## Untrusted input
 //! [`CyclotomicField::parse`] reports the byte offset and reason of any error; division by
@@ -58,6 +59,7 @@ mod multimodular;
 pub mod numtheory;
 mod packed;
 mod rational;
+mod residues;
 mod ring;
 mod sqrt;
 mod text;
@@ -70,4 +72,5 @@ pub use error::FieldError;
 pub use galois::common_conductor;
 pub use modp::PrimeReduction;
 pub use rational::Rational;
+pub use residues::ResidueMap;
 pub use text::CycText;

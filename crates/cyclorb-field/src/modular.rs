@@ -49,7 +49,7 @@ impl Montgomery {
 
     /// t·R⁻¹ mod p for t < p·2^64.
     #[inline(always)]
-    fn redc(&self, t: u128) -> u64 {
+    pub(crate) fn redc(&self, t: u128) -> u64 {
         let m = (t as u64).wrapping_mul(self.neg_inv);
         let u = ((t + m as u128 * self.p as u128) >> 64) as u64;
         if u >= self.p {
