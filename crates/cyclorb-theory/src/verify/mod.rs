@@ -9,6 +9,7 @@
 mod braided;
 mod fusion;
 mod modular;
+mod pentagon;
 
 use std::fmt;
 
@@ -233,7 +234,7 @@ fn run(theory: &Theory, id: CheckId) -> Check {
         CheckId::Dimensions => fusion::dimensions(theory),
         CheckId::UnitNormalisation => braided::unit_normalisation(theory),
         CheckId::FInvertible => braided::f_invertible(theory),
-        CheckId::Pentagon => braided::pentagon(theory),
+        CheckId::Pentagon => pentagon::pentagon(theory),
         CheckId::Hexagon => braided::hexagon(theory, false),
         CheckId::HexagonInverse => braided::hexagon(theory, true),
         CheckId::Twist => braided::twist(theory),
