@@ -163,6 +163,34 @@ fn a_corrupted_file_fails_naming_the_pentagon() {
     std::fs::remove_file(&path).ok();
 }
 
+/// A change of 10⁻¹² in one entry of a 3×3 F-block of SU(2)_6 breaks the pentagon (the
+/// q-6j symbols satisfy it exactly: Kirillov–Reshetikhin 1989, from memory); the residue
+/// form of the check must see it, and the report shows two different exact sides.
+#[test]
+fn a_tiny_change_in_a_large_theory_fails_the_pentagon() {
+    let mut json = json_of(&cyclorb(&["describe", "su2:6", "--json"]));
+    let entry = json["F"]
+        .as_array_mut()
+        .unwrap()
+        .iter_mut()
+        .find(|e| (0..4).all(|i| e[i] == "1") && e[4] == "1" && e[5] == "1")
+        .unwrap();
+    entry[6] = Value::String(format!("1/1000000000000 + ({})", entry[6].as_str().unwrap()));
+    let path = temp_file("tiny-change");
+    std::fs::write(&path, json.to_string()).unwrap();
+    let out = cyclorb(&["verify", path.to_str().unwrap(), "--json"]);
+    std::fs::remove_file(&path).ok();
+    assert_eq!(out.status.code(), Some(1));
+    let report = json_of(&out);
+    assert_eq!(report["first_failure"]["name"], "pentagon");
+    let failure = report["first_failure"]["failure"].as_str().unwrap();
+    let (left, right) = failure
+        .split_once(": left side ")
+        .and_then(|(_, sides)| sides.split_once(", right side "))
+        .unwrap_or_else(|| panic!("{failure}"));
+    assert_ne!(left, right, "{failure}");
+}
+
 #[test]
 fn malformed_input_is_refused_with_file_place_and_reason() {
     let mut json: Value =
