@@ -236,3 +236,39 @@ fn galois_conjugates_have_the_same_orbit_sizes() {
         }
     }
 }
+
+#[test]
+fn semion_orbits_count_the_stabiliser_states() {
+    // The number of stabiliser states of g qubits is 2^g Π_{k=1}^{g} (2^k + 1) (Aaronson and
+    // Gottesman, "Improved simulation of stabilizer circuits", Phys. Rev. A 70 (2004) 052328;
+    // from memory): 6, 60, 1080. The semion's genus-g blocks are g qubits and its Dehn twists
+    // act by Clifford gates, so the vacuum line's orbit is the set of stabiliser states.
+    for (genus, count) in [(1u32, 6u64), (2, 60), (3, 1080)] {
+        let formula = 2u64.pow(genus) * (1..=genus).map(|k| 2u64.pow(k) + 1).product::<u64>();
+        assert_eq!(formula, count);
+        assert_eq!(closed_orbit_size("zn:2:1", &genus.to_string()), count);
+    }
+}
+
+#[test]
+fn odd_pointed_orbits_count_the_lagrangian_subspaces() {
+    // For an odd prime N the genus-g blocks of zn:N:P carry the Weil representation of
+    // Sp(2g, F_N), and the vacuum line is fixed exactly by the stabiliser of a Lagrangian
+    // subspace, so the orbit is the Lagrangian Grassmannian of F_N^{2g}, which has
+    // Π_{k=1}^{g} (N^k + 1) points (common practice; Gérardin 1977 for the Weil
+    // representation, from memory).
+    for (spec, n, genera) in [
+        ("zn:3:2", 3u64, &[1u32, 2, 3][..]),
+        ("zn:5:2", 5, &[1, 2, 3][..]),
+        ("zn:7:2", 7, &[1, 2][..]),
+    ] {
+        for &genus in genera {
+            let lagrangians: u64 = (1..=genus).map(|k| n.pow(k) + 1).product();
+            assert_eq!(
+                closed_orbit_size(spec, &genus.to_string()),
+                lagrangians,
+                "{spec} genus {genus}"
+            );
+        }
+    }
+}
