@@ -175,7 +175,10 @@ fn a_tiny_change_in_a_large_theory_fails_the_pentagon() {
         .iter_mut()
         .find(|e| (0..4).all(|i| e[i] == "1") && e[4] == "1" && e[5] == "1")
         .unwrap();
-    entry[6] = Value::String(format!("1/1000000000000 + ({})", entry[6].as_str().unwrap()));
+    entry[6] = Value::String(format!(
+        "1/1000000000000 + ({})",
+        entry[6].as_str().unwrap()
+    ));
     let path = temp_file("tiny-change");
     std::fs::write(&path, json.to_string()).unwrap();
     let out = cyclorb(&["verify", path.to_str().unwrap(), "--json"]);
