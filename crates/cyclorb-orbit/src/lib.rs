@@ -14,6 +14,8 @@
 //! - [`OrbitProblem::poincare_sum`] computes B exactly, checks tr(B·G) = |orbit|·⟨v₀, v₀⟩_G,
 //!   tests B = λ·G⁻¹, and otherwise writes B over the invariant matrices.
 //! - [`OrbitReport`] is the JSON result of the command-line contract.
+//! - [`pair_orbit`] finds the orbit of a Deligne product's vacuum line from the permutations
+//!   the generators induce on the two factors' orbits (the `pairs` module).
 //!
 //! ```
 //! use cyclorb_field::CyclotomicField;
@@ -86,6 +88,7 @@ mod image;
 mod key;
 mod memory;
 mod numerators;
+mod pairs;
 mod poincare;
 mod poly;
 mod problem;
@@ -103,6 +106,7 @@ pub use error::{FormatError, OrbitError};
 pub use format::{FORMAT_VERSION, GENERATORS_FORMAT, SEED_FORMAT};
 pub use generators::{GeneratorSet, Seed};
 pub use memory::peak_memory_bytes;
+pub use pairs::{pair_orbit, PairOrbit};
 pub use poincare::PoincareSum;
 pub use problem::OrbitProblem;
 pub use report::{InvariantReport, OrbitReport, PoincareReport};
