@@ -397,6 +397,64 @@ impl OrbitProblem {
         Ok(pending.list)
     }
 
+    /// The permutations the generators induce on a saturated orbit: `result[k][i]` is the
+    /// index of the line that generator k maps line i to. Every image is computed and
+    /// looked up exactly as during enumeration (on `threads` threads, each a contiguous
+    /// range of lines); an error when the orbit is not saturated or an image is missing.
+    pub fn induced_permutations(
+        &self,
+        orbit: &Orbit,
+        threads: usize,
+    ) -> Result<Vec<Vec<u32>>, OrbitError> {
+        if !orbit.is_saturated() {
+            return Err(OrbitError::Invalid(
+                "induced permutations need a saturated orbit".into(),
+            ));
+        }
+        let generators = self.generators.operators.len();
+        let parts = split(0..orbit.len(), threads.max(1));
+        let images_of = |range: Range<usize>| -> Result<Vec<u32>, OrbitError> {
+            let mut ws = Workspace::new(self);
+            let pending = Pending::default();
+            let mut images = Vec::with_capacity(range.len() * generators);
+            for element in range {
+                ws.load(&orbit.set, element);
+                for generator in 0..generators {
+                    match self.classify(&orbit.set, &pending, &mut ws, generator)? {
+                        Outcome::Known(Some(index)) => images.push(index),
+                        _ => {
+                            return Err(OrbitError::Invalid(format!(
+                                "generator {} maps line {element} outside the orbit",
+                                self.generators.names[generator]
+                            )))
+                        }
+                    }
+                }
+            }
+            Ok(images)
+        };
+        let images_of = &images_of;
+        let rows: Vec<Result<Vec<u32>, OrbitError>> = std::thread::scope(|scope| {
+            let handles: Vec<_> = parts
+                .iter()
+                .map(|range| {
+                    let range = range.clone();
+                    scope.spawn(move || images_of(range))
+                })
+                .collect();
+            handles.into_iter().map(joined).collect()
+        });
+        let mut permutations = vec![Vec::with_capacity(orbit.len()); generators];
+        for part in rows {
+            for images in part?.chunks_exact(generators.max(1)) {
+                for (perm, &image) in permutations.iter_mut().zip(images) {
+                    perm.push(image);
+                }
+            }
+        }
+        Ok(permutations)
+    }
+
     /// Insert the candidates that are still new, in order; `false` when the limit stopped it.
     fn insert_candidates(
         &self,

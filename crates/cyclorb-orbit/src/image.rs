@@ -30,8 +30,8 @@ use crate::store::{OrbitSet, StoredKey};
 
 /// What an image turned out to be.
 pub(crate) enum Outcome {
-    /// Already stored, or already found by this worker.
-    Known,
+    /// Already stored (with its index), or already found by this worker (`None`).
+    Known(Option<u32>),
     /// New: its key and fingerprint.
     New { key: KeyNumbers, fingerprint: u32 },
 }
@@ -289,7 +289,7 @@ impl OrbitProblem {
             return Err(e);
         }
         if known {
-            return Ok(Outcome::Known);
+            return Ok(Outcome::Known(stored));
         }
         let key =
             key_of_integer_vector(&self.field, &self.kernel, &mut ws.normaliser, &ws.image, k)?;
@@ -321,12 +321,10 @@ impl OrbitProblem {
     ) -> Result<Outcome, OrbitError> {
         let fingerprint = self.key_fingerprint(&key);
         let buf = &mut ws.stored;
-        let known = set
-            .find(fingerprint, |i| same_key(set, buf, i, &key))
-            .is_some()
-            || pending.find(fingerprint, |other, _| *other == key);
+        let stored = set.find(fingerprint, |i| same_key(set, buf, i, &key));
+        let known = stored.is_some() || pending.find(fingerprint, |other, _| *other == key);
         Ok(if known {
-            Outcome::Known
+            Outcome::Known(stored)
         } else {
             Outcome::New { key, fingerprint }
         })

@@ -7,5 +7,6 @@ mod formats;
 mod groups;
 mod ising;
 mod poincare;
+mod products;
 mod runs;
 mod su2;
