@@ -4,9 +4,9 @@
 use std::path::Path;
 
 use cyclorb_cert::{
-    commutant as commutant_cert, enumerate_projective_image, find_witness, image_from_orbit,
-    polynomial_text, CommutantOptions, GeneratorSet as CertSet, ImageEnumeration, WitnessOptions,
-    WitnessOutcome,
+    commutant as commutant_cert, enumerate_projective_image, find_witness, image_from_lines,
+    polynomial_text, CommutantOptions, GeneratorSet as CertSet, ImageEnumeration, ImageOptions,
+    WitnessOptions, WitnessOutcome,
 };
 use cyclorb_mcg::BlockSpace;
 use cyclorb_orbit::{OrbitOptions, OrbitProblem, Seed, Silent};
@@ -17,6 +17,10 @@ use super::common::{build_space, generator_set_file, parse_set};
 use super::output::{Outcome, Report};
 use super::structure::counted;
 use crate::cli::{CertArgs, ImageArgs, WitnessArgs};
+
+mod lines;
+
+pub(crate) use lines::{faithful_lines, OrbitLines};
 
 /// The block space and its generators as a certificate input.
 fn load(args: &CertArgs) -> Result<(BlockSpace, CertSet), String> {
@@ -105,95 +109,212 @@ pub fn commutant(args: &CertArgs, as_json: bool) -> Outcome {
     Outcome::Done(Report::new(value, text, as_json))
 }
 
-/// Run `cyclorb image`: enumeration modulo scalars for small images, otherwise Schreier–Sims
-/// on the saturated orbit of the vacuum line; undecided when neither closes in its cap, and
-/// infinite when a quick witness search proves it.
+/// Lines stored before the automatic route looks for a witness of infinite image (the
+/// orbit then goes on up to `--orbit-limit` when none is found).
+const QUICK_LINES: usize = 100_000;
+
+/// What `cyclorb image` is working with.
+struct ImageRun<'a> {
+    args: &'a ImageArgs,
+    as_json: bool,
+    gens: CertSet,
+    text: String,
+    value: serde_json::Value,
+}
+
+impl ImageRun<'_> {
+    /// The report so far (taken out of the run).
+    fn report(&mut self) -> Report {
+        Report::new(
+            std::mem::take(&mut self.value),
+            std::mem::take(&mut self.text),
+            self.as_json,
+        )
+    }
+
+    fn done(&mut self, route: &str, order: String, line: String) -> Outcome {
+        self.text.push_str(&line);
+        self.value["finite"] = json!(true);
+        self.value["order"] = json!(order);
+        self.value["route"] = json!(route);
+        Outcome::Done(self.report())
+    }
+
+    fn undecided(&mut self, reason: String) -> Outcome {
+        self.text.push_str(&format!("undecided: {reason}\n"));
+        self.value["route"] = json!("undecided");
+        self.value["reason"] = json!(reason);
+        Outcome::Stopped(self.report())
+    }
+
+    fn write<T: Serialize>(&self, cert: &T) -> Result<(), String> {
+        write_certificate(self.args.common.out.as_deref(), cert)
+    }
+
+    /// Route 0: the monomial structure; `None` when there is none.
+    fn structure(&mut self, space: &BlockSpace) -> Option<Outcome> {
+        let set = parse_set(&self.args.common.space.set).expect("parsed in load");
+        let r = match counted(space, set) {
+            Ok(Ok(r)) => r,
+            Ok(Err(absent)) => {
+                self.text
+                    .push_str(&format!("no monomial structure ({absent})\n"));
+                return None;
+            }
+            Err(e) => return Some(Outcome::Invalid(e)),
+        };
+        if let Err(e) = self.write(&r.certificate) {
+            return Some(Outcome::Invalid(e));
+        }
+        self.value["permutation_order"] = json!(r.image.permutation_order);
+        self.value["kernel_order"] = json!(r.image.kernel_order);
+        self.value["kernel_invariants"] = json!(r.image.kernel_invariants);
+        self.value["orbit_size"] = json!(r.orbit_size);
+        self.value["stabiliser_order"] = json!(r.orbit.line_stabiliser_order);
+        let line = format!(
+            "projective image: finite, order {} = |P| {} × |K| {} / |K ∩ scalars| {} (monomial structure; certificate re-checked)\n",
+            r.image_order, r.image.permutation_order, r.image.kernel_order, r.image.kernel_scalars
+        );
+        Some(self.done("structure", r.image_order.to_string(), line))
+    }
+
+    /// Route 1: enumeration of the image modulo scalars, up to `--enumeration-cap`.
+    fn enumeration(&mut self) -> Outcome {
+        let cap = self.args.enumeration_cap;
+        match enumerate_projective_image(&self.gens, cap) {
+            Ok(ImageEnumeration::Finite(cert)) => {
+                if let Err(e) = cert
+                    .verify(&self.gens)
+                    .map_err(|e| e.to_string())
+                    .and_then(|_| self.write(&cert))
+                {
+                    return Outcome::Invalid(e);
+                }
+                let line = format!(
+                    "projective image: finite, order {} (enumeration modulo scalars, re-checked)\n",
+                    cert.order
+                );
+                self.done("enumeration", cert.order.to_string(), line)
+            }
+            Ok(ImageEnumeration::Exceeds { .. }) => {
+                let reason = format!("the image has more than {cap} elements (--enumeration-cap)");
+                self.text.push_str(&format!("enumeration: {reason}\n"));
+                self.undecided(reason)
+            }
+            Err(e) => Outcome::Invalid(e.to_string()),
+        }
+    }
+
+    /// Route 3: a certified word of infinite projective order; `Err` with the number of
+    /// words tried when none is found.
+    fn witness(&mut self) -> Result<Outcome, usize> {
+        match find_witness(&self.gens, &WitnessOptions::default()) {
+            Ok(WitnessOutcome::Found(w)) => {
+                if let Err(e) = w
+                    .recheck(&self.gens)
+                    .map_err(|e| e.to_string())
+                    .and_then(|_| self.write(&w))
+                {
+                    return Ok(Outcome::Invalid(e));
+                }
+                self.text.push_str(&format!(
+                    "projective image: infinite; word {} has eigenvalue ratios that are not roots of unity (factor {})\n",
+                    w.word.join(" "),
+                    w.remaining_factor_text()
+                ));
+                self.value["finite"] = json!(false);
+                self.value["route"] = json!("witness");
+                self.value["word"] = json!(w.word);
+                Ok(Outcome::Done(self.report()))
+            }
+            Ok(WitnessOutcome::NotFound(r)) => Err(r.words_tried),
+            Err(e) => Ok(Outcome::Invalid(e.to_string())),
+        }
+    }
+
+    /// Route 2: Schreier–Sims on a saturated union of orbits proving faithfulness.
+    fn orbit_certificate(&mut self, lines: &OrbitLines, threads: usize) -> Outcome {
+        let options = ImageOptions { threads };
+        // The certificate's own checks ran while it was made (the faithfulness lemma
+        // exactly, the orbit–stabiliser identity); `verify` would repeat the same
+        // deterministic computation, so it is left to whoever re-reads an `--out` file.
+        let cert = match image_from_lines(&self.gens, lines, &options) {
+            Ok(c) => c,
+            Err(e) => return Outcome::Invalid(e.to_string()),
+        };
+        if let Err(e) = self.write(&cert) {
+            return Outcome::Invalid(e);
+        }
+        let g = &cert.group;
+        let seeds = if lines.added_seeds().is_empty() {
+            String::new()
+        } else {
+            format!(
+                " (the vacuum orbit with the orbits of {})",
+                lines.added_seeds().join(", ")
+            )
+        };
+        let line = format!(
+            "projective image: finite, order {} (Schreier–Sims on {} lines{seeds}; faithfulness proved exactly)\n  basic orbits {:?}, {} strong generators; orbit–stabiliser: |orbit| × |stabiliser| = {} × {}\n",
+            g.order, g.degree, g.basic_orbit_lengths, g.strong_generators, g.orbit_of_first_point, g.stabiliser_order
+        );
+        self.value["orbit_size"] = json!(lines.vacuum_orbit_len());
+        self.value["lines"] = json!(g.degree);
+        self.value["added_orbits"] = json!(lines.added_seeds());
+        self.value["stabiliser_order"] = json!(g.stabiliser_order);
+        self.value["base"] = json!(g.base);
+        self.value["basic_orbit_lengths"] = json!(g.basic_orbit_lengths);
+        self.value["strong_generators"] = json!(g.strong_generators);
+        let order = g.order.clone();
+        self.done("orbit-schreier-sims", order, line)
+    }
+}
+
+/// Run `cyclorb image`. The automatic route: the monomial structure when there is one;
+/// otherwise the orbit of the vacuum line, with a witness search once it passes
+/// 100 000 lines unclosed, up to `--orbit-limit` lines; Schreier–Sims on the saturated
+/// orbit (extended by further orbits until it proves faithfulness); enumeration modulo
+/// scalars when no faithful set of lines fits. "Undecided", with the reason, when none of
+/// these decides within its bounds.
 pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
     let (space, gens) = match load(&args.common) {
         Ok(x) => x,
         Err(e) => return Outcome::Invalid(e),
     };
-    let mut text = header(&space);
-    let mut value = json!({
-        "theory": space.theory().name(),
-        "genus": space.genus(),
-        "dimension": space.dimension(),
-        "conductor": space.theory().field().conductor(),
-        "finite": null, "order": null, "route": null,
-    });
-    // route 0: the monomial structure, when the representation has one
-    let allowed = |route: &str| args.route == "auto" || args.route == route;
+    let mut run = ImageRun {
+        args,
+        as_json,
+        gens,
+        text: header(&space),
+        value: json!({
+            "theory": space.theory().name(),
+            "genus": space.genus(),
+            "dimension": space.dimension(),
+            "conductor": space.theory().field().conductor(),
+            "finite": null, "order": null, "route": null,
+        }),
+    };
+    let auto = args.route == "auto";
+    match args.route.as_str() {
+        "enumeration" => return run.enumeration(),
+        "structure" => {
+            return match run.structure(&space) {
+                Some(outcome) => outcome,
+                None => run.undecided("the representation has no monomial structure".into()),
+            }
+        }
+        "auto" => {
+            if let Some(outcome) = run.structure(&space) {
+                return outcome;
+            }
+        }
+        _ => {}
+    }
+    // route 2: the orbit of the vacuum line
     let set = parse_set(&args.common.space.set).expect("parsed in load");
-    let structure = if allowed("structure") {
-        Some(counted(&space, set))
-    } else {
-        None
-    };
-    match structure {
-        None => {}
-        Some(found) => match found {
-            Ok(Ok(r)) => {
-                if let Err(e) = write_certificate(args.common.out.as_deref(), &r.certificate) {
-                    return Outcome::Invalid(e);
-                }
-                text.push_str(&format!(
-                "projective image: finite, order {} = |P| {} × |K| {} / |K ∩ scalars| {} (monomial structure; certificate re-checked)\n",
-                r.image_order, r.image.permutation_order, r.image.kernel_order, r.image.kernel_scalars
-            ));
-                value["finite"] = json!(true);
-                value["order"] = json!(r.image_order);
-                value["route"] = json!("structure");
-                value["permutation_order"] = json!(r.image.permutation_order);
-                value["kernel_order"] = json!(r.image.kernel_order);
-                value["kernel_invariants"] = json!(r.image.kernel_invariants);
-                value["orbit_size"] = json!(r.orbit_size);
-                value["stabiliser_order"] = json!(r.orbit.line_stabiliser_order);
-                return Outcome::Done(Report::new(value, text, as_json));
-            }
-            Ok(Err(absent)) => text.push_str(&format!("no monomial structure ({absent})\n")),
-            Err(e) => return Outcome::Invalid(e),
-        },
-    }
-    // route 1: enumeration of matrices modulo scalars
-    let enumerated = if allowed("enumeration") {
-        enumerate_projective_image(&gens, args.enumeration_cap)
-    } else {
-        Ok(ImageEnumeration::Exceeds { cap: 0 })
-    };
-    match enumerated {
-        Ok(ImageEnumeration::Finite(cert)) => {
-            if let Err(e) = cert
-                .verify(&gens)
-                .map_err(|e| e.to_string())
-                .and_then(|_| write_certificate(args.common.out.as_deref(), &cert))
-            {
-                return Outcome::Invalid(e);
-            }
-            text.push_str(&format!(
-                "projective image: finite, order {} (enumeration modulo scalars, re-checked)\n",
-                cert.order
-            ));
-            value["finite"] = json!(true);
-            value["order"] = json!(cert.order.to_string());
-            value["route"] = json!("enumeration");
-            return Outcome::Done(Report::new(value, text, as_json));
-        }
-        Ok(ImageEnumeration::Exceeds { .. }) => {
-            text.push_str(&format!(
-                "enumeration: more than {} elements; trying the orbit route\n",
-                args.enumeration_cap
-            ));
-        }
-        Err(e) => return Outcome::Invalid(e.to_string()),
-    }
-    // route 2: permutation action on the saturated vacuum orbit
+    let twists = space.generators(set).expect("built in load");
     let problem = match OrbitProblem::new(
-        generator_set_file(
-            &space,
-            &space
-                .generators(parse_set(&args.common.space.set).expect("parsed in load"))
-                .expect("built in load"),
-        ),
+        generator_set_file(&space, &twists),
         &Seed::basis_vector(
             space.theory().field(),
             space.dimension(),
@@ -204,79 +325,61 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
         Err(e) => return Outcome::Invalid(e.to_string()),
     };
     let threads = std::thread::available_parallelism().map_or(1, |n| n.get());
-    let options = OrbitOptions {
-        limit: Some(args.orbit_limit),
+    let options = |limit: usize| OrbitOptions {
+        limit: Some(limit),
         threads,
         ..OrbitOptions::default()
     };
-    let orbit = match problem.enumerate(&options, &mut Silent) {
+    let quick = if auto {
+        QUICK_LINES.min(args.orbit_limit)
+    } else {
+        args.orbit_limit
+    };
+    let mut orbit = match problem.enumerate(&options(quick), &mut Silent) {
         Ok(o) => o,
         Err(e) => return Outcome::Invalid(e.to_string()),
     };
-    if orbit.is_saturated() {
-        let lines: Result<Vec<_>, _> = (0..orbit.len()).map(|i| problem.line(&orbit, i)).collect();
-        let lines = match lines {
-            Ok(l) => l,
-            Err(e) => return Outcome::Invalid(e.to_string()),
-        };
-        let cert = match image_from_orbit(&gens, &lines) {
-            Ok(c) => c,
-            Err(e) => return Outcome::Invalid(e.to_string()),
-        };
-        if let Err(e) = cert
-            .verify(&gens, &lines)
-            .map_err(|e| e.to_string())
-            .and_then(|_| write_certificate(args.common.out.as_deref(), &cert))
-        {
-            return Outcome::Invalid(e);
-        }
-        let g = &cert.group;
-        text.push_str(&format!(
-            "projective image: finite, order {} (Schreier–Sims on the {} orbit lines, faithful; re-checked)\n  basic orbits {:?}, {} strong generators; |orbit| × |stabiliser| = {} × {}\n",
-            g.order, g.degree, g.basic_orbit_lengths, g.strong_generators, g.orbit_of_first_point, g.stabiliser_order
+    let mut words_tried = None;
+    if !orbit.is_saturated() && auto {
+        run.text.push_str(&format!(
+            "orbit: not closed after {} lines; searching for a witness of infinite image\n",
+            orbit.len()
         ));
-        value["finite"] = json!(true);
-        value["order"] = json!(g.order);
-        value["route"] = json!("orbit-schreier-sims");
-        value["orbit_size"] = json!(g.degree);
-        value["stabiliser_order"] = json!(g.stabiliser_order);
-        value["base"] = json!(g.base);
-        value["basic_orbit_lengths"] = json!(g.basic_orbit_lengths);
-        return Outcome::Done(Report::new(value, text, as_json));
+        match run.witness() {
+            Ok(outcome) => return outcome,
+            Err(tried) => words_tried = Some(tried),
+        }
+        if quick < args.orbit_limit {
+            run.text.push_str(&format!(
+                "no witness among {tried} words; the orbit goes on up to {} lines\n",
+                args.orbit_limit,
+                tried = words_tried.unwrap_or(0)
+            ));
+            orbit = match problem.extend(orbit, &options(args.orbit_limit), &mut Silent) {
+                Ok(o) => o,
+                Err(e) => return Outcome::Invalid(e.to_string()),
+            };
+        }
     }
-    text.push_str(&format!(
-        "orbit: not saturated after {} lines; searching for a witness of infinite image\n",
-        orbit.len()
-    ));
-    // route 3: a short witness search decides "infinite"
-    match find_witness(&gens, &WitnessOptions::default()) {
-        Ok(WitnessOutcome::Found(w)) => {
-            if let Err(e) = w
-                .recheck(&gens)
-                .map_err(|e| e.to_string())
-                .and_then(|_| write_certificate(args.common.out.as_deref(), &w))
-            {
-                return Outcome::Invalid(e);
-            }
-            text.push_str(&format!(
-                "projective image: infinite; word {} has eigenvalue ratios that are not roots of unity (factor {})\n",
-                w.word.join(" "),
-                w.remaining_factor_text()
-            ));
-            value["finite"] = json!(false);
-            value["route"] = json!("witness");
-            value["word"] = json!(w.word);
-            Outcome::Done(Report::new(value, text, as_json))
+    if !orbit.is_saturated() {
+        let mut reason = format!(
+            "the vacuum orbit is not closed within {} lines (--orbit-limit)",
+            args.orbit_limit
+        );
+        if let Some(tried) = words_tried {
+            reason.push_str(&format!(" and no witness among {tried} words"));
         }
-        Ok(WitnessOutcome::NotFound(r)) => {
-            text.push_str(&format!(
-                "undecided: no closed orbit within {} lines and no witness among {} words\n",
-                args.orbit_limit, r.words_tried
-            ));
-            value["route"] = json!("undecided");
-            Outcome::Stopped(Report::new(value, text, as_json))
+        return run.undecided(reason);
+    }
+    match faithful_lines(&problem, &orbit, args.orbit_limit, threads) {
+        Ok(Ok(lines)) => run.orbit_certificate(&lines, threads),
+        Ok(Err(reason)) if auto => {
+            run.text
+                .push_str(&format!("orbit route: {reason}; trying enumeration\n"));
+            run.enumeration()
         }
-        Err(e) => Outcome::Invalid(e.to_string()),
+        Ok(Err(reason)) => run.undecided(reason),
+        Err(e) => Outcome::Invalid(e),
     }
 }
 

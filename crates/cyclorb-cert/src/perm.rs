@@ -1,5 +1,6 @@
 //! Permutations of {0, …, m − 1} as image lists, acting on the right: x^g = g[x], and the
-//! product g·h means "g first, then h": (g·h)[x] = h[g[x]].
+//! product g·h means "g first, then h": (g·h)[x] = h[g[x]]; so applying g·h to a list of
+//! points applies g to each entry, then h.
 
 use crate::error::CertError;
 
@@ -31,18 +32,13 @@ pub(crate) fn identity(degree: usize) -> Perm {
     (0..degree as u32).collect()
 }
 
-/// g·h: first g, then h.
-pub(crate) fn compose(g: &[u32], h: &[u32]) -> Perm {
-    g.iter().map(|&x| h[x as usize]).collect()
-}
-
-/// g·h⁻¹: first g, then the inverse of h.
-pub(crate) fn compose_inverse(g: &[u32], h: &[u32]) -> Perm {
-    let mut inverse = vec![0u32; h.len()];
-    for (x, &y) in h.iter().enumerate() {
-        inverse[y as usize] = x as u32;
+/// g⁻¹ (g a bijection).
+pub(crate) fn inverse(g: &[u32]) -> Perm {
+    let mut out = vec![0u32; g.len()];
+    for (x, &y) in g.iter().enumerate() {
+        out[y as usize] = x as u32;
     }
-    compose(g, &inverse)
+    out
 }
 
 /// True for the identity.

@@ -5,7 +5,7 @@ mod common;
 use common::*;
 use cyclorb_cert::{
     enumerate_projective_image, image_from_orbit, induced_permutations, CertError, GeneratorSet,
-    ImageEnumeration, PermutationImageCertificate,
+    ImageEnumeration, ImageOptions, PermutationImageCertificate,
 };
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::{Matrix, Operator};
@@ -26,7 +26,7 @@ fn orbit_certificate(
 ) -> (Vec<Vec<cyclorb_field::Cyc>>, PermutationImageCertificate) {
     let lines = line_orbit(gens, vacuum(gens.field(), gens.dim()), cap);
     let cert = image_from_orbit(gens, &lines).unwrap();
-    cert.verify(gens, &lines).unwrap();
+    cert.verify(gens, &lines, &ImageOptions::default()).unwrap();
     (lines, cert)
 }
 
@@ -63,29 +63,37 @@ fn ising_genus_one_image_orders_agree() {
     assert_eq!(24 * stabiliser, enumerated);
     let text = serde_json::to_string(&cert).unwrap();
     let back: PermutationImageCertificate = serde_json::from_str(&text).unwrap();
-    back.verify(&gens, &lines).unwrap();
+    back.verify(&gens, &lines, &ImageOptions { threads: 2 })
+        .unwrap();
 }
 
 #[test]
 fn tampered_image_certificates_are_rejected() {
     let gens = fibonacci().generators();
     let (lines, cert) = orbit_certificate(&gens, 1000);
+    let options = ImageOptions::default();
     let mut wrong_order = cert.clone();
     wrong_order.group.order = "120".into();
     assert!(matches!(
-        wrong_order.verify(&gens, &lines),
+        wrong_order.verify(&gens, &lines, &options),
         Err(CertError::Rejected(_))
     ));
     let mut wrong_perm = cert.clone();
-    wrong_perm.permutations[0].swap(0, 1);
+    wrong_perm.permutation_digests.swap(0, 1);
     assert!(matches!(
-        wrong_perm.verify(&gens, &lines),
+        wrong_perm.verify(&gens, &lines, &options),
         Err(CertError::Rejected(_))
     ));
-    let mut wrong_links = cert;
+    let mut wrong_links = cert.clone();
     wrong_links.faithfulness.links.clear();
     assert!(matches!(
-        wrong_links.verify(&gens, &lines),
+        wrong_links.verify(&gens, &lines, &options),
+        Err(CertError::Rejected(_))
+    ));
+    let mut fewer_lines = cert;
+    fewer_lines.lines -= 1;
+    assert!(matches!(
+        fewer_lines.verify(&gens, &lines, &options),
         Err(CertError::Rejected(_))
     ));
 }
@@ -95,7 +103,7 @@ fn unsaturated_lines_and_non_faithful_orbits_are_errors() {
     let gens = fibonacci().generators();
     let lines = line_orbit(&gens, vacuum(gens.field(), 2), 1000);
     assert!(matches!(
-        induced_permutations(&gens, &lines[..5]),
+        induced_permutations(&gens, &lines[..5], 1),
         Err(CertError::Input(_))
     ));
     // a diagonal generator alone: the orbit of e_0 is one line, which spans nothing
@@ -107,7 +115,7 @@ fn unsaturated_lines_and_non_faithful_orbits_are_errors() {
     )
     .unwrap();
     assert!(matches!(
-        image_from_orbit(&d, &[vacuum(&f, 2)]),
+        image_from_orbit(&d, &vec![vacuum(&f, 2)]),
         Err(CertError::Input(_))
     ));
 }

@@ -2,16 +2,19 @@
 //! commutant dimension, image order, witness of infinite image.
 //!
 //! The image order comes from the permutation action on a saturated orbit (Schreier–Sims
-//! after the faithfulness lemma) when the orbit is small enough, else from enumerating the
-//! image modulo scalars up to a cap. An unsaturated orbit of N lines shows the image has at
-//! least N elements, so enumeration is not tried when N exceeds the cap. A witness is
-//! searched for only when the image is not already proven finite.
+//! after the faithfulness lemma, the orbit extended by further orbits when it alone does not
+//! prove faithfulness, as in `cyclorb image`) when the lines fit in `image.max_lines`, else
+//! from enumerating the image modulo scalars up to a cap. An unsaturated orbit of N lines
+//! shows the image has at least N elements, so enumeration is not tried when N exceeds the
+//! cap. A witness is searched for only when the image is not already proven finite.
 
 use cyclorb_cert::{
-    commutant, enumerate_projective_image, find_witness, image_from_orbit, CommutantOptions,
-    CommutantRoute, GeneratorSet, ImageEnumeration, WitnessOptions, WitnessOutcome,
+    commutant, enumerate_projective_image, find_witness, image_from_lines, CommutantOptions,
+    CommutantRoute, GeneratorSet, ImageEnumeration, ImageOptions, WitnessOptions, WitnessOutcome,
 };
 use cyclorb_orbit::{Orbit, OrbitProblem};
+
+use crate::commands::certify::faithful_lines;
 
 use super::plan::{ImageBounds, WitnessBounds};
 use super::result::{CommutantAnswer, ImageAnswer, WitnessAnswer};
@@ -76,6 +79,7 @@ pub fn image_answer(
     problem: &OrbitProblem,
     orbit: &Orbit,
     bounds: &ImageBounds,
+    threads: usize,
 ) -> Result<ImageAnswer, String> {
     if !orbit.is_saturated() {
         return Ok(undecided(format!(
@@ -99,16 +103,22 @@ pub fn image_answer(
             )),
         );
     }
-    let lines = (0..orbit.len())
-        .map(|i| problem.line(orbit, i))
-        .collect::<Result<Vec<_>, _>>()
-        .map_err(|e| format!("image: {e}"))?;
-    match image_from_orbit(gens, &lines) {
+    let lines = match faithful_lines(problem, orbit, bounds.max_lines, threads)? {
+        Ok(lines) => lines,
+        Err(reason) => return enumerated(gens, bounds.enumeration_cap, Some(reason)),
+    };
+    match image_from_lines(gens, &lines, &ImageOptions { threads }) {
         Ok(cert) => Ok(ImageAnswer {
             finite: Some(true),
             order: Some(cert.group.order),
             route: "orbit-permutations".into(),
-            note: None,
+            note: (!lines.added_seeds().is_empty()).then(|| {
+                format!(
+                    "{} lines: the vacuum orbit with the orbits of {}",
+                    cert.lines,
+                    lines.added_seeds().join(", ")
+                )
+            }),
         }),
         Err(e) => enumerated(
             gens,

@@ -203,7 +203,7 @@ pub fn execute(
     if let (Some(gens), Some(orbit)) = (&gens, &orbit_found) {
         if run.wants(Answer::Image) {
             display.stage(run, "image order");
-            match image_answer(gens, &problem, orbit, &settings.image) {
+            match image_answer(gens, &problem, orbit, &settings.image, settings.threads) {
                 Ok(a) => result.image = Some(a),
                 Err(e) => result.errors.push(e),
             }
