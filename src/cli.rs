@@ -136,8 +136,9 @@ pub struct OrbitArgs {
     #[arg(long, default_value_t = 0)]
     pub words: usize,
     /// How to find the orbit: `enumerate` lists every line; `structure` counts them through
-    /// the monomial structure of the representation (when it has one; Ising does).
-    #[arg(long, default_value = "enumerate", value_parser = ["enumerate", "structure"])]
+    /// the monomial structure of the representation (when it has one; Ising does);
+    /// `product` finds the orbit of a Deligne product A*B from its factors' orbits.
+    #[arg(long, default_value = "enumerate", value_parser = ["enumerate", "structure", "product"])]
     pub method: String,
 }
 

@@ -272,3 +272,53 @@ fn odd_pointed_orbits_count_the_lagrangian_subspaces() {
         }
     }
 }
+
+/// Orbit size and layer sizes of a saturated run with the given method.
+fn orbit_by(spec: &str, genus: &str, method: &str) -> (u64, serde_json::Value) {
+    let (code, v) = cyclorb_json(&["orbit", spec, "--genus", genus, "--method", method]);
+    assert_eq!(code, 0, "{spec} genus {genus} by {method}: {v}");
+    assert_eq!(v["saturated"], true);
+    (v["orbit_size"].as_u64().unwrap(), v["layer_sizes"].clone())
+}
+
+#[test]
+fn the_product_route_agrees_with_enumeration() {
+    // The block space of A⊠B is V_A ⊗ V_B with every twist acting as T_A ⊗ T_B, and a line
+    // ⟨v ⊗ w⟩ determines ⟨v⟩ and ⟨w⟩ (common practice: the Segre embedding is injective), so
+    // the orbit found from the factors must be the enumerated one, layer by layer.
+    for (spec, genus) in [
+        ("ising*fibonacci", "1"),
+        ("ising*zn:3:2", "1"),
+        ("ising*ising:3", "2"),
+        ("ising*zn:2:1", "2"),
+        ("ising*ising", "2"),
+    ] {
+        assert_eq!(
+            orbit_by(spec, genus, "product"),
+            orbit_by(spec, genus, "enumerate"),
+            "{spec} genus {genus}"
+        );
+    }
+}
+
+#[test]
+fn the_product_route_refuses_a_theory_that_is_not_a_product() {
+    let out = common::cyclorb(&["orbit", "ising", "--genus", "1", "--method", "product"]);
+    assert_eq!(out.status.code(), Some(1));
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(err.contains("not one"), "{err}");
+    // a factor whose orbit does not close leaves the product unsaturated, with a lower bound
+    let (code, v) = cyclorb_json(&[
+        "orbit",
+        "ising*fibonacci",
+        "--genus",
+        "2",
+        "--method",
+        "product",
+        "--limit",
+        "500",
+    ]);
+    assert_eq!(code, 3, "{v}");
+    assert_eq!(v["saturated"], false);
+    assert!(v["orbit_size"].as_u64().unwrap() >= 500);
+}

@@ -5,6 +5,7 @@ mod common;
 mod field;
 mod orbit;
 pub mod output;
+mod product;
 mod progress;
 mod structure;
 mod sweep;

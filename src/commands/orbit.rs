@@ -13,6 +13,7 @@ use serde_json::json;
 
 use super::common::{build_space, generator_set_file, parse_set};
 use super::output::{Outcome, Report};
+use super::product::run_product;
 use super::progress::OrbitProgress;
 use super::structure::{counted, orbit_json, orbit_text};
 use crate::cli::OrbitArgs;
@@ -170,6 +171,9 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
     let started = Instant::now();
     if args.method == "structure" {
         return run_structure(args, as_json, started);
+    }
+    if args.method == "product" {
+        return run_product(args, as_json, started);
     }
     let problem = match load_problem(args) {
         Ok(p) => p,

@@ -1,0 +1,219 @@
+//! `cyclorb orbit A*B --genus G --method product`: the orbit of a Deligne product's vacuum
+//! line found from its factors.
+//!
+//! The genus-g block space of A ⊠ B is V_A ⊗ V_B, its vacuum is v_A ⊗ v_B, and each Dehn
+//! twist acts as T_A ⊗ T_B up to a scalar. A line ⟨v ⊗ w⟩ determines ⟨v⟩ and ⟨w⟩ and is
+//! determined by them, so the product's orbit is the orbit of the pair of vacuum lines under
+//! the diagonal action of the permutations the twists induce on the two factor orbits
+//! (`cyclorb_orbit::pair_orbit`). Each factor's orbit is enumerated and proved closed as
+//! usual; only the factors ever meet field arithmetic, so the product's dimension
+//! dim V_A · dim V_B never matters. This route does not form the Poincaré sum B.
+
+use std::sync::atomic::AtomicBool;
+use std::sync::Arc;
+use std::time::Instant;
+
+use cyclorb_orbit::{install_stop_handler, pair_orbit, OrbitOptions, OrbitProblem, Seed, Silent};
+use serde_json::{json, Value};
+
+use super::common::{build_space, generator_set_file, parse_set};
+use super::output::{Outcome, Report};
+use crate::cli::OrbitArgs;
+
+/// The two factors of a spec `A*B` split at its first `*` outside parentheses.
+fn product_factors(spec: &str) -> Option<(&str, &str)> {
+    let mut depth = 0i32;
+    for (i, ch) in spec.char_indices() {
+        match ch {
+            '(' => depth += 1,
+            ')' => depth -= 1,
+            '*' if depth == 0 => return Some((&spec[..i], &spec[i + 1..])),
+            _ => {}
+        }
+    }
+    None
+}
+
+/// One factor's saturated orbit and the permutations the twists induce on it.
+struct Factor {
+    spec: String,
+    dimension: usize,
+    conductor: u32,
+    generator_names: Vec<String>,
+    orbit_size: usize,
+    saturated: bool,
+    permutations: Vec<Vec<u32>>,
+}
+
+fn factor(spec: &str, args: &OrbitArgs, options: &OrbitOptions) -> Result<Factor, String> {
+    let genus = args.genus.ok_or("--method product needs --genus")?;
+    let set = parse_set(&args.set)?;
+    let space = build_space(spec, genus).map_err(|e| format!("factor {spec}: {e}"))?;
+    let twists = space
+        .generators(set)
+        .map_err(|e| format!("factor {spec}: {e}"))?;
+    let gens = generator_set_file(&space, &twists);
+    let seed = Seed::basis_vector(
+        space.theory().field(),
+        space.dimension(),
+        space.basis().vacuum(),
+    );
+    let names = gens.names.clone();
+    let problem = OrbitProblem::new(gens, &seed).map_err(|e| format!("factor {spec}: {e}"))?;
+    let orbit = problem
+        .enumerate(options, &mut Silent)
+        .map_err(|e| format!("factor {spec}: {e}"))?;
+    let permutations = if orbit.is_saturated() {
+        problem
+            .induced_permutations(&orbit, options.threads)
+            .map_err(|e| format!("factor {spec}: {e}"))?
+    } else {
+        Vec::new()
+    };
+    Ok(Factor {
+        spec: spec.to_string(),
+        dimension: space.dimension(),
+        conductor: space.theory().field().conductor(),
+        generator_names: names,
+        orbit_size: orbit.len(),
+        saturated: orbit.is_saturated(),
+        permutations,
+    })
+}
+
+fn factor_json(f: &Factor) -> Value {
+    json!({
+        "spec": f.spec,
+        "dimension": f.dimension,
+        "conductor": f.conductor,
+        "orbit_size": f.orbit_size,
+        "saturated": f.saturated,
+    })
+}
+
+/// Run `cyclorb orbit SPEC --method product`.
+pub fn run_product(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
+    let Some(spec) = &args.spec else {
+        return Outcome::Invalid("--method product needs a theory SPEC of the form A*B".into());
+    };
+    let Some((left, right)) = product_factors(spec) else {
+        return Outcome::Invalid(format!(
+            "--method product needs a Deligne product A*B; {spec} is not one"
+        ));
+    };
+    if args.checkpoint.is_some() || args.resume.is_some() {
+        return Outcome::Invalid(
+            "--method product keeps no checkpoints (its factors are short runs); drop --checkpoint/--resume".into(),
+        );
+    }
+    let conductor = match cyclorb_theory::parse_spec(spec) {
+        Ok(theory) => theory.field().conductor(),
+        Err(e) => return Outcome::Invalid(e.to_string()),
+    };
+    let stop = Arc::new(AtomicBool::new(false));
+    if let Err(e) = install_stop_handler(&stop) {
+        return Outcome::Invalid(format!("cannot install the interrupt handler: {e}"));
+    }
+    let options = OrbitOptions {
+        limit: args.limit,
+        memory_ceiling: args.memory_limit.map(|m| m << 20),
+        threads: args
+            .threads
+            .unwrap_or_else(|| std::thread::available_parallelism().map_or(1, |n| n.get())),
+        stop: Some(stop),
+        ..OrbitOptions::default()
+    };
+    let first = match factor(left, args, &options) {
+        Ok(f) => f,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    // A*A: the second factor is the first (the diagonal action keeps the diagonal)
+    let second = if right == left {
+        None
+    } else {
+        match factor(right, args, &options) {
+            Ok(f) => Some(f),
+            Err(e) => return Outcome::Invalid(e),
+        }
+    };
+    let (a, b) = (&first, second.as_ref().unwrap_or(&first));
+    if a.generator_names != b.generator_names {
+        return Outcome::Invalid(format!(
+            "the factors' generators differ ({:?} and {:?})",
+            a.generator_names, b.generator_names
+        ));
+    }
+    let genus = args.genus.unwrap_or(0);
+    let base = json!({
+        "theory": spec,
+        "genus": genus,
+        "dimension": a.dimension * b.dimension,
+        "conductor": conductor,
+        "generators": a.generator_names.len(),
+        "generator_names": a.generator_names,
+        "method": "product",
+        "factors": [factor_json(a), factor_json(b)],
+    });
+    let mut value = base;
+    let (orbit_size, saturated, layers, note) = if !(a.saturated && b.saturated) {
+        // the product's orbit maps onto each factor's orbit, so it is at least as large
+        let found = a.orbit_size.max(b.orbit_size);
+        (
+            found,
+            false,
+            Value::Null,
+            format!(
+                "a factor's orbit stopped before closing; the product's orbit has at least {found} lines"
+            ),
+        )
+    } else {
+        let pairs = pair_orbit(&a.permutations, &b.permutations, args.limit);
+        (
+            pairs.pairs.len(),
+            pairs.saturated,
+            json!(pairs.layer_sizes),
+            "pairs of factor lines under the diagonal action of the induced permutations".into(),
+        )
+    };
+    value["orbit_size"] = json!(orbit_size);
+    value["saturated"] = json!(saturated);
+    value["layer_sizes"] = layers;
+    value["note"] = json!(note);
+    value["poincare_sum"] = json!({
+        "is_scalar": null,
+        "prefactor": null,
+        "invariants": null,
+        "note": "the product route does not form B; use --method enumerate for it",
+    });
+    value["elapsed_seconds"] = json!(started.elapsed().as_secs_f64());
+    value["peak_memory_bytes"] = json!(cyclorb_orbit::peak_memory_bytes());
+    let text = format!(
+        "theory {spec} at genus {genus}: dimension {} = {} × {}, {} generators (product route)\n\
+         factor {}: {} lines{}; factor {}: {} lines{}\n\
+         orbit of the vacuum line: {} lines, {}\n\
+         time {:.2} s\n",
+        a.dimension * b.dimension,
+        a.dimension,
+        b.dimension,
+        a.generator_names.len(),
+        a.spec,
+        a.orbit_size,
+        if a.saturated { "" } else { " (not closed)" },
+        b.spec,
+        b.orbit_size,
+        if b.saturated { "" } else { " (not closed)" },
+        orbit_size,
+        if saturated {
+            "saturated".to_string()
+        } else {
+            format!("not saturated after {orbit_size}")
+        },
+        started.elapsed().as_secs_f64(),
+    );
+    let report = Report::new(value, text, as_json);
+    if saturated {
+        Outcome::Done(report)
+    } else {
+        Outcome::Stopped(report)
+    }
+}
