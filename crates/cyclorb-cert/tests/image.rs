@@ -1,11 +1,12 @@
-//! Image orders by the two routes, on the genus-1 Ising and Fibonacci representations.
+//! Image orders by the two routes, on the genus-1 Ising and Fibonacci representations and
+//! on Clifford groups.
 
 mod common;
 
 use common::*;
 use cyclorb_cert::{
-    enumerate_projective_image, image_from_orbit, induced_permutations, CertError, GeneratorSet,
-    ImageEnumeration, ImageOptions, PermutationImageCertificate,
+    enumerate_projective_image, image_from_lines, image_from_orbit, induced_permutations,
+    CertError, GeneratorSet, ImageEnumeration, ImageOptions, PermutationImageCertificate,
 };
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::{Matrix, Operator};
@@ -139,4 +140,58 @@ fn an_infinite_image_exceeds_any_cap() {
     assert_eq!(outcome, ImageEnumeration::Exceeds { cap: 500 });
     let json = serde_json::to_value(&outcome).unwrap();
     assert_eq!(json, serde_json::json!({"result": "exceeds", "cap": 500}));
+}
+
+/// The n-qubit Clifford generators over Q(ζ_8): H and S = diag(1, i) on each qubit and CNOT
+/// from each qubit to the next, as dense 2ⁿ × 2ⁿ matrices (qubit 0 outermost).
+fn clifford(n: usize) -> GeneratorSet {
+    let f = CyclotomicField::new(8).unwrap();
+    let h = matrix(&f, &[&["1/sqrt(2)", "1/sqrt(2)"], &["1/sqrt(2)", "-1/sqrt(2)"]]);
+    let s = matrix(&f, &[&["1", "0"], &["0", "i"]]);
+    let one = Matrix::identity(&f, 2);
+    let on_qubit = |q: usize, gate: &Matrix| {
+        (0..n).fold(Matrix::identity(&f, 1), |acc, k| {
+            acc.kronecker(&f, if k == q { gate } else { &one }).unwrap()
+        })
+    };
+    let dim = 1usize << n;
+    let mut gens = Vec::new();
+    for q in 0..n {
+        gens.push((format!("H{q}"), Operator::Dense(on_qubit(q, &h))));
+        gens.push((format!("S{q}"), Operator::Dense(on_qubit(q, &s))));
+    }
+    for q in 0..n - 1 {
+        // |x⟩ ↦ |x with bit q+1 flipped when bit q is set⟩ (bit q is 2^(n−1−q))
+        let (control, target) = (1 << (n - 1 - q), 1 << (n - 2 - q));
+        let mut m = Matrix::zeros(&f, dim, dim);
+        for x in 0..dim {
+            let y = if x & control != 0 { x ^ target } else { x };
+            m.set(y, x, f.one());
+        }
+        gens.push((format!("CNOT{q}"), Operator::Dense(m)));
+    }
+    GeneratorSet::new(f, gens, None).unwrap()
+}
+
+#[test]
+fn three_qubit_clifford_group_by_base_images() {
+    // The stabiliser states of 3 qubits: 2³·(2+1)(4+1)(8+1) = 1080 (Aaronson–Gottesman,
+    // Phys. Rev. A 70, 052328 (2004)); the Clifford group modulo phases has order
+    // 2^(n²+2n)·Π_{j≤n}(4^j − 1) = 2^15·3·15·63 = 92 897 280 (Calderbank, Rains, Shor,
+    // Sloane, IEEE Trans. Inf. Theory 44 (1998)).
+    let gens = clifford(3);
+    let lines = line_orbit(&gens, vacuum(gens.field(), 8), 2000);
+    assert_eq!(lines.len(), 1080);
+    let options = ImageOptions { threads: 2 };
+    let cert = image_from_lines(&gens, &lines, &options).unwrap();
+    assert_eq!(cert.group.order, "92897280");
+    assert_eq!(cert.group.orbit_of_first_point, 1080);
+    // the base is the vacuum line with the faithfulness lines: a basis of 8 and its links
+    assert!(cert.faithfulness.basis.len() == 8 && cert.group.base[0] == 0);
+    cert.verify(&gens, &lines, &ImageOptions::default()).unwrap();
+    // two qubits: 60 stabiliser states, 11 520 Cliffords modulo phases (same sources)
+    let gens = clifford(2);
+    let lines = line_orbit(&gens, vacuum(gens.field(), 4), 100);
+    assert_eq!(lines.len(), 60);
+    assert_eq!(image_from_orbit(&gens, &lines).unwrap().group.order, "11520");
 }
