@@ -134,7 +134,14 @@ fn a_route_that_cannot_decide_says_undecided() {
     assert!(v["reason"].as_str().unwrap().contains("monomial"));
     // an orbit limit below the vacuum orbit of SU(2)_4 at genus 2
     let (code, v) = cyclorb_json(&[
-        "image", "su2:4", "--genus", "2", "--route", "orbit", "--orbit-limit", "1000",
+        "image",
+        "su2:4",
+        "--genus",
+        "2",
+        "--route",
+        "orbit",
+        "--orbit-limit",
+        "1000",
     ]);
     assert_eq!(code, 3, "{v}");
     assert!(v["reason"].as_str().unwrap().contains("not closed"));

@@ -146,7 +146,10 @@ fn an_infinite_image_exceeds_any_cap() {
 /// from each qubit to the next, as dense 2ⁿ × 2ⁿ matrices (qubit 0 outermost).
 fn clifford(n: usize) -> GeneratorSet {
     let f = CyclotomicField::new(8).unwrap();
-    let h = matrix(&f, &[&["1/sqrt(2)", "1/sqrt(2)"], &["1/sqrt(2)", "-1/sqrt(2)"]]);
+    let h = matrix(
+        &f,
+        &[&["1/sqrt(2)", "1/sqrt(2)"], &["1/sqrt(2)", "-1/sqrt(2)"]],
+    );
     let s = matrix(&f, &[&["1", "0"], &["0", "i"]]);
     let one = Matrix::identity(&f, 2);
     let on_qubit = |q: usize, gate: &Matrix| {
@@ -188,10 +191,14 @@ fn three_qubit_clifford_group_by_base_images() {
     assert_eq!(cert.group.orbit_of_first_point, 1080);
     // the base is the vacuum line with the faithfulness lines: a basis of 8 and its links
     assert!(cert.faithfulness.basis.len() == 8 && cert.group.base[0] == 0);
-    cert.verify(&gens, &lines, &ImageOptions::default()).unwrap();
+    cert.verify(&gens, &lines, &ImageOptions::default())
+        .unwrap();
     // two qubits: 60 stabiliser states, 11 520 Cliffords modulo phases (same sources)
     let gens = clifford(2);
     let lines = line_orbit(&gens, vacuum(gens.field(), 4), 100);
     assert_eq!(lines.len(), 60);
-    assert_eq!(image_from_orbit(&gens, &lines).unwrap().group.order, "11520");
+    assert_eq!(
+        image_from_orbit(&gens, &lines).unwrap().group.order,
+        "11520"
+    );
 }
