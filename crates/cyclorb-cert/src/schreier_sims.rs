@@ -70,6 +70,11 @@ const PARALLEL_BATCH: usize = 512;
 struct Scratch {
     images: Vec<u32>,
     path: Vec<Edge>,
+    /// The last (level, β) whose u_β was applied to the base points, and the result: the
+    /// pairs of one point with each generator come in a row and share it (the chain does
+    /// not change while a scratch lives).
+    beta: Option<(usize, u32)>,
+    beta_images: Vec<u32>,
 }
 
 /// One level of the chain.
@@ -311,10 +316,16 @@ impl StabiliserChain {
     ) -> Option<usize> {
         let (beta, s, gamma) = self.pair_points(k, position, generator)?;
         let tree = &self.levels[k].tree;
+        if scratch.beta != Some((k, beta)) {
+            let moved = &mut scratch.beta_images;
+            moved.clear();
+            moved.extend(self.levels[k + 1..].iter().map(|l| l.base_point));
+            tree.apply(&self.strong, beta, moved, &mut scratch.path);
+            scratch.beta = Some((k, beta));
+        }
         let images = &mut scratch.images;
         images.clear();
-        images.extend(self.levels[k + 1..].iter().map(|l| l.base_point));
-        tree.apply(&self.strong, beta, images, &mut scratch.path);
+        images.extend_from_slice(&scratch.beta_images);
         Edge::forward(s).apply_all(&self.strong, images);
         tree.apply_inverse(&self.strong, gamma, images);
         self.sift_images(images, k + 1)
