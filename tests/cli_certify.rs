@@ -161,3 +161,74 @@ fn su2_level_four_genus_two_image_is_finite() {
     let stabiliser: u128 = v["stabiliser_order"].as_str().unwrap().parse().unwrap();
     assert_eq!(1_228_800 * stabiliser, 206789543098796485273190400u128);
 }
+
+#[test]
+fn an_image_certificate_file_is_rechecked_from_the_generators() {
+    // `cyclorb image --out` names the line set (the vacuum orbit and the orbits of the added
+    // seeds) and the permutations by digests; rebuilding the lines from `cyclorb twists
+    // --out` and re-running cyclorb-cert's `verify` must accept it, and a changed order must
+    // be rejected.
+    use cyclorb_cert::{GeneratorSet as CertSet, ImageOptions, PermutationImageCertificate};
+    use cyclorb_orbit::{GeneratorSet, OrbitOptions, OrbitProblem, Seed, Silent};
+
+    let cert_path = common::temp_path("zn32-image.json");
+    let gens_path = common::temp_path("zn32-gens.json");
+    let (code, _) = cyclorb_json(&[
+        "image",
+        "zn:3:2",
+        "--genus",
+        "2",
+        "--out",
+        cert_path.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 0);
+    let (code, _) = cyclorb_json(&[
+        "twists",
+        "zn:3:2",
+        "--genus",
+        "2",
+        "--out",
+        gens_path.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 0);
+    let file: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(&cert_path).unwrap()).unwrap();
+    let cert: PermutationImageCertificate = serde_json::from_value(file.clone()).unwrap();
+    let generators = GeneratorSet::read(&gens_path).unwrap();
+    let field = generators.field().unwrap();
+    let d = generators.dimension;
+    let mut seeds = vec![Seed::basis_vector(&field, d, 0)];
+    for name in file["added_orbits"].as_array().unwrap() {
+        let i: usize = name
+            .as_str()
+            .unwrap()
+            .strip_prefix("e_")
+            .unwrap()
+            .parse()
+            .unwrap();
+        seeds.push(Seed::basis_vector(&field, d, i));
+    }
+    let mut lines = Vec::new();
+    for seed in &seeds {
+        let problem = OrbitProblem::new(generators.clone(), seed).unwrap();
+        let orbit = problem
+            .enumerate(&OrbitOptions::default(), &mut Silent)
+            .unwrap();
+        assert!(orbit.is_saturated());
+        lines.extend((0..orbit.len()).map(|k| problem.line(&orbit, k).unwrap()));
+    }
+    let named = generators.names.iter().cloned();
+    let gens = CertSet::new(
+        field,
+        named.zip(generators.operators.iter().cloned()).collect(),
+        generators.form.clone(),
+    )
+    .unwrap();
+    let options = ImageOptions::default();
+    cert.verify(&gens, &lines, &options).unwrap();
+    let mut wrong = cert;
+    wrong.group.order = "25920".into();
+    assert!(wrong.verify(&gens, &lines, &options).is_err());
+    let _ = std::fs::remove_file(cert_path);
+    let _ = std::fs::remove_file(gens_path);
+}

@@ -242,7 +242,10 @@ impl ImageRun<'_> {
             Ok(c) => c,
             Err(e) => return Outcome::Invalid(e.to_string()),
         };
-        if let Err(e) = self.write(&cert) {
+        // the file also names the line set: the vacuum orbit, then the orbits of these seeds
+        let mut file = serde_json::to_value(&cert).expect("certificates serialise");
+        file["added_orbits"] = json!(lines.added_seeds());
+        if let Err(e) = self.write(&file) {
             return Outcome::Invalid(e);
         }
         let g = &cert.group;
