@@ -148,7 +148,7 @@ fn a_route_that_cannot_decide_says_undecided() {
 }
 
 #[test]
-#[ignore = "about two minutes in release; run with --ignored"]
+#[ignore = "about 90 s in release; run with --ignored"]
 fn su2_level_four_genus_two_image_is_finite() {
     // SU(2)_4 has finite images (Freedman–Larsen–Wang 2002, from memory); the order is
     // recomputed here (1 228 800 lines; no published value used) and must satisfy
