@@ -273,32 +273,47 @@ fn odd_pointed_orbits_count_the_lagrangian_subspaces() {
     }
 }
 
-/// Orbit size and layer sizes of a saturated run with the given method.
-fn orbit_by(spec: &str, genus: &str, method: &str) -> (u64, serde_json::Value) {
+/// Orbit size, layer sizes and Poincaré sum of a saturated run with the given method.
+fn orbit_by(spec: &str, genus: &str, method: &str) -> (u64, serde_json::Value, serde_json::Value) {
     let (code, v) = cyclorb_json(&["orbit", spec, "--genus", genus, "--method", method]);
     assert_eq!(code, 0, "{spec} genus {genus} by {method}: {v}");
     assert_eq!(v["saturated"], true);
-    (v["orbit_size"].as_u64().unwrap(), v["layer_sizes"].clone())
+    (
+        v["orbit_size"].as_u64().unwrap(),
+        v["layer_sizes"].clone(),
+        v["poincare_sum"].clone(),
+    )
 }
 
 #[test]
 fn the_product_route_agrees_with_enumeration() {
     // The block space of A⊠B is V_A ⊗ V_B with every twist acting as T_A ⊗ T_B, and a line
     // ⟨v ⊗ w⟩ determines ⟨v⟩ and ⟨w⟩ (common practice: the Segre embedding is injective), so
-    // the orbit found from the factors must be the enumerated one, layer by layer.
-    for (spec, genus) in [
-        ("ising*fibonacci", "1"),
-        ("ising*zn:3:2", "1"),
-        ("ising*ising:3", "2"),
-        ("ising*zn:2:1", "2"),
-        ("ising*ising", "2"),
+    // the orbit found from the factors must be the enumerated one, layer by layer. When the
+    // orbit is all of O_A × O_B, B = B_A ⊗ B_B: scalar exactly when both are, λ = λ_A·λ_B.
+    for (spec, genus, independent) in [
+        ("ising*fibonacci", "1", true),
+        ("ising*zn:3:2", "1", true),
+        ("ising*ising:3", "2", false),
+        ("ising*zn:2:1", "2", false),
+        ("ising*ising", "2", false),
     ] {
-        assert_eq!(
-            orbit_by(spec, genus, "product"),
-            orbit_by(spec, genus, "enumerate"),
-            "{spec} genus {genus}"
-        );
+        let (size, layers, sum) = orbit_by(spec, genus, "product");
+        let (size_e, layers_e, sum_e) = orbit_by(spec, genus, "enumerate");
+        assert_eq!((size, layers), (size_e, layers_e), "{spec} genus {genus}");
+        if independent {
+            assert_eq!(sum["is_scalar"], sum_e["is_scalar"], "{spec} genus {genus}");
+            assert_eq!(sum["prefactor"], sum_e["prefactor"], "{spec} genus {genus}");
+        } else {
+            assert!(sum["is_scalar"].is_null(), "{spec} genus {genus}: {sum}");
+        }
     }
+    // Castro et al. 2012 (as in tricritical_ising_genus_one): tricritical Ising, built as
+    // conj(fibonacci)*ising:7, has B = 48·I at genus 1; from the factors, 6 · 8.
+    assert_eq!(
+        orbit_by("conj(fibonacci)*ising:7", "1", "product").2["prefactor"],
+        "48"
+    );
 }
 
 #[test]

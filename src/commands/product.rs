@@ -7,12 +7,14 @@
 //! the diagonal action of the permutations the twists induce on the two factor orbits
 //! (`cyclorb_orbit::pair_orbit`). Each factor's orbit is enumerated and proved closed as
 //! usual; only the factors ever meet field arithmetic, so the product's dimension
-//! dim V_A · dim V_B never matters. This route does not form the Poincaré sum B.
+//! dim V_A · dim V_B never matters. The Poincaré sum follows from the factors' when the
+//! orbit is all of O_A × O_B (B = B_A ⊗ B_B); otherwise this route does not form it.
 
 use std::sync::atomic::AtomicBool;
 use std::sync::Arc;
 use std::time::Instant;
 
+use cyclorb_field::Rational;
 use cyclorb_orbit::{install_stop_handler, pair_orbit, OrbitOptions, OrbitProblem, Seed, Silent};
 use serde_json::{json, Value};
 
@@ -43,6 +45,10 @@ struct Factor {
     orbit_size: usize,
     saturated: bool,
     permutations: Vec<Vec<u32>>,
+    /// Whether B_A = λ·G_A⁻¹ (`None` when the orbit did not close).
+    is_scalar: Option<bool>,
+    /// λ when B_A is scalar.
+    prefactor: Option<Rational>,
 }
 
 fn factor(spec: &str, args: &OrbitArgs, options: &OrbitOptions) -> Result<Factor, String> {
@@ -63,12 +69,21 @@ fn factor(spec: &str, args: &OrbitArgs, options: &OrbitOptions) -> Result<Factor
     let orbit = problem
         .enumerate(options, &mut Silent)
         .map_err(|e| format!("factor {spec}: {e}"))?;
-    let permutations = if orbit.is_saturated() {
-        problem
+    let (permutations, is_scalar, prefactor) = if orbit.is_saturated() {
+        let permutations = problem
             .induced_permutations(&orbit, options.threads)
-            .map_err(|e| format!("factor {spec}: {e}"))?
+            .map_err(|e| format!("factor {spec}: {e}"))?;
+        let sum = problem
+            .poincare_sum(&orbit, options.threads)
+            .map_err(|e| format!("factor {spec}: {e}"))?;
+        if !sum.trace_check {
+            return Err(format!(
+                "factor {spec}: the check tr(B·G) = |orbit|·⟨v₀,v₀⟩_G fails"
+            ));
+        }
+        (permutations, Some(sum.scalar.is_some()), sum.prefactor())
     } else {
-        Vec::new()
+        (Vec::new(), None, None)
     };
     Ok(Factor {
         spec: spec.to_string(),
@@ -78,6 +93,8 @@ fn factor(spec: &str, args: &OrbitArgs, options: &OrbitOptions) -> Result<Factor
         orbit_size: orbit.len(),
         saturated: orbit.is_saturated(),
         permutations,
+        is_scalar,
+        prefactor,
     })
 }
 
@@ -88,6 +105,38 @@ fn factor_json(f: &Factor) -> Value {
         "conductor": f.conductor,
         "orbit_size": f.orbit_size,
         "saturated": f.saturated,
+        "poincare_sum": {
+            "is_scalar": f.is_scalar,
+            "prefactor": f.prefactor.as_ref().map(|r| r.to_string()),
+        },
+    })
+}
+
+/// The product's Poincaré sum when it follows from the factors'. If the orbit is all of
+/// O_A × O_B, then B = Σ_{i,j} (v_i ⊗ w_j)(v_i ⊗ w_j)† = B_A ⊗ B_B, and with
+/// G = G_A ⊗ G_B it is scalar exactly when both factors' sums are, with λ = λ_A·λ_B.
+/// Otherwise the orbit correlates the factors and this route does not form B.
+fn product_sum(a: &Factor, b: &Factor, closed_size: Option<usize>) -> Value {
+    let independent =
+        closed_size.is_some_and(|n| n as u128 == a.orbit_size as u128 * b.orbit_size as u128);
+    if !independent {
+        return json!({
+            "is_scalar": null,
+            "prefactor": null,
+            "invariants": null,
+            "note": "the orbit correlates the factors' lines; the product route does not form B (use --method enumerate)",
+        });
+    }
+    let is_scalar = a.is_scalar.zip(b.is_scalar).map(|(x, y)| x && y);
+    let prefactor = match (&a.prefactor, &b.prefactor) {
+        (Some(x), Some(y)) => Some(x.mul(y).to_string()),
+        _ => None,
+    };
+    json!({
+        "is_scalar": is_scalar,
+        "prefactor": prefactor,
+        "invariants": if is_scalar == Some(true) { json!([]) } else { Value::Null },
+        "note": "the orbit is O_A × O_B, so B = B_A ⊗ B_B (each factor's sum is under factors[])",
     })
 }
 
@@ -179,18 +228,22 @@ pub fn run_product(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome
     value["saturated"] = json!(saturated);
     value["layer_sizes"] = layers;
     value["note"] = json!(note);
-    value["poincare_sum"] = json!({
-        "is_scalar": null,
-        "prefactor": null,
-        "invariants": null,
-        "note": "the product route does not form B; use --method enumerate for it",
-    });
+    let sum = product_sum(a, b, saturated.then_some(orbit_size));
+    let sum_line = match (sum["is_scalar"].as_bool(), sum["prefactor"].as_str()) {
+        (Some(true), Some(lambda)) => {
+            format!("Poincaré sum: B = {lambda} · G⁻¹ (scalar, B = B_A ⊗ B_B)")
+        }
+        (Some(false), _) => "Poincaré sum: B = B_A ⊗ B_B, not scalar".to_string(),
+        _ => "Poincaré sum: not formed on this route".to_string(),
+    };
+    value["poincare_sum"] = sum;
     value["elapsed_seconds"] = json!(started.elapsed().as_secs_f64());
     value["peak_memory_bytes"] = json!(cyclorb_orbit::peak_memory_bytes());
     let text = format!(
         "theory {spec} at genus {genus}: dimension {} = {} × {}, {} generators (product route)\n\
          factor {}: {} lines{}; factor {}: {} lines{}\n\
          orbit of the vacuum line: {} lines, {}\n\
+         {sum_line}\n\
          time {:.2} s\n",
         a.dimension * b.dimension,
         a.dimension,
