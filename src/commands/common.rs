@@ -3,7 +3,7 @@
 
 use cyclorb_matrix::Operator;
 use cyclorb_mcg::{BlockSpace, Curve, GeneratingSet};
-use cyclorb_orbit::GeneratorSet;
+use cyclorb_orbit::{GeneratorSet, OrbitProblem, Seed};
 use cyclorb_theory::parse_spec;
 
 /// The generating set named on the command line.
@@ -38,4 +38,19 @@ pub fn generator_set_file(space: &BlockSpace, gens: &[(Curve, Operator)]) -> Gen
         theory: Some(theory.name().to_string()),
         genus: Some(space.genus() as u32),
     }
+}
+
+/// The orbit problem of a theory's vacuum line at genus g under the named generating set:
+/// the twists as a generator set, the vacuum basis vector as the seed.
+pub fn vacuum_problem(spec: &str, genus: usize, set: &str) -> Result<OrbitProblem, String> {
+    let set = parse_set(set)?;
+    let space = build_space(spec, genus)?;
+    let twists = space.generators(set).map_err(|e| e.to_string())?;
+    let gens = generator_set_file(&space, &twists);
+    let seed = Seed::basis_vector(
+        space.theory().field(),
+        space.dimension(),
+        space.basis().vacuum(),
+    );
+    OrbitProblem::new(gens, &seed).map_err(|e| e.to_string())
 }

@@ -11,7 +11,7 @@ use cyclorb_orbit::{
 };
 use serde_json::json;
 
-use super::common::{build_space, generator_set_file, parse_set};
+use super::common::{build_space, parse_set, vacuum_problem};
 use super::output::{Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
@@ -20,30 +20,22 @@ use crate::cli::OrbitArgs;
 
 /// The generator set and seed from either a theory or raw files.
 fn load_problem(args: &OrbitArgs) -> Result<OrbitProblem, String> {
-    let (gens, seed): (GeneratorSet, Seed) = match (&args.matrices, &args.seed, &args.spec) {
-        (Some(m), Some(s), _) => (
+    match (&args.matrices, &args.seed, &args.spec) {
+        (Some(m), Some(s), _) => OrbitProblem::new(
             GeneratorSet::read(m).map_err(|e| e.to_string())?,
-            Seed::read(s).map_err(|e| e.to_string())?,
-        ),
+            &Seed::read(s).map_err(|e| e.to_string())?,
+        )
+        .map_err(|e| e.to_string()),
         (_, _, Some(spec)) => {
             let genus = args.genus.ok_or("--genus is required with a theory")?;
-            let set = parse_set(&args.set)?;
-            let space = build_space(spec, genus)?;
-            let twists = space.generators(set).map_err(|e| e.to_string())?;
-            let gens = generator_set_file(&space, &twists);
-            let seed = Seed::basis_vector(
-                space.theory().field(),
-                space.dimension(),
-                space.basis().vacuum(),
-            );
-            (gens, seed)
+            vacuum_problem(spec, genus, &args.set)
         }
-        _ => return Err("give a theory SPEC with --genus, or --matrices FILE --seed FILE".into()),
-    };
-    OrbitProblem::new(gens, &seed).map_err(|e| e.to_string())
+        _ => Err("give a theory SPEC with --genus, or --matrices FILE --seed FILE".into()),
+    }
 }
 
-fn options(args: &OrbitArgs, stop: Arc<AtomicBool>) -> OrbitOptions {
+/// The engine's options from the command line (limit, memory, threads, checkpoints, stop).
+pub(super) fn options(args: &OrbitArgs, stop: Arc<AtomicBool>) -> OrbitOptions {
     let threads = args
         .threads
         .unwrap_or_else(|| std::thread::available_parallelism().map_or(1, |n| n.get()));

@@ -15,10 +15,11 @@ use std::sync::Arc;
 use std::time::Instant;
 
 use cyclorb_field::Rational;
-use cyclorb_orbit::{install_stop_handler, pair_orbit, OrbitOptions, OrbitProblem, Seed, Silent};
+use cyclorb_orbit::{install_stop_handler, pair_orbit, OrbitOptions, Silent};
 use serde_json::{json, Value};
 
-use super::common::{build_space, generator_set_file, parse_set};
+use super::common::vacuum_problem;
+use super::orbit::options;
 use super::output::{Outcome, Report};
 use crate::cli::OrbitArgs;
 
@@ -53,19 +54,8 @@ struct Factor {
 
 fn factor(spec: &str, args: &OrbitArgs, options: &OrbitOptions) -> Result<Factor, String> {
     let genus = args.genus.ok_or("--method product needs --genus")?;
-    let set = parse_set(&args.set)?;
-    let space = build_space(spec, genus).map_err(|e| format!("factor {spec}: {e}"))?;
-    let twists = space
-        .generators(set)
-        .map_err(|e| format!("factor {spec}: {e}"))?;
-    let gens = generator_set_file(&space, &twists);
-    let seed = Seed::basis_vector(
-        space.theory().field(),
-        space.dimension(),
-        space.basis().vacuum(),
-    );
-    let names = gens.names.clone();
-    let problem = OrbitProblem::new(gens, &seed).map_err(|e| format!("factor {spec}: {e}"))?;
+    let problem =
+        vacuum_problem(spec, genus, &args.set).map_err(|e| format!("factor {spec}: {e}"))?;
     let orbit = problem
         .enumerate(options, &mut Silent)
         .map_err(|e| format!("factor {spec}: {e}"))?;
@@ -87,9 +77,9 @@ fn factor(spec: &str, args: &OrbitArgs, options: &OrbitOptions) -> Result<Factor
     };
     Ok(Factor {
         spec: spec.to_string(),
-        dimension: space.dimension(),
-        conductor: space.theory().field().conductor(),
-        generator_names: names,
+        dimension: problem.dimension(),
+        conductor: problem.field().conductor(),
+        generator_names: problem.generators().names.clone(),
         orbit_size: orbit.len(),
         saturated: orbit.is_saturated(),
         permutations,
@@ -163,15 +153,7 @@ pub fn run_product(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome
     if let Err(e) = install_stop_handler(&stop) {
         return Outcome::Invalid(format!("cannot install the interrupt handler: {e}"));
     }
-    let options = OrbitOptions {
-        limit: args.limit,
-        memory_ceiling: args.memory_limit.map(|m| m << 20),
-        threads: args
-            .threads
-            .unwrap_or_else(|| std::thread::available_parallelism().map_or(1, |n| n.get())),
-        stop: Some(stop),
-        ..OrbitOptions::default()
-    };
+    let options = options(args, stop);
     let first = match factor(left, args, &options) {
         Ok(f) => f,
         Err(e) => return Outcome::Invalid(e),
