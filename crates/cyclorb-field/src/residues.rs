@@ -48,14 +48,15 @@ pub struct ResidueMap {
 impl CyclotomicField {
     /// Enough prime ideals of degree one, none dividing `avoid`, to prove zero the elements
     /// y of the fixed field K of `fixing` (a subgroup H of Gal(Q(ζ_n)/Q) as exponents, see
-    /// [`CyclotomicField::fixing_group`]; `[1]` for K = Q(ζ_n)) with `avoid`·y integral and
-    /// `avoid`·|σ(y)| ≤ `bound` for every embedding σ.
+    /// [`CyclotomicField::fixing_group`]; `[1]` for K = Q(ζ_n)) for which some integer M,
+    /// built from the primes of `avoid` (so that y's residues are defined), has M·y
+    /// integral and M·|σ(y)| ≤ `bound` for every embedding σ.
     ///
     /// The ideals 𝔭_k = (p, ζ − r^k) are taken with k in distinct cosets kH, so that their
     /// restrictions 𝔭_k ∩ K are distinct primes of K of norm p (the primes of Q(ζ_n) above
     /// one prime of K form one H-orbit). Zero residues at E of them put the product of those
-    /// E primes into the ideal (`avoid`·y) of K, so p_1⋯p_E divides N_K(`avoid`·y), whose
-    /// absolute value is at most `bound`^[K:Q]; with every p > 2^61,
+    /// E primes into the ideal (M·y) of K, so p_1⋯p_E divides N_K(M·y), whose absolute
+    /// value is at most `bound`^[K:Q]; with every p > 2^61,
     /// E = ⌊[K:Q]·bits(bound)/61⌋ + 1 ideals force y = 0.
     pub fn residue_map(&self, bound: &BigUint, avoid: &BigInt, fixing: &[i64]) -> ResidueMap {
         let n = self.conductor() as i64;
