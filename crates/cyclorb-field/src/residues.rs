@@ -56,8 +56,8 @@ impl CyclotomicField {
     /// restrictions 𝔭_k ∩ K are distinct primes of K of norm p (the primes of Q(ζ_n) above
     /// one prime of K form one H-orbit). Zero residues at E of them put the product of those
     /// E primes into the ideal (M·y) of K, so p_1⋯p_E divides N_K(M·y), whose absolute
-    /// value is at most `bound`^[K:Q]; with every p > 2^61,
-    /// E = ⌊[K:Q]·bits(bound)/61⌋ + 1 ideals force y = 0.
+    /// value is at most `bound`^\[K:Q\]; with every p > 2^61,
+    /// E = ⌊\[K:Q\]·bits(bound)/61⌋ + 1 ideals force y = 0.
     pub fn residue_map(&self, bound: &BigUint, avoid: &BigInt, fixing: &[i64]) -> ResidueMap {
         let n = self.conductor() as i64;
         let degree = self.degree() / fixing.len().max(1);
@@ -201,7 +201,7 @@ impl ResidueMap {
 
 impl Cyc {
     /// A bound for |σ(a)| under every complex embedding σ, as (‖A‖₁, d) for a = A/d in the
-    /// power basis: |σ(a)| ≤ ‖A‖₁/d because every |σ(ζ^j)| = 1. Also d·a ∈ Z[ζ_n].
+    /// power basis: |σ(a)| ≤ ‖A‖₁/d because every |σ(ζ^j)| = 1. Also d·a ∈ Z\[ζ_n\].
     pub fn embedding_bound(&self) -> (BigUint, BigUint) {
         match &self.data {
             Data::Small { num, den } => {
