@@ -6,7 +6,7 @@ use cyclorb_matrix::Matrix;
 use crate::arith::SameField;
 
 /// One F-matrix [F^{abc}_d]: rows are the labels e with N_ab^e N_ec^d ≠ 0, columns the labels
-/// f with N_bc^f N_af^d ≠ 0, both sorted; `matrix[i][j]` = [F^{abc}_d]_{rows[i], cols[j]}.
+/// f with N_bc^f N_af^d ≠ 0, both sorted; `matrix[i][j]` = `[F^{abc}_d]_{rows[i], cols[j]}`.
 /// For an inverse the roles swap: rows are indexed by f and columns by e.
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub struct FMatrix {
