@@ -425,7 +425,7 @@ impl OrbitProblem {
             let u = &ws.image.dense[block as usize * phi..(block as usize + 1) * phi];
             let entries = &nonzero[start..cursor];
             let same = if small {
-                block_matches_small(
+                block_matches(
                     &ws.lead,
                     &self.slot_of,
                     dense,
@@ -435,7 +435,7 @@ impl OrbitProblem {
                     &mut ws.rhs_small,
                 )
             } else {
-                block_matches_wide(&ws.lead, &self.slot_of, dense, entries, den, u, &mut ws.rhs)
+                block_matches(&ws.lead, &self.slot_of, dense, entries, den, u, &mut ws.rhs)
             };
             if !same {
                 return Some(false);
@@ -479,49 +479,31 @@ pub(crate) fn same_key(set: &OrbitSet, buf: &mut Numerators, i: usize, key: &Key
     }
 }
 
-/// D·u = U_k·S_i for one block, in `i64` (the caller checked the bounds): `lead` holds the
-/// multiplication matrix of U_k by columns, `entries` the non-zero positions of S_i.
-fn block_matches_small(
+/// D·u = U_k·S_i for one block, in the integer type `T` (`i64` when the caller checked the
+/// bounds, else `i128`): `lead` holds the multiplication matrix of U_k by columns,
+/// `entries` the non-zero positions of S_i.
+fn block_matches<T>(
     lead: &[i64],
     slot_of: &[u32],
     dense: &[i64],
     entries: &[u32],
     den: i64,
     u: &[i64],
-    rhs: &mut [i64],
-) -> bool {
+    rhs: &mut [T],
+) -> bool
+where
+    T: Copy + Default + PartialEq + From<i64> + std::ops::Mul<Output = T> + std::ops::AddAssign,
+{
     let phi = u.len();
-    rhs.fill(0);
+    rhs.fill(T::default());
     for &at in entries {
-        let x = dense[at as usize];
+        let x = T::from(dense[at as usize]);
         let column = &lead[slot_of[at as usize] as usize * phi..][..phi];
         for (r, &m) in rhs.iter_mut().zip(column) {
-            *r += m * x;
-        }
-    }
-    u.iter().zip(rhs.iter()).all(|(&ut, &r)| den * ut == r)
-}
-
-/// The same test in `i128`.
-fn block_matches_wide(
-    lead: &[i64],
-    slot_of: &[u32],
-    dense: &[i64],
-    entries: &[u32],
-    den: i64,
-    u: &[i64],
-    rhs: &mut [i128],
-) -> bool {
-    let phi = u.len();
-    rhs.fill(0);
-    for &at in entries {
-        let x = dense[at as usize] as i128;
-        let column = &lead[slot_of[at as usize] as usize * phi..][..phi];
-        for (r, &m) in rhs.iter_mut().zip(column) {
-            *r += m as i128 * x;
+            *r += T::from(m) * x;
         }
     }
     u.iter()
         .zip(rhs.iter())
-        .all(|(&ut, &r)| den as i128 * ut as i128 == r)
+        .all(|(&ut, &r)| T::from(den) * T::from(ut) == r)
 }
