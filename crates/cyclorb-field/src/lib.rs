@@ -73,4 +73,4 @@ pub use galois::common_conductor;
 pub use modp::PrimeReduction;
 pub use rational::Rational;
 pub use residues::ResidueMap;
-pub use text::CycText;
+pub use text::{CycText, MAX_PARSE_DEPTH, MAX_POWER_BITS};

@@ -8,7 +8,7 @@
 //! standard embedding.
 
 use num_bigint::BigInt;
-use num_traits::{Signed, ToPrimitive};
+use num_traits::Signed;
 
 use crate::context::CyclotomicField;
 use crate::element::Cyc;
@@ -75,20 +75,32 @@ impl CyclotomicField {
         if p.is_zero_big() {
             return Ok(Some(self.zero()));
         }
-        // √(p/q) = √(p·q) / |q|
+        // √(p/q) = √(p·q) / |q|. Only primes dividing n can stay under the root
+        // (Q(√m) ⊂ Q(ζ_n) needs every prime of m to divide n), so those are divided out
+        // with their multiplicities and what is left must be a perfect square: no
+        // factorisation of the (arbitrarily large) integer is needed.
         let prod = p * q;
         let negative = prod.is_negative();
-        let Some(mag) = prod.abs().to_u64() else {
-            return Ok(None);
-        };
-        let mut square_part: u64 = 1;
+        let mut rest = prod.abs();
+        let mut square_part = BigInt::from(1);
         let mut free: Vec<u64> = Vec::new();
-        for (prime, e) in factorize(mag) {
-            square_part *= prime.pow(e / 2);
-            if e % 2 == 1 {
+        for (prime, _) in factorize(u64::from(self.conductor())) {
+            let big_prime = BigInt::from(prime);
+            let mut exponent = 0u32;
+            while (&rest % &big_prime).is_zero_big() {
+                rest /= &big_prime;
+                exponent += 1;
+            }
+            square_part *= big_prime.pow(exponent / 2);
+            if exponent % 2 == 1 {
                 free.push(prime);
             }
         }
+        let root_of_rest = rest.sqrt();
+        if &root_of_rest * &root_of_rest != rest {
+            return Ok(None);
+        }
+        square_part *= root_of_rest;
         let free_product: i64 = free.iter().product::<u64>() as i64;
         let m = if negative {
             -free_product
@@ -101,7 +113,7 @@ impl CyclotomicField {
         // m = r · Π_{p odd} p*, r ∈ {±1, ±2}; each Gauss sum is √p or i√p, and √r is
         // 1, i, √2 or i√2. Count the factors of i (t) to land on the principal branch:
         // t ≡ [m < 0] (mod 2), so i^{[m<0] − t} = ±1 fixes the sign exactly.
-        let mut root = self.big_rational(&BigInt::from(square_part), &q.abs())?;
+        let mut root = self.big_rational(&square_part, &q.abs())?;
         let mut residual = m;
         let mut i_count = 0i64;
         for &prime in free.iter().filter(|&&p| p != 2) {

@@ -75,10 +75,18 @@ impl Cyc {
     }
 }
 
+/// Deepest nesting of parentheses, `zeta(…)` and `sqrt(…)` the parser accepts.
+pub const MAX_PARSE_DEPTH: usize = 200;
+
+/// Largest size, in bits per coefficient, that a power `x^e` may reach by the bound
+/// bits(x^e) ≤ |e|·(bits of x's largest numerator and its denominator + ⌈log₂ φ(n)⌉ + 1).
+pub const MAX_POWER_BITS: u64 = 1 << 20;
+
 struct Parser<'a> {
     field: &'a CyclotomicField,
     text: &'a str,
     pos: usize,
+    depth: usize,
 }
 
 impl<'a> Parser<'a> {
@@ -161,11 +169,57 @@ impl<'a> Parser<'a> {
         if self.eat('^') {
             let neg = self.eat('-');
             let e = self.integer()?;
-            let e = e.to_i64().ok_or_else(|| self.err("exponent too large"))?;
-            self.lift(self.field.pow(&base, if neg { -e } else { e }))
+            let e = e
+                .to_i64()
+                .ok_or_else(|| self.err("exponent does not fit in 64 bits"))?;
+            let e = if neg { -e } else { e };
+            let e = self.bounded_exponent(&base, e)?;
+            self.lift(self.field.pow(&base, e))
         } else {
             Ok(base)
         }
+    }
+
+    /// The exponent to use for `base^e`: reduced modulo the order when `base` is a root of
+    /// unity, refused when the result would exceed [`MAX_POWER_BITS`] bits per coefficient.
+    fn bounded_exponent(&self, base: &Cyc, e: i64) -> Result<i64, FieldError> {
+        if e.unsigned_abs() <= 2 || base.is_zero() {
+            return Ok(e);
+        }
+        if let Some(order) = self.lift_order(self.field.root_of_unity_order(base))? {
+            return Ok(e.rem_euclid(order as i64));
+        }
+        let (num, den) = base.to_big_parts();
+        let height = num.iter().map(|c| c.bits()).max().unwrap_or(0);
+        let phi = num.len().max(1) as u64;
+        let spread = if base.as_rational().is_some() {
+            0
+        } else {
+            64 - (phi - 1).leading_zeros() as u64 + 1
+        };
+        let per_step = height + den.bits() + spread;
+        let bound = e.unsigned_abs().saturating_mul(per_step);
+        if bound > MAX_POWER_BITS {
+            return Err(self.err(format!(
+                "power too large: the result may need {bound} bits per coefficient \
+                 (limit {MAX_POWER_BITS})"
+            )));
+        }
+        Ok(e)
+    }
+
+    fn lift_order(&self, r: Result<Option<u64>, FieldError>) -> Result<Option<u64>, FieldError> {
+        r.map_err(|e| self.err(e.to_string()))
+    }
+
+    fn enter(&mut self) -> Result<(), FieldError> {
+        self.depth += 1;
+        if self.depth > MAX_PARSE_DEPTH {
+            return Err(self.err(format!(
+                "nesting deeper than {MAX_PARSE_DEPTH} levels of parentheses"
+            )));
+        }
+        Ok(())
     }
 
     fn integer(&mut self) -> Result<BigInt, FieldError> {
@@ -195,10 +249,12 @@ impl<'a> Parser<'a> {
         match self.peek() {
             Some('(') => {
                 self.pos += 1;
+                self.enter()?;
                 let e = self.expr()?;
                 if !self.eat(')') {
                     return Err(self.err("expected ')'"));
                 }
+                self.depth -= 1;
                 Ok(e)
             }
             Some(c) if c.is_ascii_digit() => {
@@ -220,10 +276,12 @@ impl<'a> Parser<'a> {
                         if !self.eat('(') {
                             return Err(self.err("expected '('"));
                         }
+                        self.enter()?;
                         let arg = self.expr()?;
                         if !self.eat(')') {
                             return Err(self.err("expected ')'"));
                         }
+                        self.depth -= 1;
                         let Some((p, q)) = arg.as_rational() else {
                             return Err(self.err(format!("{w}(…) needs a rational argument")));
                         };
@@ -265,6 +323,7 @@ impl CyclotomicField {
             field: self,
             text,
             pos: 0,
+            depth: 0,
         };
         let value = p.expr()?;
         if p.peek().is_some() {
