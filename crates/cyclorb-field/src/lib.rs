@@ -63,6 +63,7 @@ mod residues;
 mod ring;
 mod sqrt;
 mod text;
+mod unique_keys;
 mod words;
 
 pub use context::{CyclotomicField, Reduction, MAX_CONDUCTOR};
@@ -74,3 +75,4 @@ pub use modp::PrimeReduction;
 pub use rational::Rational;
 pub use residues::ResidueMap;
 pub use text::{CycText, MAX_PARSE_DEPTH, MAX_POWER_BITS};
+pub use unique_keys::UniqueKeys;

@@ -48,7 +48,7 @@
 use std::fmt::Write as _;
 use std::path::Path;
 
-use cyclorb_field::{Cyc, CyclotomicField};
+use cyclorb_field::{Cyc, CyclotomicField, UniqueKeys};
 use cyclorb_matrix::{Block, Matrix, Operator};
 use serde_json::{Map, Value};
 
@@ -78,13 +78,16 @@ impl Reader<'_> {
         }
     }
 
+    /// The JSON value of `text`; an object with a repeated key is refused.
     fn parse_json(&self, text: &str) -> Result<Value, FormatError> {
-        serde_json::from_str(text).map_err(|e| {
+        let not_json = |e: serde_json::Error| {
             self.err(
                 &format!("line {} column {}", e.line(), e.column()),
                 format!("not valid JSON: {e}"),
             )
-        })
+        };
+        serde_json::from_str::<UniqueKeys>(text).map_err(not_json)?;
+        serde_json::from_str(text).map_err(not_json)
     }
 
     fn object<'v>(&self, v: &'v Value, place: &str) -> Result<&'v Obj, FormatError> {

@@ -27,11 +27,12 @@
 //! The keys `describe --json` adds ("rank", "central_charge_mod_8", "total_dimension",
 //! "duals", "S" and "T" of a theory with F and R, "data_hash", "modular_data_only",
 //! "unitary_gauge", "spec") are informational: they are recomputed and not read. Any other key
-//! is refused. Errors name the file, the place (a JSON path) and the reason.
+//! is refused, and so is an object with a repeated key. Errors name the file, the place (a
+//! JSON path, or line and column) and the reason.
 
 use std::path::Path;
 
-use cyclorb_field::{Cyc, CyclotomicField, MAX_CONDUCTOR};
+use cyclorb_field::{Cyc, CyclotomicField, UniqueKeys, MAX_CONDUCTOR};
 use cyclorb_matrix::Matrix;
 use hashbrown::HashMap;
 use serde_json::{json, Map, Value};
@@ -551,13 +552,15 @@ pub fn read_theory_file(path: &Path) -> Result<Theory, TheoryError> {
     let file = path.display().to_string();
     let text = std::fs::read_to_string(path)
         .map_err(|e| refuse(&file, "file", format!("cannot read: {e}")))?;
-    let value: Value = serde_json::from_str(&text).map_err(|e| {
+    let not_json = |e: serde_json::Error| {
         refuse(
             &file,
             format!("line {} column {}", e.line(), e.column()),
             format!("not valid JSON: {e}"),
         )
-    })?;
+    };
+    serde_json::from_str::<UniqueKeys>(&text).map_err(not_json)?;
+    let value: Value = serde_json::from_str(&text).map_err(not_json)?;
     let stem = path
         .file_stem()
         .map(|s| s.to_string_lossy().to_string())

@@ -89,6 +89,6 @@ pub use fmatrix::FMatrix;
 pub use fusion::FusionRules;
 pub use ops::{conjugate, galois, product, random_gauge, regauged, renamed};
 pub use roots::root_of_unity;
-pub use spec::parse_spec;
+pub use spec::{parse_spec, parse_spec_traced, FileTheory, TracedSpec, MAX_SPEC_DEPTH};
 pub use theory::Theory;
 pub use verify::{verify, verify_selected, Check, CheckId, Verification};

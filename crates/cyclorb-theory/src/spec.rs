@@ -9,8 +9,12 @@
 //!           zn:N:P, minimal:P:Q) | a path to a theory file
 //! ```
 //! A spec that names an existing file as a whole is read as that file first.
+//! Nesting deeper than [`MAX_SPEC_DEPTH`] is refused; `gauge:SEED` takes a non-negative
+//! seed; negative levels and parameters are refused quoting the spec as written.
+//! [`parse_spec_traced`] also returns every theory read from a file, so that a caller can
+//! prove file data before using them.
 
-use std::path::Path;
+use std::path::{Path, PathBuf};
 
 use crate::builtins::{fibonacci, ising_type, minimal, so3, su2, tricritical_ising, zn};
 use crate::error::TheoryError;
@@ -18,9 +22,32 @@ use crate::file::read_theory_file;
 use crate::ops::{galois, product, random_gauge};
 use crate::theory::Theory;
 
+/// Deepest nesting of `conj(…)`, `galois:K(…)`, `gauge:SEED(…)` and parentheses accepted.
+pub const MAX_SPEC_DEPTH: usize = 64;
+
+/// A theory read from a file while a spec was parsed.
+#[derive(Clone, Debug)]
+pub struct FileTheory {
+    /// The path as written in the spec.
+    pub path: PathBuf,
+    /// The theory the file holds.
+    pub theory: Theory,
+}
+
+/// A parsed spec: the theory, and every file theory it was built from (in reading order).
+#[derive(Clone, Debug)]
+pub struct TracedSpec {
+    /// The theory the spec names.
+    pub theory: Theory,
+    /// The theories read from files (empty for built-ins and anything derived from them).
+    pub files: Vec<FileTheory>,
+}
+
 struct Parser<'a> {
     spec: &'a str,
     pos: usize,
+    depth: usize,
+    files: Vec<FileTheory>,
 }
 
 impl<'a> Parser<'a> {
@@ -60,6 +87,16 @@ impl<'a> Parser<'a> {
     }
 
     fn factor(&mut self) -> Result<Theory, TheoryError> {
+        self.depth += 1;
+        if self.depth > MAX_SPEC_DEPTH {
+            return Err(self.err(format!("nesting deeper than {MAX_SPEC_DEPTH} levels")));
+        }
+        let theory = self.nested_factor();
+        self.depth -= 1;
+        theory
+    }
+
+    fn nested_factor(&mut self) -> Result<Theory, TheoryError> {
         if self.eat("conj(") {
             let inner = self.spec()?;
             self.close()?;
@@ -76,12 +113,14 @@ impl<'a> Parser<'a> {
         }
         if self.eat("gauge:") {
             let seed = self.integer()?;
+            let seed = u64::try_from(seed)
+                .map_err(|_| self.err(format!("gauge seed {seed} must be non-negative")))?;
             if !self.eat("(") {
                 return Err(self.err("expected '(' after gauge:SEED"));
             }
             let inner = self.spec()?;
             self.close()?;
-            return random_gauge(&inner, seed.unsigned_abs());
+            return random_gauge(&inner, seed);
         }
         if self.eat("(") {
             let inner = self.spec()?;
@@ -126,7 +165,12 @@ impl<'a> Parser<'a> {
         self.pos += word.len();
         builtin(&word).unwrap_or_else(|| {
             if Path::new(&word).exists() || word.ends_with(".json") || word.contains('/') {
-                read_theory_file(Path::new(&word))
+                let theory = read_theory_file(Path::new(&word))?;
+                self.files.push(FileTheory {
+                    path: PathBuf::from(&word),
+                    theory: theory.clone(),
+                });
+                Ok(theory)
             } else {
                 Err(TheoryError::Spec {
                     spec: word.clone(),
@@ -158,15 +202,20 @@ fn builtin(word: &str) -> Option<Result<Theory, TheoryError>> {
         "tricritical-ising" => return Some(tricritical_ising()),
         _ => {}
     }
-    let level = |v: i64| u32::try_from(v).unwrap_or(0);
+    let level = |v: i64| {
+        u32::try_from(v).map_err(|_| TheoryError::Spec {
+            spec: word.to_string(),
+            reason: format!("the level {v} must be a non-negative integer"),
+        })
+    };
     if let Some(p) = parameters(word, "ising:", 1) {
         return Some(p.and_then(|v| ising_type(v[0])));
     }
     if let Some(p) = parameters(word, "su2:", 1) {
-        return Some(p.and_then(|v| su2(level(v[0]))));
+        return Some(p.and_then(|v| su2(level(v[0])?)));
     }
     if let Some(p) = parameters(word, "so3:", 1) {
-        return Some(p.and_then(|v| so3(level(v[0]))));
+        return Some(p.and_then(|v| so3(level(v[0])?)));
     }
     if let Some(p) = parameters(word, "zn:", 2) {
         return Some(p.and_then(|v| zn(v[0], v[1])));
@@ -180,18 +229,35 @@ fn builtin(word: &str) -> Option<Result<Theory, TheoryError>> {
 /// A theory from a spec: a built-in, a product `A*B`, a conjugate `conj(A)` or
 /// `galois:K(A)`, or a path to a theory file.
 pub fn parse_spec(spec: &str) -> Result<Theory, TheoryError> {
+    parse_spec_traced(spec).map(|t| t.theory)
+}
+
+/// [`parse_spec`], also returning every theory read from a file on the way.
+pub fn parse_spec_traced(spec: &str) -> Result<TracedSpec, TheoryError> {
     let trimmed = spec.trim();
     if Path::new(trimmed).is_file() {
-        return read_theory_file(Path::new(trimmed));
+        let theory = read_theory_file(Path::new(trimmed))?;
+        return Ok(TracedSpec {
+            files: vec![FileTheory {
+                path: PathBuf::from(trimmed),
+                theory: theory.clone(),
+            }],
+            theory,
+        });
     }
     let mut p = Parser {
         spec: trimmed,
         pos: 0,
+        depth: 0,
+        files: Vec::new(),
     };
     let theory = p.spec()?;
     p.skip_ws();
     if p.pos != trimmed.len() {
         return Err(p.err("unexpected text after the spec"));
     }
-    Ok(theory)
+    Ok(TracedSpec {
+        theory,
+        files: p.files,
+    })
 }
