@@ -4,6 +4,20 @@ use std::path::PathBuf;
 
 use clap::{Args, Parser, Subcommand};
 
+/// Most worker threads accepted: more gain nothing on any machine this program targets, and
+/// a thread the system cannot start would end the process.
+pub const MAX_THREADS: usize = 256;
+
+/// A `--threads` value: 1 to [`MAX_THREADS`].
+fn thread_count(text: &str) -> Result<usize, String> {
+    match text.parse::<usize>() {
+        Ok(n) if (1..=MAX_THREADS).contains(&n) => Ok(n),
+        _ => Err(format!(
+            "expected a number of threads from 1 to {MAX_THREADS}"
+        )),
+    }
+}
+
 /// Exact orbits of mapping class groups on conformal blocks, over cyclotomic fields.
 #[derive(Parser, Debug)]
 #[command(name = "cyclorb", version, about, long_about = None)]
@@ -11,6 +25,10 @@ pub struct Cli {
     /// Print one JSON object on stdout and nothing else (no progress display).
     #[arg(long, global = true)]
     pub json: bool,
+    /// Use theory files without proving them first (every answer then says
+    /// `verified: false`); raw generators are then not proved invertible either.
+    #[arg(long, global = true)]
+    pub unverified: bool,
     /// The action to run.
     #[command(subcommand)]
     pub command: Command,
@@ -120,8 +138,8 @@ pub struct OrbitArgs {
     /// Stop unsaturated (exit 3) once the stored lines take this many MiB.
     #[arg(long, value_name = "MIB")]
     pub memory_limit: Option<usize>,
-    /// Worker threads (the answer does not depend on it); default: every core.
-    #[arg(long)]
+    /// Worker threads (the answer does not depend on it; 1 to 256); default: every core.
+    #[arg(long, value_parser = thread_count)]
     pub threads: Option<usize>,
     /// Write a resumable checkpoint here periodically and when stopped.
     #[arg(long)]
@@ -200,8 +218,8 @@ pub struct SweepArgs {
     /// Output folder (results, checkpoints, summaries, plot); default: PLAN's name + `-sweep`.
     #[arg(long)]
     pub out: Option<PathBuf>,
-    /// Worker threads for every run (overrides the plan; answers do not depend on it).
-    #[arg(long)]
+    /// Worker threads for every run (overrides the plan; answers do not depend on it; 1 to 256).
+    #[arg(long, value_parser = thread_count)]
     pub threads: Option<usize>,
     /// List the runs in the order they would run, with their dimensions, and stop.
     #[arg(long)]

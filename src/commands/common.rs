@@ -4,7 +4,8 @@
 use cyclorb_matrix::Operator;
 use cyclorb_mcg::{BlockSpace, Curve, GeneratingSet};
 use cyclorb_orbit::{GeneratorSet, OrbitProblem, Seed};
-use cyclorb_theory::parse_spec;
+
+use super::proof;
 
 /// The generating set named on the command line.
 pub fn parse_set(name: &str) -> Result<GeneratingSet, String> {
@@ -17,9 +18,10 @@ pub fn parse_set(name: &str) -> Result<GeneratingSet, String> {
     }
 }
 
-/// Read a theory (built-in spec or file) and build its genus-g block space.
+/// Read a theory (built-in spec or file; files proved first, see `proof`) and build its
+/// genus-g block space.
 pub fn build_space(spec: &str, genus: usize) -> Result<BlockSpace, String> {
-    let theory = parse_spec(spec).map_err(|e| e.to_string())?;
+    let theory = proof::theory(spec)?;
     BlockSpace::new(theory, genus).map_err(|e| e.to_string())
 }
 

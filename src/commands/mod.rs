@@ -7,6 +7,8 @@ mod orbit;
 pub mod output;
 mod product;
 mod progress;
+mod proof;
+mod proof_cache;
 mod structure;
 mod sweep;
 mod theory;
@@ -19,6 +21,7 @@ use crate::cli::{Cli, Command};
 /// Run the chosen subcommand and turn its outcome into the process exit code.
 pub fn dispatch(cli: Cli) -> ExitCode {
     let json = cli.json;
+    proof::set_unverified(cli.unverified);
     let outcome = match &cli.command {
         Command::Field(a) => field::run(a, json),
         Command::Twists(a) => twists::run(a, json),

@@ -15,17 +15,21 @@ use super::common::{build_space, parse_set, vacuum_problem};
 use super::output::{Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
+use super::proof;
 use super::structure::{counted, orbit_json, orbit_text};
 use crate::cli::OrbitArgs;
 
 /// The generator set and seed from either a theory or raw files.
 fn load_problem(args: &OrbitArgs) -> Result<OrbitProblem, String> {
     match (&args.matrices, &args.seed, &args.spec) {
-        (Some(m), Some(s), _) => OrbitProblem::new(
-            GeneratorSet::read(m).map_err(|e| e.to_string())?,
-            &Seed::read(s).map_err(|e| e.to_string())?,
-        )
-        .map_err(|e| e.to_string()),
+        (Some(m), Some(s), _) => {
+            let gens = GeneratorSet::read(m).map_err(|e| e.to_string())?;
+            let seed = Seed::read(s).map_err(|e| e.to_string())?;
+            gens.validate()
+                .map_err(|e| format!("{}: {e}", m.display()))?;
+            proof::generators(&gens, &m.display().to_string())?;
+            OrbitProblem::new(gens, &seed).map_err(|e| e.to_string())
+        }
         (_, _, Some(spec)) => {
             let genus = args.genus.ok_or("--genus is required with a theory")?;
             vacuum_problem(spec, genus, &args.set)
@@ -229,6 +233,13 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
     let (Some(spec), Some(genus)) = (&args.spec, args.genus) else {
         return Outcome::Invalid("--method structure needs a theory SPEC and --genus".into());
     };
+    if args.checkpoint.is_some() || args.resume.is_some() {
+        return Outcome::Invalid(
+            "--method structure keeps no checkpoints (it counts the orbit without listing it); \
+             drop --checkpoint/--resume"
+                .into(),
+        );
+    }
     let space = match parse_set(&args.set).and_then(|set| Ok((set, build_space(spec, genus)?))) {
         Ok(x) => x,
         Err(e) => return Outcome::Invalid(e),

@@ -1,9 +1,11 @@
 //! Outcomes, exit codes and the two output modes (text for people, one JSON object for programs).
 
-use std::io::IsTerminal;
+use std::io::{IsTerminal, Write};
 use std::process::ExitCode;
 
 use serde_json::Value;
+
+use super::proof;
 
 /// The result of a subcommand, before it is printed.
 pub enum Outcome {
@@ -37,18 +39,35 @@ impl Report {
         }
     }
 
+    /// Print, with the proof status of the data used (`verified`; see `proof`) when the
+    /// command used theory or generator data. A closed stdout (`| head`) is not an error
+    /// of the computation: the rest of the output is dropped quietly.
     fn print(&self) {
+        let verified = proof::answers_verified();
+        let mut out = String::new();
         if self.as_json {
-            println!(
-                "{}",
-                serde_json::to_string_pretty(&self.json).expect("JSON values serialise")
-            );
+            let mut json = self.json.clone();
+            if let (Some(v), Value::Object(obj)) = (verified, &mut json) {
+                obj.insert("verified".into(), Value::Bool(v));
+            }
+            out.push_str(&serde_json::to_string_pretty(&json).expect("JSON values serialise"));
+            out.push('\n');
         } else {
-            print!("{}", self.text);
+            out.push_str(&self.text);
             if !self.text.ends_with('\n') {
-                println!();
+                out.push('\n');
+            }
+            if verified == Some(false) {
+                out.push_str(
+                    "verified: false (data used without proof under --unverified; this answer \
+                     is not established)\n",
+                );
             }
         }
+        let mut stdout = std::io::stdout().lock();
+        let _closed_stdout_is_not_an_error = stdout
+            .write_all(out.as_bytes())
+            .and_then(|()| stdout.flush());
     }
 }
 

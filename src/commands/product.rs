@@ -145,9 +145,9 @@ pub fn run_product(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome
             "--method product keeps no checkpoints (its factors are short runs); drop --checkpoint/--resume".into(),
         );
     }
-    let conductor = match cyclorb_theory::parse_spec(spec) {
+    let conductor = match super::proof::theory(spec) {
         Ok(theory) => theory.field().conductor(),
-        Err(e) => return Outcome::Invalid(e.to_string()),
+        Err(e) => return Outcome::Invalid(e),
     };
     let stop = Arc::new(AtomicBool::new(false));
     if let Err(e) = install_stop_handler(&stop) {

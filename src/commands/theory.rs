@@ -5,12 +5,14 @@ use std::time::Instant;
 
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_theory::{
-    builtin_catalogue, parse_spec, theory_to_json, verify_selected, CheckId, Theory,
+    builtin_catalogue, parse_spec, parse_spec_traced, theory_to_json, verify_selected, CheckId,
+    Theory, TracedSpec,
 };
 use serde_json::{json, Value};
 
 use super::output::{Outcome, Report};
 use super::progress::spinner;
+use super::proof_cache;
 use crate::cli::{DescribeArgs, VerifyArgs};
 
 const GRAMMAR: &str = "spec := factor ('*' factor)* ; factor := conj(spec) | galois:K(spec) | gauge:SEED(spec) | (spec) | NAME | PATH.json";
@@ -169,6 +171,17 @@ fn check_names() -> String {
         .join(", ")
 }
 
+/// A file whose theory has just passed every check is remembered as proved, so that later
+/// commands reading it do not verify it again.
+fn remember_proved_files(traced: &TracedSpec) {
+    let hash = traced.theory.data_hash();
+    for file in &traced.files {
+        if file.theory.data_hash() == hash {
+            proof_cache::remember(&hash);
+        }
+    }
+}
+
 /// Run `cyclorb verify SPEC|FILE`.
 pub fn run_verify(args: &VerifyArgs, as_json: bool) -> Outcome {
     let mut skipped = Vec::new();
@@ -184,16 +197,17 @@ pub fn run_verify(args: &VerifyArgs, as_json: bool) -> Outcome {
         }
     }
     let started = Instant::now();
-    let theory = match parse_spec(&args.spec) {
+    let traced = match parse_spec_traced(&args.spec) {
         Ok(t) => t,
         Err(e) => return Outcome::Invalid(e.to_string()),
     };
+    let theory = &traced.theory;
     let ids: Vec<CheckId> = CheckId::ALL
         .into_iter()
         .filter(|id| !skipped.contains(id))
         .collect();
     let bar = spinner(as_json);
-    let verification = verify_selected(&theory, &ids, &mut |id| {
+    let verification = verify_selected(theory, &ids, &mut |id| {
         if let Some(bar) = &bar {
             bar.set_message(format!("checking {id} of {}", theory.name()));
         }
@@ -264,6 +278,9 @@ pub fn run_verify(args: &VerifyArgs, as_json: bool) -> Outcome {
     });
     let report = Report::new(json, text, as_json);
     if verification.ok() {
+        if skipped.is_empty() {
+            remember_proved_files(&traced);
+        }
         Outcome::Done(report)
     } else {
         if as_json {

@@ -85,6 +85,7 @@ mod format;
 mod generators;
 mod hash;
 mod image;
+mod invertible;
 mod key;
 mod memory;
 mod numerators;
@@ -105,6 +106,7 @@ pub use engine::{
 pub use error::{FormatError, OrbitError};
 pub use format::{FORMAT_VERSION, GENERATORS_FORMAT, SEED_FORMAT};
 pub use generators::{GeneratorSet, Seed};
+pub use invertible::MAX_DENSE_PROOF;
 pub use memory::peak_memory_bytes;
 pub use pairs::{pair_orbit, PairOrbit};
 pub use poincare::PoincareSum;

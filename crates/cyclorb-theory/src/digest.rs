@@ -15,12 +15,19 @@ const H0: [u32; 8] = [
     0x6a09e667, 0xbb67ae85, 0x3c6ef372, 0xa54ff53a, 0x510e527f, 0x9b05688c, 0x1f83d9ab, 0x5be0cd19,
 ];
 
-/// Incremental SHA-256.
+/// Incremental SHA-256 (the data hash of theories; also used by the program to seal and
+/// digest what it stores).
 #[derive(Clone, Debug)]
 pub struct Sha256 {
     state: [u32; 8],
     buffer: Vec<u8>,
     length: u64,
+}
+
+impl Default for Sha256 {
+    fn default() -> Sha256 {
+        Sha256::new()
+    }
 }
 
 impl Sha256 {

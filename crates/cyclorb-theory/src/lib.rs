@@ -82,6 +82,7 @@ mod verlinde;
 pub use builtins::{
     builtin_catalogue, fibonacci, ising_type, minimal, so3, su2, tricritical_ising, zn,
 };
+pub use digest::Sha256;
 pub use error::TheoryError;
 pub use exact_real::real_sign;
 pub use file::{read_theory_file, theory_from_json, theory_to_json, FORMAT_NAME, FORMAT_VERSION};

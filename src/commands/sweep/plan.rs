@@ -434,6 +434,14 @@ pub fn parse_plan(path: &Path, source: String) -> Result<Plan, PlanError> {
     let set = c.set(&raw.set, GeneratingSet::Humphries)?;
     let limits = c.limits(&raw.limits, Limits::default())?;
     let threads = c.positive(&raw.threads, "threads")?;
+    if let (Some(n), Some(raw_threads)) = (threads, &raw.threads) {
+        if n > crate::cli::MAX_THREADS {
+            return Err(c.err(
+                raw_threads.span(),
+                format!("threads must be at most {}", crate::cli::MAX_THREADS),
+            ));
+        }
+    }
     let checkpoint_seconds = c
         .positive(&raw.checkpoint_seconds, "checkpoint_seconds")?
         .unwrap_or(30);

@@ -8,8 +8,8 @@
 //! answer depends on; a finished result is reused only when its run hash matches.
 
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
-use cyclorb_theory::parse_spec;
 
+use super::super::proof;
 use super::hash::Fnv64;
 use super::plan::{Answer, Entry, Limits, Plan, PlanError};
 
@@ -128,7 +128,7 @@ pub fn schedule(plan: &Plan) -> Result<Schedule, PlanError> {
                 ),
             )
         };
-        let theory = parse_spec(&entry.source.spec_text()).map_err(|e| refuse(e.to_string()))?;
+        let theory = proof::theory(&entry.source.spec_text()).map_err(refuse)?;
         let theory_hash = theory.data_hash();
         for (k, &genus) in entry.genera.iter().enumerate() {
             let space = BlockSpace::new(theory.clone(), genus)
