@@ -7,12 +7,22 @@ use std::process::{Command, Output};
 
 use serde_json::Value;
 
+/// The cache folder the tests give the binary (`XDG_CACHE_HOME`), one per test process, so
+/// that proofs remembered by one run of the suite never serve another.
+pub fn test_cache() -> PathBuf {
+    temp_path("cache")
+}
+
+/// `cyclorb` as a command with the test cache set.
+pub fn command() -> Command {
+    let mut c = Command::new(env!("CARGO_BIN_EXE_cyclorb"));
+    c.env("XDG_CACHE_HOME", test_cache());
+    c
+}
+
 /// Run `cyclorb ARGS` and capture everything.
 pub fn cyclorb(args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_cyclorb"))
-        .args(args)
-        .output()
-        .expect("the binary runs")
+    command().args(args).output().expect("the binary runs")
 }
 
 /// Run `cyclorb ARGS --json`, returning the exit code and the single JSON object on stdout.

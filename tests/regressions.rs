@@ -1,0 +1,368 @@
+//! One test per reported failure of issue 15 ("answers that can be trusted"), each with the
+//! clean outcome now expected: exit 1 with a named reason, exit 2 for a usage error, or exit
+//! 3 with a partial result. Every test bounds its own time by the size of what it runs.
+
+mod common;
+
+use std::io::Read;
+use std::path::{Path, PathBuf};
+use std::process::{Output, Stdio};
+use std::time::{Duration, Instant};
+
+use common::{command, cyclorb, cyclorb_json, temp_path, test_cache};
+use serde_json::Value;
+
+fn text(bytes: &[u8]) -> String {
+    String::from_utf8_lossy(bytes).into_owned()
+}
+
+/// The outcome must be exit 1 with every `needle` in stderr, no panic, within `seconds`.
+fn refused(args: &[&str], needles: &[&str], seconds: u64) -> String {
+    let started = Instant::now();
+    let out = cyclorb(args);
+    let err = text(&out.stderr);
+    assert_eq!(
+        out.status.code(),
+        Some(1),
+        "{args:?}: {err}\n{}",
+        text(&out.stdout)
+    );
+    assert!(!err.contains("panicked"), "{args:?}: {err}");
+    for needle in needles {
+        assert!(err.contains(needle), "{args:?}: {needle:?} not in {err}");
+    }
+    assert!(
+        started.elapsed() < Duration::from_secs(seconds),
+        "{args:?} took {:?}",
+        started.elapsed()
+    );
+    err
+}
+
+fn folder(tag: &str) -> PathBuf {
+    let dir = temp_path(tag);
+    std::fs::create_dir_all(&dir).unwrap();
+    dir
+}
+
+/// `cyclorb describe SPEC --json`, written to `dir/name` (a valid theory file).
+fn theory_file(spec: &str, dir: &Path, name: &str) -> (PathBuf, Value) {
+    let (code, value) = cyclorb_json(&["describe", spec]);
+    assert_eq!(code, 0);
+    let path = dir.join(name);
+    std::fs::write(&path, value.to_string()).unwrap();
+    (path, value)
+}
+
+fn write_json(path: &Path, value: &Value) -> String {
+    std::fs::write(path, value.to_string()).unwrap();
+    path.display().to_string()
+}
+
+// ---- only proved data are used ----------------------------------------------------------
+
+#[test]
+fn fibonacci_with_zero_dimension_is_refused_naming_the_check() {
+    let dir = folder("fib-d0");
+    let (_, mut fib) = theory_file("fibonacci", &dir, "fib.json");
+    fib["dimensions"]["tau"] = Value::from("0");
+    let bad = write_json(&dir.join("fib-d0.json"), &fib);
+    // was: "1 lines, saturated", exit 0
+    refused(
+        &["orbit", &bad, "--genus", "2"],
+        &[
+            "fib-d0.json",
+            "check dimensions",
+            "d_a d_b = Σ_c N_ab^c d_c",
+        ],
+        20,
+    );
+    // was: "finite, order 125", exit 0
+    refused(&["image", &bad, "--genus", "2"], &["check dimensions"], 20);
+    for cmd in ["commutant", "witness", "twists"] {
+        refused(&[cmd, &bad, "--genus", "2"], &["check dimensions"], 20);
+    }
+    refused(
+        &["orbit", &bad, "--genus", "2", "--method", "structure"],
+        &["check dimensions"],
+        20,
+    );
+    // a product with a built-in still proves the file factor
+    let product = format!("ising*{bad}");
+    refused(
+        &["orbit", &product, "--genus", "1", "--method", "product"],
+        &["check dimensions"],
+        20,
+    );
+    // the expert's opt-out answers, and says the answer is not established
+    let (code, v) = cyclorb_json(&["orbit", &bad, "--genus", "2", "--unverified"]);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["verified"], false);
+    let out = cyclorb(&["orbit", &bad, "--genus", "2", "--unverified"]);
+    assert!(text(&out.stdout).contains("verified: false"));
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn an_ising_mutant_failing_verify_is_refused() {
+    let dir = folder("ising-mutant");
+    let (_, mut ising) = theory_file("ising", &dir, "ising.json");
+    // R^{σσ}_1 multiplied by −1: the hexagons and the twist fail
+    let r = ising["R"].as_array_mut().unwrap();
+    let entry = r
+        .iter_mut()
+        .find(|e| e[0] == "sigma" && e[1] == "sigma" && e[2] == "1")
+        .expect("R^{σσ}_1 is listed");
+    let value = entry[3].as_str().unwrap().to_string();
+    entry[3] = Value::from(format!("-({value})"));
+    let bad = write_json(&dir.join("ising-mutant.json"), &ising);
+    let err = refused(
+        &["orbit", &bad, "--genus", "2"],
+        &["fails verification"],
+        20,
+    );
+    assert!(err.contains("hexagon") || err.contains("twist"), "{err}");
+    refused(
+        &["image", &bad, "--genus", "2"],
+        &["fails verification"],
+        20,
+    );
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn a_valid_file_is_proved_once_and_answers_say_verified() {
+    let dir = folder("valid-file");
+    let (path, value) = theory_file("ising", &dir, "ising.json");
+    let p = path.display().to_string();
+    let (code, v) = cyclorb_json(&["orbit", &p, "--genus", "2"]);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["verified"], true);
+    assert_eq!(v["orbit_size"], 3840);
+    let hash = value["data_hash"].as_str().unwrap();
+    let entry = test_cache()
+        .join("cyclorb")
+        .join("verified")
+        .join(format!("{hash}.json"));
+    assert!(entry.is_file(), "no cache entry at {}", entry.display());
+    // built-ins carry the test suite's proof
+    let (_, v) = cyclorb_json(&["orbit", "ising", "--genus", "1"]);
+    assert_eq!(v["verified"], true);
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn a_forged_cache_entry_does_not_prove_a_failing_file() {
+    let dir = folder("forged-cache");
+    let (_, mut fib) = theory_file("fibonacci", &dir, "fib.json");
+    fib["dimensions"]["tau"] = Value::from("0");
+    let bad = write_json(&dir.join("fib-d0.json"), &fib);
+    // the failing file's own data hash, as `describe` computes it
+    let (_, described) = cyclorb_json(&["describe", "--unverified", &bad]);
+    let hash = described["data_hash"].as_str().unwrap().to_string();
+    // a valid file creates the key and one genuine entry to copy
+    let (good, good_value) = theory_file("ising", &dir, "ising.json");
+    let (code, _) = cyclorb_json(&["orbit", good.to_str().unwrap(), "--genus", "1"]);
+    assert_eq!(code, 0);
+    let verified = test_cache().join("cyclorb").join("verified");
+    let genuine = std::fs::read_to_string(verified.join(format!(
+        "{}.json",
+        good_value["data_hash"].as_str().unwrap()
+    )))
+    .unwrap();
+    let mut forged: Value = serde_json::from_str(&genuine).unwrap();
+    forged["data_hash"] = Value::from(hash.clone());
+    std::fs::write(verified.join(format!("{hash}.json")), forged.to_string()).unwrap();
+    refused(&["orbit", &bad, "--genus", "2"], &["check dimensions"], 20);
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+/// The ising genus-1 generator file of the fixtures with S replaced by `rows`.
+fn raw_generators(dir: &Path, rows: Value) -> String {
+    let text = std::fs::read_to_string(common::fixture("orbit/ising-genus1.json")).unwrap();
+    let mut gens: Value = serde_json::from_str(&text).unwrap();
+    gens["generators"][1]["rows"] = rows;
+    write_json(&dir.join("gens.json"), &gens)
+}
+
+#[test]
+fn a_singular_raw_generator_is_refused() {
+    let dir = folder("singular");
+    let gens = raw_generators(
+        &dir,
+        serde_json::json!([["1", "1", "0"], ["1", "1", "0"], ["0", "0", "1"]]),
+    );
+    let seed = common::fixture("orbit/vacuum-seed-ising.json");
+    // was: "17 lines, saturated", exit 0
+    refused(
+        &[
+            "orbit",
+            "--matrices",
+            &gens,
+            "--seed",
+            seed.to_str().unwrap(),
+        ],
+        &["generator S is singular", "rank 2 of 3"],
+        20,
+    );
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn an_infinite_order_raw_generator_honours_the_limit() {
+    let dir = folder("infinite-order");
+    let gens = raw_generators(
+        &dir,
+        serde_json::json!([["1", "0", "0"], ["0", "2", "0"], ["0", "0", "-1"]]),
+    );
+    let seed = dir.join("seed.json");
+    std::fs::write(
+        &seed,
+        r#"{"format": "cyclorb-seed", "version": 1, "conductor": 16, "vector": ["1", "1", "1"]}"#,
+    )
+    .unwrap();
+    let started = Instant::now();
+    let (code, v) = cyclorb_json(&[
+        "orbit",
+        "--matrices",
+        &gens,
+        "--seed",
+        seed.to_str().unwrap(),
+        "--limit",
+        "2000",
+    ]);
+    assert_eq!(code, 3, "{v}");
+    assert_eq!(v["saturated"], false);
+    assert!(v["orbit_size"].as_u64().unwrap() <= 2000, "{v}");
+    assert!(started.elapsed() < Duration::from_secs(20));
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+// ---- no panic, no hang on bad input -----------------------------------------------------
+
+#[test]
+fn a_closed_stdout_ends_quietly() {
+    let mut child = command()
+        .args(["orbit", "ising", "--genus", "2", "--json"])
+        .stdout(Stdio::piped())
+        .stderr(Stdio::piped())
+        .spawn()
+        .unwrap();
+    drop(child.stdout.take()); // the reader went away before anything was written
+    let mut err = String::new();
+    child
+        .stderr
+        .take()
+        .unwrap()
+        .read_to_string(&mut err)
+        .unwrap();
+    let status = child.wait().unwrap();
+    assert_ne!(status.code(), Some(101), "{err}");
+    assert!(!err.contains("panicked"), "{err}");
+}
+
+#[test]
+fn deep_nesting_is_refused_everywhere() {
+    let parens = format!("{}1{}", "(".repeat(5200), ")".repeat(5200));
+    refused(&["field", "-n", "8", &parens], &["nesting deeper than"], 10);
+    let conj = format!("{}ising{}", "conj(".repeat(1400), ")".repeat(1400));
+    refused(&["describe", &conj], &["nesting deeper than"], 10);
+    let dir = folder("deep-value");
+    let (_, mut ising) = theory_file("ising", &dir, "ising.json");
+    ising["twists"]["psi"] = Value::from(format!("{}-1{}", "(".repeat(5200), ")".repeat(5200)));
+    let bad = write_json(&dir.join("deep.json"), &ising);
+    refused(
+        &["describe", &bad],
+        &["deep.json", "twists", "nesting deeper than"],
+        10,
+    );
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn huge_exponents_are_refused_quickly() {
+    for e in ["2^1099511627776", "(1+z)^99999999999", "2^100000000"] {
+        refused(&["field", "-n", "8", e], &["power too large"], 5);
+    }
+}
+
+#[test]
+fn square_roots_of_big_rationals_are_found() {
+    let (code, v) = cyclorb_json(&["field", "-n", "8", "sqrt(2^64)", "sqrt(2^65/3^40)"]);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["values"][0]["value"], "4294967296");
+    assert_eq!(
+        v["values"][1]["value"],
+        "(4294967296*z - 4294967296*z^3)/3486784401"
+    );
+}
+
+#[test]
+fn negative_parameters_are_refused_as_written() {
+    // was: silently gauge:1
+    refused(
+        &["describe", "gauge:-1(ising)"],
+        &["gauge seed -1 must be non-negative"],
+        5,
+    );
+    // was: quoted as "su2:0"
+    refused(&["describe", "su2:-1"], &["\"su2:-1\""], 5);
+}
+
+#[test]
+fn a_repeated_json_key_is_refused() {
+    let dir = folder("repeated-key");
+    let (path, _) = theory_file("ising", &dir, "ising.json");
+    let doubled = std::fs::read_to_string(&path)
+        .unwrap()
+        .replacen('{', "{\"conductor\": 7, ", 1);
+    std::fs::write(&path, doubled).unwrap();
+    refused(
+        &["describe", path.to_str().unwrap()],
+        &["ising.json", "repeated key \"conductor\""],
+        5,
+    );
+    let gens = std::fs::read_to_string(common::fixture("orbit/ising-genus1.json"))
+        .unwrap()
+        .replacen('{', "{\"dimension\": 4, ", 1);
+    let gens_path = dir.join("gens.json");
+    std::fs::write(&gens_path, gens).unwrap();
+    let seed = common::fixture("orbit/vacuum-seed-ising.json");
+    refused(
+        &[
+            "orbit",
+            "--matrices",
+            gens_path.to_str().unwrap(),
+            "--seed",
+            seed.to_str().unwrap(),
+        ],
+        &["gens.json", "repeated key \"dimension\""],
+        5,
+    );
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn resume_with_the_structure_method_is_refused() {
+    refused(
+        &[
+            "orbit",
+            "ising",
+            "--genus",
+            "2",
+            "--method",
+            "structure",
+            "--resume",
+            "x.ckpt",
+        ],
+        &["--method structure keeps no checkpoints"],
+        5,
+    );
+}
+
+#[test]
+fn too_many_threads_is_a_usage_error() {
+    let out: Output = cyclorb(&["orbit", "ising", "--genus", "2", "--threads", "3000"]);
+    assert_eq!(out.status.code(), Some(2));
+    assert!(text(&out.stderr).contains("from 1 to 256"));
+}
