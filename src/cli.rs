@@ -29,6 +29,11 @@ pub struct Cli {
     /// `verified: false`); raw generators are then not proved invertible either.
     #[arg(long, global = true)]
     pub unverified: bool,
+    /// Memory budget in MiB (default: a quarter of the machine's memory). Sizes are
+    /// estimated before they are allocated and refused past it; an orbit stops at it with a
+    /// partial result (exit 3).
+    #[arg(long, global = true, value_name = "MIB")]
+    pub memory_limit: Option<u64>,
     /// The action to run.
     #[command(subcommand)]
     pub command: Command,
@@ -135,9 +140,6 @@ pub struct OrbitArgs {
     /// Stop unsaturated (exit 3) after this many lines.
     #[arg(long)]
     pub limit: Option<usize>,
-    /// Stop unsaturated (exit 3) once the stored lines take this many MiB.
-    #[arg(long, value_name = "MIB")]
-    pub memory_limit: Option<usize>,
     /// Worker threads (the answer does not depend on it; 1 to 256); default: every core.
     #[arg(long, value_parser = thread_count)]
     pub threads: Option<usize>,

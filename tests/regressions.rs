@@ -366,3 +366,85 @@ fn too_many_threads_is_a_usage_error() {
     assert_eq!(out.status.code(), Some(2));
     assert!(text(&out.stderr).contains("from 1 to 256"));
 }
+
+// ---- every size known before it is spent ------------------------------------------------
+// The budget is given explicitly (4 GiB) so that the outcome does not depend on the machine.
+
+#[test]
+fn oversized_block_spaces_are_refused_at_once() {
+    refused(
+        &["twists", "ising", "--genus", "11", "--memory-limit", "4096"],
+        &[
+            "genus-11 block space of ising (dimension 2098176)",
+            "--memory-limit",
+        ],
+        5,
+    );
+    // --limit cannot help: the space was built before the first line
+    refused(
+        &[
+            "orbit",
+            "su2:4",
+            "--genus",
+            "6",
+            "--limit",
+            "10",
+            "--memory-limit",
+            "4096",
+        ],
+        &[
+            "genus-6 block space of su2:4 (dimension 499955)",
+            "by estimate",
+        ],
+        5,
+    );
+    let dir = folder("plan-g12");
+    let plan = dir.join("g12.toml");
+    std::fs::write(&plan, "[[theory]]\nspec = \"ising\"\ngenera = [12]\n").unwrap();
+    let out = dir.join("out");
+    refused(
+        &[
+            "sweep",
+            plan.to_str().unwrap(),
+            "--dry-run",
+            "--out",
+            out.to_str().unwrap(),
+            "--memory-limit",
+            "4096",
+        ],
+        &[
+            "g12.toml:2",
+            "genus-12 block space of ising",
+            "--memory-limit",
+        ],
+        5,
+    );
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn oversized_theories_and_fields_are_refused_at_once() {
+    refused(
+        &["describe", "su2:30", "--memory-limit", "4096"],
+        &["every F-symbol of su2:30", "by estimate"],
+        10,
+    );
+    refused(
+        &[
+            "describe",
+            "ising*ising*ising*ising*ising",
+            "--memory-limit",
+            "512",
+        ],
+        &["the product", "by estimate"],
+        10,
+    );
+    refused(
+        &["field", "-n", "19997", "1", "--memory-limit", "1024"],
+        &["the field Q(ζ_19997)", "--memory-limit"],
+        5,
+    );
+    // the flag lifts the budget: a small theory under a small budget still works
+    let (code, _) = cyclorb_json(&["describe", "su2:3", "--memory-limit", "64"]);
+    assert_eq!(code, 0);
+}

@@ -1,5 +1,6 @@
 //! One module per subcommand; each returns an `Outcome` that `dispatch` maps to an exit code.
 
+mod budget;
 mod certify;
 mod common;
 mod field;
@@ -22,6 +23,7 @@ use crate::cli::{Cli, Command};
 pub fn dispatch(cli: Cli) -> ExitCode {
     let json = cli.json;
     proof::set_unverified(cli.unverified);
+    budget::install(cli.memory_limit);
     let outcome = match &cli.command {
         Command::Field(a) => field::run(a, json),
         Command::Twists(a) => twists::run(a, json),

@@ -46,7 +46,7 @@ pub(super) fn options(args: &OrbitArgs, stop: Arc<AtomicBool>) -> OrbitOptions {
     let checkpoint_path = args.checkpoint.clone().or_else(|| args.resume.clone());
     OrbitOptions {
         limit: args.limit,
-        memory_ceiling: args.memory_limit.map(|m| m << 20),
+        memory_ceiling: Some(usize::try_from(cyclorb_field::memory_budget()).unwrap_or(usize::MAX)),
         threads,
         checkpoint: checkpoint_path.map(|path| CheckpointPlan {
             path,

@@ -151,6 +151,9 @@ pub fn run_describe(args: &DescribeArgs, as_json: bool) -> Outcome {
         Ok(t) => t,
         Err(e) => return Outcome::Invalid(e.to_string()),
     };
+    if let Err(e) = theory.check_f_storage() {
+        return Outcome::Invalid(e.to_string());
+    }
     let mut json = theory_to_json(&theory);
     if let Value::Object(obj) = &mut json {
         obj.insert("spec".into(), json!(args.spec));
@@ -202,6 +205,9 @@ pub fn run_verify(args: &VerifyArgs, as_json: bool) -> Outcome {
         Err(e) => return Outcome::Invalid(e.to_string()),
     };
     let theory = &traced.theory;
+    if let Err(e) = theory.check_f_storage() {
+        return Outcome::Invalid(e.to_string());
+    }
     let ids: Vec<CheckId> = CheckId::ALL
         .into_iter()
         .filter(|id| !skipped.contains(id))

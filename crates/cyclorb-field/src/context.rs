@@ -45,6 +45,10 @@ impl CyclotomicField {
         if n == 0 || n > MAX_CONDUCTOR {
             return Err(FieldError::BadConductor(n));
         }
+        crate::budget::check_budget(
+            || format!("the field Q(ζ_{n})"),
+            CyclotomicField::table_bytes(n),
+        )?;
         let phi = euler_phi(n as u64) as usize;
         let cyclotomic = cyclotomic_polynomial(n as u64);
         let reduction = if n >= 2 && n.is_power_of_two() {

@@ -39,6 +39,15 @@ pub enum FieldError {
         /// What is wrong there.
         reason: String,
     },
+    /// An estimated size is past the process's memory budget (see `set_memory_budget`).
+    OverBudget {
+        /// What would be allocated.
+        what: String,
+        /// Its estimated size in bytes.
+        bytes: u64,
+        /// The budget in bytes.
+        budget: u64,
+    },
     /// A reduction modulo a prime was asked for where it is undefined.
     BadPrime {
         /// The prime.
@@ -71,6 +80,17 @@ impl fmt::Display for FieldError {
             FieldError::Parse { text, at, reason } => {
                 write!(f, "cannot read {text:?} at byte {at}: {reason}")
             }
+            FieldError::OverBudget {
+                what,
+                bytes,
+                budget,
+            } => write!(
+                f,
+                "{what} needs about {} MiB by estimate, more than the memory budget of {} MiB \
+                 (cyclorb: --memory-limit MIB raises it)",
+                bytes.div_ceil(1 << 20),
+                budget >> 20
+            ),
             FieldError::BadPrime { p, reason } => write!(f, "prime {p} unusable: {reason}"),
         }
     }

@@ -47,6 +47,7 @@
 #![deny(missing_docs)]
 
 mod arith;
+mod budget;
 mod context;
 mod convolution;
 mod dot;
@@ -66,6 +67,7 @@ mod text;
 mod unique_keys;
 mod words;
 
+pub use budget::{check_budget, memory_budget, set_memory_budget};
 pub use context::{CyclotomicField, Reduction, MAX_CONDUCTOR};
 pub use dot::DotAccumulator;
 pub use element::Cyc;

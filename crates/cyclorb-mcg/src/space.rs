@@ -9,6 +9,7 @@ use crate::basis::{CombBasis, CombState};
 use crate::beta::beta_twist;
 use crate::curves::{Curve, GeneratingSet};
 use crate::error::McgError;
+use crate::estimate::SpaceEstimate;
 use crate::form::invariant_form;
 use crate::gamma::gamma_twist;
 
@@ -22,7 +23,8 @@ pub struct BlockSpace {
 }
 
 impl BlockSpace {
-    /// Build V_g (g ≥ 1). Genus ≥ 2 needs F- and R-symbols; genus 1 needs only S and T
+    /// Build V_g (g ≥ 1), after checking its estimated size ([`SpaceEstimate`]) against the
+    /// memory budget. Genus ≥ 2 needs F- and R-symbols; genus 1 needs only S and T
     /// when the theory has no F-symbols (then only α and β twists exist, from S and T).
     pub fn new(theory: Theory, genus: usize) -> Result<BlockSpace, McgError> {
         if genus >= 2 && !theory.has_fr() {
@@ -31,6 +33,17 @@ impl BlockSpace {
                 genus,
             });
         }
+        let size = SpaceEstimate::new(&theory, genus);
+        cyclorb_field::check_budget(
+            || {
+                format!(
+                    "the genus-{genus} block space of {} (dimension {})",
+                    theory.name(),
+                    size.dimension
+                )
+            },
+            u64::try_from(size.bytes).unwrap_or(u64::MAX),
+        )?;
         let basis = CombBasis::new(&theory, genus)?;
         let form = if theory.has_fr() {
             invariant_form(&theory, &basis)?

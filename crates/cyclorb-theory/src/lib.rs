@@ -73,6 +73,7 @@ mod gauss;
 mod lazy;
 mod ops;
 mod roots;
+mod size;
 mod spec;
 mod structure;
 mod theory;

@@ -2,7 +2,7 @@
 
 use std::sync::Arc;
 
-use cyclorb_field::{Cyc, CyclotomicField};
+use cyclorb_field::{check_budget, Cyc, CyclotomicField};
 use cyclorb_matrix::Matrix;
 use hashbrown::HashMap;
 use num_integer::Integer;
@@ -12,6 +12,7 @@ use crate::assemble::{assemble, RawF, RawStructure, RawTheory};
 use crate::error::TheoryError;
 use crate::fusion::FusionRules;
 use crate::roots::canonical_conductor;
+use crate::size::product_bytes;
 use crate::structure::{key3, key4, FBlock, FSource};
 use crate::theory::Theory;
 
@@ -23,6 +24,10 @@ pub fn product(left: &Theory, right: &Theory) -> Result<Theory, TheoryError> {
     let n = canonical_conductor((left.conductor() as u64).lcm(&(right.conductor() as u64)));
     let field = CyclotomicField::new(n as u32)?;
     let (r1, r2) = (left.rank(), right.rank());
+    check_budget(
+        || format!("the product {}*{}", left.name(), right.name()),
+        u64::try_from(product_bytes(r1, r2, field.degree())).unwrap_or(u64::MAX),
+    )?;
     let rank = r1 * r2;
     let emb = |x: &Cyc| field.embed(x);
     let both =
