@@ -448,3 +448,77 @@ fn oversized_theories_and_fields_are_refused_at_once() {
     let (code, _) = cyclorb_json(&["describe", "su2:3", "--memory-limit", "64"]);
     assert_eq!(code, 0);
 }
+
+// ---- nothing lost, nothing forged -------------------------------------------------------
+
+#[test]
+fn an_unwritable_checkpoint_path_is_refused_before_work() {
+    let missing = temp_path("no-such-folder").join("orbit.ckpt");
+    refused(
+        &[
+            "orbit",
+            "ising",
+            "--genus",
+            "2",
+            "--checkpoint",
+            missing.to_str().unwrap(),
+        ],
+        &["orbit.ckpt cannot be written"],
+        5,
+    );
+}
+
+fn small_sweep(dir: &Path) -> (i32, Value) {
+    let plan = dir.join("one.toml");
+    std::fs::write(
+        &plan,
+        "answers = [\"orbit\"]\n[[theory]]\nspec = \"ising\"\ngenera = [1]\n",
+    )
+    .unwrap();
+    let out = dir.join("out");
+    cyclorb_json(&[
+        "sweep",
+        plan.to_str().unwrap(),
+        "--out",
+        out.to_str().unwrap(),
+    ])
+}
+
+#[test]
+fn an_edited_stored_result_is_detected_and_recomputed() {
+    let dir = folder("sweep-edited");
+    let (code, first) = small_sweep(&dir);
+    assert_eq!(code, 0, "{first}");
+    let size = first["runs"][0]["orbit_size"].clone();
+    let result = dir.join("out/runs/ising-g1/result.json");
+    assert!(dir.join("out/runs/ising-g1/result.json.sha256").is_file());
+    // an unchanged result is reused without comment
+    let (_, again) = small_sweep(&dir);
+    assert_eq!(again["notes"], serde_json::json!([]));
+    // a hand edit (orbit_size 25) is detected
+    let mut edited: Value =
+        serde_json::from_str(&std::fs::read_to_string(&result).unwrap()).unwrap();
+    edited["orbit_size"] = Value::from(25);
+    std::fs::write(&result, serde_json::to_string_pretty(&edited).unwrap()).unwrap();
+    let (code, v) = small_sweep(&dir);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["runs"][0]["orbit_size"], size);
+    let notes = v["notes"].to_string();
+    assert!(notes.contains("does not match its digest"), "{notes}");
+    assert!(notes.contains("recomputing"), "{notes}");
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn a_corrupt_run_checkpoint_is_reported() {
+    let dir = folder("sweep-corrupt-checkpoint");
+    let run = dir.join("out/runs/ising-g1");
+    std::fs::create_dir_all(&run).unwrap();
+    std::fs::write(run.join("checkpoint.bin"), b"not a checkpoint at all").unwrap();
+    let (code, v) = small_sweep(&dir);
+    assert_eq!(code, 0, "{v}");
+    let notes = v["notes"].to_string();
+    assert!(notes.contains("checkpoint.bin is unusable"), "{notes}");
+    assert_eq!(v["runs"][0]["resumed"], false);
+    std::fs::remove_dir_all(&dir).ok();
+}

@@ -1,6 +1,7 @@
 //! `cyclorb orbit`: the orbit of the vacuum line (or any seed) and its exact Poincaré sum,
 //! with limits, checkpoints, resume, and a progress display on terminals.
 
+use std::path::{Path, PathBuf};
 use std::sync::atomic::AtomicBool;
 use std::sync::Arc;
 use std::time::{Duration, Instant};
@@ -55,6 +56,28 @@ pub(super) fn options(args: &OrbitArgs, stop: Arc<AtomicBool>) -> OrbitOptions {
         stop: Some(stop),
         ..OrbitOptions::default()
     }
+}
+
+/// Prove before any work that a checkpoint can be written at `path`: a file beside it is
+/// created and removed (checkpoints are written through a temporary file and a rename, so
+/// the folder must take new files). An unwritable path found only at the first periodic
+/// write would lose the work done until then.
+fn check_writable(path: &Path) -> Result<(), String> {
+    let mut probe = path.as_os_str().to_owned();
+    probe.push(format!(".probe{}", std::process::id()));
+    let probe = PathBuf::from(probe);
+    std::fs::OpenOptions::new()
+        .write(true)
+        .create_new(true)
+        .open(&probe)
+        .map_err(|e| {
+            format!(
+                "checkpoint {} cannot be written ({e}); choose another --checkpoint path",
+                path.display()
+            )
+        })?;
+    std::fs::remove_file(&probe).ok();
+    Ok(())
 }
 
 /// The non-zero entries of a matrix given as text, `(i,j)=v` separated by spaces, shortened
@@ -180,6 +203,11 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         return Outcome::Invalid(format!("cannot install the interrupt handler: {e}"));
     }
     let opts = options(args, stop);
+    if let Some(plan) = &opts.checkpoint {
+        if let Err(e) = check_writable(&plan.path) {
+            return Outcome::Invalid(e);
+        }
+    }
     let mut progress = OrbitProgress::new(as_json);
     let result: Result<Orbit, _> = match &args.resume {
         Some(path) => problem.resume(path, &opts, &mut progress),

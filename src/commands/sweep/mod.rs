@@ -76,7 +76,7 @@ use crate::cli::SweepArgs;
 use display::SweepDisplay;
 use plan::{read_plan, Plan};
 use report::SweepHeader;
-use result::{finished_result, write_atomically, write_json_atomically, RunResult};
+use result::{finished_result, write_atomically, write_result, RunResult, Stored};
 use run::{execute, RunEnd, SweepSettings};
 use schedule::{schedule, Schedule};
 
@@ -213,18 +213,27 @@ fn sweep(
     let mut display = SweepDisplay::new(sched.runs.len(), as_json);
     let mut results: Vec<((usize, usize), RunResult)> = Vec::new();
     let mut interrupted = false;
+    let mut notes: Vec<String> = Vec::new();
     for r in &sched.runs {
         let dir = out.join("runs").join(&r.id);
         let path = dir.join("result.json");
-        if let Some(stored) = finished_result(&path, &r.run_hash) {
-            display.finished(&stored, true);
-            results.push((r.position, stored));
-            continue;
+        match finished_result(&path, &r.run_hash) {
+            Stored::Reusable(stored) => {
+                display.finished(&stored, true);
+                results.push((r.position, *stored));
+                continue;
+            }
+            Stored::Untrusted(reason) => {
+                let note = format!("{}: {reason}; recomputing the run", r.id);
+                display.note(note.clone());
+                notes.push(note);
+            }
+            Stored::Missing | Stored::Stale => {}
         }
         std::fs::create_dir_all(&dir).map_err(|e| format!("{}: {e}", dir.display()))?;
-        match execute(r, &dir, &settings, &display) {
+        match execute(r, &dir, &settings, &display, &mut notes) {
             Ok(RunEnd::Finished(result)) => {
-                write_json_atomically(&path, &result)?;
+                write_result(&path, &result)?;
                 display.finished(&result, false);
                 results.push((r.position, *result));
             }
@@ -262,6 +271,7 @@ fn sweep(
         "program_version": env!("CARGO_PKG_VERSION"),
         "command": command,
         "interrupted": interrupted,
+        "notes": notes,
         "runs": rows,
         "report_files": file_names,
     });

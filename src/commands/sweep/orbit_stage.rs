@@ -66,16 +66,27 @@ pub struct EngineSettings<'a> {
 
 /// The checkpoint's orbit when it can be used for these caps, else a fresh start. A
 /// checkpoint holding more lines than the line cap is not used: a fresh run stops at
-/// exactly the cap, and so must this one.
-pub fn starting_orbit(problem: &OrbitProblem, checkpoint: &Path, limits: &Limits) -> (Orbit, bool) {
+/// exactly the cap, and so must this one. A checkpoint that cannot be read (corrupt,
+/// truncated, made for other generators) is not used either, and the reason is returned
+/// so that it is reported, never silently dropped.
+pub fn starting_orbit(
+    problem: &OrbitProblem,
+    checkpoint: &Path,
+    limits: &Limits,
+) -> ((Orbit, bool), Option<String>) {
     if checkpoint.is_file() {
-        if let Ok(orbit) = problem.read_checkpoint(checkpoint) {
-            if limits.lines.map_or(true, |cap| orbit.len() <= cap) {
-                return (orbit, true);
+        match problem.read_checkpoint(checkpoint) {
+            Ok(orbit) if limits.lines.map_or(true, |cap| orbit.len() <= cap) => {
+                return ((orbit, true), None)
+            }
+            Ok(_) => {}
+            Err(e) => {
+                let reason = format!("checkpoint {} is unusable ({e})", checkpoint.display());
+                return ((problem.start(), false), Some(reason));
             }
         }
     }
-    (problem.start(), false)
+    ((problem.start(), false), None)
 }
 
 /// Raise `stop` when the signal flag is set or the deadline passes (recording which in

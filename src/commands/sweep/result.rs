@@ -1,10 +1,11 @@
 //! The result of one run (`runs/<id>/result.json`): the orbit keys of the command-line
 //! contract, the certified answers, costs, and what a paper needs to cite the numbers.
 
-use std::path::Path;
+use std::path::{Path, PathBuf};
 
 use cyclorb_cert::WitnessCertificate;
 use cyclorb_orbit::PoincareReport;
+use cyclorb_theory::Sha256;
 use serde::{Deserialize, Serialize};
 
 /// The commutant answer (keys as in `cyclorb commutant --json`).
@@ -131,13 +132,6 @@ impl RunResult {
     }
 }
 
-/// Write `value` as pretty JSON through `path.tmp` and a rename, so a kill while writing
-/// never leaves a torn file.
-pub fn write_json_atomically<T: Serialize>(path: &Path, value: &T) -> Result<(), String> {
-    let text = serde_json::to_string_pretty(value).map_err(|e| e.to_string())?;
-    write_atomically(path, &(text + "\n"))
-}
-
 /// Write `text` through `path.tmp` and a rename.
 pub fn write_atomically(path: &Path, text: &str) -> Result<(), String> {
     let mut tmp = path.as_os_str().to_owned();
@@ -146,9 +140,58 @@ pub fn write_atomically(path: &Path, text: &str) -> Result<(), String> {
     std::fs::rename(&tmp, path).map_err(|e| format!("{}: {e}", path.display()))
 }
 
-/// The stored result at `path` when it exists, parses, and was made for `run_hash`.
-pub fn finished_result(path: &Path, run_hash: &str) -> Option<RunResult> {
-    let text = std::fs::read_to_string(path).ok()?;
-    let result: RunResult = serde_json::from_str(&text).ok()?;
-    (result.run_hash == run_hash).then_some(result)
+/// The digest file stored beside a result: `result.json.sha256`.
+fn digest_path(path: &Path) -> PathBuf {
+    let mut name = path.as_os_str().to_owned();
+    name.push(".sha256");
+    PathBuf::from(name)
+}
+
+fn sha256_hex(bytes: &[u8]) -> String {
+    let mut h = Sha256::new();
+    h.update(bytes);
+    h.finish_hex()
+}
+
+/// Write a finished result, then the SHA-256 of its bytes beside it (both through a
+/// temporary file and a rename). A result without a matching digest is never reused.
+pub fn write_result(path: &Path, result: &RunResult) -> Result<(), String> {
+    let text = serde_json::to_string_pretty(result).map_err(|e| e.to_string())? + "\n";
+    write_atomically(path, &text)?;
+    write_atomically(&digest_path(path), &(sha256_hex(text.as_bytes()) + "\n"))
+}
+
+/// What is stored for a run.
+pub enum Stored {
+    /// No result yet.
+    Missing,
+    /// A result made for another description of the run (the plan changed): recomputed
+    /// without comment.
+    Stale,
+    /// A result that cannot be trusted (edited, corrupt, or without its digest): recomputed,
+    /// and the reason said.
+    Untrusted(String),
+    /// The result, intact and made for this run.
+    Reusable(Box<RunResult>),
+}
+
+/// The stored result at `path`, checked against its digest and `run_hash`.
+pub fn finished_result(path: &Path, run_hash: &str) -> Stored {
+    let Ok(bytes) = std::fs::read(path) else {
+        return Stored::Missing;
+    };
+    let recorded = std::fs::read_to_string(digest_path(path)).unwrap_or_default();
+    if recorded.trim() != sha256_hex(&bytes) {
+        let why = if recorded.is_empty() {
+            "has no digest file beside it"
+        } else {
+            "does not match its digest (edited or corrupt)"
+        };
+        return Stored::Untrusted(format!("{} {why}", path.display()));
+    }
+    match serde_json::from_slice::<RunResult>(&bytes) {
+        Ok(result) if result.run_hash == run_hash => Stored::Reusable(Box::new(result)),
+        Ok(_) => Stored::Stale,
+        Err(e) => Stored::Untrusted(format!("{} cannot be read: {e}", path.display())),
+    }
 }

@@ -118,6 +118,7 @@ pub fn execute(
     dir: &Path,
     settings: &SweepSettings,
     display: &SweepDisplay,
+    notes: &mut Vec<String>,
 ) -> Result<RunEnd, String> {
     let started = Instant::now();
     reset_peak_memory();
@@ -134,7 +135,12 @@ pub fn execute(
     let mut orbit_found = None;
     if run.wants(Answer::Orbit) || run.wants(Answer::Image) {
         display.stage(run, "orbit");
-        let start = starting_orbit(&problem, &dir.join("checkpoint.bin"), &run.limits);
+        let (start, unusable) = starting_orbit(&problem, &dir.join("checkpoint.bin"), &run.limits);
+        if let Some(reason) = unusable {
+            let note = format!("{}: {reason}; the orbit starts afresh", run.id);
+            display.note(note.clone());
+            notes.push(note);
+        }
         let mut observer = display.observer(run, run.limits, start.0.compute_seconds());
         let engine = EngineSettings {
             threads: settings.threads,
