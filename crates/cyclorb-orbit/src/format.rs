@@ -62,6 +62,11 @@ pub const SEED_FORMAT: &str = "cyclorb-seed";
 /// The format version this program reads and writes.
 pub const FORMAT_VERSION: u64 = 1;
 
+/// Bytes per coordinate that reading and using a file of a given dimension allocates at
+/// least (element vectors and the engine's position tables), checked against the memory
+/// budget before anything of that length is allocated.
+const PER_COORDINATE_BYTES: u64 = 256;
+
 /// Reading context: the file name for messages and the field once it is known.
 struct Reader<'a> {
     file: &'a str,
@@ -218,6 +223,12 @@ impl Reader<'_> {
         if d == 0 || d > u32::MAX as u64 {
             return Err(self.err("dimension", format!("dimension {d} is not usable")));
         }
+        // a few vectors of this length and the engine's per-coordinate tables
+        cyclorb_field::check_budget(
+            || format!("dimension {d}"),
+            d.saturating_mul(PER_COORDINATE_BYTES),
+        )
+        .map_err(|e| self.err("dimension", e.to_string()))?;
         Ok(d as usize)
     }
 
