@@ -1,7 +1,7 @@
 //! Untrusted text: depth and power limits refuse quickly with a reason; square roots of
 //! rationals of any size are found exactly.
 
-use cyclorb_field::{CyclotomicField, MAX_PARSE_DEPTH, MAX_POWER_BITS};
+use cyclorb_field::{CyclotomicField, MAX_PARSE_DEPTH};
 use num_bigint::BigInt;
 
 fn field(n: u32) -> CyclotomicField {
@@ -41,7 +41,6 @@ fn huge_powers_are_refused_before_they_are_computed() {
     // within the limit: exact
     let big = f.parse("2^100000").unwrap();
     assert_eq!(big.as_rational().unwrap().0, BigInt::from(2).pow(100_000));
-    assert!(MAX_POWER_BITS >= 100_000);
 }
 
 #[test]
