@@ -67,6 +67,11 @@ pub const FORMAT_VERSION: u64 = 1;
 /// budget before anything of that length is allocated.
 const PER_COORDINATE_BYTES: u64 = 256;
 
+/// Bytes of memory per byte of JSON text while it is read (the text, its parsed tree of
+/// small strings, and the field elements made from them), checked against the budget from
+/// the file's size before it is read.
+const PER_TEXT_BYTE: u64 = 24;
+
 /// Reading context: the file name for messages and the field once it is known.
 struct Reader<'a> {
     file: &'a str,
@@ -519,6 +524,12 @@ fn read_file<T>(
     path: &Path,
     parse: fn(&str, &str) -> Result<T, FormatError>,
 ) -> Result<T, OrbitError> {
+    let size = std::fs::metadata(path).map_or(0, |m| m.len());
+    cyclorb_field::check_budget(
+        || format!("reading {}", path.display()),
+        size.saturating_mul(PER_TEXT_BYTE),
+    )
+    .map_err(|e| OrbitError::Invalid(e.to_string()))?;
     let text = std::fs::read_to_string(path).map_err(|e| OrbitError::Io {
         path: path.display().to_string(),
         reason: e.to_string(),

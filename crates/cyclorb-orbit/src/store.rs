@@ -87,6 +87,14 @@ pub(crate) struct KeyArena {
     bases: Vec<u64>,
     shift: u32,
     big: HashMap<u32, Box<[BigInt]>>,
+    /// Estimated heap bytes of `big`, kept as keys are added so that the size is known in
+    /// constant time (it is read after every chunk).
+    big_bytes: usize,
+}
+
+/// Estimated heap bytes of one big key.
+fn big_key_bytes(key: &[BigInt]) -> usize {
+    key.iter().map(|x| 32 + x.bits() as usize / 8).sum()
 }
 
 impl KeyArena {
@@ -103,6 +111,7 @@ impl KeyArena {
             bases: Vec::new(),
             shift,
             big: HashMap::new(),
+            big_bytes: 0,
         }
     }
 
@@ -156,6 +165,7 @@ impl KeyArena {
             if i as usize >= count || k.len() != len || !empty {
                 return None;
             }
+            arena.big_bytes += big_key_bytes(&k);
             arena.big.insert(i, k);
         }
         let mut markers = (0..count).filter(|&i| arena.block_mask_is_empty(i));
@@ -205,12 +215,10 @@ impl KeyArena {
 
     /// Bytes held (arena, offsets, big keys at an estimate of their heap size).
     pub(crate) fn bytes_used(&self) -> usize {
-        let big: usize = self
-            .big
-            .values()
-            .map(|k| k.iter().map(|x| 32 + x.bits() as usize / 8).sum::<usize>())
-            .sum();
-        self.bytes.capacity() + self.offsets.capacity() * 4 + self.bases.capacity() * 8 + big
+        self.bytes.capacity()
+            + self.offsets.capacity() * 4
+            + self.bases.capacity() * 8
+            + self.big_bytes
     }
 
     /// Append a key.
@@ -232,6 +240,7 @@ impl KeyArena {
                 let mask_len = self.blocks.div_ceil(8);
                 reserve_gently(&mut self.bytes, mask_len);
                 self.bytes.resize(self.bytes.len() + mask_len, 0);
+                self.big_bytes += big_key_bytes(numbers);
                 self.big
                     .insert(index as u32, numbers.clone().into_boxed_slice());
             }

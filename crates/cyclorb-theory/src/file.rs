@@ -550,6 +550,10 @@ pub fn theory_from_json(
 /// Read a theory file.
 pub fn read_theory_file(path: &Path) -> Result<Theory, TheoryError> {
     let file = path.display().to_string();
+    // the text, its parsed tree of small strings and the elements made from them
+    let size = std::fs::metadata(path).map_or(0, |m| m.len());
+    cyclorb_field::check_budget(|| format!("reading {file}"), size.saturating_mul(24))
+        .map_err(|e| refuse(&file, "file", e.to_string()))?;
     let text = std::fs::read_to_string(path)
         .map_err(|e| refuse(&file, "file", format!("cannot read: {e}")))?;
     let not_json = |e: serde_json::Error| {
