@@ -36,8 +36,14 @@ impl Drop for Scratch {
     }
 }
 
+/// The cache folder of this test process (remembered proofs stay out of the user's cache).
+fn test_cache() -> std::path::PathBuf {
+    std::env::temp_dir().join(format!("cyclorb-test-{}-cache", std::process::id()))
+}
+
 fn sweep(plan: &Path, out: &Path) -> Output {
     Command::new(BIN)
+        .env("XDG_CACHE_HOME", test_cache())
         .args(["--json", "sweep"])
         .arg(plan)
         .arg("--out")
@@ -48,6 +54,7 @@ fn sweep(plan: &Path, out: &Path) -> Output {
 
 fn spawn_sweep(plan: &Path, out: &Path) -> Child {
     Command::new(BIN)
+        .env("XDG_CACHE_HOME", test_cache())
         .args(["--json", "sweep"])
         .arg(plan)
         .arg("--out")
@@ -187,6 +194,7 @@ fn small_sweep_matches_published_values() {
 #[test]
 fn dry_run_lists_runs_smallest_first() {
     let output = Command::new(BIN)
+        .env("XDG_CACHE_HOME", test_cache())
         .args(["--json", "sweep", "--dry-run"])
         .arg(fixture("small.toml"))
         .output()

@@ -8,6 +8,10 @@ use serde_json::Value;
 
 fn cyclorb(args: &[&str]) -> Output {
     Command::new(env!("CARGO_BIN_EXE_cyclorb"))
+        .env(
+            "XDG_CACHE_HOME",
+            std::env::temp_dir().join(format!("cyclorb-test-{}-cache", std::process::id())),
+        )
         .args(args)
         .output()
         .expect("the binary runs")
