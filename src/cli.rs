@@ -79,6 +79,10 @@ pub struct VerifyArgs {
     /// Leave out a check by name (repeatable), e.g. `--skip pentagon` for large theories.
     #[arg(long, value_name = "CHECK")]
     pub skip: Vec<String>,
+    /// Check every F/R equation on the theory's own data, even for a product or a Galois
+    /// conjugate (by default those are proved on the theories they are built from).
+    #[arg(long)]
+    pub direct: bool,
 }
 
 /// `cyclorb field`: exact evaluation in Q(ζ_n).

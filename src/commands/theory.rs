@@ -5,7 +5,7 @@ use std::time::Instant;
 
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_theory::{
-    builtin_catalogue, parse_spec, parse_spec_traced, theory_to_json, verify_selected, CheckId,
+    builtin_catalogue, parse_spec, parse_spec_traced, theory_to_json, verify_by, CheckId, Route,
     Theory, TracedSpec,
 };
 use serde_json::{json, Value};
@@ -213,7 +213,12 @@ pub fn run_verify(args: &VerifyArgs, as_json: bool) -> Outcome {
         .filter(|id| !skipped.contains(id))
         .collect();
     let bar = spinner(as_json);
-    let verification = verify_selected(theory, &ids, &mut |id| {
+    let route = if args.direct {
+        Route::Direct
+    } else {
+        Route::Structural
+    };
+    let verification = verify_by(theory, &ids, route, &mut |id| {
         if let Some(bar) = &bar {
             bar.set_message(format!("checking {id} of {}", theory.name()));
         }
@@ -241,6 +246,12 @@ pub fn run_verify(args: &VerifyArgs, as_json: bool) -> Outcome {
             c.instances,
             c.equation
         ));
+        if let Some(on) = &c.proved_on {
+            text.push_str(&format!(
+                "        proved on its building blocks: {}\n",
+                on.join(", ")
+            ));
+        }
         if let Some(f) = &c.failure {
             text.push_str(&format!("        first failure {f}\n"));
         }
@@ -273,6 +284,7 @@ pub fn run_verify(args: &VerifyArgs, as_json: bool) -> Outcome {
             "equation": c.equation,
             "instances": c.instances,
             "failure": c.failure,
+            "proved_on": c.proved_on,
         })).collect::<Vec<_>>(),
         "first_failure": first.map(|c| json!({
             "name": c.name,

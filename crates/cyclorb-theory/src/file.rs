@@ -24,11 +24,12 @@
 //! S by the Verlinde formula when absent; a fourth entry gives a multiplicity > 1) and the
 //! dimensions are S_0x/S_00.
 //!
-//! The keys `describe --json` adds ("rank", "central_charge_mod_8", "total_dimension",
-//! "duals", "S" and "T" of a theory with F and R, "data_hash", "modular_data_only",
-//! "unitary_gauge", "spec") are informational: they are recomputed and not read. Any other key
-//! is refused, and so is an object with a repeated key. Errors name the file, the place (a
-//! JSON path, or line and column) and the reason.
+//! A theory with F and R may give "total_dimension": D = ±√(Σ_a d_a²), choosing the sign of D
+//! (and so of S and c mod 8); without it D > 0. The keys `describe --json` adds besides
+//! ("rank", "central_charge_mod_8", "duals", "S" and "T" of a theory with F and R,
+//! "data_hash", "modular_data_only", "unitary_gauge", "spec") are informational: they are
+//! recomputed and not read. Any other key is refused, and so is an object with a repeated
+//! key. Errors name the file, the place (a JSON path, or line and column) and the reason.
 
 use std::path::Path;
 
@@ -42,6 +43,7 @@ use crate::assemble::{admissible_blocks, assemble, block_labels, RawF, RawStruct
 use crate::error::TheoryError;
 use crate::fmatrix::FMatrix;
 use crate::fusion::{FusionProblem, FusionRules};
+use crate::ops::with_negated_total_dimension;
 use crate::structure::{key3, key4};
 use crate::theory::Theory;
 use crate::verlinde::fusion_from_s;
@@ -530,7 +532,11 @@ pub fn theory_from_json(
     } else {
         "S and twists"
     };
-    assemble(RawTheory {
+    let declared_dim = match obj.get("total_dimension") {
+        Some(v) if has_f || has_r => Some(reader.number(v, "total_dimension")?),
+        _ => None,
+    };
+    let theory = assemble(RawTheory {
         name,
         field: reader.field,
         labels: reader.labels,
@@ -544,7 +550,25 @@ pub fn theory_from_json(
             refuse(file, place, format!("not modular: {reason}"))
         }
         other => other,
-    })
+    })?;
+    // A braided theory's D is ±√(Σ d²); the positive root unless the file asks for the other
+    // (non-unitary minimal models take D = 1/S_00 of Kac's formula, which is negative).
+    let declared_dim = match declared_dim {
+        Some(d) => Some(theory.field().embed(&d)?),
+        None => None,
+    };
+    match declared_dim {
+        None => Ok(theory),
+        Some(d) if d == theory.total_dim => Ok(theory),
+        Some(d) if d == theory.field().neg(&theory.total_dim) => {
+            with_negated_total_dimension(&theory)
+        }
+        Some(_) => Err(refuse(
+            file,
+            "total_dimension",
+            "must be ±√(Σ_a d_a²) (the sign chooses between the two)",
+        )),
+    }
 }
 
 /// Read a theory file.

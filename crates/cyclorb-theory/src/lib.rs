@@ -23,7 +23,8 @@
 //!
 //! ## Where theories come from
 //! - Built-ins ([`builtin_catalogue`]): `ising`, `ising:NU`, `fibonacci`,
-//!   `tricritical-ising`, `su2:K`, `so3:K`, `zn:N:P`, `minimal:P:Q`.
+//!   `tricritical-ising`, `su2:K`, `so3:K`, `zn:N:P`, `minimal:P:Q` (braided, from Galois
+//!   conjugates of su2 and so3), `kac:P:Q` (its modular data from Kac's formulas).
 //! - Products `A*B`, conjugates `conj(A)` and `galois:K(A)`, a reproducible non-unitary
 //!   gauge `gauge:SEED(A)`, parentheses ([`parse_spec`]).
 //! - Theory files (JSON, [`theory_from_json`] / [`read_theory_file`]; [`theory_to_json`]
@@ -81,7 +82,8 @@ mod verify;
 mod verlinde;
 
 pub use builtins::{
-    builtin_catalogue, fibonacci, ising_type, minimal, so3, su2, tricritical_ising, zn,
+    builtin_catalogue, fibonacci, ising_type, minimal, minimal_modular_data, so3, su2,
+    tricritical_ising, zn,
 };
 pub use digest::Sha256;
 pub use error::TheoryError;
@@ -89,8 +91,11 @@ pub use exact_real::real_sign;
 pub use file::{read_theory_file, theory_from_json, theory_to_json, FORMAT_NAME, FORMAT_VERSION};
 pub use fmatrix::FMatrix;
 pub use fusion::FusionRules;
-pub use ops::{conjugate, galois, product, random_gauge, regauged, renamed};
+pub use ops::{
+    conjugate, galois, product, random_gauge, regauged, renamed, spherical_twist,
+    with_negated_total_dimension,
+};
 pub use roots::root_of_unity;
 pub use spec::{parse_spec, parse_spec_traced, FileTheory, TracedSpec, MAX_SPEC_DEPTH};
 pub use theory::Theory;
-pub use verify::{verify, verify_selected, Check, CheckId, Verification};
+pub use verify::{verify, verify_by, verify_selected, Check, CheckId, Route, Verification};

@@ -183,6 +183,84 @@ pub fn renamed(theory: &Theory, name: &str, labels: Vec<String>) -> Result<Theor
     Ok(t)
 }
 
+/// The same braided category with the spherical structure changed by the Z₂-grading `odd`
+/// (N_ab^c ≠ 0 ⇒ odd(c) = odd(a) xor odd(b)): d_a ↦ χ(a) d_a and θ_a ↦ χ(a) θ_a with
+/// χ(a) = −1 on odd labels; F, R and the vertex weights are unchanged. The twist identity
+/// θ_a = Σ_c (d_c/d_a) R^{aa}_c holds again because every c in a ⊗ a is even, balancing
+/// because χ is a character of the grading, and S̃ becomes χ(a)χ(b) S̃_ab, still invertible,
+/// so the result is modular with c recomputed from the Gauss sum. On SU(2)_k graded by 2j
+/// mod 2 this gives d_j = (−1)^{2j} [2j+1]_q, the sign that Kac's formula needs for the
+/// minimal models (see the builtin `minimal`).
+pub fn spherical_twist(theory: &Theory, odd: &[bool]) -> Result<Theory, TheoryError> {
+    let name = format!("spherical-twist({})", theory.name());
+    let Some(braiding) = &theory.braiding else {
+        return Err(TheoryError::Spec {
+            spec: name,
+            reason: "a change of spherical structure needs F- and R-symbols".into(),
+        });
+    };
+    if odd.len() != theory.rank() || odd.first() == Some(&true) {
+        return Err(TheoryError::Spec {
+            spec: name,
+            reason: "the grading needs one entry per label, even on the vacuum".into(),
+        });
+    }
+    if let Some((a, b, c, _)) = theory
+        .fusion()
+        .triples()
+        .into_iter()
+        .find(|&(a, b, c, _)| odd[c] != (odd[a] ^ odd[b]))
+    {
+        return Err(TheoryError::Spec {
+            spec: name,
+            reason: format!("not a Z₂-grading: N_{{{a} {b}}}^{c} ≠ 0 breaks it"),
+        });
+    }
+    let field = theory.field().clone();
+    let signed = |values: &[Cyc]| -> Vec<Cyc> {
+        values
+            .iter()
+            .zip(odd)
+            .map(|(x, &o)| if o { field.neg(x) } else { x.clone() })
+            .collect()
+    };
+    assemble(RawTheory {
+        name,
+        field: field.clone(),
+        labels: theory.labels().to_vec(),
+        fusion: theory.fusion().clone(),
+        dims: signed(theory.quantum_dims()),
+        twists: signed(theory.twists()),
+        structure: RawStructure::Braided {
+            // σ_1 is the identity: the blocks are the base's.
+            f: RawF::Lazy(FSource::Galois {
+                base: Arc::new(theory.clone()),
+                k: 1,
+            }),
+            r: braiding.r.clone(),
+            weights: theory.weights.clone(),
+        },
+    })
+}
+
+/// The same category with the total dimension of the other sign, D ↦ −D: F, R, θ, d, S̃ and
+/// the vertex weights are unchanged, S = S̃/D and exp(2πi c/8) = p₊/D change sign and c mod 8
+/// gains 4. Both signs satisfy every modular relation ((ST)³ = (p₊/D)·S² is covariant);
+/// non-unitary minimal models use the sign with D = 1/S₀₀ of Kac's formula.
+pub fn with_negated_total_dimension(theory: &Theory) -> Result<Theory, TheoryError> {
+    let field = theory.field().clone();
+    let mut t = theory.clone();
+    t.total_dim = field.neg(&theory.total_dim);
+    t.gauss_phase = field.neg(&theory.gauss_phase);
+    t.s = theory.s.map(|x| Ok(field.neg(x)))?;
+    t.central = theory
+        .central
+        .add(&cyclorb_field::Rational::from_int(4))
+        .rem_euclid(8);
+    t.hash = Default::default();
+    Ok(t)
+}
+
 impl Theory {
     pub(crate) fn s_matrix_ref(&self) -> &Matrix {
         &self.s

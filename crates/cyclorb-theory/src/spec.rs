@@ -6,7 +6,7 @@
 //! factor := 'conj(' spec ')' | 'galois:' INT '(' spec ')' | 'gauge:' INT '(' spec ')'
 //!         | '(' spec ')' | atom
 //! atom   := a built-in name (ising, ising:NU, fibonacci, tricritical-ising, su2:K, so3:K,
-//!           zn:N:P, minimal:P:Q) | a path to a theory file
+//!           zn:N:P, minimal:P:Q, kac:P:Q) | a path to a theory file
 //! ```
 //! A spec that names an existing file as a whole is read as that file first.
 //! Nesting deeper than [`MAX_SPEC_DEPTH`] is refused; `gauge:SEED` takes a non-negative
@@ -16,7 +16,9 @@
 
 use std::path::{Path, PathBuf};
 
-use crate::builtins::{fibonacci, ising_type, minimal, so3, su2, tricritical_ising, zn};
+use crate::builtins::{
+    fibonacci, ising_type, minimal, minimal_modular_data, so3, su2, tricritical_ising, zn,
+};
 use crate::error::TheoryError;
 use crate::file::read_theory_file;
 use crate::ops::{galois, product, random_gauge};
@@ -222,6 +224,9 @@ fn builtin(word: &str) -> Option<Result<Theory, TheoryError>> {
     }
     if let Some(p) = parameters(word, "minimal:", 2) {
         return Some(p.and_then(|v| minimal(v[0], v[1])));
+    }
+    if let Some(p) = parameters(word, "kac:", 2) {
+        return Some(p.and_then(|v| minimal_modular_data(v[0], v[1])));
     }
     None
 }

@@ -150,7 +150,7 @@ fn spec_errors_are_explained() {
         ("galois:2(ising)", "gcd"),
         ("conj(ising", "expected ')'"),
         ("ising*", "expected a theory name"),
-        ("gauge:1(minimal:5:4)", "F- and R-symbols"),
+        ("gauge:1(kac:5:4)", "F- and R-symbols"),
         ("no/such/file.json", "cannot read"),
     ] {
         let err = parse_spec(spec).expect_err(spec);

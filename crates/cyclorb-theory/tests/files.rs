@@ -147,7 +147,7 @@ fn a_wrong_twist_is_not_modular() {
 
 #[test]
 fn modular_data_files_derive_fusion_by_verlinde() {
-    let t = load("minimal:5:4");
+    let t = load("kac:5:4");
     let mut json = theory_to_json(&t);
     json.as_object_mut().unwrap().remove("fusion");
     let back = reread(&json).unwrap();

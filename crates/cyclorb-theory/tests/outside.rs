@@ -292,7 +292,9 @@ fn gauss_milgram_for_every_builtin() {
         let den: i64 = c.denom().try_into().unwrap();
         let phase = root_of_unity(f, num, 8 * den).expect("exp(2πi c/8) lies in the field");
         assert_eq!(plus, f.mul(d, &phase).unwrap(), "{spec}: Gauss sum");
-        if t.has_fr() {
+        // D > 0 for theories with F and R, except the minimal models, which take D = 1/S_00
+        // of Kac's formula (negative for some non-unitary ones, e.g. M(5,2)).
+        if t.has_fr() && !spec.starts_with("minimal:") {
             assert_eq!(real_sign(f, d), Some(Ordering::Greater), "{spec}: D > 0");
         }
     }

@@ -1,5 +1,7 @@
 //! Virasoro minimal models M(p, p′) as modular data (S and T only), from the Kac table
-//! (Di Francesco–Mathieu–Sénéchal, ch. 7 and 10):
+//! (Di Francesco–Mathieu–Sénéchal, ch. 7 and 10). This is the spec `kac:P:Q`: the independent
+//! reference against which the braided construction of `minimal:P:Q`
+//! ([`super::minimal_braided`]) is proved equal. Conventions, with P = p and Q = p′:
 //!   c = 1 − 6(p−p′)²/(pp′), labels (r, s), 1 ≤ r ≤ p′−1, 1 ≤ s ≤ p−1, (r,s) ~ (p′−r, p−s),
 //!   h_{r,s} = ((pr − p′s)² − (p−p′)²)/(4pp′), θ = exp(2πi h),
 //!   S_{(r,s),(ρ,σ)} = 2√(2/(pp′)) (−1)^{1+sρ+rσ} sin(π p r ρ/p′) sin(π p′ s σ/p),
@@ -56,20 +58,9 @@ fn sine(field: &CyclotomicField, x: i64, y: i64) -> Cyc {
     field.times(&field.minus(&e(x), &e(-x)), &half_minus_i)
 }
 
-/// The minimal model M(p, p′).
-pub fn minimal(p: i64, pp: i64) -> Result<Theory, TheoryError> {
-    let name = format!("minimal:{p}:{pp}");
-    let bad = |reason: &str| TheoryError::Spec {
-        spec: name.clone(),
-        reason: reason.to_string(),
-    };
-    if p < 2 || pp < 2 || p.gcd(&pp) != 1 {
-        return Err(bad("P and Q must be at least 2 and coprime"));
-    }
-    if p * pp > MAX_PRODUCT {
-        return Err(bad(&format!("P·Q must be at most {MAX_PRODUCT}")));
-    }
-    let field = CyclotomicField::new(conductor(p, pp))?;
+/// The Kac-table representatives (r, s) of M(p, p′) in label order: r = 1..p′−1 outer,
+/// s = 1..p−1 inner, keeping the first of each pair (r, s) ~ (p′−r, p−s).
+pub(crate) fn kac_labels(p: i64, pp: i64) -> Vec<(i64, i64)> {
     let mut kac: Vec<(i64, i64)> = Vec::new();
     for r in 1..pp {
         for s in 1..p {
@@ -78,6 +69,30 @@ pub fn minimal(p: i64, pp: i64) -> Result<Theory, TheoryError> {
             }
         }
     }
+    kac
+}
+
+/// Refuse parameters outside the supported range: P, Q ≥ 2, coprime, P·Q ≤ [`MAX_PRODUCT`].
+pub(crate) fn check_parameters(name: &str, p: i64, pp: i64) -> Result<(), TheoryError> {
+    let bad = |reason: String| TheoryError::Spec {
+        spec: name.to_string(),
+        reason,
+    };
+    if p < 2 || pp < 2 || p.gcd(&pp) != 1 {
+        return Err(bad("P and Q must be at least 2 and coprime".into()));
+    }
+    if p * pp > MAX_PRODUCT {
+        return Err(bad(format!("P·Q must be at most {MAX_PRODUCT}")));
+    }
+    Ok(())
+}
+
+/// The modular data of M(p, p′) from Kac's formulas (spec `kac:P:Q`).
+pub fn minimal_modular_data(p: i64, pp: i64) -> Result<Theory, TheoryError> {
+    let name = format!("kac:{p}:{pp}");
+    check_parameters(&name, p, pp)?;
+    let field = CyclotomicField::new(conductor(p, pp))?;
+    let kac = kac_labels(p, pp);
     let rank = kac.len();
     let sqrt = field
         .sqrt_rational(&BigInt::from(2 * p * pp), &BigInt::from(1))?
@@ -114,7 +129,9 @@ pub fn minimal(p: i64, pp: i64) -> Result<Theory, TheoryError> {
     }
     let fusion = FusionRules::from_triples(rank, triples)
         .map_err(|e| TheoryError::Internal(format!("minimal-model fusion: {e:?}")))?;
-    let s00_inv = field.inverse(s.get(0, 0)).ok_or_else(|| bad("S_00 = 0"))?;
+    let s00_inv = field
+        .inverse(s.get(0, 0))
+        .ok_or_else(|| TheoryError::Internal(format!("{name}: S_00 = 0")))?;
     let dims = (0..rank)
         .map(|a| field.times(s.get(0, a), &s00_inv))
         .collect();

@@ -3,6 +3,7 @@
 pub(crate) mod fibonacci;
 pub(crate) mod ising;
 pub(crate) mod minimal;
+pub(crate) mod minimal_braided;
 pub(crate) mod pointed;
 pub(crate) mod su2;
 
@@ -12,7 +13,8 @@ use crate::theory::Theory;
 
 pub use fibonacci::fibonacci;
 pub use ising::ising_type;
-pub use minimal::minimal;
+pub use minimal::minimal_modular_data;
+pub use minimal_braided::minimal;
 pub use pointed::zn;
 pub use su2::{so3, su2};
 
@@ -33,7 +35,7 @@ pub fn tricritical_ising() -> Result<Theory, TheoryError> {
 
 /// The built-in spec syntax with a one-line description each, for `cyclorb theories`.
 pub fn builtin_catalogue() -> Vec<(String, String)> {
-    let rows: [(&str, &str); 13] = [
+    let rows: [(&str, &str); 14] = [
         ("ising", "Ising anyons 1, sigma, psi; c = 1/2 (= ising:1)"),
         (
             "ising:NU",
@@ -58,7 +60,11 @@ pub fn builtin_catalogue() -> Vec<(String, String)> {
         ),
         (
             "minimal:P:Q",
-            "Virasoro minimal model M(P,Q), modular data S, T only (genus 1); c = 1 - 6(P-Q)^2/(PQ)",
+            "Virasoro minimal model M(P,Q), Kac labels (r,s), full F and R (Galois conjugates of su2 x so3); c = 1 - 6(P-Q)^2/(PQ)",
+        ),
+        (
+            "kac:P:Q",
+            "M(P,Q) as modular data from Kac's formulas (S, T only; genus 1): the cross-check of minimal:P:Q",
         ),
         ("A*B", "Deligne product of two specs (labels a*b)"),
         ("conj(A)", "complex conjugate of a spec (R, theta, S conjugated; c -> -c)"),

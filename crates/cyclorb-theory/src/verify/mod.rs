@@ -15,6 +15,7 @@ use std::fmt;
 
 use serde::Serialize;
 
+use crate::structure::FSource;
 use crate::theory::Theory;
 
 /// The checks, in the order they run.
@@ -163,6 +164,10 @@ pub struct Check {
     pub instances: usize,
     /// The first failing instance, with labels and both sides.
     pub failure: Option<String>,
+    /// When the check was proved on the theories this one is built from (see [`Route`]):
+    /// their names. `None` when it was checked on this theory's own data.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub proved_on: Option<Vec<String>>,
 }
 
 /// The outcome of all checks run on a theory.
@@ -224,7 +229,86 @@ impl Tally {
             ok: self.failure.is_none(),
             instances: self.instances,
             failure: self.failure,
+            proved_on: None,
         }
+    }
+}
+
+/// How the equations that involve only F, R and the vertex weights (unit normalisation,
+/// F-invertibility, pentagon, both hexagons, invariant form) are proved for a theory built
+/// from others.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Route {
+    /// On the theory's own data, every instance.
+    Direct,
+    /// For a Deligne product on both factors, for a Galois conjugate (and a change of
+    /// spherical structure, which keeps F and R) on its base, recursively; directly otherwise.
+    /// Sound because these equations are polynomial identities in F, R and the weights:
+    /// the product's data are Kronecker products of the factors' (every equation of A ⊠ B is
+    /// the product of an equation of A and one of B, sums over intermediate labels
+    /// factorising), and σ_k is a field automorphism commuting with complex conjugation. The
+    /// other checks (fusion, dimensions, twists, Frobenius–Schur, S and T) always run on the
+    /// theory's own data.
+    Structural,
+}
+
+/// The checks proved on the building blocks under [`Route::Structural`].
+fn inherited(id: CheckId) -> bool {
+    matches!(
+        id,
+        CheckId::UnitNormalisation
+            | CheckId::FInvertible
+            | CheckId::Pentagon
+            | CheckId::Hexagon
+            | CheckId::HexagonInverse
+            | CheckId::InvariantForm
+    )
+}
+
+/// The theories a composite theory's F- and R-symbols are built from (empty for a theory
+/// whose data are its own).
+fn building_blocks(theory: &Theory) -> Vec<&Theory> {
+    match theory.braiding.as_ref().map(|b| &b.source) {
+        Some(FSource::Product { left, right }) => vec![left.as_ref(), right.as_ref()],
+        Some(FSource::Galois { base, .. }) => vec![base.as_ref()],
+        _ => Vec::new(),
+    }
+}
+
+/// One check by the structural route: on the building blocks when inherited, else direct.
+fn run_structural(theory: &Theory, id: CheckId) -> Check {
+    let blocks = building_blocks(theory);
+    if !inherited(id) || blocks.is_empty() {
+        if inherited(id) {
+            theory.compute_all_f();
+        }
+        return run(theory, id);
+    }
+    let mut instances = 0;
+    let mut names = Vec::new();
+    for block in blocks {
+        let part = run_structural(block, id);
+        instances += part.instances;
+        names.push(block.name().to_string());
+        if !part.ok {
+            return Check {
+                failure: part
+                    .failure
+                    .map(|f| format!("in {} (a building block): {f}", block.name())),
+                instances,
+                proved_on: Some(names),
+                ..part
+            };
+        }
+    }
+    Check {
+        id,
+        name: id.name().to_string(),
+        equation: id.equation().to_string(),
+        ok: true,
+        instances,
+        failure: None,
+        proved_on: Some(names),
     }
 }
 
@@ -250,13 +334,37 @@ fn run(theory: &Theory, id: CheckId) -> Check {
     }
 }
 
-/// Run the chosen checks (those that need F and R are skipped for modular data alone),
-/// calling `progress` before each one.
+/// Run the chosen checks by the structural route (those that need F and R are skipped for
+/// modular data alone), calling `progress` before each one.
 pub fn verify_selected(
     theory: &Theory,
     ids: &[CheckId],
     progress: &mut dyn FnMut(CheckId),
 ) -> Verification {
+    verify_by(theory, ids, Route::Structural, progress)
+}
+
+/// Run the chosen checks by the given route, calling `progress` before each one.
+pub fn verify_by(
+    theory: &Theory,
+    ids: &[CheckId],
+    route: Route,
+    progress: &mut dyn FnMut(CheckId),
+) -> Verification {
+    if route == Route::Structural && !building_blocks(theory).is_empty() {
+        let checks = ids
+            .iter()
+            .filter(|id| theory.has_fr() || !id.needs_fr())
+            .map(|&id| {
+                progress(id);
+                run_structural(theory, id)
+            })
+            .collect();
+        return Verification {
+            theory: theory.name().to_string(),
+            checks,
+        };
+    }
     let heavy = [
         CheckId::FInvertible,
         CheckId::Pentagon,
