@@ -1,0 +1,400 @@
+//! Dijkgraaf–Witten theories `dw:GROUP`: the space C[X_g] of functions on flat G-bundles,
+//! the Dehn twists as permutation matrices over Q, and the commands that read them
+//! (`orbit`, `image`, `commutant`, `witness`, `twists`). The generators and the seed (the
+//! indicator of the vacuum subset) go to the same orbit engine as every other theory; the
+//! image order is Schreier–Sims on the permutations of X_g, and the Poincaré sum is written
+//! over the orbitals of that permutation group.
+
+use std::path::Path;
+
+use cyclorb_cert::StabiliserChain;
+use cyclorb_dw::{
+    builtin_group, check_relations, DwError, FiniteGroup, FlatBundles, Orbitals, SizeBound,
+};
+use cyclorb_field::CyclotomicField;
+use cyclorb_matrix::Operator;
+use cyclorb_mcg::Curve;
+use cyclorb_orbit::{
+    GeneratorSet, InvariantReport, OrbitProblem, PoincareReport, PoincareSum, Seed,
+};
+use serde_json::json;
+
+use super::common::parse_set;
+use super::output::{Outcome, Report};
+use crate::cli::{CertArgs, ImageArgs, TwistsArgs, WitnessArgs};
+
+/// The spec prefix of Dijkgraaf–Witten theories.
+const PREFIX: &str = "dw:";
+
+/// Largest dimension whose invariant matrices (and B) are printed entry by entry.
+const MATRIX_PRINT_LIMIT: usize = 128;
+
+/// Whether a spec names a Dijkgraaf–Witten theory.
+pub fn is_dw(spec: &str) -> bool {
+    spec.starts_with(PREFIX)
+}
+
+/// The group of `dw:NAME` (a built-in) or `dw:PATH` (a group file, see `cyclorb theories`).
+pub fn group_of(spec: &str) -> Result<FiniteGroup, String> {
+    let rest = spec.strip_prefix(PREFIX).unwrap_or(spec);
+    if rest.ends_with(".json") || rest.contains('/') {
+        return cyclorb_dw::read_group_file(Path::new(rest)).map_err(|e| e.to_string());
+    }
+    if rest.contains(':') {
+        return Err(format!(
+            "{spec}: twisted Dijkgraaf–Witten theories (dw:GROUP:P) are not available yet; use dw:GROUP"
+        ));
+    }
+    builtin_group(rest).map_err(|e| format!("{spec}: {e}"))
+}
+
+/// X_g of a `dw:` spec with the twists of a generating set.
+pub struct DwSpace {
+    spec: String,
+    bundles: FlatBundles,
+    twists: Vec<(Curve, Vec<u32>)>,
+}
+
+impl DwSpace {
+    /// Build X_g (refused beyond the default size bound, with the exact size) and the twists
+    /// of the named set.
+    pub fn new(spec: &str, genus: usize, set: &str) -> Result<DwSpace, String> {
+        let set = parse_set(set)?;
+        let group = group_of(spec)?;
+        let bundles =
+            FlatBundles::new(&group, genus, SizeBound::default()).map_err(|e| match e {
+                DwError::SpaceTooLarge { .. } => format!("{spec} at genus {genus}: {e}"),
+                other => other.to_string(),
+            })?;
+        let twists = bundles.generators(set).map_err(|e| e.to_string())?;
+        Ok(DwSpace {
+            spec: spec.to_string(),
+            bundles,
+            twists,
+        })
+    }
+
+    /// |X_g|.
+    pub fn dimension(&self) -> usize {
+        self.bundles.len()
+    }
+
+    /// Q = Q(ζ_1): every entry of a permutation matrix is rational.
+    fn field() -> CyclotomicField {
+        CyclotomicField::new(1).expect("Q(ζ_1) = Q is a field")
+    }
+
+    /// The twists as permutation matrices: row x holds a 1 at column p(x) ((M f)(x) =
+    /// f(p(x)), the crate's convention), unit invariant form.
+    pub fn generator_set(&self) -> GeneratorSet {
+        let field = DwSpace::field();
+        let d = self.dimension();
+        GeneratorSet {
+            conductor: 1,
+            dimension: d,
+            names: self.twists.iter().map(|(c, _)| c.to_string()).collect(),
+            operators: self
+                .twists
+                .iter()
+                .map(|(_, p)| Operator::SparseRows {
+                    dim: d,
+                    rows: p.iter().map(|&j| vec![(j as usize, field.one())]).collect(),
+                })
+                .collect(),
+            basis_labels: (0..d).map(|i| self.bundles.describe(i)).collect(),
+            form: None,
+            theory: Some(self.spec.clone()),
+            genus: Some(self.bundles.genus() as u32),
+        }
+    }
+
+    /// The orbit problem of the vacuum: the indicator of {[φ] : φ(a_h) = 1 for all h}.
+    pub fn problem(&self) -> Result<OrbitProblem, String> {
+        let field = DwSpace::field();
+        let mut vector = vec![field.zero(); self.dimension()];
+        for i in self.bundles.vacuum() {
+            vector[i as usize] = field.one();
+        }
+        let seed = Seed {
+            conductor: 1,
+            vector,
+        };
+        OrbitProblem::new(self.generator_set(), &seed).map_err(|e| e.to_string())
+    }
+
+    fn permutations(&self) -> Vec<&[u32]> {
+        self.twists.iter().map(|(_, p)| p.as_slice()).collect()
+    }
+
+    /// The report of B: when it is not scalar, B = Σ_c c·M_c over the orbitals of the
+    /// permutation group (M_c the indicator of the pairs where B = c: an invariant matrix
+    /// with entries 0 and 1); the commutant dimension is the number of orbitals.
+    pub fn poincare(&self, sum: &PoincareSum) -> PoincareReport {
+        let mut report = PoincareReport::from_sum(sum);
+        if sum.scalar.is_some() {
+            return report;
+        }
+        let d = self.dimension();
+        let orbitals = match Orbitals::new(d, &self.permutations()) {
+            Ok(o) => o,
+            Err(e) => {
+                report.note = Some(format!("orbitals not computed: {e}"));
+                return report;
+            }
+        };
+        let coefficients = match orbitals.coefficients(|i, j| sum.matrix.get(i, j).clone()) {
+            Ok(c) => c,
+            Err(e) => {
+                report.note = Some(format!("B is not invariant: {e}"));
+                return report;
+            }
+        };
+        let mut values: Vec<String> = Vec::new();
+        let mut class_of = Vec::with_capacity(coefficients.len());
+        for c in &coefficients {
+            let text = c.to_string();
+            let k = values.iter().position(|v| *v == text).unwrap_or_else(|| {
+                values.push(text);
+                values.len() - 1
+            });
+            class_of.push(k);
+        }
+        let print = d <= MATRIX_PRINT_LIMIT;
+        let terms: Vec<InvariantReport> = values
+            .iter()
+            .enumerate()
+            .filter(|(_, v)| v.as_str() != "0")
+            .map(|(k, v)| InvariantReport {
+                coefficient: v.clone(),
+                matrix: if print {
+                    (0..d)
+                        .map(|i| {
+                            (0..d)
+                                .map(|j| {
+                                    if class_of[orbitals.of(i, j)] == k {
+                                        "1"
+                                    } else {
+                                        "0"
+                                    }
+                                    .to_string()
+                                })
+                                .collect()
+                        })
+                        .collect()
+                } else {
+                    Vec::new()
+                },
+            })
+            .collect();
+        report.commutant_dimension = Some(orbitals.count());
+        report.physical_basis = Some(true);
+        report.invariants = Some(terms);
+        report.note = Some(format!(
+            "B = Σ coefficient × (indicator of the pairs of states where B takes that value); each is a sum of orbitals of the permutation group on X_g ({} orbitals = the commutant dimension){}",
+            orbitals.count(),
+            if print {
+                String::new()
+            } else {
+                format!("; matrices omitted above dimension {MATRIX_PRINT_LIMIT}")
+            }
+        ));
+        if !print {
+            report.matrix = None;
+        }
+        report
+    }
+}
+
+fn header(space: &DwSpace) -> String {
+    format!(
+        "theory {} (group {} of order {}) at genus {}: dimension |X_g| = {} over Q\n",
+        space.spec,
+        space.bundles.group().name(),
+        space.bundles.group().order(),
+        space.bundles.genus(),
+        space.dimension()
+    )
+}
+
+fn base_json(space: &DwSpace) -> serde_json::Value {
+    json!({
+        "theory": space.spec,
+        "genus": space.bundles.genus(),
+        "dimension": space.dimension(),
+        "conductor": 1,
+        "group": space.bundles.group().name(),
+        "group_order": space.bundles.group().order(),
+    })
+}
+
+/// `cyclorb twists dw:… --genus G [--check]`.
+pub fn twists(args: &TwistsArgs, as_json: bool) -> Outcome {
+    let space = match DwSpace::new(&args.space.spec, args.space.genus, &args.space.set) {
+        Ok(s) => s,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let mut text = header(&space);
+    text.push_str(&format!(
+        "basis: X_g = Hom(π₁Σ_g, G)/G, canonical (lexicographically least) tuples; vacuum = indicator of {} states with every A_h = 1\n",
+        space.bundles.vacuum().len()
+    ));
+    for i in 0..space.dimension().min(40) {
+        text.push_str(&format!("  {i:>5}  {}\n", space.bundles.describe(i)));
+    }
+    if space.dimension() > 40 {
+        text.push_str(&format!("  … ({} states in all)\n", space.dimension()));
+    }
+    text.push_str("generators (permutations of X_g):\n");
+    for (c, p) in &space.twists {
+        let moved = p
+            .iter()
+            .enumerate()
+            .filter(|(i, &j)| *i != j as usize)
+            .count();
+        text.push_str(&format!("  {c:<8} moves {moved} states\n"));
+    }
+    let mut value = base_json(&space);
+    value["set"] = json!(args.space.set);
+    value["generators"] = json!(space
+        .twists
+        .iter()
+        .map(|(c, _)| c.to_string())
+        .collect::<Vec<_>>());
+    value["vacuum_states"] = json!(space.bundles.vacuum().len());
+    let mut all_ok = true;
+    if args.check {
+        let checks = match check_relations(&space.bundles) {
+            Ok(c) => c,
+            Err(e) => return Outcome::Invalid(e.to_string()),
+        };
+        all_ok = checks.iter().all(|c| c.ok);
+        text.push_str("relations (exact equalities of permutations of X_g and of free-group automorphisms):\n");
+        for c in &checks {
+            text.push_str(&format!(
+                "  [{}] {}\n",
+                if c.ok { "ok" } else { "FAILED" },
+                c.name
+            ));
+        }
+        value["relations_ok"] = json!(all_ok);
+        value["relations"] = json!(checks);
+    }
+    if let Some(path) = &args.out {
+        if let Err(e) = space.generator_set().write(path) {
+            return Outcome::Invalid(format!("{}: {e}", path.display()));
+        }
+        text.push_str(&format!("generators written to {}\n", path.display()));
+        value["out"] = json!(path.display().to_string());
+    }
+    let report = Report::new(value, text, as_json);
+    if all_ok {
+        Outcome::Done(report)
+    } else {
+        Outcome::CheckFailed(report)
+    }
+}
+
+/// `cyclorb image dw:…`: the projective image is the permutation group on X_g (a
+/// permutation matrix is a scalar only when it is the identity), so its order is that of
+/// the group the twists generate, by Schreier–Sims.
+pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
+    let a = &args.common.space;
+    let space = match DwSpace::new(&a.spec, a.genus, &a.set) {
+        Ok(s) => s,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let perms: Vec<Vec<u32>> = space.twists.iter().map(|(_, p)| p.clone()).collect();
+    let chain = match StabiliserChain::new(space.dimension(), &perms) {
+        Ok(c) => c,
+        Err(e) => return Outcome::Invalid(e.to_string()),
+    };
+    let order = chain.order().to_string();
+    let mut value = base_json(&space);
+    value["finite"] = json!(true);
+    value["order"] = json!(order);
+    value["route"] = json!("permutation-schreier-sims");
+    value["base"] = json!(chain.base());
+    value["basic_orbit_lengths"] = json!(chain.basic_orbit_lengths());
+    value["strong_generators"] = json!(chain.strong_generator_count());
+    if let Some(path) = &args.common.out {
+        let certificate = json!({
+            "kind": "dw-permutation-image",
+            "theory": space.spec,
+            "genus": space.bundles.genus(),
+            "degree": space.dimension(),
+            "generators": space.twists.iter().map(|(c, p)| json!({"name": c.to_string(), "images": p})).collect::<Vec<_>>(),
+            "order": order,
+            "base": chain.base(),
+            "basic_orbit_lengths": chain.basic_orbit_lengths(),
+        });
+        let text = serde_json::to_string_pretty(&certificate).expect("JSON values serialise");
+        if let Err(e) = std::fs::write(path, text) {
+            return Outcome::Invalid(format!("{}: {e}", path.display()));
+        }
+    }
+    let mut text = header(&space);
+    text.push_str(&format!(
+        "projective image: finite, order {order} (the permutation group on X_g; Schreier–Sims, basic orbits {:?})\n",
+        chain.basic_orbit_lengths()
+    ));
+    Outcome::Done(Report::new(value, text, as_json))
+}
+
+/// `cyclorb commutant dw:…`: the dimension of the commutant of a permutation
+/// representation is its number of orbitals (orbits on pairs of states), exact by counting.
+pub fn commutant(args: &CertArgs, as_json: bool) -> Outcome {
+    let a = &args.space;
+    let space = match DwSpace::new(&a.spec, a.genus, &a.set) {
+        Ok(s) => s,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let orbitals = match Orbitals::new(space.dimension(), &space.permutations()) {
+        Ok(o) => o,
+        Err(e) => return Outcome::Invalid(e.to_string()),
+    };
+    let n = orbitals.count();
+    let mut value = base_json(&space);
+    value["commutant_dimension"] = json!(n);
+    value["irreducible"] = json!(n == 1);
+    value["route"] = json!("orbitals");
+    value["primes"] = json!([]);
+    if let Some(path) = &args.out {
+        let certificate = json!({
+            "kind": "dw-orbitals",
+            "theory": space.spec,
+            "genus": space.bundles.genus(),
+            "commutant_dimension": n,
+            "generators": space.twists.iter().map(|(c, p)| json!({"name": c.to_string(), "images": p})).collect::<Vec<_>>(),
+        });
+        let text = serde_json::to_string_pretty(&certificate).expect("JSON values serialise");
+        if let Err(e) = std::fs::write(path, text) {
+            return Outcome::Invalid(format!("{}: {e}", path.display()));
+        }
+    }
+    let mut text = header(&space);
+    text.push_str(&format!(
+        "commutant dimension {n} ({}): the number of orbits of the permutation group on pairs of states (exact count; no prime needed)\n",
+        if n == 1 { "irreducible" } else { "reducible" }
+    ));
+    Outcome::Done(Report::new(value, text, as_json))
+}
+
+/// `cyclorb witness dw:…`: the image is a finite permutation group, so there is no word of
+/// infinite order; the answer says so.
+pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
+    let a = &args.common.space;
+    let space = match DwSpace::new(&a.spec, a.genus, &a.set) {
+        Ok(s) => s,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let mut value = base_json(&space);
+    value["found"] = json!(false);
+    value["word"] = json!(null);
+    value["certificate"] = json!(null);
+    value["reason"] = json!("the twists permute X_g, so every element has finite order");
+    let mut text = header(&space);
+    text.push_str(
+        "no witness exists: the twists permute X_g, so the image is a finite permutation group\n",
+    );
+    Outcome::Done(Report::new(value, text, as_json))
+}
