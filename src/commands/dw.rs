@@ -9,7 +9,8 @@ use std::path::Path;
 
 use cyclorb_cert::StabiliserChain;
 use cyclorb_dw::{
-    builtin_group, check_relations, DwError, FiniteGroup, FlatBundles, Orbitals, SizeBound,
+    builtin_group, centraliser_degrees, check_relations, conjugacy_classes, verlinde_dimension,
+    DwError, FiniteGroup, FlatBundles, Orbitals, SizeBound,
 };
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::Operator;
@@ -46,6 +47,26 @@ pub fn group_of(spec: &str) -> Result<FiniteGroup, String> {
         ));
     }
     builtin_group(rest).map_err(|e| format!("{spec}: {e}"))
+}
+
+/// The rows `cyclorb theories` lists for Dijkgraaf–Witten theories.
+pub fn catalogue() -> Vec<(String, String)> {
+    vec![
+        (
+            "dw:GROUP".into(),
+            format!(
+                "Dijkgraaf–Witten theory D(G) as a permutation model on flat G-bundles (orbit, image, commutant, witness, twists); GROUP = ZN, DN (order 2N), SN (N ≤ 6), AN (3 ≤ N ≤ 6), Q8 or a product AxB, e.g. {}",
+                cyclorb_dw::EXAMPLES.join(", ")
+            ),
+        ),
+        (
+            "dw:FILE.json".into(),
+            format!(
+                "Dijkgraaf–Witten theory of a group file: {}",
+                cyclorb_dw::GROUP_FILE_FORMAT
+            ),
+        ),
+    ]
 }
 
 /// X_g of a `dw:` spec with the twists of a generating set.
@@ -396,5 +417,82 @@ pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
     text.push_str(
         "no witness exists: the twists permute X_g, so the image is a finite permutation group\n",
     );
+    Outcome::Done(Report::new(value, text, as_json))
+}
+
+/// `cyclorb describe dw:…`: the group's classes and centralisers, the simple objects
+/// ([x], ρ) of D(G) with their quantum dimensions |[x]|·d_ρ (ρ listed by degree only), the
+/// total dimension D = |G| and dim V_g for g = 1, 2, 3. S and T need the characters of the
+/// centralisers, which are not computed here.
+pub fn describe(spec: &str, as_json: bool) -> Outcome {
+    let group = match group_of(spec) {
+        Ok(g) => g,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let classes = conjugacy_classes(&group);
+    let degrees = match centraliser_degrees(&group) {
+        Ok(d) => d,
+        Err(e) => return Outcome::Invalid(e.to_string()),
+    };
+    let mut labels = Vec::new();
+    let mut dimensions = Vec::new();
+    let mut class_rows = Vec::new();
+    let mut text = format!(
+        "theory {spec}: the quantum double D(G) of {} (order {}, {})\n",
+        group.name(),
+        group.order(),
+        if group.is_abelian() {
+            "abelian"
+        } else {
+            "non-abelian"
+        }
+    );
+    text.push_str("conjugacy classes [x] (least element x), |[x]|, |C(x)|, degrees of the irreducible characters of C(x):\n");
+    for (k, (class, (size, degs))) in classes.iter().zip(&degrees).enumerate() {
+        text.push_str(&format!(
+            "  C{k}: x = {}, |[x]| = {}, |C(x)| = {size}, degrees {degs:?}\n",
+            group.label(class.representative),
+            class.elements.len()
+        ));
+        for (r, d) in degs.iter().enumerate() {
+            labels.push(format!("C{k}.{r}"));
+            dimensions.push(class.elements.len() as u64 * d);
+        }
+        class_rows.push(json!({
+            "representative": group.label(class.representative),
+            "size": class.elements.len(),
+            "centraliser_order": size,
+            "centraliser_degrees": degs,
+        }));
+    }
+    text.push_str(&format!(
+        "simple objects ([x], ρ), labelled C<class>.<ρ>: {} of them, quantum dimensions |[x]|·d_ρ = {dimensions:?}\ntotal dimension D = |G| = {}; central charge 0 (mod 8)\n",
+        labels.len(),
+        group.order()
+    ));
+    let mut verlinde = Vec::new();
+    for g in 1..=3 {
+        match verlinde_dimension(&group, g) {
+            Ok(v) => verlinde.push(v.to_string()),
+            Err(e) => return Outcome::Invalid(e.to_string()),
+        }
+    }
+    text.push_str(&format!(
+        "dim V_g = |X_g| for g = 1, 2, 3: {}\nS and T are not computed for dw: theories (they need the centralisers' characters); the twists act by permutations of X_g (`cyclorb twists {spec} --genus G`)\n",
+        verlinde.join(", ")
+    ));
+    let value = json!({
+        "theory": spec,
+        "group": group.name(),
+        "group_order": group.order(),
+        "labels": labels,
+        "quantum_dimensions": dimensions,
+        "conductor": 1,
+        "central_charge_mod_8": "0",
+        "modular_data_only": false,
+        "modular_data": null,
+        "classes": class_rows,
+        "dimensions_by_genus": verlinde,
+    });
     Outcome::Done(Report::new(value, text, as_json))
 }
