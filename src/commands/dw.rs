@@ -9,15 +9,13 @@ use std::path::Path;
 
 use cyclorb_cert::StabiliserChain;
 use cyclorb_dw::{
-    builtin_group, centraliser_degrees, check_relations, conjugacy_classes, verlinde_dimension,
-    DwError, FiniteGroup, FlatBundles, Orbitals, SizeBound,
+    builtin_group, centraliser_degrees, check_relations, conjugacy_classes, subset_orbit,
+    verlinde_dimension, DwError, FiniteGroup, FlatBundles, Orbitals, SizeBound,
 };
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::Operator;
-use cyclorb_mcg::Curve;
-use cyclorb_orbit::{
-    GeneratorSet, InvariantReport, OrbitProblem, PoincareReport, PoincareSum, Seed,
-};
+use cyclorb_mcg::{Curve, GeneratingSet};
+use cyclorb_orbit::{GeneratorSet, InvariantReport, OrbitProblem, PoincareReport, Seed};
 use serde_json::json;
 
 use super::common::parse_set;
@@ -80,7 +78,11 @@ impl DwSpace {
     /// Build X_g (refused beyond the default size bound, with the exact size) and the twists
     /// of the named set.
     pub fn new(spec: &str, genus: usize, set: &str) -> Result<DwSpace, String> {
-        let set = parse_set(set)?;
+        DwSpace::with_set(spec, genus, parse_set(set)?)
+    }
+
+    /// The same with the generating set given.
+    pub fn with_set(spec: &str, genus: usize, set: GeneratingSet) -> Result<DwSpace, String> {
         let group = group_of(spec)?;
         let bundles =
             FlatBundles::new(&group, genus, SizeBound::default()).map_err(|e| match e {
@@ -93,6 +95,18 @@ impl DwSpace {
             bundles,
             twists,
         })
+    }
+
+    /// The group's multiplication table as text lines (name, order, then one row per
+    /// element), for hashing what a result depends on.
+    pub fn group_data(&self) -> Vec<String> {
+        let g = self.bundles.group();
+        let mut lines = vec![format!("group {} order {}", g.name(), g.order())];
+        for a in g.elements() {
+            let row: Vec<String> = g.elements().map(|b| g.mul(a, b).to_string()).collect();
+            lines.push(row.join(" "));
+        }
+        lines
     }
 
     /// |X_g|.
@@ -147,69 +161,128 @@ impl DwSpace {
         self.twists.iter().map(|(_, p)| p.as_slice()).collect()
     }
 
-    /// The report of B: when it is not scalar, B = Σ_c c·M_c over the orbitals of the
-    /// permutation group (M_c the indicator of the pairs where B = c: an invariant matrix
-    /// with entries 0 and 1); the commutant dimension is the number of orbitals.
-    pub fn poincare(&self, sum: &PoincareSum) -> PoincareReport {
-        let mut report = PoincareReport::from_sum(sum);
-        if sum.scalar.is_some() {
-            return report;
+    /// The permutation group the twists generate on X_g, by Schreier–Sims (every point a
+    /// base point). It is the projective image: a permutation matrix is a scalar only when
+    /// it is the identity.
+    pub fn image_chain(&self) -> Result<StabiliserChain, String> {
+        let perms: Vec<Vec<u32>> = self.twists.iter().map(|(_, p)| p.clone()).collect();
+        StabiliserChain::new(self.dimension(), &perms).map_err(|e| e.to_string())
+    }
+
+    /// The orbitals of that group; their number is the commutant dimension.
+    pub fn orbitals(&self) -> Result<Orbitals, String> {
+        Orbitals::new(self.dimension(), &self.permutations()).map_err(|e| e.to_string())
+    }
+
+    /// The report of B = Σ_S 1_S 1_Sᵀ over the orbit of the vacuum subset, without a dense
+    /// d×d matrix: the orbit is listed again as subsets (no field arithmetic) and must have
+    /// `engine_orbit_size` elements; B is invariant, so constant on each orbital O, with value
+    /// (Σ_S #{(i, j) ∈ O : i, j ∈ S}) / |O| (checked to divide). B = Σ_c c·M_c, M_c the 0/1
+    /// indicator of the pairs where B = c (a sum of orbitals); the commutant dimension is the
+    /// number of orbitals. tr B = |orbit|·|vacuum| is checked from the orbital values.
+    pub fn poincare_report(&self, engine_orbit_size: usize) -> PoincareReport {
+        let vacuum = self.bundles.vacuum();
+        let norm = vacuum.len();
+        let mut report = PoincareReport {
+            seed_norm: Some(norm.to_string()),
+            ..PoincareReport::default()
+        };
+        let subsets = match subset_orbit(&vacuum, &self.twists, engine_orbit_size) {
+            Ok(s) if s.len() == engine_orbit_size => s,
+            Ok(s) => {
+                report.trace_check = Some(false);
+                report.note = Some(format!(
+                    "the orbit of the vacuum subset has {} subsets, the engine found {engine_orbit_size} lines",
+                    s.len()
+                ));
+                return report;
+            }
+            Err(e) => {
+                report.trace_check = Some(false);
+                report.note = Some(format!("the orbit of the vacuum subset: {e}"));
+                return report;
+            }
+        };
+        // B is diagonal only when every subset is a single state, and then scalar when every
+        // state lies in equally many subsets
+        if norm == 1 {
+            let mut hits = vec![0usize; self.dimension()];
+            for s in &subsets {
+                hits[s[0] as usize] += 1;
+            }
+            if hits.iter().all(|&h| h == hits[0]) {
+                report.is_scalar = Some(true);
+                report.prefactor = Some(hits[0].to_string());
+                report.trace_check = Some(hits.iter().sum::<usize>() == subsets.len());
+                report.invariants = Some(Vec::new());
+                return report;
+            }
         }
-        let d = self.dimension();
-        let orbitals = match Orbitals::new(d, &self.permutations()) {
+        report.is_scalar = Some(false);
+        let orbitals = match self.orbitals() {
             Ok(o) => o,
             Err(e) => {
-                report.note = Some(format!("orbitals not computed: {e}"));
+                report.note = Some(format!("B is not scalar; its orbitals were not computed: {e}"));
                 return report;
             }
         };
-        let coefficients = match orbitals.coefficients(|i, j| sum.matrix.get(i, j).clone()) {
-            Ok(c) => c,
-            Err(e) => {
-                report.note = Some(format!("B is not invariant: {e}"));
-                return report;
+        let d = self.dimension();
+        let mut size = vec![0u64; orbitals.count()];
+        for i in 0..d {
+            for j in 0..d {
+                size[orbitals.of(i, j)] += 1;
             }
-        };
-        let mut values: Vec<String> = Vec::new();
-        let mut class_of = Vec::with_capacity(coefficients.len());
-        for c in &coefficients {
-            let text = c.to_string();
-            let k = values.iter().position(|v| *v == text).unwrap_or_else(|| {
-                values.push(text);
-                values.len() - 1
-            });
-            class_of.push(k);
         }
+        let mut total = vec![0u64; orbitals.count()];
+        for s in &subsets {
+            for &i in s {
+                for &j in s {
+                    total[orbitals.of(i as usize, j as usize)] += 1;
+                }
+            }
+        }
+        if let Some(o) = (0..orbitals.count()).find(|&o| total[o] % size[o] != 0) {
+            report.trace_check = Some(false);
+            report.note = Some(format!("B is not constant on orbital {o}: not invariant"));
+            return report;
+        }
+        let coefficient: Vec<u64> = total.iter().zip(&size).map(|(t, n)| t / n).collect();
+        let trace: u64 = (0..d).map(|i| coefficient[orbitals.of(i, i)]).sum();
+        report.trace_check = Some(trace == (subsets.len() * norm) as u64);
+        let mut values: Vec<u64> = coefficient.clone();
+        values.sort_unstable_by(|a, b| b.cmp(a));
+        values.dedup();
         let print = d <= MATRIX_PRINT_LIMIT;
-        let terms: Vec<InvariantReport> = values
-            .iter()
-            .enumerate()
-            .filter(|(_, v)| v.as_str() != "0")
-            .map(|(k, v)| InvariantReport {
-                coefficient: v.clone(),
-                matrix: if print {
-                    (0..d)
-                        .map(|i| {
-                            (0..d)
-                                .map(|j| {
-                                    if class_of[orbitals.of(i, j)] == k {
-                                        "1"
-                                    } else {
-                                        "0"
-                                    }
-                                    .to_string()
-                                })
-                                .collect()
-                        })
-                        .collect()
-                } else {
-                    Vec::new()
-                },
-            })
-            .collect();
+        let entry = |i: usize, j: usize| coefficient[orbitals.of(i, j)];
+        report.invariants = Some(
+            values
+                .iter()
+                .filter(|&&c| c != 0)
+                .map(|&c| InvariantReport {
+                    coefficient: c.to_string(),
+                    matrix: if print {
+                        (0..d)
+                            .map(|i| {
+                                (0..d)
+                                    .map(|j| if entry(i, j) == c { "1" } else { "0" }.to_string())
+                                    .collect()
+                            })
+                            .collect()
+                    } else {
+                        Vec::new()
+                    },
+                })
+                .collect(),
+        );
+        if print {
+            report.matrix = Some(
+                (0..d)
+                    .map(|i| (0..d).map(|j| entry(i, j).to_string()).collect())
+                    .collect(),
+            );
+        }
         report.commutant_dimension = Some(orbitals.count());
         report.physical_basis = Some(true);
-        report.invariants = Some(terms);
         report.note = Some(format!(
             "B = Σ coefficient × (indicator of the pairs of states where B takes that value); each is a sum of orbitals of the permutation group on X_g ({} orbitals = the commutant dimension){}",
             orbitals.count(),
@@ -219,9 +292,6 @@ impl DwSpace {
                 format!("; matrices omitted above dimension {MATRIX_PRINT_LIMIT}")
             }
         ));
-        if !print {
-            report.matrix = None;
-        }
         report
     }
 }
@@ -324,10 +394,9 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
         Ok(s) => s,
         Err(e) => return Outcome::Invalid(e),
     };
-    let perms: Vec<Vec<u32>> = space.twists.iter().map(|(_, p)| p.clone()).collect();
-    let chain = match StabiliserChain::new(space.dimension(), &perms) {
+    let chain = match space.image_chain() {
         Ok(c) => c,
-        Err(e) => return Outcome::Invalid(e.to_string()),
+        Err(e) => return Outcome::Invalid(e),
     };
     let order = chain.order().to_string();
     let mut value = base_json(&space);
@@ -369,9 +438,9 @@ pub fn commutant(args: &CertArgs, as_json: bool) -> Outcome {
         Ok(s) => s,
         Err(e) => return Outcome::Invalid(e),
     };
-    let orbitals = match Orbitals::new(space.dimension(), &space.permutations()) {
+    let orbitals = match space.orbitals() {
         Ok(o) => o,
-        Err(e) => return Outcome::Invalid(e.to_string()),
+        Err(e) => return Outcome::Invalid(e),
     };
     let n = orbitals.count();
     let mut value = base_json(&space);

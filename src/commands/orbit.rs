@@ -198,7 +198,8 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         Ok(o) => o,
         Err(e) => return Outcome::Invalid(e.to_string()),
     };
-    let sum = if orbit.is_saturated() {
+    // dw: B comes from the subsets and orbitals (no dense d×d matrix over the field)
+    let sum = if orbit.is_saturated() && dw_space.is_none() {
         Some(
             problem
                 .poincare_sum(&orbit, opts.threads)
@@ -213,8 +214,8 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         None => Err("the orbit is not saturated".to_string()),
     };
     let mut report = OrbitReport::new(&problem, &orbit, poincare, started.elapsed());
-    if let (Some(space), Some(Ok(s))) = (&dw_space, &sum) {
-        report.poincare_sum = space.poincare(s);
+    if let (Some(space), true) = (&dw_space, orbit.is_saturated()) {
+        report.poincare_sum = space.poincare_report(orbit.len());
     }
     let words: Vec<(usize, Vec<String>)> = (0..args.words.min(orbit.len()))
         .map(|k| orbit.len() - 1 - k)
