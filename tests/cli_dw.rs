@@ -176,3 +176,44 @@ fn group_files_and_refusals() {
     assert_eq!(code, 0);
     assert_eq!(v["found"], false);
 }
+
+#[test]
+fn sweeps_read_dw_specs() {
+    let dir = temp_path("dw-sweep");
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap();
+    let plan = dir.join("plan.toml");
+    std::fs::write(
+        &plan,
+        "name = \"dw-small\"\nthreads = 1\nanswers = [\"orbit\", \"image\", \"commutant\", \"witness\"]\n\n[[theory]]\nspec = \"dw:Z2\"\ngenera = [1, 2]\n\n[[theory]]\nspec = \"dw:S3\"\ngenera = [1]\n",
+    )
+    .unwrap();
+    let out = dir.join("out");
+    let (code, v) = cyclorb_json(&[
+        "sweep",
+        plan.to_str().unwrap(),
+        "--out",
+        out.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 0, "{v}");
+    let runs = v["runs"].as_array().unwrap();
+    assert_eq!(runs.len(), 3);
+    let find = |theory: &str, genus: u64| {
+        runs.iter()
+            .find(|r| r["theory"] == theory && r["genus"] == genus)
+            .unwrap()
+    };
+    // toric code at genus 2: 15 Lagrangians, |Sp(4, F₂)| = 720 (ATLAS), 6 orbitals (the same
+    // as `cyclorb commutant`), no witness
+    let z2 = find("dw:Z2", 2);
+    assert_eq!(z2["orbit_size"], 15);
+    assert_eq!(z2["image"]["order"], "720");
+    assert_eq!(z2["commutant"]["commutant_dimension"], 6);
+    assert_eq!(z2["witness"]["found"], false);
+    assert_eq!(z2["poincare_sum"]["is_scalar"], false);
+    assert_eq!(
+        find("dw:S3", 1)["orbit_size"],
+        orbit("dw:S3", 1)["orbit_size"]
+    );
+    std::fs::remove_dir_all(&dir).ok();
+}

@@ -222,7 +222,9 @@ impl DwSpace {
         let orbitals = match self.orbitals() {
             Ok(o) => o,
             Err(e) => {
-                report.note = Some(format!("B is not scalar; its orbitals were not computed: {e}"));
+                report.note = Some(format!(
+                    "B is not scalar; its orbitals were not computed: {e}"
+                ));
                 return report;
             }
         };

@@ -14,6 +14,7 @@ use std::time::{Duration, Instant};
 
 use cyclorb_orbit::{OrbitProblem, PoincareReport};
 
+use super::super::dw::DwSpace;
 use super::answers::{
     certificate_generators, commutant_answer, image_answer, witness_answer, witness_failed,
     witness_not_needed,
@@ -21,9 +22,8 @@ use super::answers::{
 use super::display::SweepDisplay;
 use super::orbit_stage::{run_orbit, starting_orbit, EngineSettings, OrbitStop};
 use super::plan::{Answer, ImageBounds, WitnessBounds};
-use super::result::{Citation, ImageAnswer, RunResult};
-use super::super::dw::DwSpace;
 use super::result::CommutantAnswer;
+use super::result::{Citation, ImageAnswer, RunResult};
 use super::schedule::{PlannedRun, RunSpace};
 
 /// Settings shared by every run of a sweep.

@@ -248,14 +248,7 @@ pub fn schedule(plan: &Plan) -> Result<Schedule, PlanError> {
             runs.push((entry.number, run));
         }
     }
-    runs.sort_by_key(|(number, r)| {
-        (
-            r.dimension(),
-            r.space.field_degree(),
-            *number,
-            r.genus,
-        )
-    });
+    runs.sort_by_key(|(number, r)| (r.dimension(), r.space.field_degree(), *number, r.genus));
     let mut h = Fnv64::new();
     h.line("cyclorb sweep plan, version 1");
     for (_, r) in &runs {
