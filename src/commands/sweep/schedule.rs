@@ -58,10 +58,10 @@ impl PlannedRun {
 /// What a run works on: the block space of a theory with F- and R-symbols (theory, comb
 /// basis, invariant form), or the flat bundles of a Dijkgraaf–Witten theory `dw:GROUP`.
 pub enum RunSpace {
-    /// A block space.
-    Blocks(BlockSpace),
+    /// A block space (both variants boxed: their sizes differ widely).
+    Blocks(Box<BlockSpace>),
     /// X_g of a finite group with the twists of the entry's set.
-    Dw(DwSpace),
+    Dw(Box<DwSpace>),
 }
 
 impl RunSpace {
@@ -209,10 +209,10 @@ pub fn schedule(plan: &Plan) -> Result<Schedule, PlanError> {
         let mut theory_hash = theory.as_ref().map(|t| t.data_hash());
         for (k, &genus) in entry.genera.iter().enumerate() {
             let space = match &theory {
-                Some(t) => RunSpace::Blocks(
+                Some(t) => RunSpace::Blocks(Box::new(
                     BlockSpace::new(t.clone(), genus)
                         .map_err(|e| refuse(format!("genus {genus}: {e}")))?,
-                ),
+                )),
                 None => {
                     let space = DwSpace::with_set(&spec, genus, entry.set)
                         .map_err(|e| refuse(format!("genus {genus}: {e}")))?;
@@ -221,7 +221,7 @@ pub fn schedule(plan: &Plan) -> Result<Schedule, PlanError> {
                         h.line(&line);
                     }
                     theory_hash = Some(h.hex());
-                    RunSpace::Dw(space)
+                    RunSpace::Dw(Box::new(space))
                 }
             };
             let theory_hash = theory_hash.clone().unwrap_or_default();
