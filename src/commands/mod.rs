@@ -2,6 +2,7 @@
 
 mod certify;
 mod common;
+mod dw;
 mod field;
 mod orbit;
 pub mod output;
