@@ -62,11 +62,44 @@ fn tricritical_ising_genus_one() {
 
 #[test]
 fn minimal_model_from_modular_data_alone() {
-    // M(4,3) is the Ising model: the same 24 lines and B = 8·I (Castro et al. 2012).
+    // M(4,3) is the Ising model: the same 24 lines and B = 8·I (Castro et al. 2012), from
+    // Kac's modular data and from the braided construction alike.
+    for spec in ["kac:4:3", "minimal:4:3"] {
+        assert_eq!(
+            scalar_orbit(&["orbit", spec, "--genus", "1"]),
+            (24, "8".into()),
+            "{spec}"
+        );
+    }
+}
+
+#[test]
+fn braided_minimal_models_reach_genus_two() {
+    // M(4,3) = Ising at genus 2: 3840 lines, B = 384·G⁻¹ (the all-genus follow-up of Castro
+    // et al., 2019).
     assert_eq!(
-        scalar_orbit(&["orbit", "minimal:4:3", "--genus", "1"]),
-        (24, "8".into())
+        scalar_orbit(&["orbit", "minimal:4:3", "--genus", "2"]),
+        (3840, "384".into())
     );
+}
+
+#[test]
+fn genus_one_sums_agree_between_braided_and_kac_routes() {
+    // Two constructions of the same modular data must give the same genus-1 orbit and the
+    // same decomposition of B over the invariants.
+    for pq in ["5:4", "6:5", "5:2", "7:2", "5:3", "7:3", "7:4", "8:3"] {
+        let (code_a, a) = cyclorb_json(&["orbit", &format!("minimal:{pq}"), "--genus", "1"]);
+        let (code_b, b) = cyclorb_json(&["orbit", &format!("kac:{pq}"), "--genus", "1"]);
+        assert_eq!((code_a, code_b), (0, 0), "M({pq})");
+        assert_eq!(a["saturated"], true, "M({pq})");
+        assert_eq!(a["orbit_size"], b["orbit_size"], "M({pq})");
+        for key in ["is_scalar", "prefactor", "invariants"] {
+            assert_eq!(
+                a["poincare_sum"][key], b["poincare_sum"][key],
+                "M({pq}) {key}"
+            );
+        }
+    }
 }
 
 #[test]
@@ -201,7 +234,7 @@ fn raw_mode_reads_the_files_twists_writes() {
 
 #[test]
 fn genus_two_needs_fusion_data() {
-    let out = common::cyclorb(&["orbit", "minimal:6:5", "--genus", "2"]);
+    let out = common::cyclorb(&["orbit", "kac:6:5", "--genus", "2"]);
     assert_eq!(out.status.code(), Some(1));
     let err = String::from_utf8_lossy(&out.stderr);
     assert!(err.contains("modular data only"), "{err}");

@@ -52,6 +52,7 @@ fn theories_lists_the_contract_names() {
         "so3:K",
         "zn:N:P",
         "minimal:P:Q",
+        "kac:P:Q",
         "conj(A)",
         "A*B",
     ] {

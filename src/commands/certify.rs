@@ -57,6 +57,9 @@ fn header(space: &BlockSpace) -> String {
 
 /// Run `cyclorb commutant`.
 pub fn commutant(args: &CertArgs, as_json: bool) -> Outcome {
+    if super::dw::is_dw(&args.space.spec) {
+        return super::dw::commutant(args, as_json);
+    }
     let (space, gens) = match load(args) {
         Ok(x) => x,
         Err(e) => return Outcome::Invalid(e),
@@ -280,6 +283,9 @@ impl ImageRun<'_> {
 /// scalars when no faithful set of lines fits. "Undecided", with the reason, when none of
 /// these decides within its bounds.
 pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
+    if super::dw::is_dw(&args.common.space.spec) {
+        return super::dw::image(args, as_json);
+    }
     let (space, gens) = match load(&args.common) {
         Ok(x) => x,
         Err(e) => return Outcome::Invalid(e),
@@ -388,6 +394,9 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
 
 /// Run `cyclorb witness`.
 pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
+    if super::dw::is_dw(&args.common.space.spec) {
+        return super::dw::witness(args, as_json);
+    }
     let (space, gens) = match load(&args.common) {
         Ok(x) => x,
         Err(e) => return Outcome::Invalid(e),

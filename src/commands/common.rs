@@ -45,6 +45,9 @@ pub fn generator_set_file(space: &BlockSpace, gens: &[(Curve, Operator)]) -> Gen
 /// The orbit problem of a theory's vacuum line at genus g under the named generating set:
 /// the twists as a generator set, the vacuum basis vector as the seed.
 pub fn vacuum_problem(spec: &str, genus: usize, set: &str) -> Result<OrbitProblem, String> {
+    if super::dw::is_dw(spec) {
+        return super::dw::DwSpace::new(spec, genus, set)?.problem();
+    }
     let set = parse_set(set)?;
     let space = build_space(spec, genus)?;
     let twists = space.generators(set).map_err(|e| e.to_string())?;

@@ -3,6 +3,7 @@
 mod budget;
 mod certify;
 mod common;
+mod dw;
 mod field;
 mod orbit;
 pub mod output;

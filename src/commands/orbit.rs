@@ -13,6 +13,7 @@ use cyclorb_orbit::{
 use serde_json::json;
 
 use super::common::{build_space, parse_set, vacuum_problem};
+use super::dw::{is_dw, DwSpace};
 use super::output::{Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
@@ -194,7 +195,18 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
     if args.method == "product" {
         return run_product(args, as_json, started);
     }
-    let problem = match load_problem(args) {
+    // dw:GROUP keeps its space: the Poincaré sum is read over its orbitals
+    let dw_space = match (&args.spec, args.genus) {
+        (Some(spec), Some(genus)) if is_dw(spec) => match DwSpace::new(spec, genus, &args.set) {
+            Ok(s) => Some(s),
+            Err(e) => return Outcome::Invalid(e),
+        },
+        _ => None,
+    };
+    let problem = match dw_space
+        .as_ref()
+        .map_or_else(|| load_problem(args), DwSpace::problem)
+    {
         Ok(p) => p,
         Err(e) => return Outcome::Invalid(e),
     };
@@ -218,7 +230,8 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         Ok(o) => o,
         Err(e) => return Outcome::Invalid(e.to_string()),
     };
-    let sum = if orbit.is_saturated() {
+    // dw: B comes from the subsets and orbitals (no dense d×d matrix over the field)
+    let sum = if orbit.is_saturated() && dw_space.is_none() {
         Some(
             problem
                 .poincare_sum(&orbit, opts.threads)
@@ -232,7 +245,10 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         Some(Err(e)) => Err(e.clone()),
         None => Err("the orbit is not saturated".to_string()),
     };
-    let report = OrbitReport::new(&problem, &orbit, poincare, started.elapsed());
+    let mut report = OrbitReport::new(&problem, &orbit, poincare, started.elapsed());
+    if let (Some(space), true) = (&dw_space, orbit.is_saturated()) {
+        report.poincare_sum = space.poincare_report(orbit.len());
+    }
     let words: Vec<(usize, Vec<String>)> = (0..args.words.min(orbit.len()))
         .map(|k| orbit.len() - 1 - k)
         .map(|i| (i, problem.word_names(&orbit, i)))
@@ -267,6 +283,11 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
              drop --checkpoint/--resume"
                 .into(),
         );
+    }
+    if is_dw(spec) {
+        return Outcome::Invalid(format!(
+            "{spec}: the counting route is not available for Dijkgraaf–Witten theories yet; use --method enumerate"
+        ));
     }
     let space = match parse_set(&args.set).and_then(|set| Ok((set, build_space(spec, genus)?))) {
         Ok(x) => x,

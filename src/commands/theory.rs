@@ -19,7 +19,8 @@ const GRAMMAR: &str = "spec := factor ('*' factor)* ; factor := conj(spec) | gal
 
 /// Run `cyclorb theories`.
 pub fn run_theories(as_json: bool) -> Outcome {
-    let rows = builtin_catalogue();
+    let mut rows = builtin_catalogue();
+    rows.extend(super::dw::catalogue());
     let width = rows.iter().map(|(s, _)| s.len()).max().unwrap_or(0);
     let mut text = String::from("Theory specs (usable wherever SPEC is asked):\n");
     for (spec, description) in &rows {
@@ -147,6 +148,9 @@ fn describe_text(t: &Theory) -> String {
 
 /// Run `cyclorb describe SPEC`.
 pub fn run_describe(args: &DescribeArgs, as_json: bool) -> Outcome {
+    if super::dw::is_dw(&args.spec) {
+        return super::dw::describe(&args.spec, as_json);
+    }
     let theory = match parse_spec(&args.spec) {
         Ok(t) => t,
         Err(e) => return Outcome::Invalid(e.to_string()),
@@ -187,6 +191,12 @@ fn remember_proved_files(traced: &TracedSpec) {
 
 /// Run `cyclorb verify SPEC|FILE`.
 pub fn run_verify(args: &VerifyArgs, as_json: bool) -> Outcome {
+    if super::dw::is_dw(&args.spec) {
+        return Outcome::Invalid(format!(
+            "{}: a Dijkgraaf–Witten theory is built from its group (checked when read); its twists are checked by `cyclorb twists {} --genus G --check`",
+            args.spec, args.spec
+        ));
+    }
     let mut skipped = Vec::new();
     for name in &args.skip {
         match CheckId::ALL.iter().find(|c| c.name() == name) {

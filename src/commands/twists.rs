@@ -26,6 +26,9 @@ fn kind(op: &Operator) -> String {
 
 /// Run `cyclorb twists`.
 pub fn run(args: &TwistsArgs, as_json: bool) -> Outcome {
+    if super::dw::is_dw(&args.space.spec) {
+        return super::dw::twists(args, as_json);
+    }
     let set = match parse_set(&args.space.set) {
         Ok(s) => s,
         Err(e) => return Outcome::Invalid(e),

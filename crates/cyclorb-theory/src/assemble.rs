@@ -264,7 +264,8 @@ pub(crate) fn assemble(raw: RawTheory) -> Result<Theory, TheoryError> {
                             FMatrix::new(forward.cols.clone(), forward.rows.clone(), m, &field)
                         });
                         let cell = OnceLock::new();
-                        cell.set(FBlock { forward, inverse }).expect("fresh cell");
+                        cell.set(Box::new(FBlock { forward, inverse }))
+                            .expect("fresh cell");
                         cells.insert(key, cell);
                     }
                     FSource::Stored
@@ -279,7 +280,7 @@ pub(crate) fn assemble(raw: RawTheory) -> Result<Theory, TheoryError> {
                             ))
                         })?;
                         let cell = OnceLock::new();
-                        cell.set(block).expect("fresh cell");
+                        cell.set(Box::new(block)).expect("fresh cell");
                         cells.insert(key, cell);
                     }
                     FSource::Stored

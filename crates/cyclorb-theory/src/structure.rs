@@ -38,7 +38,9 @@ pub(crate) enum FSource {
 #[derive(Clone, Debug)]
 pub(crate) struct Braiding {
     /// One cell per (a, b, c, d) with at least one admissible row.
-    pub cells: HashMap<u64, OnceLock<FBlock>>,
+    /// Boxed so that a cell not yet filled costs one pointer: a product of two large theories
+    /// has millions of admissible quadruples, few of which a genus-g computation touches.
+    pub cells: HashMap<u64, OnceLock<Box<FBlock>>>,
     /// How empty cells are filled.
     pub source: FSource,
     /// R^{ab}_c for admissible (a, b, c).

@@ -124,7 +124,7 @@ impl Theory {
         }
         let braiding = self.braiding.as_ref()?;
         let cell = braiding.cells.get(&key4(r, a, b, c, d))?;
-        Some(cell.get_or_init(|| self.compute_block(a, b, c, d)))
+        Some(cell.get_or_init(|| Box::new(self.compute_block(a, b, c, d))))
     }
 
     /// The F-matrix [F^{abc}_d] by reference, when (a, b, c, d) has admissible rows.

@@ -38,12 +38,20 @@ impl<'a> Verlinde<'a> {
 
     /// Σ_x S_ax S_bx conj(S_cx)/S_0x.
     pub fn coefficient(&self, a: usize, b: usize, c: usize) -> Cyc {
+        self.coefficient_with(&self.pair(a, b), c)
+    }
+
+    /// The products S_ax S_bx / S_0x over x, shared by every c of one pair (a, b).
+    pub fn pair(&self, a: usize, b: usize) -> Vec<Cyc> {
         let f = self.field;
-        let r = self.plain.len();
-        let products: Vec<Cyc> = (0..r)
+        (0..self.plain.len())
             .map(|x| f.times(&self.scaled[a][x], &self.plain[b][x]))
-            .collect();
-        f.dot_same(products.iter().zip(&self.conj[c]))
+            .collect()
+    }
+
+    /// Σ_x pair_x conj(S_cx), with `pair` from [`Verlinde::pair`].
+    pub fn coefficient_with(&self, pair: &[Cyc], c: usize) -> Cyc {
+        self.field.dot_same(pair.iter().zip(&self.conj[c]))
     }
 }
 

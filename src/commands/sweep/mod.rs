@@ -116,7 +116,7 @@ fn dry_run(plan: &Plan, sched: &Schedule, as_json: bool) -> Outcome {
         .map(|r| {
             json!({
                 "id": r.id, "theory": r.spec, "genus": r.genus, "dimension": r.dimension(),
-                "conductor": r.space.theory().conductor(),
+                "conductor": r.space.conductor(),
                 "answers": r.answers.iter().map(|a| a.name()).collect::<Vec<_>>(),
                 "run_hash": r.run_hash,
             })
@@ -133,7 +133,7 @@ fn dry_run(plan: &Plan, sched: &Schedule, as_json: bool) -> Outcome {
             "  {:<28} dim {:>7}  {:<9} {}\n",
             r.id,
             r.dimension(),
-            format!("Q(ζ_{})", r.space.theory().conductor()),
+            format!("Q(ζ_{})", r.space.conductor()),
             r.answers
                 .iter()
                 .map(|a| a.name())

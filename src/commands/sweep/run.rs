@@ -12,9 +12,9 @@ use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::Arc;
 use std::time::{Duration, Instant};
 
-use cyclorb_orbit::{OrbitProblem, PoincareReport, Seed};
+use cyclorb_orbit::{OrbitProblem, PoincareReport};
 
-use super::super::common::generator_set_file;
+use super::super::dw::DwSpace;
 use super::answers::{
     certificate_generators, commutant_answer, image_answer, witness_answer, witness_failed,
     witness_not_needed,
@@ -22,8 +22,9 @@ use super::answers::{
 use super::display::SweepDisplay;
 use super::orbit_stage::{run_orbit, starting_orbit, EngineSettings, OrbitStop};
 use super::plan::{Answer, ImageBounds, WitnessBounds};
+use super::result::CommutantAnswer;
 use super::result::{Citation, ImageAnswer, RunResult};
-use super::schedule::PlannedRun;
+use super::schedule::{PlannedRun, RunSpace};
 
 /// Settings shared by every run of a sweep.
 pub struct SweepSettings<'a> {
@@ -112,6 +113,44 @@ fn blank_result(run: &PlannedRun, problem: &OrbitProblem, settings: &SweepSettin
     }
 }
 
+/// The permutation routes of a `dw:` run: the image order by Schreier–Sims on X_g, the
+/// commutant dimension as the number of orbitals, and no witness (the image is finite).
+fn dw_answers(run: &PlannedRun, space: &DwSpace, result: &mut RunResult, display: &SweepDisplay) {
+    if run.wants(Answer::Image) || run.wants(Answer::Witness) {
+        display.stage(run, "image order");
+        match space.image_chain() {
+            Ok(chain) => {
+                let order = chain.order().to_string();
+                if run.wants(Answer::Witness) {
+                    result.witness = Some(witness_not_needed(&order));
+                }
+                if run.wants(Answer::Image) {
+                    result.image = Some(ImageAnswer {
+                        finite: Some(true),
+                        order: Some(order),
+                        route: "permutation-schreier-sims".into(),
+                        note: None,
+                    });
+                }
+            }
+            Err(e) => result.errors.push(format!("image: {e}")),
+        }
+    }
+    if run.wants(Answer::Commutant) {
+        display.stage(run, "commutant");
+        match space.orbitals() {
+            Ok(o) => {
+                result.commutant = Some(CommutantAnswer {
+                    commutant_dimension: o.count(),
+                    primes: Vec::new(),
+                    route: "orbitals".into(),
+                })
+            }
+            Err(e) => result.errors.push(format!("commutant: {e}")),
+        }
+    }
+}
+
 /// Run one planned run, checkpointing under `dir`.
 pub fn execute(
     run: &PlannedRun,
@@ -124,12 +163,7 @@ pub fn execute(
     reset_peak_memory();
     display.start(run);
     let interrupted = || settings.signal.load(Ordering::SeqCst);
-    let space = &run.space;
-    let twists = space.generators(run.set).map_err(|e| e.to_string())?;
-    let field = space.theory().field();
-    let seed = Seed::basis_vector(field, space.dimension(), space.basis().vacuum());
-    let problem =
-        OrbitProblem::new(generator_set_file(space, &twists), &seed).map_err(|e| e.to_string())?;
+    let problem = run.space.problem(run.set)?;
     let mut result = blank_result(run, &problem, settings);
     let mut earlier_seconds = 0.0;
     let mut orbit_found = None;
@@ -170,14 +204,14 @@ pub fn execute(
         result.store_bytes = Some(orbit.store_bytes());
         result.poincare_sum = Some(if orbit.is_saturated() {
             display.stage(run, "Poincaré sum");
-            match problem.poincare_sum(&orbit, settings.threads) {
-                Ok(sum) => {
-                    if !sum.trace_check {
+            match run.space.poincare(&problem, &orbit, settings.threads) {
+                Ok(report) => {
+                    if report.trace_check == Some(false) {
                         result
                             .errors
                             .push("Poincaré sum: tr(B·G) ≠ |orbit|·⟨v₀, v₀⟩_G".into());
                     }
-                    PoincareReport::from_sum(&sum)
+                    report
                 }
                 Err(e) => {
                     result.errors.push(format!("Poincaré sum: {e}"));
@@ -192,9 +226,17 @@ pub fn execute(
     if interrupted() {
         return Ok(RunEnd::Interrupted);
     }
-    let needs_certificates = [Answer::Image, Answer::Commutant, Answer::Witness]
-        .iter()
-        .any(|&a| run.wants(a));
+    let dw = match &run.space {
+        RunSpace::Dw(space) => Some(space),
+        RunSpace::Blocks(_) => None,
+    };
+    if let Some(space) = dw {
+        dw_answers(run, space, &mut result, display);
+    }
+    let needs_certificates = dw.is_none()
+        && [Answer::Image, Answer::Commutant, Answer::Witness]
+            .iter()
+            .any(|&a| run.wants(a));
     let gens = if needs_certificates {
         match certificate_generators(&problem) {
             Ok(g) => Some(g),

@@ -8,7 +8,10 @@
 //! answer depends on; a finished result is reused only when its run hash matches.
 
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
+use cyclorb_orbit::{Orbit, OrbitProblem, PoincareReport, Seed};
 
+use super::super::common::generator_set_file;
+use super::super::dw::{is_dw, DwSpace};
 use super::super::proof;
 use super::hash::Fnv64;
 use super::plan::{Answer, Entry, Limits, Plan, PlanError};
@@ -25,8 +28,8 @@ pub struct PlannedRun {
     pub spec: String,
     /// The genus.
     pub genus: usize,
-    /// The block space (theory, comb basis, invariant form).
-    pub space: BlockSpace,
+    /// The space the run works on.
+    pub space: RunSpace,
     /// The generating set.
     pub set: GeneratingSet,
     /// What to compute.
@@ -48,6 +51,74 @@ impl PlannedRun {
     /// Whether the run computes `answer`.
     pub fn wants(&self, answer: Answer) -> bool {
         self.answers.contains(&answer)
+    }
+}
+
+/// What a run works on: the block space of a theory with F- and R-symbols (theory, comb
+/// basis, invariant form), or the flat bundles of a Dijkgraaf–Witten theory `dw:GROUP`.
+pub enum RunSpace {
+    /// A block space (both variants boxed: their sizes differ widely).
+    Blocks(Box<BlockSpace>),
+    /// X_g of a finite group with the twists of the entry's set.
+    Dw(Box<DwSpace>),
+}
+
+impl RunSpace {
+    /// The dimension of the space.
+    pub fn dimension(&self) -> usize {
+        match self {
+            RunSpace::Blocks(s) => s.dimension(),
+            RunSpace::Dw(s) => s.dimension(),
+        }
+    }
+
+    /// n of the field Q(ζ_n) of the generators.
+    pub fn conductor(&self) -> u32 {
+        match self {
+            RunSpace::Blocks(s) => s.theory().conductor(),
+            RunSpace::Dw(_) => 1,
+        }
+    }
+
+    /// φ(n), the degree of that field.
+    fn field_degree(&self) -> usize {
+        match self {
+            RunSpace::Blocks(s) => s.theory().field().degree(),
+            RunSpace::Dw(_) => 1,
+        }
+    }
+
+    /// The orbit problem of the vacuum under the twists of `set`.
+    pub fn problem(&self, set: GeneratingSet) -> Result<OrbitProblem, String> {
+        match self {
+            RunSpace::Blocks(space) => {
+                let twists = space.generators(set).map_err(|e| e.to_string())?;
+                let field = space.theory().field();
+                let seed = Seed::basis_vector(field, space.dimension(), space.basis().vacuum());
+                OrbitProblem::new(generator_set_file(space, &twists), &seed)
+                    .map_err(|e| e.to_string())
+            }
+            RunSpace::Dw(space) => space.problem(),
+        }
+    }
+
+    /// The Poincaré sum of a saturated orbit (over orbitals, from subsets, for `dw:`
+    /// theories), or the error that stopped it; `trace_check` false reveals an error.
+    pub fn poincare(
+        &self,
+        problem: &OrbitProblem,
+        orbit: &Orbit,
+        threads: usize,
+    ) -> Result<PoincareReport, String> {
+        match self {
+            RunSpace::Blocks(_) => {
+                let sum = problem
+                    .poincare_sum(orbit, threads)
+                    .map_err(|e| e.to_string())?;
+                Ok(PoincareReport::from_sum(&sum))
+            }
+            RunSpace::Dw(space) => Ok(space.poincare_report(orbit.len())),
+        }
     }
 }
 
@@ -128,11 +199,31 @@ pub fn schedule(plan: &Plan) -> Result<Schedule, PlanError> {
                 ),
             )
         };
-        let theory = proof::theory(&entry.source.spec_text()).map_err(refuse)?;
-        let theory_hash = theory.data_hash();
+        let spec = entry.source.spec_text();
+        let theory = if is_dw(&spec) {
+            None
+        } else {
+            Some(proof::theory(&spec).map_err(refuse)?)
+        };
+        let mut theory_hash = theory.as_ref().map(|t| t.data_hash());
         for (k, &genus) in entry.genera.iter().enumerate() {
-            let space = BlockSpace::new(theory.clone(), genus)
-                .map_err(|e| refuse(format!("genus {genus}: {e}")))?;
+            let space = match &theory {
+                Some(t) => RunSpace::Blocks(Box::new(
+                    BlockSpace::new(t.clone(), genus)
+                        .map_err(|e| refuse(format!("genus {genus}: {e}")))?,
+                )),
+                None => {
+                    let space = DwSpace::with_set(&spec, genus, entry.set)
+                        .map_err(|e| refuse(format!("genus {genus}: {e}")))?;
+                    let mut h = Fnv64::new();
+                    for line in space.group_data() {
+                        h.line(&line);
+                    }
+                    theory_hash = Some(h.hex());
+                    RunSpace::Dw(Box::new(space))
+                }
+            };
+            let theory_hash = theory_hash.clone().unwrap_or_default();
             let id = format!("{}-g{genus}", slug(&entry.label));
             if let Some((_, other)) = runs.iter().find(|(_, r)| r.id == id) {
                 return Err(refuse(format!(
@@ -151,19 +242,12 @@ pub fn schedule(plan: &Plan) -> Result<Schedule, PlanError> {
                 set: entry.set,
                 answers: entry.answers.clone(),
                 limits: entry.limits,
-                theory_hash: theory_hash.clone(),
+                theory_hash,
             };
             runs.push((entry.number, run));
         }
     }
-    runs.sort_by_key(|(number, r)| {
-        (
-            r.dimension(),
-            r.space.theory().field().degree(),
-            *number,
-            r.genus,
-        )
-    });
+    runs.sort_by_key(|(number, r)| (r.dimension(), r.space.field_degree(), *number, r.genus));
     let mut h = Fnv64::new();
     h.line("cyclorb sweep plan, version 1");
     for (_, r) in &runs {

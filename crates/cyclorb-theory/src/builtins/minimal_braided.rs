@@ -14,19 +14,21 @@
 //!   M(P, Q) ≅ σ_{k₁}(su2 or so3 on r) ⊠ σ_{k₂}(so3 or su2 on s),
 //! with Galois conjugations σ_k (ζ ↦ ζ^k) chosen so that each factor's twists are
 //! θ¹(r) = θ_{r,1} and θ²(s) = θ_{1,s}. This module finds every such k by its action on the
-//! twist exponents (σ_k multiplies an exponent h by k), builds the products, and keeps the
-//! first whose normalised S-matrix equals the Kac-formula S of [`super::minimal_modular_data`]
-//! entry by entry (exactly, after the label bijection). When the Kac S has S₀₀ < 0 (some
+//! twist exponents (σ_k multiplies an exponent h by k), keeps those whose unnormalised S̃
+//! equals the matching block of Kac's S divided by S₀₀ (S = ±S¹ ⊗ S² forces it), builds the
+//! product, and keeps the first whose normalised S-matrix equals the Kac-formula S of
+//! [`super::minimal_modular_data`] entry by entry (exactly, after the label bijection). When the Kac S has S₀₀ < 0 (some
 //! non-unitary models) the total dimension is taken negative, D = 1/S₀₀, which leaves F, R
 //! and θ alone, negates S and adds 4 to c mod 8: then c ≡ 1 − 6(P−Q)²/(PQ) (mod 8) as for
 //! the Virasoro algebra. A factor of rank 1 (level 0, or so3:1) is left out.
 
-use cyclorb_field::{CyclotomicField, Rational};
+use cyclorb_field::{Cyc, CyclotomicField, Rational};
 use num_bigint::BigInt;
 use num_integer::Integer;
 
 use super::minimal::{check_parameters, kac_labels, minimal_modular_data};
 use super::su2::{so3, su2};
+use crate::arith::SameField;
 use crate::error::TheoryError;
 use crate::ops::{galois, product, renamed, spherical_twist, with_negated_total_dimension};
 use crate::theory::Theory;
@@ -101,11 +103,14 @@ fn matching_exponents(
 }
 
 /// The candidate theories of one factor: σ_k(base) and, when the base has odd labels,
-/// spherical_twist(σ_k(base)), for every k that gives the target twists.
+/// spherical_twist(σ_k(base)), for every k that gives the target twists and the target
+/// unnormalised S̃ (`s_target[i][j]` in the reference's field).
 fn candidates(
     base: &Theory,
     odd: &[bool],
     targets: &[Rational],
+    s_target: &[Vec<Cyc>],
+    reference_field: &CyclotomicField,
 ) -> Result<Vec<Theory>, TheoryError> {
     let mut out = Vec::new();
     let plain = vec![false; odd.len()];
@@ -117,7 +122,31 @@ fn candidates(
             out.push(spherical_twist(&galois(base, k)?, odd)?);
         }
     }
-    Ok(out)
+    let mut kept = Vec::new();
+    for candidate in out {
+        if same_s_tilde(&candidate, s_target, reference_field)? {
+            kept.push(candidate);
+        }
+    }
+    Ok(kept)
+}
+
+/// Whether the candidate's S̃ equals the target entry by entry (in the compositum).
+fn same_s_tilde(
+    candidate: &Theory,
+    s_target: &[Vec<Cyc>],
+    reference_field: &CyclotomicField,
+) -> Result<bool, TheoryError> {
+    let field = CyclotomicField::new(candidate.conductor().lcm(&reference_field.conductor()))?;
+    let own = candidate.s_unnormalized();
+    for (i, row) in s_target.iter().enumerate() {
+        for (j, x) in row.iter().enumerate() {
+            if field.embed(own.get(i, j))? != field.embed(x)? {
+                return Ok(false);
+            }
+        }
+    }
+    Ok(true)
 }
 
 /// The braided minimal model M(p, p′) (P = p, Q = p′), labelled by Kac indices as
@@ -148,19 +177,33 @@ pub fn minimal(p: i64, pp: i64) -> Result<Theory, TheoryError> {
             trivial.push((side_is_r, theory, coordinate));
             continue;
         }
+        let at = |x: i64| if side_is_r { (x, 1) } else { (1, x) };
         let targets = coordinate
             .iter()
-            .map(|&x| {
-                if side_is_r {
-                    ref_exponent(x, 1)
-                } else {
-                    ref_exponent(1, x)
-                }
-            })
+            .map(|&x| ref_exponent(at(x).0, at(x).1))
             .collect::<Result<Vec<_>, _>>()?;
+        // S_prod = ±S¹ ⊗ S², so S_{(x,1),(y,1)}/S_{00} = S̃¹_{xy} (and likewise for S²).
+        let s_ref = reference
+            .s_matrix()
+            .ok_or_else(|| TheoryError::Internal("Kac data have S".into()))?;
+        let s00_inv = ref_field
+            .inverse(s_ref.get(0, 0))
+            .ok_or_else(|| TheoryError::Internal("S_00 = 0".into()))?;
+        let class = |x: i64| {
+            let (r, s) = at(x);
+            class_of(r, s).ok_or_else(|| TheoryError::Internal(format!("({r},{s})")))
+        };
+        let mut s_target = Vec::new();
+        for &x in &coordinate {
+            let mut row = Vec::new();
+            for &y in &coordinate {
+                row.push(ref_field.times(s_ref.get(class(x)?, class(y)?), &s00_inv));
+            }
+            s_target.push(row);
+        }
         // SU(2) labels with a half-integer spin (even Kac coordinate) are the odd grade.
         let odd: Vec<bool> = coordinate.iter().map(|x| x % 2 == 0).collect();
-        let candidates = candidates(&theory, &odd, &targets)?;
+        let candidates = candidates(&theory, &odd, &targets, &s_target, ref_field)?;
         factors.push((
             side_is_r,
             Factor {

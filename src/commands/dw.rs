@@ -1,0 +1,569 @@
+//! Dijkgraaf–Witten theories `dw:GROUP`: the space C[X_g] of functions on flat G-bundles,
+//! the Dehn twists as permutation matrices over Q, and the commands that read them
+//! (`orbit`, `image`, `commutant`, `witness`, `twists`). The generators and the seed (the
+//! indicator of the vacuum subset) go to the same orbit engine as every other theory; the
+//! image order is Schreier–Sims on the permutations of X_g, and the Poincaré sum is written
+//! over the orbitals of that permutation group.
+
+use std::path::Path;
+
+use cyclorb_cert::StabiliserChain;
+use cyclorb_dw::{
+    builtin_group, centraliser_degrees, check_relations, conjugacy_classes, subset_orbit,
+    verlinde_dimension, DwError, FiniteGroup, FlatBundles, Orbitals, SizeBound,
+};
+use cyclorb_field::CyclotomicField;
+use cyclorb_matrix::Operator;
+use cyclorb_mcg::{Curve, GeneratingSet};
+use cyclorb_orbit::{GeneratorSet, InvariantReport, OrbitProblem, PoincareReport, Seed};
+use serde_json::json;
+
+use super::common::parse_set;
+use super::output::{Outcome, Report};
+use crate::cli::{CertArgs, ImageArgs, TwistsArgs, WitnessArgs};
+
+/// The spec prefix of Dijkgraaf–Witten theories.
+const PREFIX: &str = "dw:";
+
+/// Largest dimension whose invariant matrices (and B) are printed entry by entry.
+const MATRIX_PRINT_LIMIT: usize = 128;
+
+/// Whether a spec names a Dijkgraaf–Witten theory.
+pub fn is_dw(spec: &str) -> bool {
+    spec.starts_with(PREFIX)
+}
+
+/// The group of `dw:NAME` (a built-in) or `dw:PATH` (a group file, see `cyclorb theories`).
+pub fn group_of(spec: &str) -> Result<FiniteGroup, String> {
+    let rest = spec.strip_prefix(PREFIX).unwrap_or(spec);
+    if rest.ends_with(".json") || rest.contains('/') {
+        return cyclorb_dw::read_group_file(Path::new(rest)).map_err(|e| e.to_string());
+    }
+    if rest.contains(':') {
+        return Err(format!(
+            "{spec}: twisted Dijkgraaf–Witten theories (dw:GROUP:P) are not available yet; use dw:GROUP"
+        ));
+    }
+    builtin_group(rest).map_err(|e| format!("{spec}: {e}"))
+}
+
+/// The rows `cyclorb theories` lists for Dijkgraaf–Witten theories.
+pub fn catalogue() -> Vec<(String, String)> {
+    vec![
+        (
+            "dw:GROUP".into(),
+            format!(
+                "Dijkgraaf–Witten theory D(G) as a permutation model on flat G-bundles (orbit, image, commutant, witness, twists); GROUP = ZN, DN (order 2N), SN (N ≤ 6), AN (3 ≤ N ≤ 6), Q8 or a product AxB, e.g. {}",
+                cyclorb_dw::EXAMPLES.join(", ")
+            ),
+        ),
+        (
+            "dw:FILE.json".into(),
+            format!(
+                "Dijkgraaf–Witten theory of a group file: {}",
+                cyclorb_dw::GROUP_FILE_FORMAT
+            ),
+        ),
+    ]
+}
+
+/// X_g of a `dw:` spec with the twists of a generating set.
+pub struct DwSpace {
+    spec: String,
+    bundles: FlatBundles,
+    twists: Vec<(Curve, Vec<u32>)>,
+}
+
+impl DwSpace {
+    /// Build X_g (refused beyond the default size bound, with the exact size) and the twists
+    /// of the named set.
+    pub fn new(spec: &str, genus: usize, set: &str) -> Result<DwSpace, String> {
+        DwSpace::with_set(spec, genus, parse_set(set)?)
+    }
+
+    /// The same with the generating set given.
+    pub fn with_set(spec: &str, genus: usize, set: GeneratingSet) -> Result<DwSpace, String> {
+        let group = group_of(spec)?;
+        let bundles =
+            FlatBundles::new(&group, genus, SizeBound::default()).map_err(|e| match e {
+                DwError::SpaceTooLarge { .. } => format!("{spec} at genus {genus}: {e}"),
+                other => other.to_string(),
+            })?;
+        let twists = bundles.generators(set).map_err(|e| e.to_string())?;
+        Ok(DwSpace {
+            spec: spec.to_string(),
+            bundles,
+            twists,
+        })
+    }
+
+    /// The group's multiplication table as text lines (name, order, then one row per
+    /// element), for hashing what a result depends on.
+    pub fn group_data(&self) -> Vec<String> {
+        let g = self.bundles.group();
+        let mut lines = vec![format!("group {} order {}", g.name(), g.order())];
+        for a in g.elements() {
+            let row: Vec<String> = g.elements().map(|b| g.mul(a, b).to_string()).collect();
+            lines.push(row.join(" "));
+        }
+        lines
+    }
+
+    /// |X_g|.
+    pub fn dimension(&self) -> usize {
+        self.bundles.len()
+    }
+
+    /// Q = Q(ζ_1): every entry of a permutation matrix is rational.
+    fn field() -> CyclotomicField {
+        CyclotomicField::new(1).expect("Q(ζ_1) = Q is a field")
+    }
+
+    /// The twists as permutation matrices: row x holds a 1 at column p(x) ((M f)(x) =
+    /// f(p(x)), the crate's convention), unit invariant form.
+    pub fn generator_set(&self) -> GeneratorSet {
+        let field = DwSpace::field();
+        let d = self.dimension();
+        GeneratorSet {
+            conductor: 1,
+            dimension: d,
+            names: self.twists.iter().map(|(c, _)| c.to_string()).collect(),
+            operators: self
+                .twists
+                .iter()
+                .map(|(_, p)| Operator::SparseRows {
+                    dim: d,
+                    rows: p.iter().map(|&j| vec![(j as usize, field.one())]).collect(),
+                })
+                .collect(),
+            basis_labels: (0..d).map(|i| self.bundles.describe(i)).collect(),
+            form: None,
+            theory: Some(self.spec.clone()),
+            genus: Some(self.bundles.genus() as u32),
+        }
+    }
+
+    /// The orbit problem of the vacuum: the indicator of {[φ] : φ(a_h) = 1 for all h}.
+    pub fn problem(&self) -> Result<OrbitProblem, String> {
+        let field = DwSpace::field();
+        let mut vector = vec![field.zero(); self.dimension()];
+        for i in self.bundles.vacuum() {
+            vector[i as usize] = field.one();
+        }
+        let seed = Seed {
+            conductor: 1,
+            vector,
+        };
+        OrbitProblem::new(self.generator_set(), &seed).map_err(|e| e.to_string())
+    }
+
+    fn permutations(&self) -> Vec<&[u32]> {
+        self.twists.iter().map(|(_, p)| p.as_slice()).collect()
+    }
+
+    /// The permutation group the twists generate on X_g, by Schreier–Sims (every point a
+    /// base point). It is the projective image: a permutation matrix is a scalar only when
+    /// it is the identity.
+    pub fn image_chain(&self) -> Result<StabiliserChain, String> {
+        let perms: Vec<Vec<u32>> = self.twists.iter().map(|(_, p)| p.clone()).collect();
+        StabiliserChain::new(self.dimension(), &perms).map_err(|e| e.to_string())
+    }
+
+    /// The orbitals of that group; their number is the commutant dimension.
+    pub fn orbitals(&self) -> Result<Orbitals, String> {
+        Orbitals::new(self.dimension(), &self.permutations()).map_err(|e| e.to_string())
+    }
+
+    /// The report of B = Σ_S 1_S 1_Sᵀ over the orbit of the vacuum subset, without a dense
+    /// d×d matrix: the orbit is listed again as subsets (no field arithmetic) and must have
+    /// `engine_orbit_size` elements; B is invariant, so constant on each orbital O, with value
+    /// (Σ_S #{(i, j) ∈ O : i, j ∈ S}) / |O| (checked to divide). B = Σ_c c·M_c, M_c the 0/1
+    /// indicator of the pairs where B = c (a sum of orbitals); the commutant dimension is the
+    /// number of orbitals. tr B = |orbit|·|vacuum| is checked from the orbital values.
+    pub fn poincare_report(&self, engine_orbit_size: usize) -> PoincareReport {
+        let vacuum = self.bundles.vacuum();
+        let norm = vacuum.len();
+        let mut report = PoincareReport {
+            seed_norm: Some(norm.to_string()),
+            ..PoincareReport::default()
+        };
+        let subsets = match subset_orbit(&vacuum, &self.twists, engine_orbit_size) {
+            Ok(s) if s.len() == engine_orbit_size => s,
+            Ok(s) => {
+                report.trace_check = Some(false);
+                report.note = Some(format!(
+                    "the orbit of the vacuum subset has {} subsets, the engine found {engine_orbit_size} lines",
+                    s.len()
+                ));
+                return report;
+            }
+            Err(e) => {
+                report.trace_check = Some(false);
+                report.note = Some(format!("the orbit of the vacuum subset: {e}"));
+                return report;
+            }
+        };
+        // B is diagonal only when every subset is a single state, and then scalar when every
+        // state lies in equally many subsets
+        if norm == 1 {
+            let mut hits = vec![0usize; self.dimension()];
+            for s in &subsets {
+                hits[s[0] as usize] += 1;
+            }
+            if hits.iter().all(|&h| h == hits[0]) {
+                report.is_scalar = Some(true);
+                report.prefactor = Some(hits[0].to_string());
+                report.trace_check = Some(hits.iter().sum::<usize>() == subsets.len());
+                report.invariants = Some(Vec::new());
+                return report;
+            }
+        }
+        report.is_scalar = Some(false);
+        let orbitals = match self.orbitals() {
+            Ok(o) => o,
+            Err(e) => {
+                report.note = Some(format!(
+                    "B is not scalar; its orbitals were not computed: {e}"
+                ));
+                return report;
+            }
+        };
+        let d = self.dimension();
+        let mut size = vec![0u64; orbitals.count()];
+        for i in 0..d {
+            for j in 0..d {
+                size[orbitals.of(i, j)] += 1;
+            }
+        }
+        let mut total = vec![0u64; orbitals.count()];
+        for s in &subsets {
+            for &i in s {
+                for &j in s {
+                    total[orbitals.of(i as usize, j as usize)] += 1;
+                }
+            }
+        }
+        if let Some(o) = (0..orbitals.count()).find(|&o| total[o] % size[o] != 0) {
+            report.trace_check = Some(false);
+            report.note = Some(format!("B is not constant on orbital {o}: not invariant"));
+            return report;
+        }
+        let coefficient: Vec<u64> = total.iter().zip(&size).map(|(t, n)| t / n).collect();
+        let trace: u64 = (0..d).map(|i| coefficient[orbitals.of(i, i)]).sum();
+        report.trace_check = Some(trace == (subsets.len() * norm) as u64);
+        let mut values: Vec<u64> = coefficient.clone();
+        values.sort_unstable_by(|a, b| b.cmp(a));
+        values.dedup();
+        let print = d <= MATRIX_PRINT_LIMIT;
+        let entry = |i: usize, j: usize| coefficient[orbitals.of(i, j)];
+        report.invariants = Some(
+            values
+                .iter()
+                .filter(|&&c| c != 0)
+                .map(|&c| InvariantReport {
+                    coefficient: c.to_string(),
+                    matrix: if print {
+                        (0..d)
+                            .map(|i| {
+                                (0..d)
+                                    .map(|j| if entry(i, j) == c { "1" } else { "0" }.to_string())
+                                    .collect()
+                            })
+                            .collect()
+                    } else {
+                        Vec::new()
+                    },
+                })
+                .collect(),
+        );
+        if print {
+            report.matrix = Some(
+                (0..d)
+                    .map(|i| (0..d).map(|j| entry(i, j).to_string()).collect())
+                    .collect(),
+            );
+        }
+        report.commutant_dimension = Some(orbitals.count());
+        report.physical_basis = Some(true);
+        report.note = Some(format!(
+            "B = Σ coefficient × (indicator of the pairs of states where B takes that value); each is a sum of orbitals of the permutation group on X_g ({} orbitals = the commutant dimension){}",
+            orbitals.count(),
+            if print {
+                String::new()
+            } else {
+                format!("; matrices omitted above dimension {MATRIX_PRINT_LIMIT}")
+            }
+        ));
+        report
+    }
+}
+
+fn header(space: &DwSpace) -> String {
+    format!(
+        "theory {} (group {} of order {}) at genus {}: dimension |X_g| = {} over Q\n",
+        space.spec,
+        space.bundles.group().name(),
+        space.bundles.group().order(),
+        space.bundles.genus(),
+        space.dimension()
+    )
+}
+
+fn base_json(space: &DwSpace) -> serde_json::Value {
+    json!({
+        "theory": space.spec,
+        "genus": space.bundles.genus(),
+        "dimension": space.dimension(),
+        "conductor": 1,
+        "group": space.bundles.group().name(),
+        "group_order": space.bundles.group().order(),
+    })
+}
+
+/// `cyclorb twists dw:… --genus G [--check]`.
+pub fn twists(args: &TwistsArgs, as_json: bool) -> Outcome {
+    let space = match DwSpace::new(&args.space.spec, args.space.genus, &args.space.set) {
+        Ok(s) => s,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let mut text = header(&space);
+    text.push_str(&format!(
+        "basis: X_g = Hom(π₁Σ_g, G)/G, canonical (lexicographically least) tuples; vacuum = indicator of {} states with every A_h = 1\n",
+        space.bundles.vacuum().len()
+    ));
+    for i in 0..space.dimension().min(40) {
+        text.push_str(&format!("  {i:>5}  {}\n", space.bundles.describe(i)));
+    }
+    if space.dimension() > 40 {
+        text.push_str(&format!("  … ({} states in all)\n", space.dimension()));
+    }
+    text.push_str("generators (permutations of X_g):\n");
+    for (c, p) in &space.twists {
+        let moved = p
+            .iter()
+            .enumerate()
+            .filter(|(i, &j)| *i != j as usize)
+            .count();
+        text.push_str(&format!("  {c:<8} moves {moved} states\n"));
+    }
+    let mut value = base_json(&space);
+    value["set"] = json!(args.space.set);
+    value["generators"] = json!(space
+        .twists
+        .iter()
+        .map(|(c, _)| c.to_string())
+        .collect::<Vec<_>>());
+    value["vacuum_states"] = json!(space.bundles.vacuum().len());
+    let mut all_ok = true;
+    if args.check {
+        let checks = match check_relations(&space.bundles) {
+            Ok(c) => c,
+            Err(e) => return Outcome::Invalid(e.to_string()),
+        };
+        all_ok = checks.iter().all(|c| c.ok);
+        text.push_str("relations (exact equalities of permutations of X_g and of free-group automorphisms):\n");
+        for c in &checks {
+            text.push_str(&format!(
+                "  [{}] {}\n",
+                if c.ok { "ok" } else { "FAILED" },
+                c.name
+            ));
+        }
+        value["relations_ok"] = json!(all_ok);
+        value["relations"] = json!(checks);
+    }
+    if let Some(path) = &args.out {
+        if let Err(e) = space.generator_set().write(path) {
+            return Outcome::Invalid(format!("{}: {e}", path.display()));
+        }
+        text.push_str(&format!("generators written to {}\n", path.display()));
+        value["out"] = json!(path.display().to_string());
+    }
+    let report = Report::new(value, text, as_json);
+    if all_ok {
+        Outcome::Done(report)
+    } else {
+        Outcome::CheckFailed(report)
+    }
+}
+
+/// `cyclorb image dw:…`: the projective image is the permutation group on X_g (a
+/// permutation matrix is a scalar only when it is the identity), so its order is that of
+/// the group the twists generate, by Schreier–Sims.
+pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
+    let a = &args.common.space;
+    let space = match DwSpace::new(&a.spec, a.genus, &a.set) {
+        Ok(s) => s,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let chain = match space.image_chain() {
+        Ok(c) => c,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let order = chain.order().to_string();
+    let mut value = base_json(&space);
+    value["finite"] = json!(true);
+    value["order"] = json!(order);
+    value["route"] = json!("permutation-schreier-sims");
+    value["base"] = json!(chain.base());
+    value["basic_orbit_lengths"] = json!(chain.basic_orbit_lengths());
+    value["strong_generators"] = json!(chain.strong_generator_count());
+    if let Some(path) = &args.common.out {
+        let certificate = json!({
+            "kind": "dw-permutation-image",
+            "theory": space.spec,
+            "genus": space.bundles.genus(),
+            "degree": space.dimension(),
+            "generators": space.twists.iter().map(|(c, p)| json!({"name": c.to_string(), "images": p})).collect::<Vec<_>>(),
+            "order": order,
+            "base": chain.base(),
+            "basic_orbit_lengths": chain.basic_orbit_lengths(),
+        });
+        let text = serde_json::to_string_pretty(&certificate).expect("JSON values serialise");
+        if let Err(e) = std::fs::write(path, text) {
+            return Outcome::Invalid(format!("{}: {e}", path.display()));
+        }
+    }
+    let mut text = header(&space);
+    text.push_str(&format!(
+        "projective image: finite, order {order} (the permutation group on X_g; Schreier–Sims, basic orbits {:?})\n",
+        chain.basic_orbit_lengths()
+    ));
+    Outcome::Done(Report::new(value, text, as_json))
+}
+
+/// `cyclorb commutant dw:…`: the dimension of the commutant of a permutation
+/// representation is its number of orbitals (orbits on pairs of states), exact by counting.
+pub fn commutant(args: &CertArgs, as_json: bool) -> Outcome {
+    let a = &args.space;
+    let space = match DwSpace::new(&a.spec, a.genus, &a.set) {
+        Ok(s) => s,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let orbitals = match space.orbitals() {
+        Ok(o) => o,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let n = orbitals.count();
+    let mut value = base_json(&space);
+    value["commutant_dimension"] = json!(n);
+    value["irreducible"] = json!(n == 1);
+    value["route"] = json!("orbitals");
+    value["primes"] = json!([]);
+    if let Some(path) = &args.out {
+        let certificate = json!({
+            "kind": "dw-orbitals",
+            "theory": space.spec,
+            "genus": space.bundles.genus(),
+            "commutant_dimension": n,
+            "generators": space.twists.iter().map(|(c, p)| json!({"name": c.to_string(), "images": p})).collect::<Vec<_>>(),
+        });
+        let text = serde_json::to_string_pretty(&certificate).expect("JSON values serialise");
+        if let Err(e) = std::fs::write(path, text) {
+            return Outcome::Invalid(format!("{}: {e}", path.display()));
+        }
+    }
+    let mut text = header(&space);
+    text.push_str(&format!(
+        "commutant dimension {n} ({}): the number of orbits of the permutation group on pairs of states (exact count; no prime needed)\n",
+        if n == 1 { "irreducible" } else { "reducible" }
+    ));
+    Outcome::Done(Report::new(value, text, as_json))
+}
+
+/// `cyclorb witness dw:…`: the image is a finite permutation group, so there is no word of
+/// infinite order; the answer says so.
+pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
+    let a = &args.common.space;
+    let space = match DwSpace::new(&a.spec, a.genus, &a.set) {
+        Ok(s) => s,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let mut value = base_json(&space);
+    value["found"] = json!(false);
+    value["word"] = json!(null);
+    value["certificate"] = json!(null);
+    value["reason"] = json!("the twists permute X_g, so every element has finite order");
+    let mut text = header(&space);
+    text.push_str(
+        "no witness exists: the twists permute X_g, so the image is a finite permutation group\n",
+    );
+    Outcome::Done(Report::new(value, text, as_json))
+}
+
+/// `cyclorb describe dw:…`: the group's classes and centralisers, the simple objects
+/// ([x], ρ) of D(G) with their quantum dimensions |[x]|·d_ρ (ρ listed by degree only), the
+/// total dimension D = |G| and dim V_g for g = 1, 2, 3. S and T need the characters of the
+/// centralisers, which are not computed here.
+pub fn describe(spec: &str, as_json: bool) -> Outcome {
+    let group = match group_of(spec) {
+        Ok(g) => g,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let classes = conjugacy_classes(&group);
+    let degrees = match centraliser_degrees(&group) {
+        Ok(d) => d,
+        Err(e) => return Outcome::Invalid(e.to_string()),
+    };
+    let mut labels = Vec::new();
+    let mut dimensions = Vec::new();
+    let mut class_rows = Vec::new();
+    let mut text = format!(
+        "theory {spec}: the quantum double D(G) of {} (order {}, {})\n",
+        group.name(),
+        group.order(),
+        if group.is_abelian() {
+            "abelian"
+        } else {
+            "non-abelian"
+        }
+    );
+    text.push_str("conjugacy classes [x] (least element x), |[x]|, |C(x)|, degrees of the irreducible characters of C(x):\n");
+    for (k, (class, (size, degs))) in classes.iter().zip(&degrees).enumerate() {
+        text.push_str(&format!(
+            "  C{k}: x = {}, |[x]| = {}, |C(x)| = {size}, degrees {degs:?}\n",
+            group.label(class.representative),
+            class.elements.len()
+        ));
+        for (r, d) in degs.iter().enumerate() {
+            labels.push(format!("C{k}.{r}"));
+            dimensions.push(class.elements.len() as u64 * d);
+        }
+        class_rows.push(json!({
+            "representative": group.label(class.representative),
+            "size": class.elements.len(),
+            "centraliser_order": size,
+            "centraliser_degrees": degs,
+        }));
+    }
+    text.push_str(&format!(
+        "simple objects ([x], ρ), labelled C<class>.<ρ>: {} of them, quantum dimensions |[x]|·d_ρ = {dimensions:?}\ntotal dimension D = |G| = {}; central charge 0 (mod 8)\n",
+        labels.len(),
+        group.order()
+    ));
+    let mut verlinde = Vec::new();
+    for g in 1..=3 {
+        match verlinde_dimension(&group, g) {
+            Ok(v) => verlinde.push(v.to_string()),
+            Err(e) => return Outcome::Invalid(e.to_string()),
+        }
+    }
+    text.push_str(&format!(
+        "dim V_g = |X_g| for g = 1, 2, 3: {}\nS and T are not computed for dw: theories (they need the centralisers' characters); the twists act by permutations of X_g (`cyclorb twists {spec} --genus G`)\n",
+        verlinde.join(", ")
+    ));
+    let value = json!({
+        "theory": spec,
+        "group": group.name(),
+        "group_order": group.order(),
+        "labels": labels,
+        "quantum_dimensions": dimensions,
+        "conductor": 1,
+        "central_charge_mod_8": "0",
+        "modular_data_only": false,
+        "modular_data": null,
+        "classes": class_rows,
+        "dimensions_by_genus": verlinde,
+    });
+    Outcome::Done(Report::new(value, text, as_json))
+}

@@ -1,0 +1,219 @@
+//! Dijkgraaf–Witten theories `dw:GROUP` through the command line: orbits, image orders,
+//! commutants and relations, against standard values and against the pointed theories
+//! built from F- and R-symbols.
+
+mod common;
+
+use common::{cyclorb, cyclorb_json, temp_path};
+use serde_json::Value;
+
+fn orbit(spec: &str, genus: usize) -> Value {
+    let (code, v) = cyclorb_json(&["orbit", spec, "--genus", &genus.to_string()]);
+    assert_eq!(code, 0, "{spec} genus {genus}: {v}");
+    assert_eq!(v["saturated"], true);
+    v
+}
+
+fn image_order(spec: &str, genus: usize) -> String {
+    let (code, v) = cyclorb_json(&["image", spec, "--genus", &genus.to_string()]);
+    assert_eq!(code, 0, "{spec} genus {genus}: {v}");
+    assert_eq!(v["finite"], true);
+    v["order"].as_str().unwrap().to_string()
+}
+
+/// Σ coefficient × matrix over the reported invariants equals the reported B.
+fn assert_invariants_rebuild_b(v: &Value) {
+    let p = &v["poincare_sum"];
+    assert_eq!(p["is_scalar"], false, "B of a DW theory is never scalar");
+    let b = p["matrix"].as_array().unwrap();
+    let d = b.len();
+    let mut rebuilt = vec![vec![0i64; d]; d];
+    for term in p["invariants"].as_array().unwrap() {
+        let c: i64 = term["coefficient"].as_str().unwrap().parse().unwrap();
+        for (i, row) in term["matrix"].as_array().unwrap().iter().enumerate() {
+            for (j, x) in row.as_array().unwrap().iter().enumerate() {
+                rebuilt[i][j] += c * x.as_str().unwrap().parse::<i64>().unwrap();
+            }
+        }
+    }
+    for i in 0..d {
+        for j in 0..d {
+            assert_eq!(
+                b[i][j].as_str().unwrap(),
+                rebuilt[i][j].to_string(),
+                "B[{i}][{j}]"
+            );
+        }
+    }
+}
+
+#[test]
+fn toric_code_orbits_images_and_poincare_sums() {
+    // orbits: Lagrangian subspaces of F₂^{2g}, Π (2^k + 1) = 3, 15, 135 (standard);
+    // images: |Sp(2g, F₂)| = 6, 720, 1 451 520 (ATLAS of Finite Groups)
+    for (genus, size, dim, order) in [(1, 3, 4, "6"), (2, 15, 16, "720"), (3, 135, 64, "1451520")] {
+        let v = orbit("dw:Z2", genus);
+        assert_eq!(v["orbit_size"], size);
+        assert_eq!(v["dimension"], dim);
+        assert_eq!(v["conductor"], 1);
+        assert_invariants_rebuild_b(&v);
+        // the trivial bundle lies in every Lagrangian subset: B[0][0] = |orbit|
+        assert_eq!(v["poincare_sum"]["matrix"][0][0], size.to_string());
+        assert_eq!(image_order("dw:Z2", genus), order);
+    }
+    // Sp(2, F₂) ≅ S₃ on F₂² has 5 orbitals (standard)
+    let (code, v) = cyclorb_json(&["commutant", "dw:Z2", "--genus", "1"]);
+    assert_eq!(code, 0);
+    assert_eq!(v["commutant_dimension"], 5);
+    assert!(v["primes"].is_array());
+}
+
+#[test]
+fn z3_orbits_and_images() {
+    // Π (3^k + 1) = 4, 40, 1120 (standard); |Sp(2,3)| = 24, |Sp(4,3)| = 51 840 (ATLAS)
+    assert_eq!(orbit("dw:Z3", 1)["orbit_size"], 4);
+    assert_eq!(orbit("dw:Z3", 2)["orbit_size"], 40);
+    assert_eq!(orbit("dw:Z3", 3)["orbit_size"], 1120);
+    assert_eq!(image_order("dw:Z3", 1), "24");
+    assert_eq!(image_order("dw:Z3", 2), "51840");
+}
+
+#[test]
+fn odd_cyclic_doubles_agree_with_the_hyperbolic_pointed_theory() {
+    // D(Z_N) for odd N is Z_N × Z_N with the hyperbolic form, the pointed theory
+    // zn:N:2 ⊠ conj(zn:N:2) (standard); two independent constructions must agree
+    for (n, genus) in [(3, 1), (3, 2), (5, 1)] {
+        let dw = format!("dw:Z{n}");
+        let pointed = format!("zn:{n}:2*conj(zn:{n}:2)");
+        let a = orbit(&dw, genus);
+        let b = orbit(&pointed, genus);
+        assert_eq!(a["dimension"], b["dimension"], "N = {n}, genus {genus}");
+        assert_eq!(a["orbit_size"], b["orbit_size"], "N = {n}, genus {genus}");
+        assert_eq!(image_order(&dw, genus), image_order(&pointed, genus));
+    }
+}
+
+#[test]
+fn non_abelian_groups_at_genus_two() {
+    // |X_2| = Verlinde dimensions 116 (S3) and 736 (Q8, D4) (standard, from the anyon
+    // content of D(G)); the orbit sizes are this program's own results, checked against the
+    // subset orbit of the cyclorb-dw crate (an independent enumeration without fields)
+    let s3 = orbit("dw:S3", 2);
+    assert_eq!(s3["dimension"], 116);
+    assert_eq!(s3["orbit_size"], 38400);
+    assert_eq!(s3["poincare_sum"]["commutant_dimension"], 27);
+    assert_invariants_rebuild_b(&s3);
+    for group in ["Q8", "D4"] {
+        let v = orbit(&format!("dw:{group}"), 2);
+        assert_eq!(v["dimension"], 736);
+        assert_eq!(v["orbit_size"], 120);
+        // B is not printed entry by entry above dimension 128, but its terms are listed
+        assert!(!v["poincare_sum"]["invariants"]
+            .as_array()
+            .unwrap()
+            .is_empty());
+    }
+    let order: num_bigint::BigUint = image_order("dw:S3", 2).parse().unwrap();
+    let orbit_size = num_bigint::BigUint::from(38400u32);
+    assert_eq!(
+        order % orbit_size,
+        0u32.into(),
+        "the orbit size divides the group order"
+    );
+}
+
+#[test]
+fn relations_through_the_command_line() {
+    for (spec, genus) in [("dw:Z3", 1), ("dw:S3", 2), ("dw:Q8", 1), ("dw:Z2xZ2", 2)] {
+        let (code, v) = cyclorb_json(&[
+            "twists",
+            spec,
+            "--genus",
+            &genus.to_string(),
+            "--check",
+            "--set",
+            "lickorish",
+        ]);
+        assert_eq!(code, 0, "{spec}: {v}");
+        assert_eq!(v["relations_ok"], true, "{spec}");
+        assert_eq!(v["generators"].as_array().unwrap().len(), 3 * genus - 1);
+    }
+}
+
+#[test]
+fn group_files_and_refusals() {
+    let path = temp_path("s3-group.json");
+    std::fs::write(
+        &path,
+        r#"{"name": "S3 by transpositions", "generators": [[1, 0, 2], [0, 2, 1]]}"#,
+    )
+    .unwrap();
+    let spec = format!("dw:{}", path.display());
+    assert_eq!(
+        orbit(&spec, 1)["orbit_size"],
+        orbit("dw:S3", 1)["orbit_size"]
+    );
+    std::fs::write(&path, r#"{"name": "loop", "table": [[0, 1], [1, 1]]}"#).unwrap();
+    let out = cyclorb(&["orbit", &spec, "--genus", "1"]);
+    assert_eq!(out.status.code(), Some(1));
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(
+        err.contains(&path.display().to_string()) && err.contains("row 1"),
+        "{err}"
+    );
+    std::fs::remove_file(&path).ok();
+    // sizes are refused before anything is built, with the exact dimension
+    let out = cyclorb(&["orbit", "dw:S5", "--genus", "3"]);
+    assert_eq!(out.status.code(), Some(1));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("more than the bound"));
+    for bad in ["dw:G7", "dw:D2", "dw:Z2:1"] {
+        let out = cyclorb(&["image", bad, "--genus", "1"]);
+        assert_eq!(out.status.code(), Some(1), "{bad}");
+        assert!(String::from_utf8_lossy(&out.stderr).contains(bad), "{bad}");
+    }
+    // the image is a finite permutation group: no witness
+    let (code, v) = cyclorb_json(&["witness", "dw:S3", "--genus", "2"]);
+    assert_eq!(code, 0);
+    assert_eq!(v["found"], false);
+}
+
+#[test]
+fn sweeps_read_dw_specs() {
+    let dir = temp_path("dw-sweep");
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap();
+    let plan = dir.join("plan.toml");
+    std::fs::write(
+        &plan,
+        "name = \"dw-small\"\nthreads = 1\nanswers = [\"orbit\", \"image\", \"commutant\", \"witness\"]\n\n[[theory]]\nspec = \"dw:Z2\"\ngenera = [1, 2]\n\n[[theory]]\nspec = \"dw:S3\"\ngenera = [1]\n",
+    )
+    .unwrap();
+    let out = dir.join("out");
+    let (code, v) = cyclorb_json(&[
+        "sweep",
+        plan.to_str().unwrap(),
+        "--out",
+        out.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 0, "{v}");
+    let runs = v["runs"].as_array().unwrap();
+    assert_eq!(runs.len(), 3);
+    let find = |theory: &str, genus: u64| {
+        runs.iter()
+            .find(|r| r["theory"] == theory && r["genus"] == genus)
+            .unwrap()
+    };
+    // toric code at genus 2: 15 Lagrangians, |Sp(4, F₂)| = 720 (ATLAS), 6 orbitals (the same
+    // as `cyclorb commutant`), no witness
+    let z2 = find("dw:Z2", 2);
+    assert_eq!(z2["orbit_size"], 15);
+    assert_eq!(z2["image"]["order"], "720");
+    assert_eq!(z2["commutant"]["commutant_dimension"], 6);
+    assert_eq!(z2["witness"]["found"], false);
+    assert_eq!(z2["poincare_sum"]["is_scalar"], false);
+    assert_eq!(
+        find("dw:S3", 1)["orbit_size"],
+        orbit("dw:S3", 1)["orbit_size"]
+    );
+    std::fs::remove_dir_all(&dir).ok();
+}
