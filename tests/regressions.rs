@@ -66,6 +66,8 @@ fn fibonacci_with_zero_dimension_is_refused_naming_the_check() {
     let dir = folder("fib-d0");
     let (_, mut fib) = theory_file("fibonacci", &dir, "fib.json");
     fib["dimensions"]["tau"] = Value::from("0");
+    // without the informational D, which would no longer match Σ d² and be refused on reading
+    fib.as_object_mut().unwrap().remove("total_dimension");
     let bad = write_json(&dir.join("fib-d0.json"), &fib);
     // was: "1 lines, saturated", exit 0
     refused(
@@ -156,6 +158,8 @@ fn a_forged_cache_entry_does_not_prove_a_failing_file() {
     let dir = folder("forged-cache");
     let (_, mut fib) = theory_file("fibonacci", &dir, "fib.json");
     fib["dimensions"]["tau"] = Value::from("0");
+    // without the informational D, which would no longer match Σ d² and be refused on reading
+    fib.as_object_mut().unwrap().remove("total_dimension");
     let bad = write_json(&dir.join("fib-d0.json"), &fib);
     // the failing file's own data hash, as `describe` computes it
     let (_, described) = cyclorb_json(&["describe", "--unverified", &bad]);
