@@ -71,11 +71,14 @@ fn describe_json_has_the_contract_keys() {
     assert_eq!(json["labels"], serde_json::json!(["1", "sigma", "psi"]));
     assert_eq!(json["conductor"], 16);
     assert_eq!(json["central_charge_mod_8"], "1/2");
-    // M(5,4): c = 7/10 (Di Francesco–Mathieu–Sénéchal ch. 7), modular data only
-    let json = json_of(&cyclorb(&["describe", "minimal:5:4", "--json"]));
-    assert_eq!(json["central_charge_mod_8"], "7/10");
-    assert_eq!(json["modular_data_only"], true);
-    assert_eq!(json["labels"].as_array().unwrap().len(), 6);
+    // M(5,4): c = 7/10 (Di Francesco–Mathieu–Sénéchal ch. 7): with F and R as `minimal`,
+    // modular data only as `kac`.
+    for (spec, data_only) in [("minimal:5:4", false), ("kac:5:4", true)] {
+        let json = json_of(&cyclorb(&["describe", spec, "--json"]));
+        assert_eq!(json["central_charge_mod_8"], "7/10", "{spec}");
+        assert_eq!(json["modular_data_only"], data_only, "{spec}");
+        assert_eq!(json["labels"].as_array().unwrap().len(), 6, "{spec}");
+    }
     // the text form names the pieces
     let text = String::from_utf8_lossy(&cyclorb(&["describe", "fibonacci"]).stdout).to_string();
     for piece in [
