@@ -9,8 +9,8 @@ use std::path::Path;
 
 use cyclorb_cert::StabiliserChain;
 use cyclorb_dw::{
-    builtin_group, centraliser_degrees, check_relations, conjugacy_classes, subset_orbit,
-    verlinde_dimension, DwError, FiniteGroup, FlatBundles, Orbitals, SizeBound,
+    builtin_group, centraliser_degrees, check_relations, conjugacy_classes, modular_data,
+    subset_orbit, verlinde_dimension, DwError, FiniteGroup, FlatBundles, Orbitals, SizeBound,
 };
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::Operator;
@@ -493,8 +493,8 @@ pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
 
 /// `cyclorb describe dw:…`: the group's classes and centralisers, the simple objects
 /// ([x], ρ) of D(G) with their quantum dimensions |[x]|·d_ρ (ρ listed by degree only), the
-/// total dimension D = |G| and dim V_g for g = 1, 2, 3. S and T need the characters of the
-/// centralisers, which are not computed here.
+/// total dimension D = |G|, dim V_g for g = 1, 2, 3, and S and T of D(G) from the
+/// centralisers' characters (cyclorb-dw's `modular_data`), in Q(ζ_e), e the exponent of G.
 pub fn describe(spec: &str, as_json: bool) -> Outcome {
     let group = match group_of(spec) {
         Ok(g) => g,
@@ -549,9 +549,48 @@ pub fn describe(spec: &str, as_json: bool) -> Outcome {
         }
     }
     text.push_str(&format!(
-        "dim V_g = |X_g| for g = 1, 2, 3: {}\nS and T are not computed for dw: theories (they need the centralisers' characters); the twists act by permutations of X_g (`cyclorb twists {spec} --genus G`)\n",
+        "dim V_g = |X_g| for g = 1, 2, 3: {}; the twists act by permutations of X_g (`cyclorb twists {spec} --genus G`)\n",
         verlinde.join(", ")
     ));
+    let md = match modular_data(&group) {
+        Ok(m) => m,
+        Err(e) => return Outcome::Invalid(format!("{spec}: {e}")),
+    };
+    // the characters are ordered by degree, as the labels are
+    let by_label: Vec<Option<u64>> = md
+        .anyons
+        .iter()
+        .map(|a| {
+            let d = degrees.get(a.class)?.1.get(a.character)?;
+            Some(classes.get(a.class)?.elements.len() as u64 * d)
+        })
+        .collect();
+    if by_label != dimensions.iter().map(|&d| Some(d)).collect::<Vec<_>>() {
+        return Outcome::Invalid(format!(
+            "{spec}: the character tables disagree with the counted degrees"
+        ));
+    }
+    let s_rows: Vec<Vec<String>> =
+        md.s.iter()
+            .map(|row| row.iter().map(|x| x.to_string()).collect())
+            .collect();
+    let t_diag: Vec<String> = md.t.iter().map(|x| x.to_string()).collect();
+    text.push_str(&format!(
+        "modular data in Q(ζ_{}) from the centralisers' characters (Coste–Gannon–Ruelle 2000):\n",
+        md.field.conductor()
+    ));
+    text.push_str(&format!("T = diag({})\n", t_diag.join(", ")));
+    if labels.len() <= MATRIX_PRINT_LIMIT / 4 {
+        text.push_str("S (normalised, rows and columns in label order):\n");
+        for row in &s_rows {
+            text.push_str(&format!("  [{}]\n", row.join(", ")));
+        }
+    } else {
+        text.push_str(&format!(
+            "S has {0}×{0} entries: --json prints them\n",
+            labels.len()
+        ));
+    }
     let value = json!({
         "theory": spec,
         "group": group.name(),
@@ -561,9 +600,11 @@ pub fn describe(spec: &str, as_json: bool) -> Outcome {
         "conductor": 1,
         "central_charge_mod_8": "0",
         "modular_data_only": false,
-        "modular_data": null,
         "classes": class_rows,
         "dimensions_by_genus": verlinde,
+        "modular_data_conductor": md.field.conductor(),
+        "S": s_rows,
+        "T": t_diag,
     });
     Outcome::Done(Report::new(value, text, as_json))
 }
