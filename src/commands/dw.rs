@@ -10,13 +10,14 @@ use std::path::Path;
 use cyclorb_cert::StabiliserChain;
 use cyclorb_dw::{
     builtin_group, centraliser_degrees, check_relations, conjugacy_classes, modular_data,
-    subset_orbit, verlinde_dimension, DwError, FiniteGroup, FlatBundles, Orbitals, SizeBound,
+    subset_orbit, verlinde_dimension, ConjugacyClass, DwError, FiniteGroup, FlatBundles, Orbitals,
+    SizeBound,
 };
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::Operator;
 use cyclorb_mcg::{Curve, GeneratingSet};
 use cyclorb_orbit::{GeneratorSet, InvariantReport, OrbitProblem, PoincareReport, Seed};
-use serde_json::json;
+use serde_json::{json, Value};
 
 use super::common::parse_set;
 use super::output::{Outcome, Report};
@@ -552,45 +553,37 @@ pub fn describe(spec: &str, as_json: bool) -> Outcome {
         "dim V_g = |X_g| for g = 1, 2, 3: {}; the twists act by permutations of X_g (`cyclorb twists {spec} --genus G`)\n",
         verlinde.join(", ")
     ));
-    let md = match modular_data(&group) {
-        Ok(m) => m,
+    let (s_rows, t_diag, md_conductor) = match modular_json(
+        spec,
+        &group,
+        &classes,
+        &degrees,
+        &dimensions,
+    ) {
+        Ok((s_rows, t_diag, conductor)) => {
+            text.push_str(&format!(
+                "modular data in Q(ζ_{conductor}) from the centralisers' characters (Coste–Gannon–Ruelle 2000):\n"
+            ));
+            text.push_str(&format!("T = diag({})\n", t_diag.join(", ")));
+            if labels.len() <= MATRIX_PRINT_LIMIT / 4 {
+                text.push_str("S (normalised, rows and columns in label order):\n");
+                for row in &s_rows {
+                    text.push_str(&format!("  [{}]\n", row.join(", ")));
+                }
+            } else {
+                text.push_str(&format!(
+                    "S has {0}×{0} entries: --json prints them\n",
+                    labels.len()
+                ));
+            }
+            (json!(s_rows), json!(t_diag), json!(conductor))
+        }
+        Err(DwError::TooLarge(reason)) => {
+            text.push_str(&format!("S and T are not computed: {reason}\n"));
+            (Value::Null, Value::Null, Value::Null)
+        }
         Err(e) => return Outcome::Invalid(format!("{spec}: {e}")),
     };
-    // the characters are ordered by degree, as the labels are
-    let by_label: Vec<Option<u64>> = md
-        .anyons
-        .iter()
-        .map(|a| {
-            let d = degrees.get(a.class)?.1.get(a.character)?;
-            Some(classes.get(a.class)?.elements.len() as u64 * d)
-        })
-        .collect();
-    if by_label != dimensions.iter().map(|&d| Some(d)).collect::<Vec<_>>() {
-        return Outcome::Invalid(format!(
-            "{spec}: the character tables disagree with the counted degrees"
-        ));
-    }
-    let s_rows: Vec<Vec<String>> =
-        md.s.iter()
-            .map(|row| row.iter().map(|x| x.to_string()).collect())
-            .collect();
-    let t_diag: Vec<String> = md.t.iter().map(|x| x.to_string()).collect();
-    text.push_str(&format!(
-        "modular data in Q(ζ_{}) from the centralisers' characters (Coste–Gannon–Ruelle 2000):\n",
-        md.field.conductor()
-    ));
-    text.push_str(&format!("T = diag({})\n", t_diag.join(", ")));
-    if labels.len() <= MATRIX_PRINT_LIMIT / 4 {
-        text.push_str("S (normalised, rows and columns in label order):\n");
-        for row in &s_rows {
-            text.push_str(&format!("  [{}]\n", row.join(", ")));
-        }
-    } else {
-        text.push_str(&format!(
-            "S has {0}×{0} entries: --json prints them\n",
-            labels.len()
-        ));
-    }
     let value = json!({
         "theory": spec,
         "group": group.name(),
@@ -602,9 +595,41 @@ pub fn describe(spec: &str, as_json: bool) -> Outcome {
         "modular_data_only": false,
         "classes": class_rows,
         "dimensions_by_genus": verlinde,
-        "modular_data_conductor": md.field.conductor(),
+        "modular_data_conductor": md_conductor,
         "S": s_rows,
         "T": t_diag,
     });
     Outcome::Done(Report::new(value, text, as_json))
+}
+
+/// S (rows) and T of D(G) as strings, and the conductor of their field; the characters must
+/// give the quantum dimensions already listed from the counted degrees.
+fn modular_json(
+    spec: &str,
+    group: &FiniteGroup,
+    classes: &[ConjugacyClass],
+    degrees: &[(usize, Vec<u64>)],
+    dimensions: &[u64],
+) -> Result<(Vec<Vec<String>>, Vec<String>, u32), DwError> {
+    let md = modular_data(group)?;
+    // the characters are ordered by degree, as the labels are
+    let by_label: Vec<Option<u64>> = md
+        .anyons
+        .iter()
+        .map(|a| {
+            let d = degrees.get(a.class)?.1.get(a.character)?;
+            Some(classes.get(a.class)?.elements.len() as u64 * d)
+        })
+        .collect();
+    if by_label != dimensions.iter().map(|&d| Some(d)).collect::<Vec<_>>() {
+        return Err(DwError::Inconsistent(format!(
+            "{spec}: the character tables disagree with the counted degrees"
+        )));
+    }
+    let s_rows =
+        md.s.iter()
+            .map(|row| row.iter().map(|x| x.to_string()).collect())
+            .collect();
+    let t_diag = md.t.iter().map(|x| x.to_string()).collect();
+    Ok((s_rows, t_diag, md.field.conductor()))
 }

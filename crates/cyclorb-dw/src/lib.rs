@@ -61,7 +61,7 @@ mod twists;
 mod words;
 
 pub use builtins::{builtin_group, EXAMPLES};
-pub use characters::{character_table, CharacterTable};
+pub use characters::{character_table, CharacterTable, MAX_CLASSES};
 pub use classes::{centraliser_in, conjugacy_classes, ConjugacyClass};
 pub use degrees::{centraliser_degrees, character_degrees, verlinde_dimension};
 pub use error::DwError;

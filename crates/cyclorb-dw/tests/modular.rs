@@ -121,3 +121,18 @@ fn genus_one_traces_match_the_permutation_action() {
         assert_eq!(tr_sinv_t, f.int(tr_sa), "{name}: tr S^-1 T");
     }
 }
+
+#[test]
+fn large_tables_are_refused_before_anything_is_built() {
+    // Z_64 has 64 classes, beyond MAX_CLASSES (a bound of this crate, no outside value)
+    let g = builtin_group("Z64").unwrap();
+    let all: Vec<u16> = g.elements().collect();
+    assert!(matches!(
+        character_table(&g, &all),
+        Err(cyclorb_dw::DwError::TooLarge(_))
+    ));
+    assert!(matches!(
+        modular_data(&g),
+        Err(cyclorb_dw::DwError::TooLarge(_))
+    ));
+}
