@@ -560,7 +560,11 @@ pub fn describe(spec: &str, as_json: bool) -> Outcome {
         &degrees,
         &dimensions,
     ) {
-        Ok((s_rows, t_diag, conductor)) => {
+        Ok(ModularStrings {
+            s: s_rows,
+            t: t_diag,
+            conductor,
+        }) => {
             text.push_str(&format!(
                 "modular data in Q(ζ_{conductor}) from the centralisers' characters (Coste–Gannon–Ruelle 2000):\n"
             ));
@@ -602,6 +606,13 @@ pub fn describe(spec: &str, as_json: bool) -> Outcome {
     Outcome::Done(Report::new(value, text, as_json))
 }
 
+/// S and T of D(G) as printed: exact values in Q(ζ_conductor).
+struct ModularStrings {
+    s: Vec<Vec<String>>,
+    t: Vec<String>,
+    conductor: u32,
+}
+
 /// S (rows) and T of D(G) as strings, and the conductor of their field; the characters must
 /// give the quantum dimensions already listed from the counted degrees.
 fn modular_json(
@@ -610,7 +621,7 @@ fn modular_json(
     classes: &[ConjugacyClass],
     degrees: &[(usize, Vec<u64>)],
     dimensions: &[u64],
-) -> Result<(Vec<Vec<String>>, Vec<String>, u32), DwError> {
+) -> Result<ModularStrings, DwError> {
     let md = modular_data(group)?;
     // the characters are ordered by degree, as the labels are
     let by_label: Vec<Option<u64>> = md
@@ -631,5 +642,9 @@ fn modular_json(
             .map(|row| row.iter().map(|x| x.to_string()).collect())
             .collect();
     let t_diag = md.t.iter().map(|x| x.to_string()).collect();
-    Ok((s_rows, t_diag, md.field.conductor()))
+    Ok(ModularStrings {
+        s: s_rows,
+        t: t_diag,
+        conductor: md.field.conductor(),
+    })
 }
