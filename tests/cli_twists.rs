@@ -85,3 +85,23 @@ fn generator_counts_of_the_two_sets() {
         assert_eq!(l["generators"].as_array().unwrap().len(), 3 * g - 1);
     }
 }
+
+#[test]
+fn non_self_dual_labels_at_genus_one() {
+    // Regression: S² = (AB)³ = −I acts as charge conjugation, not a scalar, when a label is not
+    // self-dual; the checks are (SA)³ ∝ 1 and S² ∝ (AB)³ (standard SL(2, Z) relations for
+    // positive twists; Farb–Margalit, A Primer on Mapping Class Groups, §2.2). Dimensions: the
+    // rank, 3 and 5 (standard).
+    for (spec, dim) in [("zn:3:2", 3), ("zn:5:2", 5)] {
+        let v = check(spec, 1);
+        assert_eq!(v["dimension"], dim);
+        let names: Vec<&str> = v["relations"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .filter_map(|c| c["name"].as_str())
+            .collect();
+        assert!(names.contains(&"genus 1: (SA)^3 ∝ 1"), "{names:?}");
+        assert!(names.contains(&"genus 1: S^2 ∝ (AB)^3"), "{names:?}");
+    }
+}

@@ -9,14 +9,15 @@ use std::path::Path;
 
 use cyclorb_cert::StabiliserChain;
 use cyclorb_dw::{
-    builtin_group, centraliser_degrees, check_relations, conjugacy_classes, subset_orbit,
-    verlinde_dimension, DwError, FiniteGroup, FlatBundles, Orbitals, SizeBound,
+    builtin_group, centraliser_degrees, check_relations, conjugacy_classes, modular_data,
+    subset_orbit, verlinde_dimension, ConjugacyClass, DwError, FiniteGroup, FlatBundles, Orbitals,
+    SizeBound,
 };
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::Operator;
 use cyclorb_mcg::{Curve, GeneratingSet};
 use cyclorb_orbit::{GeneratorSet, InvariantReport, OrbitProblem, PoincareReport, Seed};
-use serde_json::json;
+use serde_json::{json, Value};
 
 use super::common::parse_set;
 use super::output::{Outcome, Report};
@@ -493,8 +494,8 @@ pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
 
 /// `cyclorb describe dw:…`: the group's classes and centralisers, the simple objects
 /// ([x], ρ) of D(G) with their quantum dimensions |[x]|·d_ρ (ρ listed by degree only), the
-/// total dimension D = |G| and dim V_g for g = 1, 2, 3. S and T need the characters of the
-/// centralisers, which are not computed here.
+/// total dimension D = |G|, dim V_g for g = 1, 2, 3, and S and T of D(G) from the
+/// centralisers' characters (cyclorb-dw's `modular_data`), in Q(ζ_e), e the exponent of G.
 pub fn describe(spec: &str, as_json: bool) -> Outcome {
     let group = match group_of(spec) {
         Ok(g) => g,
@@ -549,9 +550,44 @@ pub fn describe(spec: &str, as_json: bool) -> Outcome {
         }
     }
     text.push_str(&format!(
-        "dim V_g = |X_g| for g = 1, 2, 3: {}\nS and T are not computed for dw: theories (they need the centralisers' characters); the twists act by permutations of X_g (`cyclorb twists {spec} --genus G`)\n",
+        "dim V_g = |X_g| for g = 1, 2, 3: {}; the twists act by permutations of X_g (`cyclorb twists {spec} --genus G`)\n",
         verlinde.join(", ")
     ));
+    let (s_rows, t_diag, md_conductor) = match modular_json(
+        spec,
+        &group,
+        &classes,
+        &degrees,
+        &dimensions,
+    ) {
+        Ok(ModularStrings {
+            s: s_rows,
+            t: t_diag,
+            conductor,
+        }) => {
+            text.push_str(&format!(
+                "modular data in Q(ζ_{conductor}) from the centralisers' characters (Coste–Gannon–Ruelle 2000):\n"
+            ));
+            text.push_str(&format!("T = diag({})\n", t_diag.join(", ")));
+            if labels.len() <= MATRIX_PRINT_LIMIT / 4 {
+                text.push_str("S (normalised, rows and columns in label order):\n");
+                for row in &s_rows {
+                    text.push_str(&format!("  [{}]\n", row.join(", ")));
+                }
+            } else {
+                text.push_str(&format!(
+                    "S has {0}×{0} entries: --json prints them\n",
+                    labels.len()
+                ));
+            }
+            (json!(s_rows), json!(t_diag), json!(conductor))
+        }
+        Err(DwError::TooLarge(reason)) => {
+            text.push_str(&format!("S and T are not computed: {reason}\n"));
+            (Value::Null, Value::Null, Value::Null)
+        }
+        Err(e) => return Outcome::Invalid(format!("{spec}: {e}")),
+    };
     let value = json!({
         "theory": spec,
         "group": group.name(),
@@ -561,9 +597,54 @@ pub fn describe(spec: &str, as_json: bool) -> Outcome {
         "conductor": 1,
         "central_charge_mod_8": "0",
         "modular_data_only": false,
-        "modular_data": null,
         "classes": class_rows,
         "dimensions_by_genus": verlinde,
+        "modular_data_conductor": md_conductor,
+        "S": s_rows,
+        "T": t_diag,
     });
     Outcome::Done(Report::new(value, text, as_json))
+}
+
+/// S and T of D(G) as printed: exact values in Q(ζ_conductor).
+struct ModularStrings {
+    s: Vec<Vec<String>>,
+    t: Vec<String>,
+    conductor: u32,
+}
+
+/// S (rows) and T of D(G) as strings, and the conductor of their field; the characters must
+/// give the quantum dimensions already listed from the counted degrees.
+fn modular_json(
+    spec: &str,
+    group: &FiniteGroup,
+    classes: &[ConjugacyClass],
+    degrees: &[(usize, Vec<u64>)],
+    dimensions: &[u64],
+) -> Result<ModularStrings, DwError> {
+    let md = modular_data(group)?;
+    // the characters are ordered by degree, as the labels are
+    let by_label: Vec<Option<u64>> = md
+        .anyons
+        .iter()
+        .map(|a| {
+            let d = degrees.get(a.class)?.1.get(a.character)?;
+            Some(classes.get(a.class)?.elements.len() as u64 * d)
+        })
+        .collect();
+    if by_label != dimensions.iter().map(|&d| Some(d)).collect::<Vec<_>>() {
+        return Err(DwError::Inconsistent(format!(
+            "{spec}: the character tables disagree with the counted degrees"
+        )));
+    }
+    let s_rows =
+        md.s.iter()
+            .map(|row| row.iter().map(|x| x.to_string()).collect())
+            .collect();
+    let t_diag = md.t.iter().map(|x| x.to_string()).collect();
+    Ok(ModularStrings {
+        s: s_rows,
+        t: t_diag,
+        conductor: md.field.conductor(),
+    })
 }

@@ -10,6 +10,8 @@
 //!   table, a product, a built-in name ([`builtin_group`]) or a file ([`read_group_file`]).
 //! - [`conjugacy_classes`], [`character_degrees`], [`verlinde_dimension`]: classes,
 //!   centralisers, character degrees counted by Frobenius's formula, dim V_g of D(G).
+//! - [`character_table`], [`modular_data`]: the characters of a subgroup (Dixon's method
+//!   modulo a prime, lifted exactly) and S, T of D(G) from the centralisers' characters.
 //! - [`Word`], [`Automorphism`], [`twist`]: the twists as automorphisms of the free group.
 //! - [`FlatBundles`]: X_g enumerated by canonical representatives, the vacuum subset, every
 //!   twist as a permutation; [`check_relations`] proves the mapping class group relations on
@@ -44,11 +46,13 @@
 #![deny(missing_docs)]
 
 mod builtins;
+mod characters;
 mod classes;
 mod degrees;
 mod error;
 mod file;
 mod group;
+mod modular;
 mod orbitals;
 mod relations;
 mod space;
@@ -57,11 +61,13 @@ mod twists;
 mod words;
 
 pub use builtins::{builtin_group, EXAMPLES};
+pub use characters::{character_table, CharacterTable, MAX_CLASSES};
 pub use classes::{centraliser_in, conjugacy_classes, ConjugacyClass};
 pub use degrees::{centraliser_degrees, character_degrees, verlinde_dimension};
 pub use error::DwError;
 pub use file::{parse_group_file, read_group_file, GROUP_FILE_FORMAT};
 pub use group::{cycle_notation, Element, FiniteGroup, MAX_ORDER, MAX_TABLE_ORDER};
+pub use modular::{modular_data, Anyon, ModularData};
 pub use orbitals::Orbitals;
 pub use relations::{check_relations, word_permutation, RelationCheck};
 pub use space::{FlatBundles, SizeBound};
