@@ -351,20 +351,7 @@ pub fn verify_by(
     route: Route,
     progress: &mut dyn FnMut(CheckId),
 ) -> Verification {
-    if route == Route::Structural && !building_blocks(theory).is_empty() {
-        let checks = ids
-            .iter()
-            .filter(|id| theory.has_fr() || !id.needs_fr())
-            .map(|&id| {
-                progress(id);
-                run_structural(theory, id)
-            })
-            .collect();
-        return Verification {
-            theory: theory.name().to_string(),
-            checks,
-        };
-    }
+    let structural = route == Route::Structural && !building_blocks(theory).is_empty();
     let heavy = [
         CheckId::FInvertible,
         CheckId::Pentagon,
@@ -372,7 +359,7 @@ pub fn verify_by(
         CheckId::HexagonInverse,
         CheckId::InvariantForm,
     ];
-    if theory.has_fr() && ids.iter().any(|id| heavy.contains(id)) {
+    if !structural && theory.has_fr() && ids.iter().any(|id| heavy.contains(id)) {
         theory.compute_all_f();
     }
     let checks = ids
@@ -380,7 +367,11 @@ pub fn verify_by(
         .filter(|id| theory.has_fr() || !id.needs_fr())
         .map(|&id| {
             progress(id);
-            run(theory, id)
+            if structural {
+                run_structural(theory, id)
+            } else {
+                run(theory, id)
+            }
         })
         .collect();
     Verification {
