@@ -6,7 +6,7 @@ Elements of Q(zeta_n) are `fmpq_poly` values reduced modulo Phi_n (python-flint 
 number-field type); a line is keyed by dividing by its first non-zero coordinate (inverse by
 the extended gcd with Phi_n) and hashing the tuple of coefficient strings. Breadth-first
 saturation under the generators, then B = sum over the orbit of (N/<w,w>_G) w w^dagger, as in
-cyclorb (math.md section 5). Prints the orbit size, the trace of B*G and the seconds taken.
+cyclorb (docs/orbits.md). Prints the orbit size, the trace of B*G and the seconds taken.
 
 Usage: orbit_flint.py GENERATORS.json SEED.json
   (GENERATORS.json as written by `cyclorb twists SPEC --genus G --out FILE`)

@@ -53,7 +53,7 @@ fn ising_genus_four_counts() {
         .unwrap()
         .parse()
         .unwrap();
-    // λ_g = |orbit|·⟨v₀,v₀⟩/dim with ⟨v₀,v₀⟩ = 1 (Schur's lemma, math.md §5)
+    // λ_g = |orbit|·⟨v₀,v₀⟩/dim with ⟨v₀,v₀⟩ = 1 (Schur's lemma, docs/orbits.md §3)
     assert_eq!(lambda * 136, size);
     let (_, image) = cyclorb_json(&["image", "ising", "--genus", "4"]);
     assert_eq!(image["route"], "structure");

@@ -162,14 +162,14 @@ fn companion_matrix_has_the_given_characteristic_polynomial() {
     }
 }
 
-/// The Ising modular data in Q(ζ16) (math.md §3; Di Francesco–Mathieu–Sénéchal, ch. 17 for
-/// SU(2)_2 ≅ Ising up to twist, and the Gauss–Milgram sum of math.md §7: Fröhlich–Kerler,
+/// The Ising modular data in Q(ζ16) (docs/conventions.md §2–3; Di Francesco–Mathieu–Sénéchal, ch. 17 for
+/// SU(2)_2 ≅ Ising up to twist, and the Gauss–Milgram sum of docs/check-values.md: Fröhlich–Kerler,
 /// Bakalov–Kirillov ch. 3).
 #[test]
 fn ising_modular_data() {
     let f = CyclotomicField::new(16).unwrap();
     let z = |k| f.zeta_pow(k);
-    // √2 = ζ16² + ζ16⁻² (math.md §3)
+    // √2 = ζ16² + ζ16⁻² (docs/conventions.md §2–3)
     let sqrt2 = f.add(&z(2), &z(-2)).unwrap();
     assert_eq!(f.mul(&sqrt2, &sqrt2).unwrap(), f.int(2));
     let half = f.rational(1, 2).unwrap();

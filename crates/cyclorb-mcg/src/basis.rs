@@ -1,4 +1,4 @@
-//! The comb basis of the genus-g block space (math.md §4.1).
+//! The comb basis of the genus-g block space (docs/genus-g.md §1).
 //!
 //! Σ_g is a sphere with punctures p₀ … p_{2g−1}, p_{2h} glued to p_{2h+1} (handle h). A basis
 //! vector is a splitting tree with leaves (a₀, a₀*, a₁, a₁*, …) and total charge 0, of comb

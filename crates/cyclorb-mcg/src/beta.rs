@@ -1,4 +1,4 @@
-//! T_{β_h}: the twist about the longitude of handle h (math.md §4.4).
+//! T_{β_h}: the twist about the longitude of handle h (docs/genus-g.md §4).
 //!
 //! With stick label b = b_h, in the trace basis φ^a of the one-holed torus the Wilson loop of
 //! charge x along β is W_x[c, a] = [(F^{b a x}_c)⁻¹]_{c a}; with

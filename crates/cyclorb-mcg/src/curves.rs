@@ -1,4 +1,4 @@
-//! The curves of the Humphries and Lickorish generating sets (math.md §4.2) and how they meet.
+//! The curves of the Humphries and Lickorish generating sets (docs/genus-g.md §2) and how they meet.
 
 use std::fmt;
 

@@ -1,4 +1,4 @@
-//! The invariant Hermitian form of the comb basis (math.md §4.5).
+//! The invariant Hermitian form of the comb basis (docs/conventions.md §4).
 //!
 //! In a unitary gauge the comb basis is orthonormal. In a gauge u relative to a unitary one
 //! it is orthogonal with G_tree = Π_vertices |u^{ab}_c|² · Π_handles |u^{a_h a_h*}_0|⁻²;

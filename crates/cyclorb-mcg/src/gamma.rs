@@ -1,4 +1,4 @@
-//! T_{γ_h}: the twist about the curve around p_{2h+1}, p_{2h+2} (math.md §4.3).
+//! T_{γ_h}: the twist about the curve around p_{2h+1}, p_{2h+2} (docs/genus-g.md §3).
 //!
 //! Three F-moves make leaves 2h+1 and 2h+2 (a_h* and a_{h+1}) siblings; then
 //! T = U⁻¹ diag(θ_c) U, where c is the charge of the new node (a_h* a_{h+1})_c and

@@ -1,7 +1,7 @@
 //! # cyclorb-mcg: genus-g conformal blocks and Dehn-twist generators
 //!
 //! For a theory ([`cyclorb_theory::Theory`]) and a genus g ≥ 1, [`BlockSpace`] builds the
-//! space V_g of conformal blocks in the comb basis of a handlebody spine (math.md §4.1), its
+//! space V_g of conformal blocks in the comb basis of a handlebody spine (docs/genus-g.md §1), its
 //! invariant Hermitian form G (§4.5), and the Dehn twists about the curves α_h, β_h, γ_h
 //! (§4.2–4.4) as exact sparse matrices over Q(ζ_n). Every twist is T_C = Σ_c θ_c P_c(C),
 //! P_c the projector onto charge c through C in a tree basis where C is an edge, so all

@@ -14,7 +14,7 @@ use crate::form::invariant_form;
 use crate::gamma::gamma_twist;
 
 /// V_g for one theory: the comb basis, the diagonal invariant Hermitian form G, and the
-/// Dehn twists about the curves of math.md §4.2.
+/// Dehn twists about the curves of docs/genus-g.md §2.
 #[derive(Clone, Debug)]
 pub struct BlockSpace {
     theory: Theory,

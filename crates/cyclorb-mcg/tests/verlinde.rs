@@ -35,7 +35,7 @@ fn comb_dimension(spec: &str, genus: usize) -> i64 {
 
 #[test]
 fn published_dimensions() {
-    // Ising 3, 10, 36, 136; Fibonacci 2, 5, 15, 50; SU(2)_4 at genus 2: 35 (math.md check
+    // Ising 3, 10, 36, 136; Fibonacci 2, 5, 15, 50; SU(2)_4 at genus 2: 35 (docs/check-values.md check
     // values; Verlinde 1988).
     for (spec, dims) in [
         ("ising", vec![3, 10, 36, 136]),

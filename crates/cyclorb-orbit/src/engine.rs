@@ -9,7 +9,7 @@
 //! between chunks and resumed finds exactly what an uninterrupted run finds.
 //!
 //! The orbit is saturated when every stored element has been processed: then every generator
-//! maps every stored line to a stored line. Forward images suffice (math.md §5): a finite
+//! maps every stored line to a stored line. Forward images suffice (docs/orbits.md §2): a finite
 //! set closed under an invertible map is permuted by it, hence closed under its inverse.
 
 use std::ops::Range;

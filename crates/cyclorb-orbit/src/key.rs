@@ -1,7 +1,7 @@
 //! The canonical key of a line and its integer form.
 //!
 //! The line through v ≠ 0 is represented by w = v / v_k, k the first non-zero coordinate
-//! (math.md §5): w_k = 1 and w does not depend on which non-zero multiple of v is given.
+//! (docs/orbits.md §1): w_k = 1 and w does not depend on which non-zero multiple of v is given.
 //! Its integer form packs all coordinates over one shared denominator: S = D·w with D > 0
 //! the least positive integer making every numerator integral, so the gcd of D and all
 //! numerators is 1 and S_k = (D, 0, …, 0) (the denominator is stored for free as the

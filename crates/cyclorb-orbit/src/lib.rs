@@ -51,7 +51,7 @@
 //!
 //! ## Keys and equality
 //! A line is keyed by w = v / v_k, k its first non-zero coordinate, stored as integer
-//! numerators over one shared denominator (math.md §5). A 31-bit fingerprint, the reduction
+//! numerators over one shared denominator (docs/orbits.md §1). A 31-bit fingerprint, the reduction
 //! of the line modulo a prime p ≡ 1 (mod n), picks the hash bucket; equality is always
 //! decided exactly, by cross-multiplication D·U_i = U_k·S_i of an image U against a stored key
 //! S (see the `image` and `fingerprint` modules). No floating-point number takes part in any

@@ -1,7 +1,7 @@
 //! The candidate abelian normal subgroup N: the normal closure of the k-th powers of the
 //! Dehn twists, for a proper divisor k of their order.
 //!
-//! Every twist is T_C = Σ_c θ_c P_c(C) (math.md §4.2), so T_C^k has its eigenvalues among
+//! Every twist is T_C = Σ_c θ_c P_c(C) (docs/genus-g.md §2), so T_C^k has its eigenvalues among
 //! the θ_c^k and is diagonalisable. A power k is a candidate when some T_C^k is not
 //! scalar, every T_C^k is annihilated by Π_ν (x − ν) over the distinct ν = θ_c^k (checked
 //! on every basis vector, so the spectral projectors below are exact), and the powers

@@ -7,7 +7,7 @@
 //! and the vertex weights of the gauge's invariant Hermitian form. A theory may also be
 //! modular data alone (S and T, no F or R), usable where only genus 1 is asked.
 //!
-//! Conventions are those of math.md §3: F-moves on splitting trees
+//! Conventions are those of docs/conventions.md §2–3: F-moves on splitting trees
 //! |(a b)_e c; d⟩ = Σ_f [F^{abc}_d]_{ef} |a (b c)_f; d⟩, R^{ab}_c the counterclockwise
 //! exchange, θ_a = Σ_c (d_c/d_a) R^{aa}_c, S̃_ab = Σ_c N_{a*b}^c θ_c d_c/(θ_a θ_b).
 //!

@@ -269,7 +269,7 @@ impl Theory {
 
 /// The theory in another gauge: the splitting vertex (a, b → c) is rescaled by u(a, b, c)
 /// (taken as 1 when a or b is the vacuum, so the unit normalisation survives). Following
-/// math.md §3, [F^{abc}_d]_{ef} gains u^{ab}_e u^{ec}_d/(u^{bc}_f u^{af}_d), R^{ab}_c gains
+/// docs/conventions.md §2–3, [F^{abc}_d]_{ef} gains u^{ab}_e u^{ec}_d/(u^{bc}_f u^{af}_d), R^{ab}_c gains
 /// u^{ab}_c/u^{ba}_c and the vertex weight w(a,b,c) gains |u^{ab}_c|². Every block is computed
 /// (the result stores them). Fails for modular data alone or a vanishing factor.
 pub fn regauged(

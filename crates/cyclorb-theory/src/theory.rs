@@ -12,12 +12,12 @@ use crate::fmatrix::FMatrix;
 use crate::fusion::FusionRules;
 use crate::structure::{key3, key4, Braiding, FBlock};
 
-/// A modular tensor category over Q(ζ_n), in the conventions of math.md §3:
+/// A modular tensor category over Q(ζ_n), in the conventions of docs/conventions.md §2–3:
 /// labels 0..rank (0 the vacuum) with names, duals, fusion rules, F- and R-symbols in a
 /// stated gauge (absent for modular-data-only theories), twists θ_a, quantum dimensions d_a,
 /// the unnormalised S̃ and normalised S = S̃/D (D > 0 when F and R are present), the central
 /// charge mod 8 from Σ_a d_a² θ_a = D·exp(2πi c/8), and the vertex weights of the gauge's
-/// invariant Hermitian form (math.md §4.5). Every number lies in [`Theory::field`].
+/// invariant Hermitian form (docs/conventions.md §4). Every number lies in [`Theory::field`].
 #[derive(Clone)]
 pub struct Theory {
     pub(crate) name: String,
@@ -137,7 +137,7 @@ impl Theory {
         self.block(a, b, c, d).and_then(|blk| blk.inverse.as_ref())
     }
 
-    /// [F^{abc}_d]_{ef} (math.md §3 convention); 0 when inadmissible.
+    /// [F^{abc}_d]_{ef} (docs/conventions.md §2–3 convention); 0 when inadmissible.
     pub fn f_symbol(&self, a: usize, b: usize, c: usize, d: usize, e: usize, f: usize) -> Cyc {
         self.f_block(a, b, c, d)
             .and_then(|m| m.get(e, f).cloned())
@@ -220,7 +220,7 @@ impl Theory {
     /// |u^{ab}_c|² for the gauge in use relative to a unitary one (1 in a unitary gauge),
     /// defined up to the equivalence described in the crate documentation; meaningful for
     /// admissible (a, b, c). The invariant form of a closed tree is
-    /// G_tree = Π_vertices vertex_weight · Π_handles handle_weight⁻¹ (math.md §4.5).
+    /// G_tree = Π_vertices vertex_weight · Π_handles handle_weight⁻¹ (docs/conventions.md §4).
     pub fn vertex_weight(&self, a: usize, b: usize, c: usize) -> Cyc {
         let r = self.rank();
         if a >= r || b >= r || c >= r {
@@ -232,7 +232,7 @@ impl Theory {
             .unwrap_or_else(|| self.one.clone())
     }
 
-    /// |u^{a a*}_0|² = vertex_weight(a, a*, 0): the handle factor of math.md §4.5.
+    /// |u^{a a*}_0|² = vertex_weight(a, a*, 0): the handle factor of docs/conventions.md §4.
     pub fn handle_weight(&self, a: usize) -> Cyc {
         if a >= self.rank() {
             return self.one.clone();

@@ -14,7 +14,7 @@ fn f_and_r_accessors_follow_the_admissibility_rules() {
     let f = t.f_matrix(sigma, sigma, sigma, sigma);
     assert_eq!(f.rows, vec![one, psi]);
     assert_eq!(f.cols, vec![one, psi]);
-    // math.md §3: F^{σσσ}_σ = (1/√2)[[1, 1], [1, −1]] for ν = 1
+    // docs/conventions.md §2–3: F^{σσσ}_σ = (1/√2)[[1, 1], [1, −1]] for ν = 1
     let field = t.field();
     let inv_sqrt2 = field.inv(t.quantum_dim(sigma)).unwrap();
     assert_eq!(f.entry(psi, psi), field.neg(&inv_sqrt2));
@@ -42,7 +42,7 @@ fn f_and_r_accessors_follow_the_admissibility_rules() {
 }
 
 /// G_tree of the genus-2 comb (a0, a1, b): vertices (a0,a0*→b), (a1,a1*→b), (b,b→0);
-/// handles a0, a1 (math.md §4.5).
+/// handles a0, a1 (docs/conventions.md §4).
 fn genus2_form(t: &Theory, a0: usize, a1: usize, b: usize) -> Cyc {
     let f = t.field();
     let vertices = [
@@ -67,7 +67,7 @@ impl ProductOf for cyclorb_field::CyclotomicField {
 
 #[test]
 fn fibonacci_weights_give_the_form_of_math_md() {
-    // math.md §4.5: at genus 2, G = diag(1, 1, 1, 1, φ⁻¹), φ⁻¹ on a0 = a1 = b0 = b1 = τ.
+    // docs/conventions.md §4: at genus 2, G = diag(1, 1, 1, 1, φ⁻¹), φ⁻¹ on a0 = a1 = b0 = b1 = τ.
     let t = load("fibonacci");
     let f = t.field();
     let phi = t.quantum_dim(1).clone();
@@ -81,7 +81,7 @@ fn fibonacci_weights_give_the_form_of_math_md() {
 
 #[test]
 fn su2_weights_follow_the_square_root_free_gauge() {
-    // math.md §4.5: w(a,b,c) = 1/(Δ(a,b,c)²[2c+1]) and handle weight [2a+1]; for
+    // docs/conventions.md §4: w(a,b,c) = 1/(Δ(a,b,c)²[2c+1]) and handle weight [2a+1]; for
     // (½, ½ → 1): Δ² = 1/([2][3]), so w = [2]; for (½, ½ → 0): w = [2] = handle weight of ½.
     for k in 1..=6 {
         let t = load(&format!("su2:{k}"));

@@ -192,7 +192,7 @@ fn verlinde_dimension(t: &Theory, genus: i64) -> BigInt {
 fn verlinde_dimensions() {
     // Verlinde (1988): dim V_g = Σ_a S_0a^{2−2g}. Values: Ising 3, 10, 36, 136 and Fibonacci
     // 2, 5, 15 (from memory); SU(2)_3 4, 20, 120; SU(2)_4 5, 35, 329; tricritical Ising
-    // 6, 50, 540 (math.md §4.1 table, recomputed here from the formula).
+    // 6, 50, 540 (docs/check-values.md table, recomputed here from the formula).
     let cases: [(&str, &[i64]); 5] = [
         ("ising", &[3, 10, 36, 136]),
         ("fibonacci", &[2, 5, 15]),

@@ -20,7 +20,7 @@ fn absent(spec: &str, genus: usize) -> String {
 
 #[test]
 fn fibonacci_lacks_the_structure() {
-    // at genus 1 the projective image is A₅ (from memory; math.md §7), which has no
+    // at genus 1 the projective image is A₅ (from memory; docs/check-values.md), which has no
     // subgroup of index 2, so its 2-dimensional representation is not monomial; for g ≥ 2
     // the image is infinite (Larsen–Wang 2005). The twists have prime order 5, so the
     // route has no proper power to start from

@@ -59,7 +59,7 @@ fn genus_two_matches_the_published_orbit_and_the_orbit_image_route() {
 #[test]
 fn genus_three_has_the_symplectic_counts() {
     let space = space("ising", 3);
-    // Verlinde: dim V_3 = 36 for Ising (math.md §4.1)
+    // Verlinde: dim V_3 = 36 for Ising (docs/genus-g.md §1)
     assert_eq!(space.dimension(), 36);
     let r = report(&space);
     assert_eq!(r.supports, lagrangians(3).to_string());
@@ -97,7 +97,7 @@ fn both_generating_sets_give_the_same_counts() {
 
 #[test]
 fn ising_type_su2_level_two_agrees_with_brute_force() {
-    // SU(2)_2 is the Ising-type theory ν = 3 up to gauge (math.md §3)
+    // SU(2)_2 is the Ising-type theory ν = 3 up to gauge (docs/conventions.md §2–3)
     for genus in [1, 2] {
         let space = space("su2:2", genus);
         let r = report(&space);
@@ -125,7 +125,7 @@ fn a_pointed_theory_with_the_structure_agrees_with_brute_force() {
 #[test]
 fn genus_four_has_the_symplectic_counts_and_rechecks() {
     let space = space("ising", 4);
-    // Verlinde: dim V_4 = 136 for Ising (math.md §4.1)
+    // Verlinde: dim V_4 = 136 for Ising (docs/genus-g.md §1)
     assert_eq!(space.dimension(), 136);
     let r = report(&space);
     assert_eq!(r.supports, lagrangians(4).to_string());

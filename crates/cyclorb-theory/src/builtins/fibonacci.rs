@@ -1,4 +1,4 @@
-//! Fibonacci (math.md §3), labels 1, τ, c = 14/5.
+//! Fibonacci (docs/conventions.md §2–3), labels 1, τ, c = 14/5.
 //!
 //! From the unitary F^{τττ}_τ = [[φ⁻¹, φ^{−1/2}], [φ^{−1/2}, −φ⁻¹]] the vertex rescaling
 //! u^{ττ}_τ = φ^{−1/4} gives F^{τττ}_τ = [[φ⁻¹, 1], [φ⁻¹, −φ⁻¹]] ∈ Q(√5); F^{τττ}_1 = 1 and every
@@ -10,7 +10,7 @@
 //! of every closed tree unchanged (each inner edge is the output of one vertex and an input of
 //! another; the leaves pair up in handles). With g(τ) = φ^{1/2} the weights become
 //! w(τ,τ,τ) = 1, w(τ,τ,1) = φ, all others 1, so the handle weight of τ is φ: every closed
-//! tree gets G = φ^{−n/2}, n its number of (τ,τ→τ) vertices, as in math.md §4.5.
+//! tree gets G = φ^{−n/2}, n its number of (τ,τ→τ) vertices, as in docs/conventions.md §4.
 
 use cyclorb_field::CyclotomicField;
 use hashbrown::HashMap;

@@ -1,4 +1,4 @@
-//! The eight Ising-type theories (math.md §3), ν odd, c = ν/2, labels 1, σ, ψ:
+//! The eight Ising-type theories (docs/conventions.md §2–3), ν odd, c = ν/2, labels 1, σ, ψ:
 //! κ = (−1)^{(ν²−1)/8}; F^{σσσ}_σ = (κ/√2)[[1,1],[1,−1]] (rows and columns 1, ψ),
 //! F^{ψσψ}_σ = F^{σψσ}_ψ = −1, every other admissible F-symbol 1;
 //! R^{σσ}_1 = κ e^{−iπν/8}, R^{σσ}_ψ = κ e^{3iπν/8}, R^{σψ}_σ = R^{ψσ}_σ = (−i)^ν,

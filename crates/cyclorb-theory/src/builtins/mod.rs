@@ -18,7 +18,7 @@ pub use minimal_braided::minimal;
 pub use pointed::zn;
 pub use su2::{so3, su2};
 
-/// Tricritical Ising (c = 7/10) = (Fibonacci conjugate) ⊠ Ising-type(ν = 7) (math.md §3),
+/// Tricritical Ising (c = 7/10) = (Fibonacci conjugate) ⊠ Ising-type(ν = 7) (docs/conventions.md §2–3),
 /// with labels named by their conformal weights h (θ = exp(2πi h)):
 /// (1,1) = 0, (1,σ) = 7/16, (1,ψ) = 3/2, (τ,1) = 3/5, (τ,σ) = 3/80, (τ,ψ) = 1/10.
 pub fn tricritical_ising() -> Result<Theory, TheoryError> {

@@ -1,4 +1,4 @@
-//! SU(2)_k and its integer-spin part SO(3)_k, in the square-root-free gauge of math.md §3.
+//! SU(2)_k and its integer-spin part SO(3)_k, in the square-root-free gauge of docs/conventions.md §2–3.
 //!
 //! Labels are doubled spins J = 2j ∈ 0..k, q = exp(iπ/(k+2)), [n] = (qⁿ − q⁻ⁿ)/(q − q⁻¹).
 //! With the trivalent vertex (a, b → c) scaled by u = 1/(Δ(a,b,c)·√[2c+1]) the F-symbols are

@@ -275,7 +275,7 @@ pub(crate) fn frobenius_schur(t: &Theory) -> Check {
 
 /// [F⁻¹]_{fe} w(a,b,e) w(e,c,d) = conj([F]_{ef}) w(b,c,f) w(a,f,d) and
 /// R^{ab}_c conj(R^{ab}_c) w(b,a,c) = w(a,b,c): the gauge is unitary relative to the weights,
-/// so every generator built from it preserves the form G of math.md §4.5.
+/// so every generator built from it preserves the form G of docs/conventions.md §4.
 pub(crate) fn invariant_form(t: &Theory) -> Check {
     let mut tally = Tally::new(CheckId::InvariantForm);
     let field: &CyclotomicField = t.field();
