@@ -415,14 +415,13 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
             "theory": space.spec,
             "genus": space.bundles.genus(),
             "degree": space.dimension(),
-            "generators": space.twists.iter().map(|(c, p)| json!({"name": c.to_string(), "images": p})).collect::<Vec<_>>(),
+            "generators": generator_images(&space),
             "order": order,
             "base": chain.base(),
             "basic_orbit_lengths": chain.basic_orbit_lengths(),
         });
-        let text = serde_json::to_string_pretty(&certificate).expect("JSON values serialise");
-        if let Err(e) = std::fs::write(path, text) {
-            return Outcome::Invalid(format!("{}: {e}", path.display()));
+        if let Err(e) = write_certificate(path, &certificate) {
+            return Outcome::Invalid(e);
         }
     }
     let mut text = header(&space);
@@ -431,6 +430,21 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
         chain.basic_orbit_lengths()
     ));
     Outcome::Done(Report::new(value, text, as_json))
+}
+
+/// The generators as named permutations of X_g, as certificates list them.
+fn generator_images(space: &DwSpace) -> Vec<Value> {
+    space
+        .twists
+        .iter()
+        .map(|(c, p)| json!({"name": c.to_string(), "images": p}))
+        .collect()
+}
+
+/// Write a certificate as pretty JSON; the error names the file.
+fn write_certificate(path: &std::path::Path, certificate: &Value) -> Result<(), String> {
+    let text = serde_json::to_string_pretty(certificate).expect("JSON values serialise");
+    std::fs::write(path, text).map_err(|e| format!("{}: {e}", path.display()))
 }
 
 /// `cyclorb commutant dw:…`: the dimension of the commutant of a permutation
@@ -457,11 +471,10 @@ pub fn commutant(args: &CertArgs, as_json: bool) -> Outcome {
             "theory": space.spec,
             "genus": space.bundles.genus(),
             "commutant_dimension": n,
-            "generators": space.twists.iter().map(|(c, p)| json!({"name": c.to_string(), "images": p})).collect::<Vec<_>>(),
+            "generators": generator_images(&space),
         });
-        let text = serde_json::to_string_pretty(&certificate).expect("JSON values serialise");
-        if let Err(e) = std::fs::write(path, text) {
-            return Outcome::Invalid(format!("{}: {e}", path.display()));
+        if let Err(e) = write_certificate(path, &certificate) {
+            return Outcome::Invalid(e);
         }
     }
     let mut text = header(&space);

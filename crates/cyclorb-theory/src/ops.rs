@@ -103,6 +103,7 @@ pub fn product(left: &Theory, right: &Theory) -> Result<Theory, TheoryError> {
 /// F, R, θ, d, vertex weights (and S for modular data). D is recomputed (positive), c with it.
 /// Since σ_k commutes with complex conjugation, σ_k of an invariant Hermitian form is one for
 /// the conjugate theory, so the weights stay meaningful (the form may become indefinite).
+/// σ_1 (k ≡ 1 mod n) is the identity and returns the theory unchanged, name included.
 pub fn galois(theory: &Theory, k: i64) -> Result<Theory, TheoryError> {
     let field = theory.field().clone();
     let n = field.conductor() as i64;
@@ -116,6 +117,10 @@ pub fn galois(theory: &Theory, k: i64) -> Result<Theory, TheoryError> {
             spec: name,
             reason: format!("σ_{k} needs gcd({k}, {n}) = 1 (the conductor is {n})"),
         });
+    }
+    if k.rem_euclid(n.max(1)) == 1 % n.max(1) {
+        // σ_1 is the identity.
+        return Ok(theory.clone());
     }
     let sigma = |x: &Cyc| -> Result<Cyc, TheoryError> { Ok(field.galois(x, k)?) };
     let dims = theory

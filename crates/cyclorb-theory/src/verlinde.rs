@@ -36,11 +36,6 @@ impl<'a> Verlinde<'a> {
         })
     }
 
-    /// Σ_x S_ax S_bx conj(S_cx)/S_0x.
-    pub fn coefficient(&self, a: usize, b: usize, c: usize) -> Cyc {
-        self.coefficient_with(&self.pair(a, b), c)
-    }
-
     /// The products S_ax S_bx / S_0x over x, shared by every c of one pair (a, b).
     pub fn pair(&self, a: usize, b: usize) -> Vec<Cyc> {
         let f = self.field;
@@ -49,7 +44,7 @@ impl<'a> Verlinde<'a> {
             .collect()
     }
 
-    /// Σ_x pair_x conj(S_cx), with `pair` from [`Verlinde::pair`].
+    /// Σ_x S_ax S_bx conj(S_cx)/S_0x as Σ_x pair_x conj(S_cx), `pair` from [`Verlinde::pair`].
     pub fn coefficient_with(&self, pair: &[Cyc], c: usize) -> Cyc {
         self.field.dot_same(pair.iter().zip(&self.conj[c]))
     }
@@ -66,8 +61,9 @@ pub(crate) fn fusion_from_s(
     let mut out = Vec::new();
     for a in 0..r {
         for b in 0..r {
+            let pair = v.pair(a, b);
             for c in 0..r {
-                let n = v.coefficient(a, b, c);
+                let n = v.coefficient_with(&pair, c);
                 let value = n
                     .as_rational()
                     .filter(|(p, q)| q == &1.into() && !p.is_negative())
