@@ -62,6 +62,9 @@ pub enum Command {
     Witness(WitnessArgs),
     /// A batch of runs over theories × genera, resumable, with summaries and a plot.
     Sweep(SweepArgs),
+    /// Re-check a certificate file: rebuild its theory and generators and re-derive every
+    /// claim by an independent computation (exit 1 at the first that fails).
+    Check(CheckArgs),
 }
 
 /// `cyclorb describe`: the exact data of one theory (`--json` output is a theory file).
@@ -164,6 +167,18 @@ pub struct OrbitArgs {
     /// `product` finds the orbit of a Deligne product A*B from its factors' orbits.
     #[arg(long, default_value = "enumerate", value_parser = ["enumerate", "structure", "product"])]
     pub method: String,
+    /// With `--method structure`: write its certificate (JSON) to this file; `cyclorb check`
+    /// re-checks it.
+    #[arg(long)]
+    pub out: Option<PathBuf>,
+}
+
+/// `cyclorb check`: re-derive every claim of a certificate file.
+#[derive(Args, Debug)]
+pub struct CheckArgs {
+    /// A certificate written by `--out` (`image`, `witness`, `commutant`,
+    /// `orbit --method structure`).
+    pub file: PathBuf,
 }
 
 /// The theory, genus and generating set every certificate command reads.

@@ -14,16 +14,17 @@ use serde::Serialize;
 use serde_json::json;
 
 use super::common::{build_space, generator_set_file, parse_set};
+use super::envelope::{self, Source};
 use super::output::{Outcome, Report};
 use super::structure::counted;
-use crate::cli::{CertArgs, ImageArgs, WitnessArgs};
+use crate::cli::{CertArgs, ImageArgs, SpaceArgs, WitnessArgs};
 
 mod lines;
 
 pub(crate) use lines::{faithful_lines, OrbitLines};
 
 /// The block space and its generators as a certificate input.
-fn load(args: &CertArgs) -> Result<(BlockSpace, CertSet), String> {
+pub(super) fn load(args: &CertArgs) -> Result<(BlockSpace, CertSet), String> {
     let set = parse_set(&args.space.set)?;
     let space = build_space(&args.space.spec, args.space.genus)?;
     let gens = space.generators(set).map_err(|e| e.to_string())?;
@@ -37,12 +38,19 @@ fn load(args: &CertArgs) -> Result<(BlockSpace, CertSet), String> {
     Ok((space, cert))
 }
 
-fn write_certificate<T: Serialize>(path: Option<&Path>, cert: &T) -> Result<(), String> {
-    if let Some(p) = path {
-        let text = serde_json::to_string_pretty(cert).map_err(|e| e.to_string())?;
-        std::fs::write(p, text).map_err(|e| format!("{}: {e}", p.display()))?;
-    }
-    Ok(())
+/// Write a certificate of `kind` with its envelope (`envelope`: spec, genus, set, program).
+fn write_certificate<T: Serialize>(
+    path: Option<&Path>,
+    kind: &str,
+    space: &SpaceArgs,
+    cert: &T,
+) -> Result<(), String> {
+    let source = Source {
+        spec: &space.spec,
+        genus: space.genus,
+        set: &space.set,
+    };
+    envelope::write(path, kind, &source, cert)
 }
 
 fn header(space: &BlockSpace) -> String {
@@ -75,7 +83,7 @@ pub fn commutant(args: &CertArgs, as_json: bool) -> Outcome {
             as_json,
         ));
     }
-    if let Err(e) = write_certificate(args.out.as_deref(), &cert) {
+    if let Err(e) = write_certificate(args.out.as_deref(), "commutant", &args.space, &cert) {
         return Outcome::Invalid(e);
     }
     let primes: Vec<u64> = cert.bounds.iter().map(|b| b.prime).collect();
@@ -150,8 +158,9 @@ impl ImageRun<'_> {
         Outcome::Stopped(self.report())
     }
 
-    fn write<T: Serialize>(&self, cert: &T) -> Result<(), String> {
-        write_certificate(self.args.common.out.as_deref(), cert)
+    fn write<T: Serialize>(&self, kind: &str, cert: &T) -> Result<(), String> {
+        let common = &self.args.common;
+        write_certificate(common.out.as_deref(), kind, &common.space, cert)
     }
 
     /// Route 0: the monomial structure; `None` when there is none.
@@ -166,7 +175,7 @@ impl ImageRun<'_> {
             }
             Err(e) => return Some(Outcome::Invalid(e)),
         };
-        if let Err(e) = self.write(&r.certificate) {
+        if let Err(e) = self.write("structure", &r.certificate) {
             return Some(Outcome::Invalid(e));
         }
         self.value["permutation_order"] = json!(r.image.permutation_order);
@@ -189,7 +198,7 @@ impl ImageRun<'_> {
                 if let Err(e) = cert
                     .verify(&self.gens)
                     .map_err(|e| e.to_string())
-                    .and_then(|_| self.write(&cert))
+                    .and_then(|_| self.write("image-enumeration", &cert))
                 {
                     return Outcome::Invalid(e);
                 }
@@ -216,7 +225,7 @@ impl ImageRun<'_> {
                 if let Err(e) = w
                     .recheck(&self.gens)
                     .map_err(|e| e.to_string())
-                    .and_then(|_| self.write(&w))
+                    .and_then(|_| self.write("witness", &w))
                 {
                     return Ok(Outcome::Invalid(e));
                 }
@@ -248,7 +257,7 @@ impl ImageRun<'_> {
         // the file also names the line set: the vacuum orbit, then the orbits of these seeds
         let mut file = serde_json::to_value(&cert).expect("certificates serialise");
         file["added_orbits"] = json!(lines.added_seeds());
-        if let Err(e) = self.write(&file) {
+        if let Err(e) = self.write("image-orbit", &file) {
             return Outcome::Invalid(e);
         }
         let g = &cert.group;
@@ -423,7 +432,12 @@ pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
                     as_json,
                 ));
             }
-            if let Err(e) = write_certificate(args.common.out.as_deref(), &w) {
+            if let Err(e) = write_certificate(
+                args.common.out.as_deref(),
+                "witness",
+                &args.common.space,
+                &w,
+            ) {
                 return Outcome::Invalid(e);
             }
             text.push_str(&format!(

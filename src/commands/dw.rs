@@ -20,8 +20,9 @@ use cyclorb_orbit::{GeneratorSet, InvariantReport, OrbitProblem, PoincareReport,
 use serde_json::{json, Value};
 
 use super::common::parse_set;
+use super::envelope::Source;
 use super::output::{Outcome, Report};
-use crate::cli::{CertArgs, ImageArgs, TwistsArgs, WitnessArgs};
+use crate::cli::{CertArgs, ImageArgs, SpaceArgs, TwistsArgs, WitnessArgs};
 
 /// The spec prefix of Dijkgraaf–Witten theories.
 const PREFIX: &str = "dw:";
@@ -156,6 +157,11 @@ impl DwSpace {
             vector,
         };
         OrbitProblem::new(self.generator_set(), &seed).map_err(|e| e.to_string())
+    }
+
+    /// The twists of the generating set: names and permutations of X_g.
+    pub fn twists(&self) -> &[(Curve, Vec<u32>)] {
+        &self.twists
     }
 
     fn permutations(&self) -> Vec<&[u32]> {
@@ -420,7 +426,7 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
             "base": chain.base(),
             "basic_orbit_lengths": chain.basic_orbit_lengths(),
         });
-        if let Err(e) = write_certificate(path, &certificate) {
+        if let Err(e) = write_certificate(path, a, &certificate) {
             return Outcome::Invalid(e);
         }
     }
@@ -441,10 +447,19 @@ fn generator_images(space: &DwSpace) -> Vec<Value> {
         .collect()
 }
 
-/// Write a certificate as pretty JSON; the error names the file.
-fn write_certificate(path: &std::path::Path, certificate: &Value) -> Result<(), String> {
-    let text = serde_json::to_string_pretty(certificate).expect("JSON values serialise");
-    std::fs::write(path, text).map_err(|e| format!("{}: {e}", path.display()))
+/// Write a certificate as pretty JSON with its envelope (`envelope`); the error names the file.
+fn write_certificate(
+    path: &std::path::Path,
+    space: &SpaceArgs,
+    certificate: &Value,
+) -> Result<(), String> {
+    let kind = certificate["kind"].as_str().unwrap_or_default();
+    let source = Source {
+        spec: &space.spec,
+        genus: space.genus,
+        set: &space.set,
+    };
+    super::envelope::write(Some(path), kind, &source, certificate)
 }
 
 /// `cyclorb commutant dw:…`: the dimension of the commutant of a permutation
@@ -473,7 +488,7 @@ pub fn commutant(args: &CertArgs, as_json: bool) -> Outcome {
             "commutant_dimension": n,
             "generators": generator_images(&space),
         });
-        if let Err(e) = write_certificate(path, &certificate) {
+        if let Err(e) = write_certificate(path, a, &certificate) {
             return Outcome::Invalid(e);
         }
     }

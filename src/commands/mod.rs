@@ -2,8 +2,10 @@
 
 mod budget;
 mod certify;
+mod check;
 mod common;
 mod dw;
+mod envelope;
 mod field;
 mod orbit;
 pub mod output;
@@ -33,6 +35,7 @@ pub fn dispatch(cli: Cli) -> ExitCode {
         Command::Image(a) => certify::image(a, json),
         Command::Witness(a) => certify::witness(a, json),
         Command::Sweep(a) => sweep::run(a, json),
+        Command::Check(a) => check::run(a, json),
         Command::Theories => theory::run_theories(json),
         Command::Describe(a) => theory::run_describe(a, json),
         Command::Verify(a) => theory::run_verify(a, json),

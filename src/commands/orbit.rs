@@ -14,6 +14,7 @@ use serde_json::json;
 
 use super::common::{build_space, parse_set, vacuum_problem};
 use super::dw::{is_dw, DwSpace};
+use super::envelope::{self, Source};
 use super::output::{Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
@@ -189,6 +190,13 @@ fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
 /// Run `cyclorb orbit`.
 pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
     let started = Instant::now();
+    if args.out.is_some() && args.method != "structure" {
+        return Outcome::Invalid(
+            "--out writes the certificate of --method structure; for an image certificate use \
+             `cyclorb image --out`"
+                .into(),
+        );
+    }
     if args.method == "structure" {
         return run_structure(args, as_json, started);
     }
@@ -294,11 +302,27 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
         Err(e) => return Outcome::Invalid(e),
     };
     match counted(&space.1, space.0) {
-        Ok(Ok(report)) => Outcome::Done(Report::new(
-            orbit_json(&report, started),
-            orbit_text(&report),
-            as_json,
-        )),
+        Ok(Ok(report)) => {
+            let source = Source {
+                spec,
+                genus,
+                set: &args.set,
+            };
+            let written = envelope::write(
+                args.out.as_deref(),
+                "structure",
+                &source,
+                &report.certificate,
+            );
+            if let Err(e) = written {
+                return Outcome::Invalid(e);
+            }
+            Outcome::Done(Report::new(
+                orbit_json(&report, started),
+                orbit_text(&report),
+                as_json,
+            ))
+        }
         Ok(Err(absent)) => Outcome::Invalid(format!(
             "{spec} at genus {genus} has no monomial structure ({absent}); use --method enumerate"
         )),

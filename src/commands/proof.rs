@@ -11,6 +11,7 @@
 //! the factors of a product).
 
 use std::sync::atomic::{AtomicBool, AtomicU8, Ordering};
+use std::sync::Mutex;
 
 use cyclorb_orbit::GeneratorSet;
 use cyclorb_theory::{parse_spec_traced, verify, FileTheory, Theory};
@@ -22,6 +23,10 @@ static SKIP_PROOFS: AtomicBool = AtomicBool::new(false);
 /// What the answers of this process rest on: 0 no theory or generator data used yet,
 /// 1 only proved data, 2 some data used without proof.
 static LEDGER: AtomicU8 = AtomicU8::new(0);
+
+/// Every theory file this process read, as (path as written, SHA-256 data hash), in
+/// reading order: certificates record them so that a re-check reads the same data.
+static FILES_READ: Mutex<Vec<(String, String)>> = Mutex::new(Vec::new());
 
 /// Set once from the command line: whether `--unverified` was given.
 pub fn set_unverified(skip: bool) {
@@ -49,11 +54,21 @@ pub fn theory(spec: &str) -> Result<Theory, String> {
     let traced = parse_spec_traced(spec).map_err(|e| e.to_string())?;
     for file in &traced.files {
         prove_file(file)?;
+        let entry = (file.path.display().to_string(), file.theory.data_hash());
+        let mut read = FILES_READ.lock().unwrap_or_else(|e| e.into_inner());
+        if !read.contains(&entry) {
+            read.push(entry);
+        }
     }
     if traced.files.is_empty() {
         record(true);
     }
     Ok(traced.theory)
+}
+
+/// The theory files read so far (path, data hash), each once, in reading order.
+pub fn files_read() -> Vec<(String, String)> {
+    FILES_READ.lock().unwrap_or_else(|e| e.into_inner()).clone()
 }
 
 fn prove_file(file: &FileTheory) -> Result<(), String> {

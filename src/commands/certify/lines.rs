@@ -79,6 +79,25 @@ impl<'a> OrbitLines<'a> {
     pub fn vacuum_orbit_len(&self) -> usize {
         self.parts[0].orbit.len()
     }
+
+    /// The permutations the generators induce on the union, each orbit's found by the orbit
+    /// engine's exact lookup (`OrbitProblem::induced_permutations`), not through keys of the
+    /// lines modulo a prime as `cyclorb-cert` finds them; orbits are closed, so each part
+    /// maps to itself.
+    pub fn exact_permutations(&self, threads: usize) -> Result<Vec<Vec<u32>>, String> {
+        let mut out: Vec<Vec<u32>> = Vec::new();
+        for part in &self.parts {
+            let local = part
+                .problem
+                .induced_permutations(&part.orbit, threads)
+                .map_err(|e| e.to_string())?;
+            out.resize(local.len(), Vec::with_capacity(self.len));
+            for (all, perm) in out.iter_mut().zip(local) {
+                all.extend(perm.into_iter().map(|i| i + part.start as u32));
+            }
+        }
+        Ok(out)
+    }
 }
 
 impl LineSet for OrbitLines<'_> {

@@ -1,0 +1,83 @@
+//! The claims of a re-check, in the order they were checked, stopping at the first failure.
+
+use serde_json::{json, Value};
+
+/// One claim: its name, whether it held, and how it was re-derived (or why it failed).
+pub struct Claim {
+    /// Short name, e.g. `charpoly`.
+    pub name: String,
+    /// Whether it held.
+    pub ok: bool,
+    /// How it was re-derived, or the reason it failed.
+    pub detail: String,
+}
+
+/// Why a re-check stopped early.
+pub enum Stop {
+    /// A claim failed (it is the last one recorded).
+    Failed,
+    /// The file or its input is invalid: the message names the file, place and reason.
+    Invalid(String),
+}
+
+/// The claims checked so far.
+#[derive(Default)]
+pub struct Claims {
+    list: Vec<Claim>,
+}
+
+impl Claims {
+    /// Check one claim: `check` returns the detail of a claim that holds or the reason it
+    /// fails; a failure stops the re-check.
+    pub fn claim(
+        &mut self,
+        name: &str,
+        check: impl FnOnce() -> Result<String, String>,
+    ) -> Result<(), Stop> {
+        let (ok, detail) = match check() {
+            Ok(d) => (true, d),
+            Err(d) => (false, d),
+        };
+        self.list.push(Claim {
+            name: name.to_string(),
+            ok,
+            detail,
+        });
+        if ok {
+            Ok(())
+        } else {
+            Err(Stop::Failed)
+        }
+    }
+
+    /// The failed claim, if any.
+    pub fn failed(&self) -> Option<&Claim> {
+        self.list.iter().find(|c| !c.ok)
+    }
+
+    /// The number of claims checked.
+    pub fn count(&self) -> usize {
+        self.list.len()
+    }
+
+    /// One line per claim.
+    pub fn text(&self) -> String {
+        self.list
+            .iter()
+            .map(|c| {
+                let mark = if c.ok { "ok" } else { "FAILED" };
+                format!("  [{mark}] {}: {}\n", c.name, c.detail)
+            })
+            .collect()
+    }
+
+    /// The claims as a JSON list of {name, ok, detail}.
+    pub fn json(&self) -> Value {
+        Value::Array(
+            self.list
+                .iter()
+                .map(|c| json!({"name": c.name, "ok": c.ok, "detail": c.detail}))
+                .collect(),
+        )
+    }
+}

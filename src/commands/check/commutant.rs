@@ -1,0 +1,219 @@
+//! Re-checking a commutant certificate (docs/certificates.md §4).
+//!
+//! Lower bound: every basis matrix X satisfies X·A = A·X for every generator A (dense
+//! products) and the basis is independent (rank of the flattened matrices modulo a stated
+//! prime, which bounds the exact rank from below; exact rank when that falls short). Upper
+//! bound: the system X·A − A·X = 0 in the d² unknowns X_ij, reduced modulo the stated prime
+//! whose nullity equals the dimension and brought to echelon form row by row until its rank
+//! reaches d² − dimension (the producer cut the unknowns first; here the whole system is
+//! used). When no stated prime gives the dimension, the exact rank of the system over
+//! Q(ζ_n) is used. The self-adjoint basis: each element commutes and G·X = X†·G.
+
+use cyclorb_cert::{CommutantCertificate, GeneratorSet};
+use cyclorb_field::PrimeReduction;
+use cyclorb_matrix::{reduce_vector, Matrix};
+
+use super::linear::EchelonModP;
+use super::{Claims, Stop};
+
+fn err(e: impl ToString) -> String {
+    e.to_string()
+}
+
+/// Every matrix commutes with every generator; the name of the first that does not.
+fn commuting(gens: &GeneratorSet, matrices: &[Matrix]) -> Result<(), String> {
+    let field = gens.field();
+    for (k, x) in matrices.iter().enumerate() {
+        if x.rows() != gens.dim() || x.cols() != gens.dim() {
+            return Err(format!("matrix {k} is not {0}×{0}", gens.dim()));
+        }
+        for a in 0..gens.len() {
+            let g = gens.dense(a);
+            if x.mul(field, g).map_err(err)? != g.mul(field, x).map_err(err)? {
+                return Err(format!(
+                    "matrix {k} does not commute with {}",
+                    gens.names()[a]
+                ));
+            }
+        }
+    }
+    Ok(())
+}
+
+/// The rank of the matrices as vectors of length d²: modulo p first, exactly if short.
+fn rank(
+    gens: &GeneratorSet,
+    reduction: &PrimeReduction,
+    matrices: &[Matrix],
+) -> Result<usize, String> {
+    let mut echelon = EchelonModP::new(reduction.prime());
+    for x in matrices {
+        echelon.push(reduce_vector(reduction, x.entries()).map_err(err)?);
+    }
+    if echelon.rank() == matrices.len() {
+        return Ok(echelon.rank());
+    }
+    let rows = matrices.iter().map(|x| x.entries().to_vec()).collect();
+    Matrix::from_rows(rows)
+        .and_then(|m| m.rank(gens.field()))
+        .map_err(err)
+}
+
+/// The nullity of X·A − A·X = 0 modulo p is at most `dimension`: rows are reduced until the
+/// rank reaches d² − dimension. Returns the rank reached.
+fn upper_bound_mod_p(
+    gens: &GeneratorSet,
+    reduction: &PrimeReduction,
+    target: usize,
+) -> Result<usize, String> {
+    let d = gens.dim();
+    let p = reduction.prime();
+    let mut echelon = EchelonModP::new(p);
+    for a in 0..gens.len() {
+        let g = gens.dense(a).reduce_mod(reduction).map_err(err)?;
+        for i in 0..d {
+            for j in 0..d {
+                // (X·A − A·X)_ij = Σ_k X_ik A_kj − Σ_k A_ik X_kj
+                let mut row = vec![0u64; d * d];
+                for k in 0..d {
+                    row[i * d + k] = (row[i * d + k] + g.get(k, j)) % p;
+                    row[k * d + j] = (row[k * d + j] + p - g.get(i, k)) % p;
+                }
+                echelon.push(row);
+                if echelon.rank() >= target {
+                    return Ok(echelon.rank());
+                }
+            }
+        }
+    }
+    Ok(echelon.rank())
+}
+
+/// The exact rank of the commutant system over Q(ζ_n).
+fn exact_rank(gens: &GeneratorSet) -> Result<usize, String> {
+    let field = gens.field();
+    let d = gens.dim();
+    let mut rows = Vec::new();
+    for a in 0..gens.len() {
+        let g = gens.dense(a);
+        for i in 0..d {
+            for j in 0..d {
+                let mut row = vec![field.zero(); d * d];
+                for k in 0..d {
+                    row[i * d + k] = field.add(&row[i * d + k], g.get(k, j)).map_err(err)?;
+                    row[k * d + j] = field.sub(&row[k * d + j], g.get(i, k)).map_err(err)?;
+                }
+                rows.push(row);
+            }
+        }
+    }
+    Matrix::from_rows(rows)
+        .and_then(|m| m.rank(field))
+        .map_err(err)
+}
+
+/// Every claim of a commutant certificate.
+pub fn check(
+    gens: &GeneratorSet,
+    c: &CommutantCertificate,
+    claims: &mut Claims,
+) -> Result<(), Stop> {
+    let field = gens.field();
+    let d = gens.dim();
+    let first_prime = c.bounds.first().map(|b| b.prime);
+    let reduction = match first_prime {
+        Some(p) => PrimeReduction::with_prime(field, p),
+        None => PrimeReduction::nth(field, 0),
+    }
+    .map_err(|e| Stop::Invalid(format!("key `bounds`: {e}")))?;
+    claims.claim("basis-commutes", || {
+        if c.conductor != field.conductor() {
+            return Err(format!(
+                "conductor {} but the field is Q(ζ_{})",
+                c.conductor,
+                field.conductor()
+            ));
+        }
+        commuting(gens, &c.basis)?;
+        Ok(format!(
+            "each of the {} basis matrices commutes with all {} generators (dense products)",
+            c.basis.len(),
+            gens.len()
+        ))
+    })?;
+    claims.claim("lower-bound", || {
+        let r = rank(gens, &reduction, &c.basis)?;
+        if r != c.basis.len() || r != c.dimension {
+            return Err(format!(
+                "{} basis matrices of rank {r}, dimension stated {}",
+                c.basis.len(),
+                c.dimension
+            ));
+        }
+        Ok(format!(
+            "the basis is independent (rank {r}): dimension ≥ {r}"
+        ))
+    })?;
+    claims.claim("upper-bound", || {
+        let unknowns = d * d;
+        let target = unknowns.saturating_sub(c.dimension);
+        let witness = c.bounds.iter().find(|b| b.nullity == c.dimension);
+        match witness {
+            Some(bound) => {
+                let reduction = PrimeReduction::with_prime(field, bound.prime).map_err(err)?;
+                let reached = upper_bound_mod_p(gens, &reduction, target)?;
+                if reached < target {
+                    return Err(format!(
+                        "modulo {} the system X·A = A·X has nullity {} > {}",
+                        bound.prime,
+                        unknowns - reached,
+                        c.dimension
+                    ));
+                }
+                Ok(format!(
+                    "modulo p = {}: rank {reached} of the full system in {unknowns} unknowns, so dimension ≤ {} (the producer cut the unknowns first)",
+                    bound.prime, c.dimension
+                ))
+            }
+            None => {
+                let r = exact_rank(gens)?;
+                if r != target {
+                    return Err(format!("the exact nullity is {}, not {}", unknowns - r, c.dimension));
+                }
+                Ok(format!("exact rank {r} of the system over Q(ζ_n): dimension ≤ {}", c.dimension))
+            }
+        }
+    })?;
+    claims.claim("self-adjoint-basis", || {
+        commuting(gens, &c.hermitian_basis)?;
+        let complete = field.conductor() < 3 || c.hermitian_basis.len() == c.dimension;
+        if !complete || c.hermitian_basis.len() > c.dimension {
+            return Err(format!(
+                "{} self-adjoint matrices for dimension {}",
+                c.hermitian_basis.len(),
+                c.dimension
+            ));
+        }
+        if rank(gens, &reduction, &c.hermitian_basis)? != c.hermitian_basis.len() {
+            return Err("the self-adjoint basis is dependent".into());
+        }
+        let form = gens.form();
+        let g = |i: usize| form.map_or_else(|| field.one(), |f| f[i].clone());
+        for (k, x) in c.hermitian_basis.iter().enumerate() {
+            for i in 0..d {
+                for j in 0..d {
+                    // (G·X)_ij = g_i X_ij must equal (X†·G)_ij = conj(X_ji) g_j
+                    let left = field.mul(&g(i), x.get(i, j)).map_err(err)?;
+                    let right = field.mul(&field.conj(x.get(j, i)), &g(j)).map_err(err)?;
+                    if left != right {
+                        return Err(format!("self-adjoint matrix {k}: G·X ≠ X†·G at ({i}, {j})"));
+                    }
+                }
+            }
+        }
+        Ok(format!(
+            "{} independent commuting matrices with G·X = X†·G",
+            c.hermitian_basis.len()
+        ))
+    })
+}
