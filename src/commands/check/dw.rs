@@ -54,7 +54,7 @@ fn same_generators(space: &DwSpace, body: &Value) -> Result<String, String> {
 }
 
 /// The group the permutations generate, listed; `None` past `cap` elements.
-fn listed_order(perms: &[Vec<u32>], cap: u64) -> Option<u64> {
+fn listed(perms: &[Vec<u32>], cap: u64) -> Option<Vec<Vec<u32>>> {
     let degree = perms.first().map_or(0, Vec::len);
     let identity: Vec<u32> = (0..degree as u32).collect();
     let mut seen: HashSet<Vec<u32>> = HashSet::new();
@@ -71,7 +71,31 @@ fn listed_order(perms: &[Vec<u32>], cap: u64) -> Option<u64> {
             }
         }
     }
-    Some(seen.len() as u64)
+    Some(seen.into_iter().collect())
+}
+
+/// The basic orbit lengths of `base` read off the listed group: |Δ_i| is the number of
+/// images of b_i under the elements fixing b_0, …, b_{i−1}; after the last base point only
+/// the identity may remain.
+fn basic_orbits(elements: &[Vec<u32>], base: &[u32]) -> Result<Vec<u64>, String> {
+    let mut remaining: Vec<&Vec<u32>> = elements.iter().collect();
+    let mut lengths = Vec::with_capacity(base.len());
+    for &b in base {
+        let point = b as usize;
+        if remaining.first().map_or(true, |g| point >= g.len()) {
+            return Err(format!("base point {b} out of range"));
+        }
+        let images: HashSet<u32> = remaining.iter().map(|g| g[point]).collect();
+        lengths.push(images.len() as u64);
+        remaining.retain(|g| g[point] == b);
+    }
+    if remaining.len() != 1 {
+        return Err(format!(
+            "{} elements fix every base point: it is not a base",
+            remaining.len()
+        ));
+    }
+    Ok(lengths)
 }
 
 /// The number of orbits of the group on pairs (i, j), by union–find.
@@ -113,8 +137,20 @@ pub fn check(
     let space = DwSpace::new(&a.spec, a.genus, &a.set)
         .map_err(|e| Stop::Invalid(format!("{file}: rebuilding the input: {e}")))?;
     claims.claim("generators", || {
-        if body["genus"].as_u64() != Some(a.genus as u64) {
-            return Err("the genus differs".into());
+        if body["theory"].as_str() != Some(a.spec.as_str()) {
+            return Err(format!(
+                "the certificate's theory {} is not the spec {:?}",
+                body["theory"], a.spec
+            ));
+        }
+        if body["kind"] == "dw-permutation-image"
+            && body["degree"].as_u64() != Some(space.dimension() as u64)
+        {
+            return Err(format!(
+                "degree {} stated, |X_g| = {}",
+                body["degree"],
+                space.dimension()
+            ));
         }
         same_generators(&space, body)
     })?;
@@ -135,16 +171,26 @@ pub fn check(
             })?;
             claims.claim("order", || {
                 let stated: u64 = order.parse().unwrap_or(u64::MAX);
-                match listed_order(&perms, MAX_LISTED.min(stated)) {
-                    Some(n) if n.to_string() == order => Ok(format!("{n} permutations listed by closure")),
-                    Some(n) => Err(format!("the twists generate {n} permutations, not {order}")),
+                let base: Vec<u32> = body["base"]
+                    .as_array()
+                    .and_then(|l| l.iter().map(|x| x.as_u64().and_then(|x| u32::try_from(x).ok())).collect())
+                    .ok_or("key `base`: expected a list of points")?;
+                match listed(&perms, MAX_LISTED.min(stated)) {
+                    Some(elements) if elements.len().to_string() == order => {
+                        let lengths = basic_orbits(&elements, &base)?;
+                        if Some(&lengths) != body["basic_orbit_lengths"].as_array().map(|l| l.iter().filter_map(Value::as_u64).collect::<Vec<_>>()).as_ref() {
+                            return Err(format!("the base {base:?} has basic orbits {lengths:?} in the listed group"));
+                        }
+                        Ok(format!("{order} permutations listed by closure; the base {base:?} has basic orbits {lengths:?} among them"))
+                    }
+                    Some(elements) => Err(format!("the twists generate {} permutations, not {order}", elements.len())),
                     None if stated <= MAX_LISTED => Err(format!("the twists generate more than {order} permutations")),
                     None => {
                         let chain = StabiliserChain::new(space.dimension(), &perms).map_err(err)?;
-                        if chain.order().to_string() != order {
-                            return Err(format!("Schreier–Sims gives {}", chain.order()));
+                        if chain.order().to_string() != order || chain.base() != base {
+                            return Err(format!("Schreier–Sims gives order {} on base {:?}", chain.order(), chain.base()));
                         }
-                        Ok(format!("more than {MAX_LISTED} elements: Schreier–Sims with every point a base point, the producer's method"))
+                        Ok(format!("more than {MAX_LISTED} elements: Schreier–Sims with every point a base point, the producer's method, not an independent check"))
                     }
                 }
             })

@@ -155,6 +155,28 @@ pub fn check(
             gens.len()
         ))
     })?;
+    claims.claim("power", || {
+        let k = c.power;
+        for (a, mono) in c.monomials.iter().enumerate() {
+            // π^k fixes j exactly when k is a multiple of the length of j's cycle
+            let moved = (0..d).find(|&j| {
+                let mut x = mono.perm[j] as usize;
+                let mut length = 1;
+                while x != j && length <= d {
+                    x = mono.perm[x] as usize;
+                    length += 1;
+                }
+                x != j || k as usize % length != 0
+            });
+            if k == 0 || moved.is_some() {
+                return Err(format!(
+                    "the {k}-th power of {} is not diagonal in the monomial basis",
+                    gens.names()[a]
+                ));
+            }
+        }
+        Ok(format!("k = {k}: the k-th power of every generator is diagonal in the monomial basis (π^k = 1)"))
+    })?;
     let mut support = Vec::new();
     claims.claim("vacuum-expansion", || {
         let coefficients = dense(space, &c.vacuum)?;
