@@ -1,0 +1,436 @@
+//! `cyclorb check FILE`: every kind of certificate written by `--out` re-checks (exit 0), and
+//! one changed digit in any of them is caught by the claim it touches (exit 1, the claim
+//! named). Each tampering below was chosen so that the file still parses and the claim named
+//! is the one that must catch it: the test asserts that claim's name, so a check that let the
+//! change through would fail the test.
+
+mod common;
+
+use std::path::{Path, PathBuf};
+
+use common::{cyclorb, cyclorb_json, temp_path};
+use serde_json::Value;
+
+/// Run a producing command with `--out`, expect exit 0, and return the file and its JSON.
+fn produce(tag: &str, args: &[&str]) -> (PathBuf, Value) {
+    let path = temp_path(&format!("{tag}.json"));
+    let mut all: Vec<&str> = args.to_vec();
+    let out = path.to_str().unwrap().to_string();
+    all.extend(["--out", &out]);
+    let run = cyclorb(&all);
+    assert_eq!(
+        run.status.code(),
+        Some(0),
+        "{args:?}: {}",
+        String::from_utf8_lossy(&run.stderr)
+    );
+    let value = serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
+    (path, value)
+}
+
+/// `cyclorb check FILE --json`: exit code and report.
+fn check(path: &Path) -> (i32, Value) {
+    cyclorb_json(&["check", path.to_str().unwrap()])
+}
+
+/// The certificate holds: exit 0, `ok`, every claim ok, the kind as written.
+fn holds(path: &Path, kind: &str) -> Value {
+    let (code, report) = check(path);
+    assert_eq!(code, 0, "{report:#}");
+    assert_eq!(report["ok"], true);
+    assert_eq!(report["kind"], kind);
+    let claims = report["claims"].as_array().unwrap();
+    assert!(claims.iter().all(|c| c["ok"] == true), "{report:#}");
+    report
+}
+
+/// Replace the value at `pointer` and expect `claim` to fail (exit 1, named in JSON and text).
+fn caught(original: &Value, tag: &str, pointer: &str, new: Value, claim: &str) {
+    let mut changed = original.clone();
+    let slot = changed
+        .pointer_mut(pointer)
+        .unwrap_or_else(|| panic!("{tag}: no {pointer}"));
+    assert_ne!(*slot, new, "{tag}: {pointer} must change");
+    *slot = new;
+    let path = temp_path(&format!("{tag}-tampered.json"));
+    std::fs::write(&path, serde_json::to_string_pretty(&changed).unwrap()).unwrap();
+    let (code, report) = check(&path);
+    assert_eq!(code, 1, "{tag} {pointer}: {report:#}");
+    assert_eq!(report["ok"], false);
+    assert_eq!(report["failed"], claim, "{tag} {pointer}: {report:#}");
+    let text = cyclorb(&["check", path.to_str().unwrap()]);
+    assert_eq!(text.status.code(), Some(1));
+    let stdout = String::from_utf8_lossy(&text.stdout);
+    assert!(stdout.contains(&format!("claim {claim} FAILS")), "{stdout}");
+}
+
+#[test]
+fn witness_certificate_rechecks_and_each_change_is_caught() {
+    // Fibonacci at genus ≥ 2 has an infinite image (Freedman–Larsen–Wang 2002), so a witness
+    // exists; the default search finds one.
+    let (path, w) = produce("witness-fib2", &["witness", "fibonacci", "--genus", "2"]);
+    let report = holds(&path, "witness");
+    let names: Vec<&str> = report["claims"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|c| c["name"].as_str().unwrap())
+        .collect();
+    assert!(names.contains(&"no-cyclotomic-factor"), "{names:?}");
+    assert_eq!(w["spec"], "fibonacci");
+    assert_eq!(w["genus"], 2);
+    assert_eq!(w["generating_set"], "humphries");
+    assert!(w["program"].as_str().unwrap().starts_with("cyclorb "));
+    // a coefficient of χ, of the norm, of the remaining factor
+    let chi = w["charpoly"][0].as_str().unwrap();
+    caught(
+        &w,
+        "wit-chi",
+        "/charpoly/0",
+        Value::from(format!("{chi} + 1")),
+        "charpoly",
+    );
+    let n1: i64 = w["ratio_norm"][1].as_str().unwrap().parse().unwrap();
+    caught(
+        &w,
+        "wit-norm",
+        "/ratio_norm/1",
+        Value::from((n1 + 1).to_string()),
+        "ratio-norm",
+    );
+    let r1: i64 = w["remaining_factor"][1].as_str().unwrap().parse().unwrap();
+    caught(
+        &w,
+        "wit-rest",
+        "/remaining_factor/1",
+        Value::from((r1 + 1).to_string()),
+        "cyclotomic-factors",
+    );
+    let conjugates = w["conjugates"].as_u64().unwrap();
+    caught(
+        &w,
+        "wit-conj",
+        "/conjugates",
+        Value::from(conjugates + 1),
+        "ratio-norm",
+    );
+    // a letter of the word: a name the set does not have
+    caught(&w, "wit-letter", "/word/0", Value::from("alpha9"), "word");
+    // the genus: at genus 1 the Humphries set has no gamma0 (or alpha1), so the word fails
+    caught(&w, "wit-genus", "/genus", Value::from(1), "word");
+    // the spec: Ising's field is Q(ζ_16), not the certificate's Q(ζ_20)
+    caught(&w, "wit-spec", "/spec", Value::from("ising"), "word");
+}
+
+#[test]
+fn commutant_certificates_recheck_and_each_change_is_caught() {
+    // Ising at genus 2 is irreducible: B = 384·G⁻¹ is scalar over the orbit (Castro,
+    // Gaberdiel, Hartman, Maloney, Volpato 2012 and the 2019 follow-up).
+    let (path, c) = produce("comm-ising2", &["commutant", "ising", "--genus", "2"]);
+    holds(&path, "commutant");
+    assert_eq!(c["dimension"], 1);
+    // the identity with one diagonal entry doubled commutes with nothing irreducible
+    caught(
+        &c,
+        "comm-entry",
+        "/basis/0/rows/0/0",
+        Value::from("2"),
+        "basis-commutes",
+    );
+    caught(&c, "comm-dim", "/dimension", Value::from(2), "lower-bound");
+    caught(
+        &c,
+        "comm-nullity",
+        "/bounds/0/nullity",
+        Value::from(2),
+        "bounds",
+    );
+    // Z_3 at genus 1: charge conjugation a ↦ −a commutes with S and T (S² = C, common
+    // practice), so the commutant is 2-dimensional and found exactly.
+    let (path, z) = produce("comm-z3", &["commutant", "zn:3:2", "--genus", "1"]);
+    holds(&path, "commutant");
+    assert_eq!(z["dimension"], 2);
+    assert_eq!(z["route"], "exact");
+    caught(
+        &z,
+        "z3-entry",
+        "/basis/0/rows/0/1",
+        Value::from("1"),
+        "basis-commutes",
+    );
+    caught(
+        &z,
+        "z3-herm",
+        "/hermitian_basis/0/rows/1/2",
+        Value::from("3"),
+        "self-adjoint-basis",
+    );
+    caught(&z, "z3-dim", "/dimension", Value::from(1), "lower-bound");
+}
+
+#[test]
+fn image_certificates_recheck_and_each_change_is_caught() {
+    // Schreier–Sims on the vacuum orbit of Ising at genus 1: 24 lines (Castro et al. 2012).
+    let (path, o) = produce(
+        "image-orbit",
+        &["image", "ising", "--genus", "1", "--route", "orbit"],
+    );
+    holds(&path, "image-orbit");
+    assert_eq!(o["lines"], 24);
+    let order: u64 = o["group"]["order"].as_str().unwrap().parse().unwrap();
+    caught(
+        &o,
+        "orb-order",
+        "/group/order",
+        Value::from((order + 1).to_string()),
+        "chain-arithmetic",
+    );
+    let first = o["group"]["basic_orbit_lengths"][1].as_u64().unwrap();
+    caught(
+        &o,
+        "orb-basic",
+        "/group/basic_orbit_lengths/1",
+        Value::from(first + 1),
+        "chain-arithmetic",
+    );
+    caught(&o, "orb-lines", "/lines", Value::from(25), "lines");
+    let digest = o["permutation_digests"][0].as_str().unwrap();
+    let flipped = format!(
+        "{}{}",
+        &digest[..15],
+        if digest.ends_with('0') { "1" } else { "0" }
+    );
+    caught(
+        &o,
+        "orb-digest",
+        "/permutation_digests/0",
+        Value::from(flipped),
+        "permutations",
+    );
+    let strong = o["group"]["strong_generators"].as_u64().unwrap();
+    caught(
+        &o,
+        "orb-strong",
+        "/group/strong_generators",
+        Value::from(strong + 1),
+        "faithfulness-and-chain",
+    );
+    // enumeration modulo scalars (Z_3 at genus 1)
+    let (path, e) = produce(
+        "image-enum",
+        &["image", "zn:3:2", "--genus", "1", "--route", "enumeration"],
+    );
+    holds(&path, "image-enumeration");
+    let order = e["order"].as_u64().unwrap();
+    caught(&e, "enum-order", "/order", Value::from(order + 1), "order");
+    caught(
+        &e,
+        "enum-order-low",
+        "/order",
+        Value::from(order - 1),
+        "order",
+    );
+}
+
+#[test]
+fn structure_certificates_recheck_and_each_change_is_caught() {
+    // Ising at genus 2: 3840 lines (the all-genus follow-up of Castro et al., 2019).
+    let (path, s) = produce(
+        "structure",
+        &["orbit", "ising", "--genus", "2", "--method", "structure"],
+    );
+    holds(&path, "structure");
+    assert_eq!(s["orbit_size"], "3840");
+    // `cyclorb image` writes the same kind when it takes the monomial route
+    let (path2, _) = produce("structure-image", &["image", "ising", "--genus", "2"]);
+    holds(&path2, "structure");
+    let phase = s["monomials"][0]["phases"][0].as_u64().unwrap();
+    caught(
+        &s,
+        "st-phase",
+        "/monomials/0/phases/0",
+        Value::from((phase + 1) % 16),
+        "monomial-form",
+    );
+    caught(
+        &s,
+        "st-basis",
+        "/basis/0/0/1",
+        Value::from("2"),
+        "monomial-form",
+    );
+    caught(&s, "st-power", "/power", Value::from(3), "power");
+    caught(
+        &s,
+        "st-vacuum",
+        "/vacuum/0/1",
+        Value::from("7"),
+        "vacuum-expansion",
+    );
+    caught(
+        &s,
+        "st-porder",
+        "/permutation_group/order",
+        Value::from("721"),
+        "permutation-order",
+    );
+    caught(
+        &s,
+        "st-kernel",
+        "/kernel/order",
+        Value::from("16777217"),
+        "image-order",
+    );
+    caught(
+        &s,
+        "st-image",
+        "/image_order",
+        Value::from("3019898881"),
+        "image-order",
+    );
+    caught(
+        &s,
+        "st-supports",
+        "/supports",
+        Value::from("16"),
+        "orbit-size",
+    );
+    caught(
+        &s,
+        "st-orbit",
+        "/orbit_size",
+        Value::from("3841"),
+        "orbit-size",
+    );
+    let row = s["kernel"]["generators"][0][0].as_u64().unwrap();
+    caught(
+        &s,
+        "st-lattice",
+        "/kernel/generators/0/0",
+        Value::from(row + 1),
+        "derived-data",
+    );
+    caught(&s, "st-genus", "/genus", Value::from(1), "identity");
+    caught(&s, "st-spec", "/spec", Value::from("su2:2"), "identity");
+}
+
+#[test]
+fn dijkgraaf_witten_certificates_recheck_and_each_change_is_caught() {
+    // D(S_3) at genus 1: X_1 = commuting pairs up to conjugation, 8 of them, one per simple
+    // object of D(S_3) (Dijkgraaf–Pasquier–Roche 1990).
+    let (path, i) = produce("dw-image", &["image", "dw:S3", "--genus", "1"]);
+    holds(&path, "dw-permutation-image");
+    assert_eq!(i["degree"], 8);
+    let order: u64 = i["order"].as_str().unwrap().parse().unwrap();
+    caught(
+        &i,
+        "dw-order",
+        "/order",
+        Value::from((order + 1).to_string()),
+        "chain-arithmetic",
+    );
+    let images = i["generators"][0]["images"].clone();
+    let mut swapped: Vec<u64> = serde_json::from_value(images).unwrap();
+    let moved = (0..swapped.len())
+        .find(|&k| swapped[k] != k as u64)
+        .unwrap();
+    let target = swapped[moved] as usize;
+    swapped.swap(moved, target);
+    caught(
+        &i,
+        "dw-images",
+        "/generators/0/images",
+        Value::from(swapped),
+        "generators",
+    );
+    let lengths: Vec<u64> = serde_json::from_value(i["basic_orbit_lengths"].clone()).unwrap();
+    let mut base: Vec<u64> = serde_json::from_value(i["base"].clone()).unwrap();
+    base.pop();
+    assert!(lengths.last().unwrap() > &1);
+    caught(&i, "dw-base", "/base", Value::from(base), "order");
+    let (path, o) = produce("dw-orbitals", &["commutant", "dw:S3", "--genus", "1"]);
+    holds(&path, "dw-orbitals");
+    let n = o["commutant_dimension"].as_u64().unwrap();
+    caught(
+        &o,
+        "dw-orbitals-n",
+        "/commutant_dimension",
+        Value::from(n + 1),
+        "commutant-dimension",
+    );
+}
+
+#[test]
+fn theory_files_are_proved_and_their_data_pinned() {
+    // a theory file: Ising written out by `describe --json`
+    let file = temp_path("ising-theory.json");
+    let described = cyclorb(&["describe", "ising", "--json"]);
+    std::fs::write(&file, &described.stdout).unwrap();
+    let spec = file.to_str().unwrap();
+    let (path, c) = produce("file-commutant", &["commutant", spec, "--genus", "1"]);
+    let files = c["theory_files"].as_array().unwrap();
+    assert_eq!(files.len(), 1);
+    assert_eq!(files[0]["path"], spec);
+    let report = holds(&path, "commutant");
+    assert_eq!(report["verified"], true);
+    let hash = files[0]["data_hash"].as_str().unwrap();
+    let other = format!(
+        "{}{}",
+        if hash.starts_with('0') { "1" } else { "0" },
+        &hash[1..]
+    );
+    caught(
+        &c,
+        "file-hash",
+        "/theory_files/0/data_hash",
+        Value::from(other),
+        "theory-files",
+    );
+    // under --unverified the answer says it rests on unproved data
+    let (code, unproved) = cyclorb_json(&["check", path.to_str().unwrap(), "--unverified"]);
+    assert_eq!(code, 0);
+    assert_eq!(unproved["verified"], false);
+}
+
+#[test]
+fn bad_files_and_usage_are_refused_cleanly() {
+    let (code, _) = {
+        let out = cyclorb(&["check"]);
+        (out.status.code(), ())
+    };
+    assert_eq!(code, Some(2));
+    let missing = temp_path("no-such-certificate.json");
+    let out = cyclorb(&["check", missing.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(1));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("no-such-certificate.json"));
+    // a file without the envelope names the file and the key
+    let bare = temp_path("bare-certificate.json");
+    std::fs::write(
+        &bare,
+        r#"{"conductor": 12, "generators": ["alpha0"], "order": 2}"#,
+    )
+    .unwrap();
+    let out = cyclorb(&["check", bare.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(1));
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert!(
+        stderr.contains("bare-certificate.json") && stderr.contains("`genus`"),
+        "{stderr}"
+    );
+    // an unknown kind is named
+    let (path, c) = produce(
+        "kind",
+        &["image", "zn:3:2", "--genus", "1", "--route", "enumeration"],
+    );
+    let mut changed = c.clone();
+    changed["kind"] = Value::from("image-guess");
+    std::fs::write(&path, changed.to_string()).unwrap();
+    let out = cyclorb(&["check", path.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(1));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("unknown kind \"image-guess\""));
+    // a repeated key is refused
+    std::fs::write(&path, r#"{"kind": "witness", "kind": "commutant"}"#).unwrap();
+    let out = cyclorb(&["check", path.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(1));
+    assert!(String::from_utf8_lossy(&out.stderr).contains("kind"));
+}
