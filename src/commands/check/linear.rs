@@ -88,9 +88,10 @@ pub fn determinant(field: &CyclotomicField, m: &Matrix) -> Result<Cyc, String> {
                 continue;
             }
             let factor = field.mul(&a[r][col], &inverse).map_err(|e| e.to_string())?;
-            for c in col..n {
-                let t = field.mul(&factor, &a[col][c]).map_err(|e| e.to_string())?;
-                a[r][c] = field.sub(&a[r][c], &t).map_err(|e| e.to_string())?;
+            let (top, bottom) = a.split_at_mut(r);
+            for (x, y) in bottom[0][col..].iter_mut().zip(&top[col][col..]) {
+                let t = field.mul(&factor, y).map_err(|e| e.to_string())?;
+                *x = field.sub(x, &t).map_err(|e| e.to_string())?;
             }
         }
     }
