@@ -69,6 +69,11 @@ fn caught(original: &Value, tag: &str, pointer: &str, new: Value, claim: &str) {
     assert_eq!(text.status.code(), Some(1));
     let stdout = String::from_utf8_lossy(&text.stdout);
     assert!(stdout.contains(&format!("claim {claim} FAILS")), "{stdout}");
+    let stderr = String::from_utf8_lossy(&text.stderr);
+    assert!(
+        stderr.contains(path.to_str().unwrap()) && stderr.contains(&format!("claim {claim} fails")),
+        "{stderr}"
+    );
 }
 
 #[test]

@@ -397,6 +397,45 @@ fn mutants_never_panic_hang_or_abort() {
         accepted,
         total - accepted,
     ));
+
+    // certificate files read by `cyclorb check`: the structure certificate of Ising at genus 1
+    let certificate_path = dir.join("certificate.json");
+    let base_path = dir.join("base-certificate.json");
+    let written = cyclorb(&[
+        "orbit",
+        "ising",
+        "--genus",
+        "1",
+        "--method",
+        "structure",
+        "--out",
+        base_path.to_str().unwrap(),
+    ]);
+    assert_eq!(written.status.code(), Some(0));
+    let certificate = std::fs::read(&base_path).unwrap();
+    let (mut accepted, mut total) = (0, 0);
+    for k in 0..60 * scale() {
+        std::fs::write(&certificate_path, mutate(&certificate, &mut rng)).unwrap();
+        let args = [
+            "check",
+            certificate_path.to_str().unwrap(),
+            "--memory-limit",
+            "512",
+            "--json",
+        ];
+        accepted += usize::from(binary_mutant(
+            &certificate_path,
+            &args,
+            &mut failures,
+            &format!("certificate {k}"),
+        ));
+        total += 1;
+    }
+    figures.push((
+        "certificate (binary, check)".to_string(),
+        accepted,
+        total - accepted,
+    ));
     std::fs::remove_dir_all(&dir).ok();
 
     let mutants: usize = figures.iter().map(|(_, a, r)| a + r).sum();

@@ -556,3 +556,39 @@ fn a_file_too_large_for_the_budget_is_refused_before_reading() {
     assert_eq!(code, 0, "{v}");
     std::fs::remove_dir_all(&dir).ok();
 }
+
+#[test]
+fn dense_generators_past_the_budget_are_refused_before_they_are_built() {
+    // Ising at genus 7 (dim 8256, Verlinde: 2^6·(2^7 + 1)) as 15 dense matrices is tens of
+    // GiB; the certificate commands (and `cyclorb check` on a certificate whose genus was
+    // changed to 7) used to start building them.
+    refused(
+        &[
+            "commutant",
+            "ising",
+            "--genus",
+            "7",
+            "--memory-limit",
+            "512",
+        ],
+        &["dense generator matrices", "--memory-limit"],
+        30,
+    );
+}
+
+#[test]
+fn a_huge_genus_is_refused_at_once() {
+    // the size estimate iterated once per handle: genus 3·10¹⁸ (a mutated certificate) hung
+    refused(
+        &[
+            "commutant",
+            "ising",
+            "--genus",
+            "3009911920519387700",
+            "--memory-limit",
+            "512",
+        ],
+        &["genus-3009911920519387700", "--memory-limit"],
+        30,
+    );
+}

@@ -28,6 +28,17 @@ pub(super) fn load(args: &CertArgs) -> Result<(BlockSpace, CertSet), String> {
     let set = parse_set(&args.space.set)?;
     let space = build_space(&args.space.spec, args.space.genus)?;
     let gens = space.generators(set).map_err(|e| e.to_string())?;
+    // the certificate routes hold every generator as a dense d × d matrix: the Cyc values
+    // alone (a zero holds no heap, so this is a lower bound) are checked against the budget
+    let d = space.dimension() as u64;
+    let bytes = (d * d)
+        .saturating_mul(gens.len() as u64)
+        .saturating_mul(std::mem::size_of::<cyclorb_field::Cyc>() as u64);
+    cyclorb_field::check_budget(
+        || format!("{} dense generator matrices of size {d} × {d}", gens.len()),
+        bytes,
+    )
+    .map_err(|e| e.to_string())?;
     let named = gens
         .into_iter()
         .map(|(c, op)| (c.to_string(), op))

@@ -228,9 +228,15 @@ pub fn run(args: &CheckArgs, as_json: bool) -> Outcome {
         "claims": claims.json(),
     });
     let report = Report::new(value, text, as_json);
-    if failed.is_none() {
-        Outcome::Done(report)
-    } else {
-        Outcome::CheckFailed(report)
+    match claims.failed() {
+        None => Outcome::Done(report),
+        Some(claim) => {
+            // the report goes to stdout; stderr names the file, the claim and the reason
+            eprintln!(
+                "cyclorb: {file}: claim {} fails: {}",
+                claim.name, claim.detail
+            );
+            Outcome::CheckFailed(report)
+        }
     }
 }

@@ -44,6 +44,11 @@ impl SpaceEstimate {
                     }
                 }
             }
+            // a fixed point (every count saturated, or a theory whose counts stop growing)
+            // repeats for every further handle: stop, so that a huge genus costs nothing
+            if next == count {
+                break;
+            }
             count = next;
         }
         let dimension = count[0];
