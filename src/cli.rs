@@ -211,9 +211,9 @@ pub struct WitnessArgs {
     /// Then this many seeded random words.
     #[arg(long, default_value_t = 200)]
     pub tries: usize,
-    /// Seed of the random words.
+    /// Seed of the pseudo-random words (a number; not the seed vector of `orbit --seed`).
     #[arg(long, default_value_t = 1)]
-    pub seed: u64,
+    pub word_seed: u64,
 }
 
 /// `cyclorb sweep`: a plan of runs over theories × genera, resumable, with reports.

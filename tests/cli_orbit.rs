@@ -347,6 +347,13 @@ fn the_product_route_agrees_with_enumeration() {
         orbit_by("conj(fibonacci)*ising:7", "1", "product").2["prefactor"],
         "48"
     );
+    // The built-in name is that product too: the product route takes it, with the same
+    // orbit as enumeration.
+    let (size, layers, sum) = orbit_by("tricritical-ising", "1", "product");
+    let (size_e, layers_e, sum_e) = orbit_by("tricritical-ising", "1", "enumerate");
+    assert_eq!((size, layers), (size_e, layers_e));
+    assert_eq!(sum["prefactor"], "48");
+    assert_eq!(sum_e["prefactor"], "48");
 }
 
 #[test]

@@ -404,7 +404,7 @@ pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
     let options = WitnessOptions {
         depth: args.depth,
         tries: args.tries,
-        seed: args.seed,
+        seed: args.word_seed,
         ..WitnessOptions::default()
     };
     let mut text = header(&space);

@@ -82,7 +82,7 @@ mod verify;
 mod verlinde;
 
 pub use builtins::{
-    builtin_catalogue, fibonacci, ising_type, minimal, minimal_modular_data, so3, su2,
+    builtin_catalogue, defining_product, fibonacci, ising_type, minimal, minimal_modular_data, so3, su2,
     tricritical_ising, zn,
 };
 pub use digest::Sha256;

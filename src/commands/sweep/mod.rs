@@ -80,10 +80,11 @@ use result::{finished_result, write_atomically, write_result, RunResult, Stored}
 use run::{execute, RunEnd, SweepSettings};
 use schedule::{schedule, Schedule};
 
-/// The command line, each argument quoted when the shell would need it.
+/// The command line as a user types it: `cyclorb` (not the path the program was started
+/// by) and the arguments, each quoted when the shell would need it.
 fn command_line() -> String {
-    std::env::args()
-        .map(|a| {
+    std::iter::once("cyclorb".to_string())
+        .chain(std::env::args().skip(1).map(|a| {
             let plain = !a.is_empty()
                 && a.chars()
                     .all(|c| c.is_ascii_alphanumeric() || "-_./:=@+,".contains(c));
@@ -92,7 +93,7 @@ fn command_line() -> String {
             } else {
                 format!("'{}'", a.replace('\'', "'\\''"))
             }
-        })
+        }))
         .collect::<Vec<_>>()
         .join(" ")
 }
