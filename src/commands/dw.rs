@@ -16,7 +16,9 @@ use cyclorb_dw::{
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::Operator;
 use cyclorb_mcg::{Curve, GeneratingSet};
-use cyclorb_orbit::{GeneratorSet, InvariantReport, OrbitProblem, PoincareReport, Seed};
+use cyclorb_orbit::{
+    GeneratorSet, InvariantReport, LabelledEntry, OrbitProblem, PoincareReport, Seed,
+};
 use serde_json::{json, Value};
 
 use super::common::parse_set;
@@ -175,6 +177,26 @@ impl DwSpace {
         Orbitals::new(self.dimension(), &self.permutations()).map_err(|e| e.to_string())
     }
 
+    /// The entries (i, j) where `value` is non-zero and not `None`, keyed by the states'
+    /// descriptions.
+    fn labelled_entries(&self, value: impl Fn(usize, usize) -> Option<u64>) -> Vec<LabelledEntry> {
+        let d = self.dimension();
+        let mut out = Vec::new();
+        for i in 0..d {
+            for j in 0..d {
+                if let Some(v) = value(i, j).filter(|&v| v != 0) {
+                    out.push(LabelledEntry {
+                        row: self.bundles.describe(i),
+                        column: self.bundles.describe(j),
+                        value: v.to_string(),
+                        approx: [v as f64, 0.0],
+                    });
+                }
+            }
+        }
+        out
+    }
+
     /// The report of B = Σ_S 1_S 1_Sᵀ over the orbit of the vacuum subset, without a dense
     /// d×d matrix: the orbit is listed again as subsets (no field arithmetic) and must have
     /// `engine_orbit_size` elements; B is invariant, so constant on each orbital O, with value
@@ -274,10 +296,16 @@ impl DwSpace {
                     } else {
                         Vec::new()
                     },
+                    entries: if print {
+                        self.labelled_entries(|i, j| (entry(i, j) == c).then_some(1))
+                    } else {
+                        Vec::new()
+                    },
                 })
                 .collect(),
         );
         if print {
+            report.entries = Some(self.labelled_entries(|i, j| Some(entry(i, j))));
             report.matrix = Some(
                 (0..d)
                     .map(|i| (0..d).map(|j| entry(i, j).to_string()).collect())

@@ -7,8 +7,8 @@ use std::sync::Arc;
 use std::time::{Duration, Instant};
 
 use cyclorb_orbit::{
-    install_stop_handler, CheckpointPlan, GeneratorSet, Orbit, OrbitOptions, OrbitProblem,
-    OrbitReport, Seed,
+    install_stop_handler, CheckpointPlan, GeneratorSet, LabelledEntry, Orbit, OrbitOptions,
+    OrbitProblem, OrbitReport, PoincareReport, Seed,
 };
 use serde_json::json;
 
@@ -18,7 +18,7 @@ use super::output::{Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
 use super::proof;
-use super::structure::{counted, orbit_json, orbit_text};
+use super::structure::{counted, orbit_json, orbit_text, scalar_sum_entries};
 use crate::cli::OrbitArgs;
 
 /// The generator set and seed from either a theory or raw files.
@@ -81,30 +81,111 @@ fn check_writable(path: &Path) -> Result<(), String> {
     Ok(())
 }
 
-/// The non-zero entries of a matrix given as text, `(i,j)=v` separated by spaces, shortened
-/// after 24 entries.
-fn nonzero_entries(m: &[Vec<String>]) -> String {
-    let entries: Vec<String> = m
-        .iter()
-        .enumerate()
-        .flat_map(|(i, row)| {
-            row.iter()
-                .enumerate()
-                .filter(|(_, v)| v.as_str() != "0")
-                .map(move |(j, v)| format!("({i},{j})={v}"))
-        })
-        .collect();
-    let shown = entries
-        .iter()
-        .take(24)
-        .cloned()
-        .collect::<Vec<_>>()
-        .join(" ");
-    if entries.len() > 24 {
-        format!("{shown} … ({} non-zero entries in all)", entries.len())
-    } else {
-        shown
+/// Entries of B (or of an invariant) printed as text before pointing to the JSON.
+const TEXT_ENTRY_LIMIT: usize = 200;
+
+/// A square matrix with named rows and columns, columns aligned.
+fn label_table(labels: &[String], m: &[Vec<String>]) -> String {
+    let width = |j: usize| {
+        m.iter()
+            .map(|row| row[j].chars().count())
+            .chain(std::iter::once(labels[j].chars().count()))
+            .max()
+            .unwrap_or(1)
+    };
+    let widths: Vec<usize> = (0..labels.len()).map(width).collect();
+    let first = labels.iter().map(|l| l.chars().count()).max().unwrap_or(1);
+    let pad = |x: &str, w: usize| format!("{}{x}", " ".repeat(w - x.chars().count()));
+    let mut t = format!("    {}", " ".repeat(first));
+    for (l, &w) in labels.iter().zip(&widths) {
+        t.push_str(&format!("  {}", pad(l, w)));
     }
+    t.push('\n');
+    for (l, row) in labels.iter().zip(m) {
+        t.push_str(&format!("    {}{l}", " ".repeat(first - l.chars().count())));
+        for (x, &w) in row.iter().zip(&widths) {
+            t.push_str(&format!("  {}", pad(x, w)));
+        }
+        t.push('\n');
+    }
+    t
+}
+
+/// Non-zero entries keyed by basis labels, one per line, up to [`TEXT_ENTRY_LIMIT`].
+fn entry_lines(entries: &[LabelledEntry], json_key: &str) -> String {
+    let mut t = String::new();
+    for e in entries.iter().take(TEXT_ENTRY_LIMIT) {
+        t.push_str(&format!("    {} | {}: {}\n", e.row, e.column, e.value));
+    }
+    if entries.len() > TEXT_ENTRY_LIMIT {
+        t.push_str(&format!(
+            "    ({} of {} non-zero entries shown; every one is under {json_key} in --json)\n",
+            TEXT_ENTRY_LIMIT,
+            entries.len()
+        ));
+    }
+    t
+}
+
+/// The Poincaré sum as text: λ or the decomposition over the invariants, the commutant
+/// dimension, and B by labels (a modular invariant table at genus 1 when G = I; non-zero
+/// entries by comb-basis label tuples otherwise).
+fn poincare_text(p: &PoincareReport) -> String {
+    let mut t = String::new();
+    let commutant = p
+        .commutant_dimension
+        .map_or(String::new(), |c| format!("; commutant dimension {c}"));
+    match (p.is_scalar, &p.prefactor) {
+        (Some(true), Some(l)) => t.push_str(&format!(
+            "Poincaré sum: B = {l} · G⁻¹ (scalar){commutant}\n"
+        )),
+        (Some(false), _) => {
+            t.push_str(&format!(
+                "Poincaré sum: B is not a multiple of G⁻¹{commutant}\n"
+            ));
+        }
+        _ => {
+            return format!(
+                "Poincaré sum: not computed ({})\n",
+                p.note.clone().unwrap_or_default()
+            )
+        }
+    }
+    if let Some(mi) = &p.modular_invariant {
+        t.push_str("  modular invariant Z = Σ M_ab χ_a χ̄_b with M = B (rows a, columns b):\n");
+        t.push_str(&label_table(&mi.labels, &mi.matrix));
+    } else if let Some(entries) = &p.entries {
+        t.push_str("  B by comb-basis labels (row | column: value, non-zero entries):\n");
+        t.push_str(&entry_lines(entries, "poincare_sum.entries"));
+    }
+    if let Some(terms) = p.invariants.as_ref().filter(|v| !v.is_empty()) {
+        let basis = if p.physical_basis == Some(true) {
+            "physical invariants: entries ≥ 0, vacuum entry 1"
+        } else {
+            "a basis of the invariant matrices"
+        };
+        let sum: Vec<String> = (1..=terms.len())
+            .zip(terms)
+            .map(|(k, term)| format!("{}·M{k}", term.coefficient))
+            .collect();
+        t.push_str(&format!("  B = {} over {basis}:\n", sum.join(" + ")));
+        for (k, term) in (1..=terms.len()).zip(terms) {
+            match &p.modular_invariant {
+                Some(mi) => {
+                    t.push_str(&format!("  M{k}:\n"));
+                    t.push_str(&label_table(&mi.labels, &term.matrix));
+                }
+                None => {
+                    t.push_str(&format!("  M{k} (row | column: value):\n"));
+                    t.push_str(&entry_lines(
+                        &term.entries,
+                        "poincare_sum.invariants[].entries",
+                    ));
+                }
+            }
+        }
+    }
+    t
 }
 
 fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
@@ -139,26 +220,7 @@ fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
     }
     t.push_str(&format!("layer sizes: {:?}\n", report.layer_sizes));
     let p = &report.poincare_sum;
-    match (p.is_scalar, &p.prefactor) {
-        (Some(true), Some(l)) => t.push_str(&format!("Poincaré sum: B = {l} · G⁻¹ (scalar)\n")),
-        (Some(false), _) => {
-            t.push_str("Poincaré sum: B is not a multiple of G⁻¹\n");
-            if let Some(inv) = &p.invariants {
-                t.push_str("  B = Σ coefficient × invariant; non-zero entries (row,column)=value in basis order:\n");
-                for term in inv {
-                    t.push_str(&format!(
-                        "  {} × {}\n",
-                        term.coefficient,
-                        nonzero_entries(&term.matrix)
-                    ));
-                }
-            }
-        }
-        _ => t.push_str(&format!(
-            "Poincaré sum: not computed ({})\n",
-            p.note.clone().unwrap_or_default()
-        )),
-    }
+    t.push_str(&poincare_text(p));
     if let Some(ok) = p.trace_check {
         t.push_str(&format!(
             "check tr(B·G) = |orbit|·⟨v₀,v₀⟩_G: {}\n",
@@ -294,11 +356,24 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
         Err(e) => return Outcome::Invalid(e),
     };
     match counted(&space.1, space.0) {
-        Ok(Ok(report)) => Outcome::Done(Report::new(
-            orbit_json(&report, started),
-            orbit_text(&report),
-            as_json,
-        )),
+        Ok(Ok(report)) => {
+            let mut value = orbit_json(&report, started);
+            let mut entries_text = String::new();
+            if let Some(lambda) = &report.prefactor {
+                match scalar_sum_entries(&space.1, lambda) {
+                    Ok(entries) => {
+                        entries_text = format!(
+                            "  B by comb-basis labels (row | column: value, non-zero entries):\n{}",
+                            entry_lines(&entries, "poincare_sum.entries")
+                        );
+                        value["poincare_sum"]["entries"] = json!(entries);
+                    }
+                    Err(e) => return Outcome::Invalid(format!("B = λ·G⁻¹ by entries: {e}")),
+                }
+            }
+            let text = orbit_text(&report, &entries_text);
+            Outcome::Done(Report::new(value, text, as_json))
+        }
         Ok(Err(absent)) => Outcome::Invalid(format!(
             "{spec} at genus {genus} has no monomial structure ({absent}); use --method enumerate"
         )),

@@ -111,5 +111,7 @@ pub use memory::peak_memory_bytes;
 pub use pairs::{pair_orbit, PairOrbit};
 pub use poincare::PoincareSum;
 pub use problem::OrbitProblem;
-pub use report::{InvariantReport, OrbitReport, PoincareReport};
+pub use report::{
+    InvariantReport, LabelledEntry, ModularInvariantReport, OrbitReport, PoincareReport,
+};
 pub use signal::install_stop_handler;

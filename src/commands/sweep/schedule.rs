@@ -115,7 +115,7 @@ impl RunSpace {
                 let sum = problem
                     .poincare_sum(orbit, threads)
                     .map_err(|e| e.to_string())?;
-                Ok(PoincareReport::from_sum(&sum))
+                Ok(PoincareReport::from_sum(&sum, problem.generators()))
             }
             RunSpace::Dw(space) => Ok(space.poincare_report(orbit.len())),
         }
