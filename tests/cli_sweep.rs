@@ -180,7 +180,7 @@ fn small_sweep_matches_published_values() {
     assert!(md.contains("| ising | 2 | 10 | 3840 | 384 |"), "{md}");
     assert!(md.contains("not closed after 3000 (limit)"), "{md}");
     // the command as a user types it, not the path of the test binary
-    assert!(md.contains("Command: `cyclorb sweep "), "{md}");
+    assert!(md.contains("Command: `cyclorb --json sweep "), "{md}");
     assert!(!md.contains(BIN), "{md}");
     let csv = summary_without_costs(&out);
     assert_eq!(csv.len(), 1 + 7);
