@@ -124,13 +124,14 @@ pub struct TwistsArgs {
 }
 
 /// `cyclorb orbit`: saturate the orbit of the seed line and sum it.
-#[derive(Args, Debug)]
+#[derive(Args, Debug, Clone)]
 pub struct OrbitArgs {
-    /// Theory: a built-in spec or a theory file (omit with --matrices).
-    #[arg(required_unless_present = "matrices", conflicts_with = "matrices")]
+    /// Theory: a built-in spec or a theory file (omit with --matrices, or with --resume
+    /// alone: the checkpoint records it).
+    #[arg(required_unless_present_any = ["matrices", "resume"], conflicts_with = "matrices")]
     pub spec: Option<String>,
     /// Genus of the surface (with SPEC).
-    #[arg(long, short = 'g', required_unless_present = "matrices")]
+    #[arg(long, short = 'g', required_unless_present_any = ["matrices", "resume"])]
     pub genus: Option<usize>,
     /// Generating set of Dehn twists: humphries or lickorish (with SPEC).
     #[arg(long, default_value = "humphries")]
@@ -147,13 +148,16 @@ pub struct OrbitArgs {
     /// Worker threads (the answer does not depend on it; 1 to 256); default: every core.
     #[arg(long, value_parser = thread_count)]
     pub threads: Option<usize>,
-    /// Write a resumable checkpoint here periodically and when stopped.
+    /// Write a resumable checkpoint here periodically and when stopped (default: a file
+    /// `cyclorb-orbit-HASH.ckpt` in the current folder, removed when the orbit closes).
     #[arg(long)]
     pub checkpoint: Option<PathBuf>,
     /// Seconds between periodic checkpoints.
     #[arg(long, default_value_t = 120)]
     pub checkpoint_every: u64,
-    /// Continue from this checkpoint (it keeps being updated unless --checkpoint names another file).
+    /// Continue from this checkpoint (it keeps being updated unless --checkpoint names another
+    /// file). Alone, it is enough: the checkpoint records the theory, genus and generating
+    /// set (or the raw files).
     #[arg(long)]
     pub resume: Option<PathBuf>,
     /// Print the word (in generator names) of this many orbit elements, farthest first.

@@ -198,6 +198,87 @@ fn tricritical_ising_genus_two_does_not_close() {
 }
 
 #[test]
+fn a_stopped_run_names_its_checkpoint_and_resumes_from_it_alone() {
+    // No --checkpoint: the run keeps one in the cache folder and says how to continue; the
+    // checkpoint alone (no theory, no genus) is enough to finish it. Ising at genus 2
+    // closes with 3840 lines, λ = 384 (as above).
+    let (code, partial) = cyclorb_json(&["orbit", "ising", "--genus", "2", "--limit", "1000"]);
+    assert_eq!(code, 3, "{partial}");
+    let ckpt = partial["checkpoint"].as_str().unwrap().to_string();
+    assert!(std::path::Path::new(&ckpt).exists(), "{partial}");
+    let command = partial["resume_command"].as_str().unwrap();
+    assert_eq!(command, format!("cyclorb orbit --resume {ckpt}"));
+    let (code, resumed) = cyclorb_json(&["orbit", "--resume", &ckpt]);
+    assert_eq!(code, 0, "{resumed}");
+    let (_, fresh) = cyclorb_json(&["orbit", "ising", "--genus", "2"]);
+    for key in ["theory", "genus", "orbit_size", "layer_sizes", "saturated"] {
+        assert_eq!(resumed[key], fresh[key], "{key}");
+    }
+    assert_eq!(resumed["poincare_sum"]["prefactor"], "384");
+    let _ = std::fs::remove_file(&ckpt);
+    // a finished run leaves nothing behind
+    assert!(fresh.get("checkpoint").is_none(), "{fresh}");
+
+    // raw files: the checkpoint records their paths
+    let gens = temp_path("resume-alone-gens.json");
+    let out = common::cyclorb(&[
+        "twists",
+        "ising",
+        "--genus",
+        "1",
+        "--out",
+        gens.to_str().unwrap(),
+    ]);
+    assert!(out.status.success());
+    let seed = fixture("orbit/vacuum-seed-ising.json");
+    let ckpt = temp_path("resume-alone.ckpt");
+    let (code, _) = cyclorb_json(&[
+        "orbit",
+        "--matrices",
+        gens.to_str().unwrap(),
+        "--seed",
+        seed.to_str().unwrap(),
+        "--limit",
+        "10",
+        "--checkpoint",
+        ckpt.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 3);
+    let (code, v) = cyclorb_json(&["orbit", "--resume", ckpt.to_str().unwrap()]);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["orbit_size"], 24);
+    let _ = std::fs::remove_file(ckpt);
+}
+
+#[test]
+fn an_interrupted_run_says_how_to_continue() {
+    // SU(2)_3's genus-2 orbit never closes (its image is infinite: Freedman, Larsen and
+    // Wang 2002), so the run is still going when SIGINT arrives.
+    let child = common::command()
+        .args(["orbit", "su2:3", "--genus", "2", "--threads", "1"])
+        .stdout(std::process::Stdio::piped())
+        .spawn()
+        .unwrap();
+    std::thread::sleep(std::time::Duration::from_millis(1500));
+    let status = std::process::Command::new("kill")
+        .args(["-INT", &child.id().to_string()])
+        .status()
+        .unwrap();
+    assert!(status.success());
+    let out = child.wait_with_output().unwrap();
+    assert_eq!(out.status.code(), Some(3));
+    let text = String::from_utf8_lossy(&out.stdout);
+    assert!(text.contains("stopped: interrupted"), "{text}");
+    let line = text
+        .lines()
+        .find(|l| l.starts_with("continue with: cyclorb orbit --resume "))
+        .unwrap_or_else(|| panic!("{text}"));
+    let path = line.trim_start_matches("continue with: cyclorb orbit --resume ");
+    assert!(std::path::Path::new(path).exists(), "{text}");
+    let _ = std::fs::remove_file(path);
+}
+
+#[test]
 fn a_stopped_run_resumes_to_the_same_answer() {
     let ckpt = temp_path("ising2.ckpt");
     let (code, partial) = cyclorb_json(&[

@@ -7,14 +7,14 @@ use std::sync::Arc;
 use std::time::{Duration, Instant};
 
 use cyclorb_orbit::{
-    install_stop_handler, CheckpointPlan, GeneratorSet, LabelledEntry, Orbit, OrbitOptions,
-    OrbitProblem, OrbitReport, PoincareReport, Seed,
+    checkpoint_origin, install_stop_handler, CheckpointPlan, GeneratorSet, LabelledEntry, Orbit,
+    OrbitOptions, OrbitProblem, OrbitReport, PoincareReport, Seed,
 };
 use serde_json::json;
 
 use super::common::{build_space, parse_set, vacuum_problem};
 use super::dw::{is_dw, DwSpace};
-use super::output::{Outcome, Report};
+use super::output::{shell_word, Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
 use super::proof;
@@ -38,6 +38,79 @@ fn load_problem(args: &OrbitArgs) -> Result<OrbitProblem, String> {
         }
         _ => Err("give a theory SPEC with --genus, or --matrices FILE --seed FILE".into()),
     }
+}
+
+/// How the problem of `args` is built, as JSON recorded in its checkpoints, so that
+/// `--resume FILE` alone can rebuild it (raw files by absolute path).
+fn origin_of(args: &OrbitArgs) -> String {
+    let absolute = |p: &Path| {
+        std::path::absolute(p)
+            .unwrap_or_else(|_| p.to_path_buf())
+            .display()
+            .to_string()
+    };
+    match (&args.matrices, &args.seed) {
+        (Some(m), Some(s)) => json!({"matrices": absolute(m), "seed": absolute(s)}),
+        _ => json!({"theory": args.spec, "genus": args.genus, "set": args.set}),
+    }
+    .to_string()
+}
+
+/// `--resume FILE` without a theory or raw files: the arguments completed with what the
+/// checkpoint records (theory, genus and generating set, or the raw files).
+fn recorded_arguments(args: &OrbitArgs, path: &Path) -> Result<OrbitArgs, String> {
+    let place = path.display();
+    let origin = checkpoint_origin(path)
+        .map_err(|e| e.to_string())?
+        .ok_or_else(|| {
+            format!(
+                "{place}: this checkpoint records no theory (an older format); give SPEC --genus G \
+                 (and --set) as when it was written"
+            )
+        })?;
+    let v: serde_json::Value = serde_json::from_str(&origin)
+        .map_err(|e| format!("{place}: the recorded origin is not JSON: {e}"))?;
+    let mut out = args.clone();
+    match (
+        v["matrices"].as_str(),
+        v["seed"].as_str(),
+        v["theory"].as_str(),
+        v["genus"].as_u64(),
+        v["set"].as_str(),
+    ) {
+        (Some(m), Some(s), ..) => {
+            out.matrices = Some(m.into());
+            out.seed = Some(s.into());
+        }
+        (_, _, Some(theory), Some(genus), Some(set)) => {
+            out.spec = Some(theory.to_string());
+            out.genus = Some(genus as usize);
+            out.set = set.to_string();
+        }
+        _ => {
+            return Err(format!(
+                "{place}: the recorded origin {origin} names no problem"
+            ))
+        }
+    }
+    Ok(out)
+}
+
+/// Where a run without `--checkpoint` keeps its checkpoint: `cyclorb-orbit-HASH.ckpt` (HASH
+/// from the generators and seed) in `$XDG_CACHE_HOME/cyclorb`, `~/.cache/cyclorb` or the
+/// temporary folder, created when missing; `None` when none can be written.
+fn default_checkpoint(problem: &OrbitProblem) -> Option<PathBuf> {
+    let base = std::env::var_os("XDG_CACHE_HOME")
+        .map(PathBuf::from)
+        .or_else(|| std::env::var_os("HOME").map(|h| PathBuf::from(h).join(".cache")))
+        .unwrap_or_else(std::env::temp_dir)
+        .join("cyclorb");
+    std::fs::create_dir_all(&base).ok()?;
+    let path = base.join(format!(
+        "cyclorb-orbit-{:016x}.ckpt",
+        problem.content_hash() as u64
+    ));
+    check_writable(&path).ok().map(|_| path)
 }
 
 /// The engine's options from the command line (limit, memory, threads, checkpoints, stop).
@@ -251,6 +324,17 @@ fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
 /// Run `cyclorb orbit`.
 pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
     let started = Instant::now();
+    let completed;
+    let args = match &args.resume {
+        Some(path) if args.spec.is_none() && args.matrices.is_none() => {
+            completed = match recorded_arguments(args, path) {
+                Ok(a) => a,
+                Err(e) => return Outcome::Invalid(e),
+            };
+            &completed
+        }
+        _ => args,
+    };
     if args.method == "structure" {
         return run_structure(args, as_json, started);
     }
@@ -269,19 +353,28 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         .as_ref()
         .map_or_else(|| load_problem(args), DwSpace::problem)
     {
-        Ok(p) => p,
+        Ok(p) => p.with_origin(origin_of(args)),
         Err(e) => return Outcome::Invalid(e),
     };
     let stop = Arc::new(AtomicBool::new(false));
     if let Err(e) = install_stop_handler(&stop) {
         return Outcome::Invalid(format!("cannot install the interrupt handler: {e}"));
     }
-    let opts = options(args, stop);
-    if let Some(plan) = &opts.checkpoint {
-        if let Err(e) = check_writable(&plan.path) {
-            return Outcome::Invalid(e);
+    let mut opts = options(args, stop);
+    match &opts.checkpoint {
+        Some(plan) => {
+            if let Err(e) = check_writable(&plan.path) {
+                return Outcome::Invalid(e);
+            }
+        }
+        None => {
+            opts.checkpoint = default_checkpoint(&problem).map(|path| CheckpointPlan {
+                path,
+                every: Duration::from_secs(args.checkpoint_every.max(1)),
+            });
         }
     }
+    let chosen_checkpoint = args.checkpoint.is_none() && args.resume.is_none();
     let mut progress = OrbitProgress::new(as_json);
     let result: Result<Orbit, _> = match &args.resume {
         Some(path) => problem.resume(path, &opts, &mut progress),
@@ -322,7 +415,25 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
             .map(|(i, w)| json!({"line": i, "word": w}))
             .collect::<Vec<_>>());
     }
-    let text = text_report(&report, &words);
+    let mut text = text_report(&report, &words);
+    if let Some(plan) = &opts.checkpoint {
+        if orbit.is_saturated() {
+            if chosen_checkpoint {
+                std::fs::remove_file(&plan.path).ok();
+            }
+        } else if plan.path.exists() {
+            let command = format!(
+                "cyclorb orbit --resume {}",
+                shell_word(&plan.path.display().to_string())
+            );
+            text.push_str(&format!(
+                "checkpoint written to {}\ncontinue with: {command}\n",
+                plan.path.display()
+            ));
+            value["checkpoint"] = json!(plan.path.display().to_string());
+            value["resume_command"] = json!(command);
+        }
+    }
     let trace_failed = report.poincare_sum.trace_check == Some(false);
     let out = Report::new(value, text, as_json);
     if trace_failed {

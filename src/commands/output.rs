@@ -99,3 +99,16 @@ impl Outcome {
 pub fn progress_allowed(json: bool) -> bool {
     !json && std::io::stderr().is_terminal()
 }
+
+/// A word as the shell needs it typed: unchanged when it is plain, else in single quotes.
+pub fn shell_word(text: &str) -> String {
+    let plain = !text.is_empty()
+        && text
+            .chars()
+            .all(|c| c.is_ascii_alphanumeric() || "-_./:=@+,".contains(c));
+    if plain {
+        text.to_string()
+    } else {
+        format!("'{}'", text.replace('\'', "'\\''"))
+    }
+}

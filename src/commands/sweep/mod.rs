@@ -71,7 +71,7 @@ use std::time::Duration;
 use cyclorb_orbit::install_stop_handler;
 use serde_json::json;
 
-use super::output::{Outcome, Report};
+use super::output::{shell_word, Outcome, Report};
 use crate::cli::SweepArgs;
 use display::SweepDisplay;
 use plan::{read_plan, Plan};
@@ -84,16 +84,7 @@ use schedule::{schedule, Schedule};
 /// by) and the arguments, each quoted when the shell would need it.
 fn command_line() -> String {
     std::iter::once("cyclorb".to_string())
-        .chain(std::env::args().skip(1).map(|a| {
-            let plain = !a.is_empty()
-                && a.chars()
-                    .all(|c| c.is_ascii_alphanumeric() || "-_./:=@+,".contains(c));
-            if plain {
-                a
-            } else {
-                format!("'{}'", a.replace('\'', "'\\''"))
-            }
-        }))
+        .chain(std::env::args().skip(1).map(|a| shell_word(&a)))
         .collect::<Vec<_>>()
         .join(" ")
 }
