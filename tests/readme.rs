@@ -115,7 +115,7 @@ fn claimed_numbers(comment: &str) -> Vec<String> {
                 i += 1;
             } else if chars[i] == ' '
                 && chars.get(i + 1).is_some_and(char::is_ascii_digit)
-                && chars.get(i + 4).is_none_or(|c| !c.is_ascii_digit())
+                && !chars.get(i + 4).is_some_and(char::is_ascii_digit)
                 && (i + 1..i + 4).all(|k| chars.get(k).is_some_and(char::is_ascii_digit))
             {
                 i += 1; // a thin group separator: "1 228 800"
