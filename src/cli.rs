@@ -62,6 +62,26 @@ pub enum Command {
     Witness(WitnessArgs),
     /// A batch of runs over theories × genera, resumable, with summaries and a plot.
     Sweep(SweepArgs),
+    /// Shell completions (bash, zsh, fish, elvish, powershell), generated from this
+    /// command-line definition.
+    Completions(CompletionsArgs),
+    /// The manual pages (roff), generated from this command-line definition.
+    Manual(ManualArgs),
+}
+
+/// `cyclorb completions`: the completion script of one shell, on stdout.
+#[derive(Args, Debug)]
+pub struct CompletionsArgs {
+    /// The shell: bash, zsh, fish, elvish or powershell.
+    pub shell: clap_complete::Shell,
+}
+
+/// `cyclorb manual`: the manual page of the program on stdout, or one page per command.
+#[derive(Args, Debug)]
+pub struct ManualArgs {
+    /// Write `cyclorb.1` and one `cyclorb-COMMAND.1` per command into this folder instead.
+    #[arg(long, value_name = "DIR")]
+    pub out: Option<PathBuf>,
 }
 
 /// `cyclorb describe`: the exact data of one theory (`--json` output is a theory file).
