@@ -116,7 +116,13 @@ pub fn shell_word(text: &str) -> String {
 
 /// Keys whose exact value (an integer or a rational, as a string because it may exceed any
 /// machine word) gets a floating-point companion `KEY_approx` for plotting.
-const EXACT_NUMBER_KEYS: &[&str] = &["prefactor", "order", "image_order", "orbit_size", "coefficient"];
+const EXACT_NUMBER_KEYS: &[&str] = &[
+    "prefactor",
+    "order",
+    "image_order",
+    "orbit_size",
+    "coefficient",
+];
 
 /// A decimal integer or rational `p/q` as the nearest f64 (display only; `None` for other
 /// text, such as a cyclotomic number).
@@ -174,7 +180,10 @@ mod tests {
         add_approximations(&mut v);
         assert_eq!(v["order_approx"], 3019898880.0);
         assert_eq!(v["poincare_sum"]["prefactor_approx"], 1.5);
-        assert_eq!(v["poincare_sum"]["invariants"][0]["coefficient_approx"], -4.0);
+        assert_eq!(
+            v["poincare_sum"]["invariants"][0]["coefficient_approx"],
+            -4.0
+        );
         // numbers already numeric and other text are left alone
         assert!(v.get("orbit_size_approx").is_none());
         assert_eq!(approximate("1 + z^2"), None);
