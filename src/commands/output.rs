@@ -142,7 +142,7 @@ fn approximate(text: &str) -> Option<f64> {
 
 /// Beside every exact number of [`EXACT_NUMBER_KEYS`] given as a string, anywhere in the
 /// object, its approximation `KEY_approx` (the exact string stays the answer).
-fn add_approximations(value: &mut Value) {
+pub fn add_approximations(value: &mut Value) {
     match value {
         Value::Object(obj) => {
             let extra: Vec<(String, f64)> = EXACT_NUMBER_KEYS

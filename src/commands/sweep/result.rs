@@ -6,6 +6,8 @@ use std::path::{Path, PathBuf};
 use cyclorb_cert::WitnessCertificate;
 use cyclorb_orbit::PoincareReport;
 use cyclorb_theory::Sha256;
+
+use crate::commands::output::add_approximations;
 use serde::{Deserialize, Serialize};
 
 /// The commutant answer (keys as in `cyclorb commutant --json`).
@@ -156,7 +158,10 @@ fn sha256_hex(bytes: &[u8]) -> String {
 /// Write a finished result, then the SHA-256 of its bytes beside it (both through a
 /// temporary file and a rename). A result without a matching digest is never reused.
 pub fn write_result(path: &Path, result: &RunResult) -> Result<(), String> {
-    let text = serde_json::to_string_pretty(result).map_err(|e| e.to_string())? + "\n";
+    // as printed with --json: exact numbers with their float approximations beside them
+    let mut value = serde_json::to_value(result).map_err(|e| e.to_string())?;
+    add_approximations(&mut value);
+    let text = serde_json::to_string_pretty(&value).map_err(|e| e.to_string())? + "\n";
     write_atomically(path, &text)?;
     write_atomically(&digest_path(path), &(sha256_hex(text.as_bytes()) + "\n"))
 }
