@@ -4,8 +4,9 @@
 //!
 //! Saturated runs are filled markers joined by solid lines. A run stopped at its cap is a
 //! hollow marker with an upward arrow at N, the number of lines found: the orbit has at least
-//! N lines, so the point is a lower bound, joined by a dashed line; beside it `∞` says the
-//! image was proved infinite (a witness), `?` that the image was asked for and not decided.
+//! N lines, so the point is a lower bound, joined by a dashed line; the series' name then
+//! ends in `(∞)` when the image was proved infinite (a witness), `(?)` when the image was
+//! asked for and not decided, `(capped)` when nothing more was asked.
 //! Every series is named at its last point (names pushed apart so that none hides another;
 //! series with identical values share one name tag). λ_g exists only for saturated orbits
 //! with B = λ_g·G⁻¹; a panel with nothing to show says so. Coordinates are floating-point
@@ -38,12 +39,13 @@ impl Closure {
         }
     }
 
-    /// The sign written beside a hollow marker.
-    fn sign(self) -> &'static str {
+    /// What the name of a series ending at such a point says after it.
+    fn suffix(self) -> &'static str {
         match self {
-            Closure::Infinite => "∞",
-            Closure::Undecided => "?",
-            Closure::Closed | Closure::Capped => "",
+            Closure::Infinite => " (∞)",
+            Closure::Undecided => " (?)",
+            Closure::Capped => " (capped)",
+            Closure::Closed => "",
         }
     }
 }
@@ -259,6 +261,16 @@ fn polyline(points: &[(f64, f64)], colour: &str, dashed: bool) -> String {
     )
 }
 
+/// The colour of text in a series' colour: the palette's yellow is too light for text on
+/// white, so its names are drawn in a darker shade of it.
+fn text_colour(colour: &str) -> &str {
+    if colour == "#f0e442" {
+        "#9a8a00"
+    } else {
+        colour
+    }
+}
+
 /// Marker shapes, cycled with the colours so that neighbouring theories differ in both.
 #[derive(Clone, Copy)]
 enum Shape {
@@ -324,14 +336,6 @@ fn marker(x: f64, y: f64, (colour, shape): (&str, Shape), closure: Closure) -> S
             x + 5.0,
             y - 16.0
         ));
-        let sign = closure.sign();
-        if !sign.is_empty() {
-            s.push_str(&format!(
-                "<text x=\"{:.1}\" y=\"{:.1}\" font-size=\"{TITLE_SIZE}\" font-weight=\"bold\" fill=\"{colour}\">{sign}</text>\n",
-                x + 7.0,
-                y - 12.0
-            ));
-        }
     }
     s
 }
@@ -366,7 +370,11 @@ fn name_tags(series: &[Series]) -> Vec<Option<String>> {
 
 /// The names of the series at their last points in one panel: `ends[i]` is series i's last
 /// point (if any); names go right of the panel, pushed apart, with a leader line.
-fn names_at_ends(panel: &Panel, ends: &[Option<(f64, f64)>], tags: &[Option<String>]) -> String {
+fn names_at_ends(
+    panel: &Panel,
+    ends: &[Option<(f64, f64, Closure)>],
+    tags: &[Option<String>],
+) -> String {
     let shown: Vec<usize> = (0..ends.len())
         .filter(|&i| ends[i].is_some() && tags[i].is_some())
         .collect();
@@ -375,17 +383,23 @@ fn names_at_ends(panel: &Panel, ends: &[Option<(f64, f64)>], tags: &[Option<Stri
     let x_text = panel.x0 + PANEL_W + 14.0;
     let mut s = String::new();
     for (k, &i) in shown.iter().enumerate() {
-        let (x, y) = ends[i].expect("shown");
+        let (x, y, closure) = ends[i].expect("shown");
         let colour = style(i).0;
+        let name = format!(
+            "{}{}",
+            tags[i].as_deref().unwrap_or_default(),
+            closure.suffix()
+        );
         s.push_str(&format!(
             "<path d=\"M{:.1},{y:.1} L{:.1},{y:.1} L{:.1},{:.1}\" fill=\"none\" stroke=\"{colour}\" stroke-width=\"0.8\" stroke-dasharray=\"2,2\"/>\n\
-             <text x=\"{x_text:.1}\" y=\"{:.1}\" font-size=\"{TEXT_SIZE}\" fill=\"{colour}\">{}</text>\n",
+             <text x=\"{x_text:.1}\" y=\"{:.1}\" font-size=\"{TEXT_SIZE}\" fill=\"{}\">{}</text>\n",
             x + 8.0,
             panel.x0 + PANEL_W + 4.0,
             x_text - 2.0,
             placed[k],
             placed[k] + 5.0,
-            escape(tags[i].as_deref().unwrap_or_default())
+            text_colour(colour),
+            escape(&name)
         ));
     }
     s
@@ -456,7 +470,7 @@ pub fn growth_svg(rows: &[&RunResult]) -> String {
         for &(x, y, c) in &pts {
             svg.push_str(&marker(x, y, look, c));
         }
-        orbit_ends.push(pts.last().map(|p| (p.0, p.1)));
+        orbit_ends.push(pts.last().copied());
         let lpts: Vec<(f64, f64)> = s
             .lambda
             .iter()
@@ -466,7 +480,7 @@ pub fn growth_svg(rows: &[&RunResult]) -> String {
         for &(x, y) in &lpts {
             svg.push_str(&marker(x, y, look, Closure::Closed));
         }
-        lambda_ends.push(lpts.last().copied());
+        lambda_ends.push(lpts.last().map(|&(x, y)| (x, y, Closure::Closed)));
     }
     svg.push_str(&names_at_ends(&orbit_panel, &orbit_ends, &tags));
     svg.push_str(&names_at_ends(&lambda_panel, &lambda_ends, &tags));
@@ -490,7 +504,7 @@ pub fn growth_svg(rows: &[&RunResult]) -> String {
     for (k, line) in [
         "filled marker, solid line: orbit closed (its size)",
         "hollow marker with arrow, dashed line: stopped at a cap, at least that many lines",
-        "beside it, ∞: image proved infinite (a witness); ?: image asked for, not decided",
+        "after a name: (∞) image proved infinite (a witness), (?) image not decided, (capped) not asked",
     ]
     .iter()
     .enumerate()
