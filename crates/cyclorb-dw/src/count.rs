@@ -158,10 +158,8 @@ fn list_parts(
         let mut next = start;
         while next < space.subsets.len() {
             for (g, p) in permutations.iter().enumerate() {
-                let mut image: Vec<u32> = space.subsets[next]
-                    .iter()
-                    .map(|&x| p[x as usize])
-                    .collect();
+                let mut image: Vec<u32> =
+                    space.subsets[next].iter().map(|&x| p[x as usize]).collect();
                 image.sort_unstable();
                 let j = match index.get(&image) {
                     Some(&j) => j,
