@@ -112,6 +112,16 @@ impl DwSpace {
         lines
     }
 
+    /// X_g.
+    pub fn bundles(&self) -> &FlatBundles {
+        &self.bundles
+    }
+
+    /// The twists as named permutations of X_g.
+    pub fn twists(&self) -> &[(Curve, Vec<u32>)] {
+        &self.twists
+    }
+
     /// |X_g|.
     pub fn dimension(&self) -> usize {
         self.bundles.len()

@@ -4,6 +4,7 @@ mod budget;
 mod certify;
 mod common;
 mod dw;
+mod dw_count;
 mod field;
 mod orbit;
 pub mod output;

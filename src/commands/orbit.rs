@@ -458,9 +458,7 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
         );
     }
     if is_dw(spec) {
-        return Outcome::Invalid(format!(
-            "{spec}: the counting route is not available for Dijkgraaf–Witten theories yet; use --method enumerate"
-        ));
+        return super::dw_count::run(spec, genus, &args.set, args.limit, as_json, started);
     }
     let space = match parse_set(&args.set).and_then(|set| Ok((set, build_space(spec, genus)?))) {
         Ok(x) => x,

@@ -18,6 +18,8 @@
 //!   those permutations.
 //! - [`subset_orbit`] and [`Orbitals`]: the orbit of the vacuum subset and the orbits of the
 //!   group on pairs (the invariant matrices of a permutation representation).
+//! - [`count_vacuum_orbit`]: the orbit of the vacuum counted as |P| / |Stab_P(S)|, the
+//!   stabiliser from the parts of S over the abelianisation ([`AbelianFibres`]).
 //!
 //! ```
 //! use cyclorb_dw::{builtin_group, FlatBundles, SizeBound};
@@ -48,8 +50,10 @@
 mod builtins;
 mod characters;
 mod classes;
+mod count;
 mod degrees;
 mod error;
+mod fibres;
 mod file;
 mod group;
 mod modular;
@@ -63,8 +67,12 @@ mod words;
 pub use builtins::{builtin_group, EXAMPLES};
 pub use characters::{character_table, CharacterTable, MAX_CLASSES};
 pub use classes::{centraliser_in, conjugacy_classes, ConjugacyClass};
+pub use count::{
+    count_vacuum_orbit, CountBounds, CountLimits, PartOrbit, VacuumCount, VacuumOrbit,
+};
 pub use degrees::{centraliser_degrees, character_degrees, verlinde_dimension};
 pub use error::DwError;
+pub use fibres::AbelianFibres;
 pub use file::{parse_group_file, read_group_file, GROUP_FILE_FORMAT};
 pub use group::{cycle_notation, Element, FiniteGroup, MAX_ORDER, MAX_TABLE_ORDER};
 pub use modular::{modular_data, Anyon, ModularData};
