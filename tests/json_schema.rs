@@ -149,6 +149,7 @@ fn orbit_follows_its_schema_by_every_method() {
     ]);
     conforms(&["orbit", "su2:3", "--genus", "2", "--limit", "100"]);
     conforms(&["orbit", "dw:S3", "--genus", "1"]);
+    conforms(&["orbit", "dw:S3", "--genus", "2", "--method", "structure"]);
 }
 
 #[test]
