@@ -149,7 +149,13 @@ fn twisted_z3_agrees_with_the_pointed_z9_theories() {
 #[test]
 fn twisted_relations_and_verified_key() {
     let (code, v) = cyclorb_json(&[
-        "twists", "dw:Z2:1", "--genus", "2", "--check", "--set", "lickorish",
+        "twists",
+        "dw:Z2:1",
+        "--genus",
+        "2",
+        "--check",
+        "--set",
+        "lickorish",
     ]);
     assert_eq!(code, 0, "{v}");
     assert_eq!(v["relations_ok"], true);
@@ -258,7 +264,7 @@ fn sweeps_read_dw_specs() {
     let plan = dir.join("plan.toml");
     std::fs::write(
         &plan,
-        "name = \"dw-small\"\nthreads = 1\nanswers = [\"orbit\", \"image\", \"commutant\", \"witness\"]\n\n[[theory]]\nspec = \"dw:Z2\"\ngenera = [1, 2]\n\n[[theory]]\nspec = \"dw:S3\"\ngenera = [1]\n",
+        "name = \"dw-small\"\nthreads = 1\nanswers = [\"orbit\", \"image\", \"commutant\", \"witness\"]\n\n[[theory]]\nspec = \"dw:Z2\"\ngenera = [1, 2]\n\n[[theory]]\nspec = \"dw:S3\"\ngenera = [1]\n\n[[theory]]\nspec = \"dw:Z2:1\"\ngenera = [1]\n",
     )
     .unwrap();
     let out = dir.join("out");
@@ -270,7 +276,7 @@ fn sweeps_read_dw_specs() {
     ]);
     assert_eq!(code, 0, "{v}");
     let runs = v["runs"].as_array().unwrap();
-    assert_eq!(runs.len(), 3);
+    assert_eq!(runs.len(), 4);
     let find = |theory: &str, genus: u64| {
         runs.iter()
             .find(|r| r["theory"] == theory && r["genus"] == genus)
@@ -288,6 +294,14 @@ fn sweeps_read_dw_specs() {
         find("dw:S3", 1)["orbit_size"],
         orbit("dw:S3", 1)["orbit_size"]
     );
+    // the double semion in a sweep: the same answers as `orbit`, `image`, `commutant`
+    // (6 lines, order 24, dimension 2, as semion ⊠ conj(semion) above) and no errors
+    let ds = find("dw:Z2:1", 1);
+    assert_eq!(ds["orbit_size"], 6);
+    assert_eq!(ds["image"]["order"], "24");
+    assert_eq!(ds["commutant"]["commutant_dimension"], 2);
+    assert_eq!(ds["poincare_sum"]["trace_check"], true, "{ds}");
+    assert!(ds["errors"].as_array().is_none_or(|e| e.is_empty()), "{ds}");
     std::fs::remove_dir_all(&dir).ok();
 }
 

@@ -194,11 +194,18 @@ impl DwSpace {
         self.twisting.as_ref().map_or(1, |t| t.cocycle.modulus())
     }
 
-    /// The group's multiplication table as text lines (name, order, then one row per
-    /// element), for hashing what a result depends on.
+    /// The group's multiplication table as text lines (name, order, the cocycle of a twisted
+    /// theory, then one row per element), for hashing what a result depends on.
     pub fn group_data(&self) -> Vec<String> {
         let g = self.bundles.group();
         let mut lines = vec![format!("group {} order {}", g.name(), g.order())];
+        if let Some(t) = &self.twisting {
+            lines.push(format!(
+                "3-cocycle omega_{} of Z_{}",
+                t.cocycle.level(),
+                t.cocycle.order()
+            ));
+        }
         for a in g.elements() {
             let row: Vec<String> = g.elements().map(|b| g.mul(a, b).to_string()).collect();
             lines.push(row.join(" "));

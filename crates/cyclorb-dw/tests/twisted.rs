@@ -55,13 +55,15 @@ fn relations_hold_for_every_cocycle() {
     }
 }
 
-/// The twisted action with the phases of one curve replaced by `naive`, a function of the
-/// source state's residues.
+/// A phase exponent as a function of the source state's residues, N and p.
+type PhaseRule = fn(&[u16], u32, u32) -> u32;
+
+/// The twisted action with the phases of one curve replaced by `naive`.
 struct Naive<'a> {
     twisted: TwistedBundles<'a>,
     space: &'a FlatBundles,
     curve: Curve,
-    naive: fn(&[u16], u32, u32) -> u32,
+    naive: PhaseRule,
     cocycle: CyclicCocycle,
 }
 
@@ -105,7 +107,7 @@ fn naive_representatives_break_the_relations() {
     // β with ζ^{−p B̃²} alone (no carry term), and γ with the reduced difference
     // [Ã₁ − Ã₀]_N: both fail the braid relations for N = 3 (the derivation in
     // docs/dijkgraaf-witten.md needs the carry and the integer difference)
-    let cases: [(usize, Curve, fn(&[u16], u32, u32) -> u32, &str); 2] = [
+    let cases: [(usize, Curve, PhaseRule, &str); 2] = [
         (
             1,
             Curve::Beta(0),
