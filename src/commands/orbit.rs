@@ -386,7 +386,9 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         Err(e) => return Outcome::Invalid(e.to_string()),
     };
     // dw: B comes from the subsets and orbitals (no dense d×d matrix over the field)
-    let sum = if orbit.is_saturated() && dw_space.is_none() {
+    // (a twisted dw: theory has phases: its B is summed like any other theory's)
+    let dense_sum = dw_space.as_ref().map_or(true, DwSpace::is_twisted);
+    let sum = if orbit.is_saturated() && dense_sum {
         Some(
             problem
                 .poincare_sum(&orbit, opts.threads)
@@ -401,7 +403,7 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         None => Err("the orbit is not saturated".to_string()),
     };
     let mut report = OrbitReport::new(&problem, &orbit, poincare, started.elapsed());
-    if let (Some(space), true) = (&dw_space, orbit.is_saturated()) {
+    if let (Some(space), true, false) = (&dw_space, orbit.is_saturated(), dense_sum) {
         report.poincare_sum = space.poincare_report(orbit.len());
     }
     let words: Vec<(usize, Vec<String>)> = (0..args.words.min(orbit.len()))

@@ -118,9 +118,9 @@ fn blank_result(run: &PlannedRun, problem: &OrbitProblem, settings: &SweepSettin
 fn dw_answers(run: &PlannedRun, space: &DwSpace, result: &mut RunResult, display: &SweepDisplay) {
     if run.wants(Answer::Image) || run.wants(Answer::Witness) {
         display.stage(run, "image order");
-        match space.image_chain() {
-            Ok(chain) => {
-                let order = chain.order().to_string();
+        match space.image() {
+            Ok(image) => {
+                let order = image.order.to_string();
                 if run.wants(Answer::Witness) {
                     result.witness = Some(witness_not_needed(&order));
                 }
@@ -128,7 +128,7 @@ fn dw_answers(run: &PlannedRun, space: &DwSpace, result: &mut RunResult, display
                     result.image = Some(ImageAnswer {
                         finite: Some(true),
                         order: Some(order),
-                        route: "permutation-schreier-sims".into(),
+                        route: image.route.into(),
                         note: None,
                     });
                 }
@@ -138,12 +138,12 @@ fn dw_answers(run: &PlannedRun, space: &DwSpace, result: &mut RunResult, display
     }
     if run.wants(Answer::Commutant) {
         display.stage(run, "commutant");
-        match space.orbitals() {
-            Ok(o) => {
+        match space.commutant_dimension() {
+            Ok((dimension, route, primes)) => {
                 result.commutant = Some(CommutantAnswer {
-                    commutant_dimension: o.count(),
-                    primes: Vec::new(),
-                    route: "orbitals".into(),
+                    commutant_dimension: dimension,
+                    primes,
+                    route: route.into(),
                 })
             }
             Err(e) => result.errors.push(format!("commutant: {e}")),
