@@ -5,6 +5,7 @@ mod certify;
 mod common;
 mod dw;
 mod field;
+mod lifted;
 mod orbit;
 pub mod output;
 mod product;
