@@ -98,6 +98,23 @@ fn a_minimal_model_witness_is_lifted_from_its_dense_factor() {
     let (code, v) = cyclorb_json(&["witness", "fibonacci", "--genus", "2"]);
     assert_eq!(code, 0, "{v}");
     assert!(v["lifted_from_factor"].is_null(), "{v}");
+    // the automatic route of `image` on tricritical Ising M(5,4): its orbit stays open, and
+    // the witness comes from the conjugate of SO(3)_3 (Fibonacci-type, dense: Larsen–Wang 2005)
+    let (code, v) = cyclorb_json(&[
+        "image",
+        "minimal:5:4",
+        "--genus",
+        "2",
+        "--orbit-limit",
+        "2000",
+    ]);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["finite"], false);
+    assert_eq!(v["route"], "witness");
+    assert!(v["lifted_from_factor"]["theory"]
+        .as_str()
+        .unwrap()
+        .contains("so3:3"));
 }
 
 #[test]
