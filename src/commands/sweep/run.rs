@@ -14,6 +14,7 @@ use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::Arc;
 use std::time::{Duration, Instant};
 
+use cyclorb_mcg::BlockSpace;
 use cyclorb_orbit::PoincareReport;
 
 use super::super::dw::DwSpace;
@@ -157,6 +158,19 @@ fn dw_answers(run: &PlannedRun, space: &DwSpace, result: &mut RunResult, display
     }
 }
 
+/// The block space of a run that asks for the witness alone on a Deligne product (its
+/// factors are searched before anything else is built).
+fn witness_alone_on_a_product(run: &PlannedRun) -> Option<&BlockSpace> {
+    match &run.space {
+        RunSpace::Blocks(space)
+            if run.answers == [Answer::Witness] && space.theory().deligne_factors().is_some() =>
+        {
+            Some(space)
+        }
+        _ => None,
+    }
+}
+
 /// A run that asks for the witness alone, on a Deligne product whose factor yields one:
 /// the result, without building the product's generators (the factor's certificate is
 /// re-checked on the factor; see `lifted`). `None` otherwise: the run goes the usual way.
@@ -166,12 +180,9 @@ fn witness_from_factors(
     display: &SweepDisplay,
     started: Instant,
 ) -> Result<Option<RunResult>, String> {
-    let RunSpace::Blocks(space) = &run.space else {
+    let Some(space) = witness_alone_on_a_product(run) else {
         return Ok(None);
     };
-    if run.answers != [Answer::Witness] || space.theory().deligne_factors().is_none() {
-        return Ok(None);
-    }
     display.stage(run, "witness search on the factors");
     let Some(witness) = lifted_witness_answer(space, run.set, &settings.witness)? else {
         return Ok(None);
@@ -325,11 +336,12 @@ pub fn execute(
             Some(order) => witness_not_needed(&order),
             None => {
                 display.stage(run, "witness search");
+                // the factors, unless `witness_from_factors` searched them already
                 let lifted = match &run.space {
-                    RunSpace::Blocks(space) => {
+                    RunSpace::Blocks(space) if witness_alone_on_a_product(run).is_none() => {
                         lifted_witness_answer(space, run.set, &settings.witness)
                     }
-                    RunSpace::Dw(_) => Ok(None),
+                    _ => Ok(None),
                 };
                 match lifted.and_then(|found| match found {
                     Some(w) => Ok(w),
