@@ -195,6 +195,36 @@ fn small_sweep_matches_published_values() {
 }
 
 #[test]
+fn a_witness_alone_on_a_product_comes_from_a_factor() {
+    // Tricritical Ising = conj(fibonacci) ⊠ ising:7; the Fibonacci factor has a dense
+    // genus-2 image (Larsen–Wang 2005), so a run that asks for the witness alone finds it on
+    // that factor without building the product's generators (docs/minimal-models.md,
+    // "Witnesses lifted from a factor"); the direct route on Fibonacci itself finds one too.
+    let scratch = Scratch::new("lifted");
+    let plan = scratch.path("lifted.toml");
+    std::fs::write(
+        &plan,
+        "answers = [\"witness\"]\n\n[[theory]]\nspec = \"tricritical-ising\"\ngenera = [2]\n\n\
+         [[theory]]\nspec = \"fibonacci\"\ngenera = [2]\n",
+    )
+    .unwrap();
+    let output = sweep(&plan, &scratch.path("out"));
+    assert_eq!(output.status.code(), Some(0));
+    let report = json_of(&output);
+    let tri = run_of(&report, "tricritical-ising-g2");
+    assert_eq!(tri["witness"]["found"], true, "{tri}");
+    assert_eq!(
+        tri["witness"]["lifted_from_factor"]["theory"],
+        "conj(fibonacci)"
+    );
+    assert_eq!(tri["orbit_size"], Value::Null);
+    assert_eq!(tri["generators"], 5);
+    let fib = run_of(&report, "fibonacci-g2");
+    assert_eq!(fib["witness"]["found"], true, "{fib}");
+    assert_eq!(fib["witness"]["lifted_from_factor"], Value::Null);
+}
+
+#[test]
 fn dry_run_lists_runs_smallest_first() {
     let output = Command::new(BIN)
         .env("XDG_CACHE_HOME", test_cache())

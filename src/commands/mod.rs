@@ -6,6 +6,7 @@ mod common;
 mod dw;
 mod dw_count;
 mod field;
+mod lifted;
 mod orbit;
 pub mod output;
 mod product;

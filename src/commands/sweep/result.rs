@@ -7,6 +7,7 @@ use cyclorb_cert::WitnessCertificate;
 use cyclorb_orbit::PoincareReport;
 use cyclorb_theory::Sha256;
 
+use super::super::lifted::FactorRef;
 use crate::commands::output::add_approximations;
 use serde::{Deserialize, Serialize};
 
@@ -49,6 +50,10 @@ pub struct WitnessAnswer {
     pub words_tried: Option<usize>,
     /// Why the search did not run, when it did not.
     pub note: Option<String>,
+    /// The factor of a Deligne product the certificate was found on (the certificate is
+    /// then the factor's; see `cyclorb witness`); absent for a direct witness.
+    #[serde(default)]
+    pub lifted_from_factor: Option<FactorRef>,
 }
 
 /// What a paper needs to cite a result.
