@@ -20,7 +20,6 @@ use std::process::Command;
 const SLOW: &[&str] = &[
     "cyclorb verify su2:20",
     "cyclorb image su2:4 --genus 2",
-    "cyclorb witness minimal:6:5 --genus 2",
 ];
 
 /// One example: a command and what the README says about its output.
