@@ -65,6 +65,26 @@ pub enum Command {
     /// Re-check a certificate file: rebuild its theory and generators and re-derive every
     /// claim by an independent computation (exit 1 at the first that fails).
     Check(CheckArgs),
+    /// Shell completions (bash, zsh, fish, elvish, powershell), generated from this
+    /// command-line definition.
+    Completions(CompletionsArgs),
+    /// The manual pages (roff), generated from this command-line definition.
+    Manual(ManualArgs),
+}
+
+/// `cyclorb completions`: the completion script of one shell, on stdout.
+#[derive(Args, Debug)]
+pub struct CompletionsArgs {
+    /// The shell: bash, zsh, fish, elvish or powershell.
+    pub shell: clap_complete::Shell,
+}
+
+/// `cyclorb manual`: the manual page of the program on stdout, or one page per command.
+#[derive(Args, Debug)]
+pub struct ManualArgs {
+    /// Write `cyclorb.1` and one `cyclorb-COMMAND.1` per command into this folder instead.
+    #[arg(long, value_name = "DIR")]
+    pub out: Option<PathBuf>,
 }
 
 /// `cyclorb describe`: the exact data of one theory (`--json` output is a theory file).
@@ -127,13 +147,14 @@ pub struct TwistsArgs {
 }
 
 /// `cyclorb orbit`: saturate the orbit of the seed line and sum it.
-#[derive(Args, Debug)]
+#[derive(Args, Debug, Clone)]
 pub struct OrbitArgs {
-    /// Theory: a built-in spec or a theory file (omit with --matrices).
-    #[arg(required_unless_present = "matrices", conflicts_with = "matrices")]
+    /// Theory: a built-in spec or a theory file (omit with --matrices, or with --resume
+    /// alone: the checkpoint records it).
+    #[arg(required_unless_present_any = ["matrices", "resume"], conflicts_with = "matrices")]
     pub spec: Option<String>,
     /// Genus of the surface (with SPEC).
-    #[arg(long, short = 'g', required_unless_present = "matrices")]
+    #[arg(long, short = 'g', required_unless_present_any = ["matrices", "resume"])]
     pub genus: Option<usize>,
     /// Generating set of Dehn twists: humphries or lickorish (with SPEC).
     #[arg(long, default_value = "humphries")]
@@ -150,13 +171,16 @@ pub struct OrbitArgs {
     /// Worker threads (the answer does not depend on it; 1 to 256); default: every core.
     #[arg(long, value_parser = thread_count)]
     pub threads: Option<usize>,
-    /// Write a resumable checkpoint here periodically and when stopped.
+    /// Write a resumable checkpoint here periodically and when stopped (default: a file
+    /// `cyclorb-orbit-HASH.ckpt` in the current folder, removed when the orbit closes).
     #[arg(long)]
     pub checkpoint: Option<PathBuf>,
     /// Seconds between periodic checkpoints.
     #[arg(long, default_value_t = 120)]
     pub checkpoint_every: u64,
-    /// Continue from this checkpoint (it keeps being updated unless --checkpoint names another file).
+    /// Continue from this checkpoint (it keeps being updated unless --checkpoint names another
+    /// file). Alone, it is enough: the checkpoint records the theory, genus and generating
+    /// set (or the raw files).
     #[arg(long)]
     pub resume: Option<PathBuf>,
     /// Print the word (in generator names) of this many orbit elements, farthest first.
@@ -226,9 +250,9 @@ pub struct WitnessArgs {
     /// Then this many seeded random words.
     #[arg(long, default_value_t = 200)]
     pub tries: usize,
-    /// Seed of the random words.
+    /// Seed of the pseudo-random words (a number; not the seed vector of `orbit --seed`).
     #[arg(long, default_value_t = 1)]
-    pub seed: u64,
+    pub word_seed: u64,
 }
 
 /// `cyclorb sweep`: a plan of runs over theories × genera, resumable, with reports.

@@ -76,6 +76,48 @@ fn witnesses_for_the_dense_cases() {
 }
 
 #[test]
+fn a_minimal_model_witness_is_lifted_from_its_dense_factor() {
+    // M(7,6) is built as (a conjugate of) SO(3)_5 ⊠ SU(2)_4 (docs/minimal-models.md);
+    // SO(3)_5 has a dense genus-2 image (Freedman–Larsen–Wang 2002), so a witness exists on
+    // that factor and lifts to the product (the eigenvalue ratio survives the Kronecker
+    // product; docs/minimal-models.md, "Witnesses lifted from a factor"). Dimensions by
+    // Verlinde's formula (recomputed): 14 for SO(3)_5 and 35 for SU(2)_4 at genus 2.
+    let (code, v) = cyclorb_json(&["witness", "minimal:7:6", "--genus", "2"]);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["found"], true);
+    assert_eq!(v["dimension"], 490);
+    let factor = &v["lifted_from_factor"];
+    assert_eq!(factor["dimension"], 14, "{v}");
+    assert!(factor["theory"].as_str().unwrap().contains("so3:5"), "{v}");
+    assert_eq!(v["word"], v["certificate"]["word"]);
+    assert!(!v["certificate"]["remaining_factor"]
+        .as_array()
+        .unwrap()
+        .is_empty());
+    // Fibonacci is no product: its witness is found directly
+    let (code, v) = cyclorb_json(&["witness", "fibonacci", "--genus", "2"]);
+    assert_eq!(code, 0, "{v}");
+    assert!(v["lifted_from_factor"].is_null(), "{v}");
+    // the automatic route of `image` on tricritical Ising M(5,4): its orbit stays open, and
+    // the witness comes from the conjugate of SO(3)_3 (Fibonacci-type, dense: Larsen–Wang 2005)
+    let (code, v) = cyclorb_json(&[
+        "image",
+        "minimal:5:4",
+        "--genus",
+        "2",
+        "--orbit-limit",
+        "2000",
+    ]);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["finite"], false);
+    assert_eq!(v["route"], "witness");
+    assert!(v["lifted_from_factor"]["theory"]
+        .as_str()
+        .unwrap()
+        .contains("so3:3"));
+}
+
+#[test]
 fn no_witness_for_finite_images() {
     // Ising at genus 2 has a finite image, so no word can have infinite order.
     let (code, v) = cyclorb_json(&[

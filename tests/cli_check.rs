@@ -121,6 +121,38 @@ fn witness_certificate_rechecks_and_each_change_is_caught() {
 }
 
 #[test]
+fn lifted_witness_certificate_rechecks_on_its_factor() {
+    // Fibonacci ⊠ Ising at genus 2: the Fibonacci factor's image is infinite
+    // (Freedman–Larsen–Wang 2002), and the witness is certified there.
+    let (path, w) = produce(
+        "witness-lifted",
+        &["witness", "fibonacci*ising", "--genus", "2"],
+    );
+    holds(&path, "witness-lifted");
+    assert_eq!(w["lifted_from_factor"]["theory"], "fibonacci");
+    let hash = w["lifted_from_factor"]["data_hash"].as_str().unwrap();
+    let other = format!(
+        "{}{}",
+        if hash.starts_with('0') { "1" } else { "0" },
+        &hash[1..]
+    );
+    all_caught(
+        &w,
+        "witness-lifted",
+        [
+            (
+                "/lifted_from_factor/data_hash",
+                Value::from(other),
+                "factor",
+            ),
+            ("/lifted_from_factor/factor", Value::from("right"), "factor"),
+            ("/certificate/word/0", Value::from("alpha9"), "word"),
+            ("/certificate/charpoly/0", Value::from("0"), "charpoly"),
+        ],
+    );
+}
+
+#[test]
 fn commutant_certificates_recheck_and_each_change_is_caught() {
     // Ising at genus 2 is irreducible: B = 384·G⁻¹ is scalar over the orbit (Castro,
     // Gaberdiel, Hartman, Maloney, Volpato 2012 and the 2019 follow-up).

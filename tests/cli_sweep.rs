@@ -179,6 +179,9 @@ fn small_sweep_matches_published_values() {
     let md = std::fs::read_to_string(out.join("summary.md")).unwrap();
     assert!(md.contains("| ising | 2 | 10 | 3840 | 384 |"), "{md}");
     assert!(md.contains("not closed after 3000 (limit)"), "{md}");
+    // the command as a user types it, not the path of the test binary
+    assert!(md.contains("Command: `cyclorb --json sweep "), "{md}");
+    assert!(!md.contains(BIN), "{md}");
     let csv = summary_without_costs(&out);
     assert_eq!(csv.len(), 1 + 7);
     let svg = std::fs::read_to_string(out.join("growth.svg")).unwrap();
@@ -189,6 +192,36 @@ fn small_sweep_matches_published_values() {
             "legend lacks {label}"
         );
     }
+}
+
+#[test]
+fn a_witness_alone_on_a_product_comes_from_a_factor() {
+    // Tricritical Ising = conj(fibonacci) ⊠ ising:7; the Fibonacci factor has a dense
+    // genus-2 image (Larsen–Wang 2005), so a run that asks for the witness alone finds it on
+    // that factor without building the product's generators (docs/minimal-models.md,
+    // "Witnesses lifted from a factor"); the direct route on Fibonacci itself finds one too.
+    let scratch = Scratch::new("lifted");
+    let plan = scratch.path("lifted.toml");
+    std::fs::write(
+        &plan,
+        "answers = [\"witness\"]\n\n[[theory]]\nspec = \"tricritical-ising\"\ngenera = [2]\n\n\
+         [[theory]]\nspec = \"fibonacci\"\ngenera = [2]\n",
+    )
+    .unwrap();
+    let output = sweep(&plan, &scratch.path("out"));
+    assert_eq!(output.status.code(), Some(0));
+    let report = json_of(&output);
+    let tri = run_of(&report, "tricritical-ising-g2");
+    assert_eq!(tri["witness"]["found"], true, "{tri}");
+    assert_eq!(
+        tri["witness"]["lifted_from_factor"]["theory"],
+        "conj(fibonacci)"
+    );
+    assert_eq!(tri["orbit_size"], Value::Null);
+    assert_eq!(tri["generators"], 5);
+    let fib = run_of(&report, "fibonacci-g2");
+    assert_eq!(fib["witness"]["found"], true, "{fib}");
+    assert_eq!(fib["witness"]["lifted_from_factor"], Value::Null);
 }
 
 #[test]

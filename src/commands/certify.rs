@@ -6,15 +6,16 @@ use std::path::Path;
 use cyclorb_cert::{
     commutant as commutant_cert, enumerate_projective_image, find_witness, image_from_lines,
     polynomial_text, CommutantOptions, GeneratorSet as CertSet, ImageEnumeration, ImageOptions,
-    WitnessOptions, WitnessOutcome,
+    WitnessCertificate, WitnessOptions, WitnessOutcome,
 };
-use cyclorb_mcg::BlockSpace;
+use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use cyclorb_orbit::{OrbitOptions, OrbitProblem, Seed, Silent};
 use serde::Serialize;
 use serde_json::json;
 
 use super::common::{build_space, generator_set_file, parse_set};
 use super::envelope::{self, Source};
+use super::lifted::{find_lifted, FactorRef};
 use super::output::{Outcome, Report};
 use super::structure::counted;
 use crate::cli::{CertArgs, ImageArgs, SpaceArgs, WitnessArgs};
@@ -27,6 +28,12 @@ pub(crate) use lines::{faithful_lines, OrbitLines};
 pub(super) fn load(args: &CertArgs) -> Result<(BlockSpace, CertSet), String> {
     let set = parse_set(&args.space.set)?;
     let space = build_space(&args.space.spec, args.space.genus)?;
+    let cert = cert_generators(&space, set)?;
+    Ok((space, cert))
+}
+
+/// The twists of a generating set on a block space, as a certificate input (with the form).
+pub(crate) fn cert_generators(space: &BlockSpace, set: GeneratingSet) -> Result<CertSet, String> {
     let gens = space.generators(set).map_err(|e| e.to_string())?;
     // the certificate routes hold every generator as a dense d × d matrix: the Cyc values
     // alone (a zero holds no heap, so this is a lower bound) are checked against the budget
@@ -44,9 +51,7 @@ pub(super) fn load(args: &CertArgs) -> Result<(BlockSpace, CertSet), String> {
         .map(|(c, op)| (c.to_string(), op))
         .collect();
     let form = Some(space.form().to_vec());
-    let cert =
-        CertSet::new(space.theory().field().clone(), named, form).map_err(|e| e.to_string())?;
-    Ok((space, cert))
+    CertSet::new(space.theory().field().clone(), named, form).map_err(|e| e.to_string())
 }
 
 /// Write a certificate of `kind` with its envelope (`envelope`: spec, genus, set, program).
@@ -228,10 +233,35 @@ impl ImageRun<'_> {
         }
     }
 
-    /// Route 3: a certified word of infinite projective order; `Err` with the number of
-    /// words tried when none is found.
-    fn witness(&mut self) -> Result<Outcome, usize> {
-        match find_witness(&self.gens, &WitnessOptions::default()) {
+    /// Route 3: a certified word of infinite projective order, first on the factors of a
+    /// Deligne product (see `lifted`), then on the generators themselves; `Err` with the
+    /// number of words tried when none is found.
+    fn witness(&mut self, space: &BlockSpace) -> Result<Outcome, usize> {
+        let set = parse_set(&self.args.common.space.set).expect("parsed in load");
+        let options = WitnessOptions::default();
+        match find_lifted(space.theory(), space.genus(), set, &options) {
+            Ok(Some(lifted)) => {
+                if let Err(e) = self.write("witness-lifted", &lifted) {
+                    return Ok(Outcome::Invalid(e));
+                }
+                let (w, f) = (&lifted.certificate, &lifted.lifted_from_factor);
+                self.text.push_str(&format!(
+                    "projective image: infinite; word {} has eigenvalue ratios that are not roots of unity on the {} factor {} (factor {}), so on the product too\n",
+                    w.word.join(" "),
+                    f.factor,
+                    f.theory,
+                    w.remaining_factor_text()
+                ));
+                self.value["finite"] = json!(false);
+                self.value["route"] = json!("witness");
+                self.value["word"] = json!(w.word);
+                self.value["lifted_from_factor"] = json!(f);
+                return Ok(Outcome::Done(self.report()));
+            }
+            Ok(None) => {}
+            Err(e) => return Ok(Outcome::Invalid(e)),
+        }
+        match find_witness(&self.gens, &options) {
             Ok(WitnessOutcome::Found(w)) => {
                 if let Err(e) = w
                     .recheck(&self.gens)
@@ -374,7 +404,7 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
             "orbit: not closed after {} lines; searching for a witness of infinite image\n",
             orbit.len()
         ));
-        match run.witness() {
+        match run.witness(&space) {
             Ok(outcome) => return outcome,
             Err(tried) => words_tried = Some(tried),
         }
@@ -412,28 +442,114 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
     }
 }
 
-/// Run `cyclorb witness`.
+/// The text lines of a witness certificate (word, block, polynomials).
+fn witness_text(w: &WitnessCertificate) -> String {
+    let mut text = format!(
+        "witness of infinite projective order: {}\n",
+        w.word.join(" ")
+    );
+    text.push_str(&format!(
+        "  characteristic polynomial (block {:?}): {}\n",
+        w.block,
+        polynomial_text(&w.charpoly)
+    ));
+    text.push_str(&format!(
+        "  norm of the eigenvalue-ratio polynomial: {}\n",
+        polynomial_text(&w.ratio_norm)
+    ));
+    text.push_str(&format!(
+        "  cyclotomic factors removed: {}\n",
+        w.cyclotomic_factors
+            .iter()
+            .map(|c| format!("Φ_{}^{}", c.order, c.multiplicity))
+            .collect::<Vec<_>>()
+            .join(" ")
+    ));
+    text.push_str(&format!(
+        "  remaining non-cyclotomic factor: {}\ncertificate re-checked\n",
+        w.remaining_factor_text()
+    ));
+    text
+}
+
+/// The report of a found witness (`lifted` when it was certified on a factor).
+fn witness_found(
+    mut value: serde_json::Value,
+    mut text: String,
+    w: &WitnessCertificate,
+    lifted: Option<&FactorRef>,
+    as_json: bool,
+) -> Outcome {
+    if let Some(f) = lifted {
+        text.push_str(&format!(
+            "lifted from the {} factor {} (genus-{} dimension {}, Q(ζ_{})): the product's word \
+             acts as a scalar times the factor's ⊗ the other factor's, so the same eigenvalue \
+             ratio occurs\n",
+            f.factor, f.theory, value["genus"], f.dimension, f.conductor
+        ));
+    }
+    text.push_str(&witness_text(w));
+    value["found"] = json!(true);
+    value["word"] = json!(w.word);
+    value["certificate"] = serde_json::to_value(w).expect("certificates serialise");
+    value["lifted_from_factor"] = json!(lifted);
+    Outcome::Done(Report::new(value, text, as_json))
+}
+
+/// Run `cyclorb witness`. On a Deligne product the factors are searched first (a witness
+/// there lifts, see `lifted`); the product's own generators are built only when no factor
+/// yields one.
 pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
     if super::dw::is_dw(&args.common.space.spec) {
         return super::dw::witness(args, as_json);
     }
-    let (space, gens) = match load(&args.common) {
-        Ok(x) => x,
+    let set = match parse_set(&args.common.space.set) {
+        Ok(s) => s,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let space = match build_space(&args.common.space.spec, args.common.space.genus) {
+        Ok(s) => s,
         Err(e) => return Outcome::Invalid(e),
     };
     let options = WitnessOptions {
         depth: args.depth,
         tries: args.tries,
-        seed: args.seed,
+        seed: args.word_seed,
         ..WitnessOptions::default()
     };
-    let mut text = header(&space);
+    let text = header(&space);
     let base = json!({
         "theory": space.theory().name(),
         "genus": space.genus(),
         "dimension": space.dimension(),
         "conductor": space.theory().field().conductor(),
     });
+    match find_lifted(space.theory(), space.genus(), set, &options) {
+        Ok(Some(lifted)) => {
+            if let Err(e) = write_certificate(
+                args.common.out.as_deref(),
+                "witness-lifted",
+                &args.common.space,
+                &lifted,
+            ) {
+                return Outcome::Invalid(e);
+            }
+            let factor = Some(&lifted.lifted_from_factor);
+            return witness_found(base, text, &lifted.certificate, factor, as_json);
+        }
+        Ok(None) => {}
+        Err(e) => {
+            return Outcome::CheckFailed(Report::new(
+                json!({"found": false, "error": e}),
+                format!("witness on a factor failed: {e}"),
+                as_json,
+            ))
+        }
+    }
+    let gens = match cert_generators(&space, set) {
+        Ok(g) => g,
+        Err(e) => return Outcome::Invalid(e),
+    };
     match find_witness(&gens, &options) {
         Ok(WitnessOutcome::Found(w)) => {
             if let Err(e) = w.recheck(&gens) {
@@ -451,38 +567,10 @@ pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
             ) {
                 return Outcome::Invalid(e);
             }
-            text.push_str(&format!(
-                "witness of infinite projective order: {}\n",
-                w.word.join(" ")
-            ));
-            text.push_str(&format!(
-                "  characteristic polynomial (block {:?}): {}\n",
-                w.block,
-                polynomial_text(&w.charpoly)
-            ));
-            text.push_str(&format!(
-                "  norm of the eigenvalue-ratio polynomial: {}\n",
-                polynomial_text(&w.ratio_norm)
-            ));
-            text.push_str(&format!(
-                "  cyclotomic factors removed: {}\n",
-                w.cyclotomic_factors
-                    .iter()
-                    .map(|c| format!("Φ_{}^{}", c.order, c.multiplicity))
-                    .collect::<Vec<_>>()
-                    .join(" ")
-            ));
-            text.push_str(&format!(
-                "  remaining non-cyclotomic factor: {}\ncertificate re-checked\n",
-                w.remaining_factor_text()
-            ));
-            let mut value = base;
-            value["found"] = json!(true);
-            value["word"] = json!(w.word);
-            value["certificate"] = serde_json::to_value(&w).expect("certificates serialise");
-            Outcome::Done(Report::new(value, text, as_json))
+            witness_found(base, text, &w, None, as_json)
         }
         Ok(WitnessOutcome::NotFound(r)) => {
+            let mut text = text;
             text.push_str(&format!(
                 "no witness among {} words (this proves nothing about finiteness)\n",
                 r.words_tried
@@ -491,6 +579,7 @@ pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
             value["found"] = json!(false);
             value["word"] = json!(null);
             value["certificate"] = json!(null);
+            value["lifted_from_factor"] = json!(null);
             value["words_tried"] = json!(r.words_tried);
             Outcome::Done(Report::new(value, text, as_json))
         }

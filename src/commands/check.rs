@@ -43,7 +43,8 @@ pub(crate) struct Envelope {
 }
 
 /// The kinds `cyclorb check` reads.
-const KINDS: &str = "commutant, image-enumeration, image-orbit, structure, witness, \
+const KINDS: &str =
+    "commutant, image-enumeration, image-orbit, structure, witness, witness-lifted, \
                      dw-permutation-image, dw-orbitals";
 
 fn key<'a>(body: &'a Value, name: &str, file: &str) -> Result<&'a Value, String> {
@@ -104,7 +105,7 @@ pub(crate) fn body_as<T: DeserializeOwned>(
 }
 
 /// The theory files read now against those the certificate records.
-fn check_theory_files(envelope: &Envelope, claims: &mut Claims) -> Result<(), Stop> {
+pub(crate) fn check_theory_files(envelope: &Envelope, claims: &mut Claims) -> Result<(), Stop> {
     let now = super::proof::files_read();
     claims.claim("theory-files", || {
         if now == envelope.theory_files {
@@ -135,6 +136,9 @@ fn check_kind(
     let kind = envelope.kind.as_str();
     if kind.starts_with("dw-") {
         return dw::check(envelope, body, file, claims);
+    }
+    if kind == "witness-lifted" {
+        return witness::lifted(envelope, &body_as(body, file, kind)?, file, claims);
     }
     if !matches!(
         kind,

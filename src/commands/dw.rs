@@ -7,21 +7,27 @@
 
 use std::path::Path;
 
-use cyclorb_cert::StabiliserChain;
+use cyclorb_cert::{CommutantOptions, GeneratorSet as CertSet, StabiliserChain};
 use cyclorb_dw::{
-    builtin_group, centraliser_degrees, check_relations, conjugacy_classes, modular_data,
-    subset_orbit, verlinde_dimension, ConjugacyClass, DwError, FiniteGroup, FlatBundles, Orbitals,
-    SizeBound,
+    builtin_group, centraliser_degrees, check_relations, check_twisted_relations,
+    conjugacy_classes, modular_data, subset_orbit, verlinde_dimension, ConjugacyClass,
+    CyclicCocycle, DwError, FiniteGroup, FlatBundles, Orbitals, RelationCheck, SizeBound,
+    TwistedBundles,
 };
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::Operator;
 use cyclorb_mcg::{Curve, GeneratingSet};
-use cyclorb_orbit::{GeneratorSet, InvariantReport, OrbitProblem, PoincareReport, Seed};
+use cyclorb_orbit::{
+    GeneratorSet, InvariantReport, LabelledEntry, OrbitProblem, PoincareReport, Seed,
+};
+use cyclorb_structure::{Monomial, MonomialChain};
+use num_bigint::BigUint;
 use serde_json::{json, Value};
 
 use super::common::parse_set;
 use super::envelope::Source;
 use super::output::{Outcome, Report};
+use super::proof;
 use crate::cli::{CertArgs, ImageArgs, SpaceArgs, TwistsArgs, WitnessArgs};
 
 /// The spec prefix of Dijkgraaf–Witten theories.
@@ -35,18 +41,40 @@ pub fn is_dw(spec: &str) -> bool {
     spec.starts_with(PREFIX)
 }
 
-/// The group of `dw:NAME` (a built-in) or `dw:PATH` (a group file, see `cyclorb theories`).
+/// The group of `dw:NAME` (a built-in) or `dw:PATH` (a group file, see `cyclorb theories`);
+/// the twisted `dw:ZN:P` are refused here (see [`theory_of`]).
 pub fn group_of(spec: &str) -> Result<FiniteGroup, String> {
+    match theory_of(spec)? {
+        (group, None) => Ok(group),
+        (_, Some(_)) => Err(format!(
+            "{spec}: the modular data of the twisted theory are not computed from characters; `cyclorb twists {spec} --genus 1` shows its generators"
+        )),
+    }
+}
+
+/// The group and, for `dw:ZN:P`, the cocycle ω_p of the twisted theory D^{ω_p}(Z_N).
+pub fn theory_of(spec: &str) -> Result<(FiniteGroup, Option<CyclicCocycle>), String> {
     let rest = spec.strip_prefix(PREFIX).unwrap_or(spec);
     if rest.ends_with(".json") || rest.contains('/') {
-        return cyclorb_dw::read_group_file(Path::new(rest)).map_err(|e| e.to_string());
+        let group = cyclorb_dw::read_group_file(Path::new(rest)).map_err(|e| e.to_string())?;
+        return Ok((group, None));
     }
-    if rest.contains(':') {
-        return Err(format!(
-            "{spec}: twisted Dijkgraaf–Witten theories (dw:GROUP:P) are not available yet; use dw:GROUP"
+    let Some((name, level)) = rest.split_once(':') else {
+        return Ok((
+            builtin_group(rest).map_err(|e| format!("{spec}: {e}"))?,
+            None,
         ));
-    }
-    builtin_group(rest).map_err(|e| format!("{spec}: {e}"))
+    };
+    let twisted_form =
+        || format!("{spec}: a twisted theory is dw:ZN:P, Z_N cyclic and 0 ≤ P < N (e.g. dw:Z2:1)");
+    let n: u32 = name
+        .strip_prefix('Z')
+        .and_then(|n| n.parse().ok())
+        .ok_or_else(twisted_form)?;
+    let p: u32 = level.parse().map_err(|_| twisted_form())?;
+    let cocycle = CyclicCocycle::new(n, p).map_err(|e| format!("{spec}: {e}"))?;
+    let group = builtin_group(name).map_err(|e| format!("{spec}: {e}"))?;
+    Ok((group, Some(cocycle)))
 }
 
 /// The rows `cyclorb theories` lists for Dijkgraaf–Witten theories.
@@ -60,6 +88,10 @@ pub fn catalogue() -> Vec<(String, String)> {
             ),
         ),
         (
+            "dw:ZN:P".into(),
+            "twisted Dijkgraaf–Witten theory D^{ω_p}(Z_N) (0 ≤ P < N ≤ 32): the permutations of dw:ZN with phases in Q(ζ_N²), e.g. dw:Z2:1 (double semion)".into(),
+        ),
+        (
             "dw:FILE.json".into(),
             format!(
                 "Dijkgraaf–Witten theory of a group file: {}",
@@ -69,11 +101,34 @@ pub fn catalogue() -> Vec<(String, String)> {
     ]
 }
 
-/// X_g of a `dw:` spec with the twists of a generating set.
+/// The projective image order of a `dw:` theory and the chain that proves it.
+pub struct DwImage {
+    /// The order.
+    pub order: BigUint,
+    /// `permutation-schreier-sims` or `monomial-schreier-sims`.
+    pub route: &'static str,
+    /// The base of the chain.
+    pub base: Vec<u32>,
+    /// Its basic orbit lengths.
+    pub basic_orbit_lengths: Vec<usize>,
+    /// The number of strong generators.
+    pub strong_generators: usize,
+}
+
+/// X_g of a `dw:` spec with the twists of a generating set: permutations, and for the
+/// twisted `dw:ZN:P` their phases.
 pub struct DwSpace {
     spec: String,
     bundles: FlatBundles,
     twists: Vec<(Curve, Vec<u32>)>,
+    twisting: Option<Twisting>,
+}
+
+/// The phases of a twisted theory: the cocycle and, per generator (in the order of
+/// `twists`), the exponent of ζ_{N²} of each row.
+struct Twisting {
+    cocycle: CyclicCocycle,
+    phases: Vec<Vec<u32>>,
 }
 
 impl DwSpace {
@@ -83,27 +138,77 @@ impl DwSpace {
         DwSpace::with_set(spec, genus, parse_set(set)?)
     }
 
-    /// The same with the generating set given.
+    /// The same with the generating set given. The relations of `twists --check` are
+    /// proved on the generators before they are used (an error names a failing one); the
+    /// answers then carry `verified: true`.
     pub fn with_set(spec: &str, genus: usize, set: GeneratingSet) -> Result<DwSpace, String> {
-        let group = group_of(spec)?;
+        let (group, cocycle) = theory_of(spec)?;
         let bundles =
             FlatBundles::new(&group, genus, SizeBound::default()).map_err(|e| match e {
                 DwError::SpaceTooLarge { .. } => format!("{spec} at genus {genus}: {e}"),
                 other => other.to_string(),
             })?;
         let twists = bundles.generators(set).map_err(|e| e.to_string())?;
-        Ok(DwSpace {
+        let twisting = match cocycle {
+            None => None,
+            Some(cocycle) => {
+                let phases = TwistedBundles::new(&bundles, &cocycle)
+                    .and_then(|t| t.generators(set))
+                    .map_err(|e| e.to_string())?
+                    .into_iter()
+                    .map(|(_, m)| m.phases)
+                    .collect();
+                Some(Twisting { cocycle, phases })
+            }
+        };
+        let space = DwSpace {
             spec: spec.to_string(),
             bundles,
             twists,
-        })
+            twisting,
+        };
+        let checks = space.relations().map_err(|e| format!("{spec}: {e}"))?;
+        if let Some(failed) = checks.iter().find(|c| !c.ok) {
+            return Err(format!(
+                "{spec} at genus {genus}: internal check failed: the relation {} does not hold on the generators",
+                failed.name
+            ));
+        }
+        proof::record_proved();
+        Ok(space)
     }
 
-    /// The group's multiplication table as text lines (name, order, then one row per
-    /// element), for hashing what a result depends on.
+    /// Every relation of `twists --check` (docs/dijkgraaf-witten.md): on the free group,
+    /// and on X_g as permutations, or up to scalars as monomial matrices when twisted.
+    pub fn relations(&self) -> Result<Vec<RelationCheck>, DwError> {
+        match &self.twisting {
+            None => check_relations(&self.bundles),
+            Some(t) => check_twisted_relations(&self.bundles, &t.cocycle),
+        }
+    }
+
+    /// Whether this is a twisted theory `dw:ZN:P`.
+    pub fn is_twisted(&self) -> bool {
+        self.twisting.is_some()
+    }
+
+    /// The conductor of the field of the entries: 1 (permutations), or N² when twisted.
+    pub fn conductor(&self) -> u32 {
+        self.twisting.as_ref().map_or(1, |t| t.cocycle.modulus())
+    }
+
+    /// The group's multiplication table as text lines (name, order, the cocycle of a twisted
+    /// theory, then one row per element), for hashing what a result depends on.
     pub fn group_data(&self) -> Vec<String> {
         let g = self.bundles.group();
         let mut lines = vec![format!("group {} order {}", g.name(), g.order())];
+        if let Some(t) = &self.twisting {
+            lines.push(format!(
+                "3-cocycle omega_{} of Z_{}",
+                t.cocycle.level(),
+                t.cocycle.order()
+            ));
+        }
         for a in g.elements() {
             let row: Vec<String> = g.elements().map(|b| g.mul(a, b).to_string()).collect();
             lines.push(row.join(" "));
@@ -111,31 +216,51 @@ impl DwSpace {
         lines
     }
 
+    /// X_g.
+    pub fn bundles(&self) -> &FlatBundles {
+        &self.bundles
+    }
+
+    /// The twists as named permutations of X_g.
+    pub fn twists(&self) -> &[(Curve, Vec<u32>)] {
+        &self.twists
+    }
+
     /// |X_g|.
     pub fn dimension(&self) -> usize {
         self.bundles.len()
     }
 
-    /// Q = Q(ζ_1): every entry of a permutation matrix is rational.
-    fn field() -> CyclotomicField {
-        CyclotomicField::new(1).expect("Q(ζ_1) = Q is a field")
+    /// Q(ζ_n), n = [`DwSpace::conductor`]: Q for permutation matrices.
+    fn field(&self) -> CyclotomicField {
+        CyclotomicField::new(self.conductor()).expect("Q(ζ_n) for n ≤ 1024 is a field")
     }
 
-    /// The twists as permutation matrices: row x holds a 1 at column p(x) ((M f)(x) =
-    /// f(p(x)), the crate's convention), unit invariant form.
+    /// The twists as monomial matrices: row x holds ζ_{N²}^{phase} (1 when untwisted) at
+    /// column p(x) ((M f)(x) = f(p(x)) up to the phase, the crate's convention), unit
+    /// invariant form.
     pub fn generator_set(&self) -> GeneratorSet {
-        let field = DwSpace::field();
+        let field = self.field();
         let d = self.dimension();
+        let entry = |k: usize, x: usize| match &self.twisting {
+            None => field.one(),
+            Some(t) => field.zeta_pow(i64::from(t.phases[k][x])),
+        };
         GeneratorSet {
-            conductor: 1,
+            conductor: self.conductor(),
             dimension: d,
             names: self.twists.iter().map(|(c, _)| c.to_string()).collect(),
             operators: self
                 .twists
                 .iter()
-                .map(|(_, p)| Operator::SparseRows {
+                .enumerate()
+                .map(|(k, (_, p))| Operator::SparseRows {
                     dim: d,
-                    rows: p.iter().map(|&j| vec![(j as usize, field.one())]).collect(),
+                    rows: p
+                        .iter()
+                        .enumerate()
+                        .map(|(x, &j)| vec![(j as usize, entry(k, x))])
+                        .collect(),
                 })
                 .collect(),
             basis_labels: (0..d).map(|i| self.bundles.describe(i)).collect(),
@@ -147,38 +272,119 @@ impl DwSpace {
 
     /// The orbit problem of the vacuum: the indicator of {[φ] : φ(a_h) = 1 for all h}.
     pub fn problem(&self) -> Result<OrbitProblem, String> {
-        let field = DwSpace::field();
+        let field = self.field();
         let mut vector = vec![field.zero(); self.dimension()];
         for i in self.bundles.vacuum() {
             vector[i as usize] = field.one();
         }
         let seed = Seed {
-            conductor: 1,
+            conductor: self.conductor(),
             vector,
         };
         OrbitProblem::new(self.generator_set(), &seed).map_err(|e| e.to_string())
-    }
-
-    /// The twists of the generating set: names and permutations of X_g.
-    pub fn twists(&self) -> &[(Curve, Vec<u32>)] {
-        &self.twists
     }
 
     fn permutations(&self) -> Vec<&[u32]> {
         self.twists.iter().map(|(_, p)| p.as_slice()).collect()
     }
 
-    /// The permutation group the twists generate on X_g, by Schreier–Sims (every point a
-    /// base point). It is the projective image: a permutation matrix is a scalar only when
-    /// it is the identity.
-    pub fn image_chain(&self) -> Result<StabiliserChain, String> {
-        let perms: Vec<Vec<u32>> = self.twists.iter().map(|(_, p)| p.clone()).collect();
-        StabiliserChain::new(self.dimension(), &perms).map_err(|e| e.to_string())
+    /// The order of the projective image. Untwisted: the permutation group the twists
+    /// generate on X_g, by Schreier–Sims (a permutation matrix is a scalar only when it is
+    /// the identity). Twisted: the monomial group, by Schreier–Sims on the permutation parts
+    /// carrying the phases (cyclorb-structure's `MonomialChain`), |P|·|K| / |K ∩ scalars|.
+    pub fn image(&self) -> Result<DwImage, String> {
+        let d = self.dimension();
+        let Some(t) = &self.twisting else {
+            let perms: Vec<Vec<u32>> = self.twists.iter().map(|(_, p)| p.clone()).collect();
+            let chain = StabiliserChain::new(d, &perms).map_err(|e| e.to_string())?;
+            return Ok(DwImage {
+                order: chain.order(),
+                route: "permutation-schreier-sims",
+                base: chain.base(),
+                basic_orbit_lengths: chain.basic_orbit_lengths(),
+                strong_generators: chain.strong_generator_count(),
+            });
+        };
+        let chain = MonomialChain::new(d, self.monomial_modulus(), &self.monomials(t));
+        Ok(DwImage {
+            order: chain.projective_order(),
+            route: "monomial-schreier-sims",
+            base: chain.base(),
+            basic_orbit_lengths: chain.basic_orbit_lengths(),
+            strong_generators: chain.strong_generators().len(),
+        })
     }
 
-    /// The orbitals of that group; their number is the commutant dimension.
+    /// m = lcm(2, N²), the phase modulus of cyclorb-structure's monomials.
+    fn monomial_modulus(&self) -> u32 {
+        let n2 = self.conductor();
+        if n2 % 2 == 0 {
+            n2
+        } else {
+            2 * n2
+        }
+    }
+
+    /// The generators as cyclorb-structure monomials e_i ↦ ζ_m^{φ_i} e_{π(i)}: row x of a
+    /// twist holds ζ_{N²}^{phase} at column p(x), so π(p(x)) = x and φ_{p(x)} is that
+    /// phase in units of ζ_m.
+    fn monomials(&self, t: &Twisting) -> Vec<Monomial> {
+        let scale = self.monomial_modulus() / self.conductor();
+        self.twists
+            .iter()
+            .zip(&t.phases)
+            .map(|((_, p), phases)| {
+                let mut perm = vec![0; p.len()];
+                let mut out = vec![0; p.len()];
+                for (x, (&j, &phase)) in p.iter().zip(phases).enumerate() {
+                    perm[j as usize] = x as u32;
+                    out[j as usize] = phase * scale;
+                }
+                Monomial { perm, phases: out }
+            })
+            .collect()
+    }
+
+    /// The orbitals of the permutation group; their number is the commutant dimension of
+    /// an untwisted theory.
     pub fn orbitals(&self) -> Result<Orbitals, String> {
         Orbitals::new(self.dimension(), &self.permutations()).map_err(|e| e.to_string())
+    }
+
+    /// The entries (i, j) where `value` is non-zero and not `None`, keyed by the states'
+    /// descriptions.
+    fn labelled_entries(&self, value: impl Fn(usize, usize) -> Option<u64>) -> Vec<LabelledEntry> {
+        let d = self.dimension();
+        let mut out = Vec::new();
+        for i in 0..d {
+            for j in 0..d {
+                if let Some(v) = value(i, j).filter(|&v| v != 0) {
+                    out.push(LabelledEntry {
+                        row: self.bundles.describe(i),
+                        column: self.bundles.describe(j),
+                        value: v.to_string(),
+                        approx: [v as f64, 0.0],
+                    });
+                }
+            }
+        }
+        out
+    }
+
+    /// The commutant dimension and its route: the number of orbitals (untwisted), or
+    /// cyclorb-cert's commutant certificate on the monomial generators (twisted), re-checked.
+    pub fn commutant_dimension(&self) -> Result<(usize, &'static str, Vec<u64>), String> {
+        if self.twisting.is_none() {
+            return Ok((self.orbitals()?.count(), "orbitals", Vec::new()));
+        }
+        let gens = self.generator_set();
+        let named = gens.names.iter().cloned().zip(gens.operators).collect();
+        let set = CertSet::new(self.field(), named, None).map_err(|e| e.to_string())?;
+        let cert = cyclorb_cert::commutant(&set, CommutantOptions::default())
+            .map_err(|e| e.to_string())?;
+        cert.verify(&set).map_err(|e| e.to_string())?;
+        let primes = cert.bounds.iter().map(|b| b.prime).collect();
+        Ok((cert.dimension, "commutant-certificate", primes))
     }
 
     /// The report of B = Σ_S 1_S 1_Sᵀ over the orbit of the vacuum subset, without a dense
@@ -280,10 +486,16 @@ impl DwSpace {
                     } else {
                         Vec::new()
                     },
+                    entries: if print {
+                        self.labelled_entries(|i, j| (entry(i, j) == c).then_some(1))
+                    } else {
+                        Vec::new()
+                    },
                 })
                 .collect(),
         );
         if print {
+            report.entries = Some(self.labelled_entries(|i, j| Some(entry(i, j))));
             report.matrix = Some(
                 (0..d)
                     .map(|i| (0..d).map(|j| entry(i, j).to_string()).collect())
@@ -307,12 +519,20 @@ impl DwSpace {
 
 fn header(space: &DwSpace) -> String {
     format!(
-        "theory {} (group {} of order {}) at genus {}: dimension |X_g| = {} over Q\n",
+        "theory {} (group {} of order {}{}) at genus {}: dimension |X_g| = {} over {}\n",
         space.spec,
         space.bundles.group().name(),
         space.bundles.group().order(),
+        space.twisting.as_ref().map_or(String::new(), |t| format!(
+            ", 3-cocycle ω_{}",
+            t.cocycle.level()
+        )),
         space.bundles.genus(),
-        space.dimension()
+        space.dimension(),
+        match space.conductor() {
+            1 => "Q".to_string(),
+            n => format!("Q(ζ_{n})"),
+        }
     )
 }
 
@@ -321,7 +541,7 @@ fn base_json(space: &DwSpace) -> serde_json::Value {
         "theory": space.spec,
         "genus": space.bundles.genus(),
         "dimension": space.dimension(),
-        "conductor": 1,
+        "conductor": space.conductor(),
         "group": space.bundles.group().name(),
         "group_order": space.bundles.group().order(),
     })
@@ -344,7 +564,11 @@ pub fn twists(args: &TwistsArgs, as_json: bool) -> Outcome {
     if space.dimension() > 40 {
         text.push_str(&format!("  … ({} states in all)\n", space.dimension()));
     }
-    text.push_str("generators (permutations of X_g):\n");
+    text.push_str(if space.is_twisted() {
+        "generators (permutations of X_g with phases, docs/dijkgraaf-witten.md):\n"
+    } else {
+        "generators (permutations of X_g):\n"
+    });
     for (c, p) in &space.twists {
         let moved = p
             .iter()
@@ -363,12 +587,16 @@ pub fn twists(args: &TwistsArgs, as_json: bool) -> Outcome {
     value["vacuum_states"] = json!(space.bundles.vacuum().len());
     let mut all_ok = true;
     if args.check {
-        let checks = match check_relations(&space.bundles) {
+        let checks = match space.relations() {
             Ok(c) => c,
             Err(e) => return Outcome::Invalid(e.to_string()),
         };
         all_ok = checks.iter().all(|c| c.ok);
-        text.push_str("relations (exact equalities of permutations of X_g and of free-group automorphisms):\n");
+        text.push_str(if space.is_twisted() {
+            "relations (exact equalities of monomial matrices on X_g up to a scalar, and of free-group automorphisms):\n"
+        } else {
+            "relations (exact equalities of permutations of X_g and of free-group automorphisms):\n"
+        });
         for c in &checks {
             text.push_str(&format!(
                 "  [{}] {}\n",
@@ -403,28 +631,29 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
         Ok(s) => s,
         Err(e) => return Outcome::Invalid(e),
     };
-    let chain = match space.image_chain() {
+    let image = match space.image() {
         Ok(c) => c,
         Err(e) => return Outcome::Invalid(e),
     };
-    let order = chain.order().to_string();
+    let order = image.order.to_string();
     let mut value = base_json(&space);
     value["finite"] = json!(true);
     value["order"] = json!(order);
-    value["route"] = json!("permutation-schreier-sims");
-    value["base"] = json!(chain.base());
-    value["basic_orbit_lengths"] = json!(chain.basic_orbit_lengths());
-    value["strong_generators"] = json!(chain.strong_generator_count());
+    value["route"] = json!(image.route);
+    value["base"] = json!(image.base);
+    value["basic_orbit_lengths"] = json!(image.basic_orbit_lengths);
+    value["strong_generators"] = json!(image.strong_generators);
     if let Some(path) = &args.common.out {
         let certificate = json!({
-            "kind": "dw-permutation-image",
+            "kind": if space.is_twisted() { "dw-monomial-image" } else { "dw-permutation-image" },
             "theory": space.spec,
             "genus": space.bundles.genus(),
             "degree": space.dimension(),
+            "conductor": space.conductor(),
             "generators": generator_images(&space),
             "order": order,
-            "base": chain.base(),
-            "basic_orbit_lengths": chain.basic_orbit_lengths(),
+            "base": image.base,
+            "basic_orbit_lengths": image.basic_orbit_lengths,
         });
         if let Err(e) = write_certificate(path, a, &certificate) {
             return Outcome::Invalid(e);
@@ -432,18 +661,28 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
     }
     let mut text = header(&space);
     text.push_str(&format!(
-        "projective image: finite, order {order} (the permutation group on X_g; Schreier–Sims, basic orbits {:?})\n",
-        chain.basic_orbit_lengths()
+        "projective image: finite, order {order} ({}; Schreier–Sims, basic orbits {:?})\n",
+        if space.is_twisted() {
+            "the monomial group on X_g modulo scalars"
+        } else {
+            "the permutation group on X_g"
+        },
+        image.basic_orbit_lengths
     ));
     Outcome::Done(Report::new(value, text, as_json))
 }
 
-/// The generators as named permutations of X_g, as certificates list them.
+/// The generators as named permutations of X_g, as certificates list them, with the
+/// exponents of ζ_{N²} of each row when twisted.
 fn generator_images(space: &DwSpace) -> Vec<Value> {
     space
         .twists
         .iter()
-        .map(|(c, p)| json!({"name": c.to_string(), "images": p}))
+        .enumerate()
+        .map(|(k, (c, p))| match &space.twisting {
+            None => json!({"name": c.to_string(), "images": p}),
+            Some(t) => json!({"name": c.to_string(), "images": p, "phases": t.phases[k]}),
+        })
         .collect()
 }
 
@@ -463,26 +702,26 @@ fn write_certificate(
 }
 
 /// `cyclorb commutant dw:…`: the dimension of the commutant of a permutation
-/// representation is its number of orbitals (orbits on pairs of states), exact by counting.
+/// representation is its number of orbitals (orbits on pairs of states), exact by counting;
+/// for a twisted theory it comes from cyclorb-cert's commutant certificate, re-checked.
 pub fn commutant(args: &CertArgs, as_json: bool) -> Outcome {
     let a = &args.space;
     let space = match DwSpace::new(&a.spec, a.genus, &a.set) {
         Ok(s) => s,
         Err(e) => return Outcome::Invalid(e),
     };
-    let orbitals = match space.orbitals() {
-        Ok(o) => o,
+    let (n, route, primes) = match space.commutant_dimension() {
+        Ok(x) => x,
         Err(e) => return Outcome::Invalid(e),
     };
-    let n = orbitals.count();
     let mut value = base_json(&space);
     value["commutant_dimension"] = json!(n);
     value["irreducible"] = json!(n == 1);
-    value["route"] = json!("orbitals");
-    value["primes"] = json!([]);
+    value["route"] = json!(route);
+    value["primes"] = json!(primes);
     if let Some(path) = &args.out {
         let certificate = json!({
-            "kind": "dw-orbitals",
+            "kind": if space.is_twisted() { "dw-monomial-commutant" } else { "dw-orbitals" },
             "theory": space.spec,
             "genus": space.bundles.genus(),
             "commutant_dimension": n,
@@ -494,8 +733,13 @@ pub fn commutant(args: &CertArgs, as_json: bool) -> Outcome {
     }
     let mut text = header(&space);
     text.push_str(&format!(
-        "commutant dimension {n} ({}): the number of orbits of the permutation group on pairs of states (exact count; no prime needed)\n",
-        if n == 1 { "irreducible" } else { "reducible" }
+        "commutant dimension {n} ({}): {}\n",
+        if n == 1 { "irreducible" } else { "reducible" },
+        if space.is_twisted() {
+            "commutant certificate on the monomial generators (bounds modulo primes, re-checked)"
+        } else {
+            "the number of orbits of the permutation group on pairs of states (exact count; no prime needed)"
+        }
     ));
     Outcome::Done(Report::new(value, text, as_json))
 }
@@ -512,11 +756,14 @@ pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
     value["found"] = json!(false);
     value["word"] = json!(null);
     value["certificate"] = json!(null);
-    value["reason"] = json!("the twists permute X_g, so every element has finite order");
+    let reason = if space.is_twisted() {
+        "the twists permute X_g with phases that are N²-th roots of unity, so they generate a finite monomial group"
+    } else {
+        "the twists permute X_g, so every element has finite order"
+    };
+    value["reason"] = json!(reason);
     let mut text = header(&space);
-    text.push_str(
-        "no witness exists: the twists permute X_g, so the image is a finite permutation group\n",
-    );
+    text.push_str(&format!("no witness exists: {reason}\n"));
     Outcome::Done(Report::new(value, text, as_json))
 }
 

@@ -5,14 +5,17 @@ mod certify;
 mod check;
 mod common;
 mod dw;
+mod dw_count;
 mod envelope;
 mod field;
+mod lifted;
 mod orbit;
 pub mod output;
 mod product;
 mod progress;
 mod proof;
 mod proof_cache;
+mod shell;
 mod structure;
 mod sweep;
 mod theory;
@@ -39,6 +42,8 @@ pub fn dispatch(cli: Cli) -> ExitCode {
         Command::Theories => theory::run_theories(json),
         Command::Describe(a) => theory::run_describe(a, json),
         Command::Verify(a) => theory::run_verify(a, json),
+        Command::Completions(a) => shell::completions(a, json),
+        Command::Manual(a) => shell::manual(a, json),
     };
     outcome.finish()
 }

@@ -7,19 +7,19 @@ use std::sync::Arc;
 use std::time::{Duration, Instant};
 
 use cyclorb_orbit::{
-    install_stop_handler, CheckpointPlan, GeneratorSet, Orbit, OrbitOptions, OrbitProblem,
-    OrbitReport, Seed,
+    checkpoint_origin, install_stop_handler, CheckpointPlan, GeneratorSet, LabelledEntry, Orbit,
+    OrbitOptions, OrbitProblem, OrbitReport, PoincareReport, Seed,
 };
 use serde_json::json;
 
 use super::common::{build_space, parse_set, vacuum_problem};
 use super::dw::{is_dw, DwSpace};
 use super::envelope::{self, Source};
-use super::output::{Outcome, Report};
+use super::output::{shell_word, Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
 use super::proof;
-use super::structure::{counted, orbit_json, orbit_text};
+use super::structure::{counted, orbit_json, orbit_text, scalar_sum_entries};
 use crate::cli::OrbitArgs;
 
 /// The generator set and seed from either a theory or raw files.
@@ -39,6 +39,79 @@ fn load_problem(args: &OrbitArgs) -> Result<OrbitProblem, String> {
         }
         _ => Err("give a theory SPEC with --genus, or --matrices FILE --seed FILE".into()),
     }
+}
+
+/// How the problem of `args` is built, as JSON recorded in its checkpoints, so that
+/// `--resume FILE` alone can rebuild it (raw files by absolute path).
+fn origin_of(args: &OrbitArgs) -> String {
+    let absolute = |p: &Path| {
+        std::path::absolute(p)
+            .unwrap_or_else(|_| p.to_path_buf())
+            .display()
+            .to_string()
+    };
+    match (&args.matrices, &args.seed) {
+        (Some(m), Some(s)) => json!({"matrices": absolute(m), "seed": absolute(s)}),
+        _ => json!({"theory": args.spec, "genus": args.genus, "set": args.set}),
+    }
+    .to_string()
+}
+
+/// `--resume FILE` without a theory or raw files: the arguments completed with what the
+/// checkpoint records (theory, genus and generating set, or the raw files).
+fn recorded_arguments(args: &OrbitArgs, path: &Path) -> Result<OrbitArgs, String> {
+    let place = path.display();
+    let origin = checkpoint_origin(path)
+        .map_err(|e| e.to_string())?
+        .ok_or_else(|| {
+            format!(
+                "{place}: this checkpoint records no theory (an older format); give SPEC --genus G \
+                 (and --set) as when it was written"
+            )
+        })?;
+    let v: serde_json::Value = serde_json::from_str(&origin)
+        .map_err(|e| format!("{place}: the recorded origin is not JSON: {e}"))?;
+    let mut out = args.clone();
+    match (
+        v["matrices"].as_str(),
+        v["seed"].as_str(),
+        v["theory"].as_str(),
+        v["genus"].as_u64(),
+        v["set"].as_str(),
+    ) {
+        (Some(m), Some(s), ..) => {
+            out.matrices = Some(m.into());
+            out.seed = Some(s.into());
+        }
+        (_, _, Some(theory), Some(genus), Some(set)) => {
+            out.spec = Some(theory.to_string());
+            out.genus = Some(genus as usize);
+            out.set = set.to_string();
+        }
+        _ => {
+            return Err(format!(
+                "{place}: the recorded origin {origin} names no problem"
+            ))
+        }
+    }
+    Ok(out)
+}
+
+/// Where a run without `--checkpoint` keeps its checkpoint: `cyclorb-orbit-HASH.ckpt` (HASH
+/// from the generators and seed) in `$XDG_CACHE_HOME/cyclorb`, `~/.cache/cyclorb` or the
+/// temporary folder, created when missing; `None` when none can be written.
+fn default_checkpoint(problem: &OrbitProblem) -> Option<PathBuf> {
+    let base = std::env::var_os("XDG_CACHE_HOME")
+        .map(PathBuf::from)
+        .or_else(|| std::env::var_os("HOME").map(|h| PathBuf::from(h).join(".cache")))
+        .unwrap_or_else(std::env::temp_dir)
+        .join("cyclorb");
+    std::fs::create_dir_all(&base).ok()?;
+    let path = base.join(format!(
+        "cyclorb-orbit-{:016x}.ckpt",
+        problem.content_hash() as u64
+    ));
+    check_writable(&path).ok().map(|_| path)
 }
 
 /// The engine's options from the command line (limit, memory, threads, checkpoints, stop).
@@ -82,30 +155,111 @@ fn check_writable(path: &Path) -> Result<(), String> {
     Ok(())
 }
 
-/// The non-zero entries of a matrix given as text, `(i,j)=v` separated by spaces, shortened
-/// after 24 entries.
-fn nonzero_entries(m: &[Vec<String>]) -> String {
-    let entries: Vec<String> = m
-        .iter()
-        .enumerate()
-        .flat_map(|(i, row)| {
-            row.iter()
-                .enumerate()
-                .filter(|(_, v)| v.as_str() != "0")
-                .map(move |(j, v)| format!("({i},{j})={v}"))
-        })
-        .collect();
-    let shown = entries
-        .iter()
-        .take(24)
-        .cloned()
-        .collect::<Vec<_>>()
-        .join(" ");
-    if entries.len() > 24 {
-        format!("{shown} … ({} non-zero entries in all)", entries.len())
-    } else {
-        shown
+/// Entries of B (or of an invariant) printed as text before pointing to the JSON.
+const TEXT_ENTRY_LIMIT: usize = 200;
+
+/// A square matrix with named rows and columns, columns aligned.
+fn label_table(labels: &[String], m: &[Vec<String>]) -> String {
+    let width = |j: usize| {
+        m.iter()
+            .map(|row| row[j].chars().count())
+            .chain(std::iter::once(labels[j].chars().count()))
+            .max()
+            .unwrap_or(1)
+    };
+    let widths: Vec<usize> = (0..labels.len()).map(width).collect();
+    let first = labels.iter().map(|l| l.chars().count()).max().unwrap_or(1);
+    let pad = |x: &str, w: usize| format!("{}{x}", " ".repeat(w - x.chars().count()));
+    let mut t = format!("    {}", " ".repeat(first));
+    for (l, &w) in labels.iter().zip(&widths) {
+        t.push_str(&format!("  {}", pad(l, w)));
     }
+    t.push('\n');
+    for (l, row) in labels.iter().zip(m) {
+        t.push_str(&format!("    {}{l}", " ".repeat(first - l.chars().count())));
+        for (x, &w) in row.iter().zip(&widths) {
+            t.push_str(&format!("  {}", pad(x, w)));
+        }
+        t.push('\n');
+    }
+    t
+}
+
+/// Non-zero entries keyed by basis labels, one per line, up to [`TEXT_ENTRY_LIMIT`].
+fn entry_lines(entries: &[LabelledEntry], json_key: &str) -> String {
+    let mut t = String::new();
+    for e in entries.iter().take(TEXT_ENTRY_LIMIT) {
+        t.push_str(&format!("    {} | {}: {}\n", e.row, e.column, e.value));
+    }
+    if entries.len() > TEXT_ENTRY_LIMIT {
+        t.push_str(&format!(
+            "    ({} of {} non-zero entries shown; every one is under {json_key} in --json)\n",
+            TEXT_ENTRY_LIMIT,
+            entries.len()
+        ));
+    }
+    t
+}
+
+/// The Poincaré sum as text: λ or the decomposition over the invariants, the commutant
+/// dimension, and B by labels (a modular invariant table at genus 1 when G = I; non-zero
+/// entries by comb-basis label tuples otherwise).
+fn poincare_text(p: &PoincareReport) -> String {
+    let mut t = String::new();
+    let commutant = p
+        .commutant_dimension
+        .map_or(String::new(), |c| format!("; commutant dimension {c}"));
+    match (p.is_scalar, &p.prefactor) {
+        (Some(true), Some(l)) => t.push_str(&format!(
+            "Poincaré sum: B = {l} · G⁻¹ (scalar){commutant}\n"
+        )),
+        (Some(false), _) => {
+            t.push_str(&format!(
+                "Poincaré sum: B is not a multiple of G⁻¹{commutant}\n"
+            ));
+        }
+        _ => {
+            return format!(
+                "Poincaré sum: not computed ({})\n",
+                p.note.clone().unwrap_or_default()
+            )
+        }
+    }
+    if let Some(mi) = &p.modular_invariant {
+        t.push_str("  modular invariant Z = Σ M_ab χ_a χ̄_b with M = B (rows a, columns b):\n");
+        t.push_str(&label_table(&mi.labels, &mi.matrix));
+    } else if let Some(entries) = &p.entries {
+        t.push_str("  B by comb-basis labels (row | column: value, non-zero entries):\n");
+        t.push_str(&entry_lines(entries, "poincare_sum.entries"));
+    }
+    if let Some(terms) = p.invariants.as_ref().filter(|v| !v.is_empty()) {
+        let basis = if p.physical_basis == Some(true) {
+            "physical invariants: entries ≥ 0, vacuum entry 1"
+        } else {
+            "a basis of the invariant matrices"
+        };
+        let sum: Vec<String> = (1..=terms.len())
+            .zip(terms)
+            .map(|(k, term)| format!("{}·M{k}", term.coefficient))
+            .collect();
+        t.push_str(&format!("  B = {} over {basis}:\n", sum.join(" + ")));
+        for (k, term) in (1..=terms.len()).zip(terms) {
+            match &p.modular_invariant {
+                Some(mi) => {
+                    t.push_str(&format!("  M{k}:\n"));
+                    t.push_str(&label_table(&mi.labels, &term.matrix));
+                }
+                None => {
+                    t.push_str(&format!("  M{k} (row | column: value):\n"));
+                    t.push_str(&entry_lines(
+                        &term.entries,
+                        "poincare_sum.invariants[].entries",
+                    ));
+                }
+            }
+        }
+    }
+    t
 }
 
 fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
@@ -140,26 +294,7 @@ fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
     }
     t.push_str(&format!("layer sizes: {:?}\n", report.layer_sizes));
     let p = &report.poincare_sum;
-    match (p.is_scalar, &p.prefactor) {
-        (Some(true), Some(l)) => t.push_str(&format!("Poincaré sum: B = {l} · G⁻¹ (scalar)\n")),
-        (Some(false), _) => {
-            t.push_str("Poincaré sum: B is not a multiple of G⁻¹\n");
-            if let Some(inv) = &p.invariants {
-                t.push_str("  B = Σ coefficient × invariant; non-zero entries (row,column)=value in basis order:\n");
-                for term in inv {
-                    t.push_str(&format!(
-                        "  {} × {}\n",
-                        term.coefficient,
-                        nonzero_entries(&term.matrix)
-                    ));
-                }
-            }
-        }
-        _ => t.push_str(&format!(
-            "Poincaré sum: not computed ({})\n",
-            p.note.clone().unwrap_or_default()
-        )),
-    }
+    t.push_str(&poincare_text(p));
     if let Some(ok) = p.trace_check {
         t.push_str(&format!(
             "check tr(B·G) = |orbit|·⟨v₀,v₀⟩_G: {}\n",
@@ -197,6 +332,17 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
                 .into(),
         );
     }
+    let completed;
+    let args = match &args.resume {
+        Some(path) if args.spec.is_none() && args.matrices.is_none() => {
+            completed = match recorded_arguments(args, path) {
+                Ok(a) => a,
+                Err(e) => return Outcome::Invalid(e),
+            };
+            &completed
+        }
+        _ => args,
+    };
     if args.method == "structure" {
         return run_structure(args, as_json, started);
     }
@@ -215,19 +361,28 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         .as_ref()
         .map_or_else(|| load_problem(args), DwSpace::problem)
     {
-        Ok(p) => p,
+        Ok(p) => p.with_origin(origin_of(args)),
         Err(e) => return Outcome::Invalid(e),
     };
     let stop = Arc::new(AtomicBool::new(false));
     if let Err(e) = install_stop_handler(&stop) {
         return Outcome::Invalid(format!("cannot install the interrupt handler: {e}"));
     }
-    let opts = options(args, stop);
-    if let Some(plan) = &opts.checkpoint {
-        if let Err(e) = check_writable(&plan.path) {
-            return Outcome::Invalid(e);
+    let mut opts = options(args, stop);
+    match &opts.checkpoint {
+        Some(plan) => {
+            if let Err(e) = check_writable(&plan.path) {
+                return Outcome::Invalid(e);
+            }
+        }
+        None => {
+            opts.checkpoint = default_checkpoint(&problem).map(|path| CheckpointPlan {
+                path,
+                every: Duration::from_secs(args.checkpoint_every.max(1)),
+            });
         }
     }
+    let chosen_checkpoint = args.checkpoint.is_none() && args.resume.is_none();
     let mut progress = OrbitProgress::new(as_json);
     let result: Result<Orbit, _> = match &args.resume {
         Some(path) => problem.resume(path, &opts, &mut progress),
@@ -239,7 +394,9 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         Err(e) => return Outcome::Invalid(e.to_string()),
     };
     // dw: B comes from the subsets and orbitals (no dense d×d matrix over the field)
-    let sum = if orbit.is_saturated() && dw_space.is_none() {
+    // (a twisted dw: theory has phases: its B is summed like any other theory's)
+    let dense_sum = dw_space.as_ref().map_or(true, DwSpace::is_twisted);
+    let sum = if orbit.is_saturated() && dense_sum {
         Some(
             problem
                 .poincare_sum(&orbit, opts.threads)
@@ -254,7 +411,7 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         None => Err("the orbit is not saturated".to_string()),
     };
     let mut report = OrbitReport::new(&problem, &orbit, poincare, started.elapsed());
-    if let (Some(space), true) = (&dw_space, orbit.is_saturated()) {
+    if let (Some(space), true, false) = (&dw_space, orbit.is_saturated(), dense_sum) {
         report.poincare_sum = space.poincare_report(orbit.len());
     }
     let words: Vec<(usize, Vec<String>)> = (0..args.words.min(orbit.len()))
@@ -268,7 +425,25 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
             .map(|(i, w)| json!({"line": i, "word": w}))
             .collect::<Vec<_>>());
     }
-    let text = text_report(&report, &words);
+    let mut text = text_report(&report, &words);
+    if let Some(plan) = &opts.checkpoint {
+        if orbit.is_saturated() {
+            if chosen_checkpoint {
+                std::fs::remove_file(&plan.path).ok();
+            }
+        } else if plan.path.exists() {
+            let command = format!(
+                "cyclorb orbit --resume {}",
+                shell_word(&plan.path.display().to_string())
+            );
+            text.push_str(&format!(
+                "checkpoint written to {}\ncontinue with: {command}\n",
+                plan.path.display()
+            ));
+            value["checkpoint"] = json!(plan.path.display().to_string());
+            value["resume_command"] = json!(command);
+        }
+    }
     let trace_failed = report.poincare_sum.trace_check == Some(false);
     let out = Report::new(value, text, as_json);
     if trace_failed {
@@ -293,9 +468,7 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
         );
     }
     if is_dw(spec) {
-        return Outcome::Invalid(format!(
-            "{spec}: the counting route is not available for Dijkgraaf–Witten theories yet; use --method enumerate"
-        ));
+        return super::dw_count::run(spec, genus, &args.set, args.limit, as_json, started);
     }
     let space = match parse_set(&args.set).and_then(|set| Ok((set, build_space(spec, genus)?))) {
         Ok(x) => x,
@@ -317,11 +490,22 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
             if let Err(e) = written {
                 return Outcome::Invalid(e);
             }
-            Outcome::Done(Report::new(
-                orbit_json(&report, started),
-                orbit_text(&report),
-                as_json,
-            ))
+            let mut value = orbit_json(&report, started);
+            let mut entries_text = String::new();
+            if let Some(lambda) = &report.prefactor {
+                match scalar_sum_entries(&space.1, lambda) {
+                    Ok(entries) => {
+                        entries_text = format!(
+                            "  B by comb-basis labels (row | column: value, non-zero entries):\n{}",
+                            entry_lines(&entries, "poincare_sum.entries")
+                        );
+                        value["poincare_sum"]["entries"] = json!(entries);
+                    }
+                    Err(e) => return Outcome::Invalid(format!("B = λ·G⁻¹ by entries: {e}")),
+                }
+            }
+            let text = orbit_text(&report, &entries_text);
+            Outcome::Done(Report::new(value, text, as_json))
         }
         Ok(Err(absent)) => Outcome::Invalid(format!(
             "{spec} at genus {genus} has no monomial structure ({absent}); use --method enumerate"

@@ -47,6 +47,7 @@ impl Report {
         let mut out = String::new();
         if self.as_json {
             let mut json = self.json.clone();
+            add_approximations(&mut json);
             if let (Some(v), Value::Object(obj)) = (verified, &mut json) {
                 obj.insert("verified".into(), Value::Bool(v));
             }
@@ -98,4 +99,94 @@ impl Outcome {
 /// Whether progress displays may be drawn: a terminal on stderr and not JSON mode.
 pub fn progress_allowed(json: bool) -> bool {
     !json && std::io::stderr().is_terminal()
+}
+
+/// A word as the shell needs it typed: unchanged when it is plain, else in single quotes.
+pub fn shell_word(text: &str) -> String {
+    let plain = !text.is_empty()
+        && text
+            .chars()
+            .all(|c| c.is_ascii_alphanumeric() || "-_./:=@+,".contains(c));
+    if plain {
+        text.to_string()
+    } else {
+        format!("'{}'", text.replace('\'', "'\\''"))
+    }
+}
+
+/// Keys whose exact value (an integer or a rational, as a string because it may exceed any
+/// machine word) gets a floating-point companion `KEY_approx` for plotting.
+const EXACT_NUMBER_KEYS: &[&str] = &[
+    "prefactor",
+    "order",
+    "image_order",
+    "orbit_size",
+    "coefficient",
+];
+
+/// A decimal integer or rational `p/q` as the nearest f64 (display only; `None` for other
+/// text, such as a cyclotomic number).
+fn approximate(text: &str) -> Option<f64> {
+    let number = |t: &str| -> Option<f64> {
+        let t = t.trim();
+        let digits = t.strip_prefix('-').unwrap_or(t);
+        (!digits.is_empty() && digits.chars().all(|c| c.is_ascii_digit()))
+            .then(|| t.parse::<f64>().ok())
+            .flatten()
+    };
+    match text.split_once('/') {
+        Some((p, q)) => Some(number(p)? / number(q).filter(|&q| q != 0.0)?),
+        None => number(text),
+    }
+}
+
+/// Beside every exact number of [`EXACT_NUMBER_KEYS`] given as a string, anywhere in the
+/// object, its approximation `KEY_approx` (the exact string stays the answer).
+pub fn add_approximations(value: &mut Value) {
+    match value {
+        Value::Object(obj) => {
+            let extra: Vec<(String, f64)> = EXACT_NUMBER_KEYS
+                .iter()
+                .filter_map(|key| {
+                    let x = approximate(obj.get(*key)?.as_str()?)?;
+                    Some((format!("{key}_approx"), x))
+                })
+                .collect();
+            for v in obj.values_mut() {
+                add_approximations(v);
+            }
+            for (key, x) in extra {
+                obj.entry(key).or_insert(Value::from(x));
+            }
+        }
+        Value::Array(items) => items.iter_mut().for_each(add_approximations),
+        _ => {}
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn exact_numbers_get_an_approximation_beside_them() {
+        let mut v = serde_json::json!({
+            "order": "3019898880",
+            "poincare_sum": {"prefactor": "3/2", "invariants": [{"coefficient": "-4"}]},
+            "orbit_size": 24,
+            "theory": "ising",
+            "prefactor_note": "x",
+        });
+        add_approximations(&mut v);
+        assert_eq!(v["order_approx"], 3019898880.0);
+        assert_eq!(v["poincare_sum"]["prefactor_approx"], 1.5);
+        assert_eq!(
+            v["poincare_sum"]["invariants"][0]["coefficient_approx"],
+            -4.0
+        );
+        // numbers already numeric and other text are left alone
+        assert!(v.get("orbit_size_approx").is_none());
+        assert_eq!(approximate("1 + z^2"), None);
+        assert_eq!(approximate("3/0"), None);
+    }
 }

@@ -23,8 +23,12 @@ use super::orbit::options;
 use super::output::{Outcome, Report};
 use crate::cli::OrbitArgs;
 
-/// The two factors of a spec `A*B` split at its first `*` outside parentheses.
+/// The two factors of a spec `A*B` split at its first `*` outside parentheses, or of a
+/// built-in theory defined as a product (`tricritical-ising`).
 fn product_factors(spec: &str) -> Option<(&str, &str)> {
+    if let Some(factors) = cyclorb_theory::defining_product(spec.trim()) {
+        return Some(factors);
+    }
     let mut depth = 0i32;
     for (i, ch) in spec.char_indices() {
         match ch {

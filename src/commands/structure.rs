@@ -6,6 +6,7 @@
 use std::time::Instant;
 
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
+use cyclorb_orbit::LabelledEntry;
 use cyclorb_structure::{analyse, recheck, StructureOptions, StructureReport};
 use serde_json::{json, Value};
 
@@ -28,6 +29,33 @@ pub fn counted(
         Err(e) if e.is_absent() => Ok(Err(e.to_string())),
         Err(e) => Err(e.to_string()),
     }
+}
+
+/// B = λ·G⁻¹ entry by entry over the comb basis: the diagonal entries (x, x, λ/G_x),
+/// keyed by the basis label tuples (the keys of `orbit --json`'s `poincare_sum.entries`).
+pub fn scalar_sum_entries(
+    space: &BlockSpace,
+    prefactor: &str,
+) -> Result<Vec<LabelledEntry>, String> {
+    let theory = space.theory();
+    let field = theory.field();
+    let lambda = field.parse(prefactor).map_err(|e| e.to_string())?;
+    space
+        .states()
+        .iter()
+        .zip(space.form())
+        .map(|(state, g)| {
+            let value = field.div(&lambda, g).map_err(|e| e.to_string())?;
+            let (re, im) = value.to_complex();
+            let label = state.describe(theory);
+            Ok(LabelledEntry {
+                row: label.clone(),
+                column: label,
+                value: value.to_string(),
+                approx: [re, im],
+            })
+        })
+        .collect()
 }
 
 /// An exact decimal as a JSON number when it fits in u64, else as a string.
@@ -67,8 +95,9 @@ pub fn orbit_json(r: &StructureReport, started: Instant) -> Value {
     })
 }
 
-/// The text form of a counted orbit.
-pub fn orbit_text(r: &StructureReport) -> String {
+/// The text form of a counted orbit; `sum_entries` (B by labels, already as text) follows
+/// the line of the Poincaré sum.
+pub fn orbit_text(r: &StructureReport, sum_entries: &str) -> String {
     let mut t = format!(
         "theory {} at genus {}: dimension {} over Q(ζ_{}), {} generators\n",
         r.theory,
@@ -90,6 +119,7 @@ pub fn orbit_text(r: &StructureReport) -> String {
             r.commutant_dimension
         )),
     }
+    t.push_str(sum_entries);
     t.push_str(&format!(
         "projective image order {} = |P| {} × |K| {} / |K ∩ scalars| {}\ncertificate re-checked\n",
         r.image_order, r.image.permutation_order, r.image.kernel_order, r.image.kernel_scalars

@@ -134,7 +134,7 @@ impl StabiliserChain {
     /// identity of the group fixes every point of it), using `threads` threads. Errors:
     /// malformed permutations, base points out of range or repeated, and an input generator
     /// that fixes the whole base without being the identity (so `base` is not a base).
-    pub(crate) fn with_base(
+    pub fn with_base(
         degree: usize,
         generators: &[Vec<u32>],
         base: &[u32],
@@ -385,6 +385,36 @@ impl StabiliserChain {
         }
         let (level, residue) = self.sift_permutation(g.to_vec(), 0);
         level == self.levels.len() && is_identity(&residue)
+    }
+
+    /// The number of levels: one per base point given, redundant ones included.
+    pub fn level_count(&self) -> usize {
+        self.levels.len()
+    }
+
+    /// The base point b_k of level k (every level, as given).
+    pub fn base_point(&self, k: usize) -> u32 {
+        self.levels[k].base_point
+    }
+
+    /// The basic orbit Δ_k = b_k^{G^{(k)}} of level k, G^{(k)} the pointwise stabiliser of
+    /// b_0, …, b_{k−1}, in the order its points were reached.
+    pub fn basic_orbit(&self, k: usize) -> Vec<u32> {
+        let tree = &self.levels[k].tree;
+        (0..tree.len()).map(|i| tree.point(i)).collect()
+    }
+
+    /// The transversal element u_β of level k (b_k^{u_β} = β) as an image list, `None` when
+    /// β ∉ Δ_k. Every element of G is uniquely u^{(m−1)}⋯u^{(1)}·u^{(0)} (left factor applied
+    /// first), one transversal element per level.
+    pub fn transversal(&self, k: usize, beta: u32) -> Option<Vec<u32>> {
+        let tree = &self.levels[k].tree;
+        if !tree.contains(beta) {
+            return None;
+        }
+        let mut u = identity(self.degree);
+        tree.apply(&self.strong, beta, &mut u, &mut Vec::new());
+        Some(u)
     }
 
     /// The number of points acted on.

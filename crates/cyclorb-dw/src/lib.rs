@@ -15,9 +15,14 @@
 //! - [`Word`], [`Automorphism`], [`twist`]: the twists as automorphisms of the free group.
 //! - [`FlatBundles`]: X_g enumerated by canonical representatives, the vacuum subset, every
 //!   twist as a permutation; [`check_relations`] proves the mapping class group relations on
-//!   those permutations.
+//!   those permutations (through [`TwistAction`], shared with the free group).
+//! - [`CyclicCocycle`], [`TwistedBundles`]: the twisted theories D^{ω_p}(Z_N), the same
+//!   permutations of X_g = Z_N^{2g} with phases in Q(ζ_{N²}) ([`PhasedPermutation`]);
+//!   [`check_twisted_relations`] proves the relations up to scalars.
 //! - [`subset_orbit`] and [`Orbitals`]: the orbit of the vacuum subset and the orbits of the
 //!   group on pairs (the invariant matrices of a permutation representation).
+//! - [`count_vacuum_orbit`]: the orbit of the vacuum counted as |P| / |Stab_P(S)|, the
+//!   stabiliser from the parts of S over the abelianisation ([`AbelianFibres`]).
 //!
 //! ```
 //! use cyclorb_dw::{builtin_group, FlatBundles, SizeBound};
@@ -48,8 +53,10 @@
 mod builtins;
 mod characters;
 mod classes;
+mod count;
 mod degrees;
 mod error;
+mod fibres;
 mod file;
 mod group;
 mod modular;
@@ -57,20 +64,31 @@ mod orbitals;
 mod relations;
 mod space;
 mod subsets;
+mod twisted;
 mod twists;
 mod words;
 
 pub use builtins::{builtin_group, EXAMPLES};
 pub use characters::{character_table, CharacterTable, MAX_CLASSES};
 pub use classes::{centraliser_in, conjugacy_classes, ConjugacyClass};
+pub use count::{
+    count_vacuum_orbit, CountBounds, CountLimits, PartOrbit, VacuumCount, VacuumOrbit,
+};
 pub use degrees::{centraliser_degrees, character_degrees, verlinde_dimension};
 pub use error::DwError;
+pub use fibres::AbelianFibres;
 pub use file::{parse_group_file, read_group_file, GROUP_FILE_FORMAT};
 pub use group::{cycle_notation, Element, FiniteGroup, MAX_ORDER, MAX_TABLE_ORDER};
 pub use modular::{modular_data, Anyon, ModularData};
 pub use orbitals::Orbitals;
-pub use relations::{check_relations, word_permutation, RelationCheck};
+pub use relations::{
+    check_relations, free_group_checks, relation_checks, word_permutation, FreeGroup,
+    RelationCheck, TwistAction,
+};
 pub use space::{FlatBundles, SizeBound};
 pub use subsets::subset_orbit;
+pub use twisted::{
+    check_twisted_relations, CyclicCocycle, PhasedPermutation, TwistedBundles, MAX_TWISTED_ORDER,
+};
 pub use twists::{gamma_word, separating_twist, twist};
 pub use words::{Automorphism, Word};

@@ -50,83 +50,172 @@ fn repeat<T: Copy>(w: &[T], times: usize) -> Vec<T> {
     w.iter().copied().cycle().take(w.len() * times).collect()
 }
 
-/// Every check for the Lickorish curves of X_g (which contain the Humphries curves).
+/// The twists as elements of a group in which equality can be decided: automorphisms of the
+/// free group, permutations of X_g, or monomial matrices on X_g (equal up to a scalar).
+pub trait TwistAction {
+    /// An element of the group.
+    type Element;
+    /// The genus.
+    fn genus(&self) -> usize;
+    /// The twist about a curve of the Lickorish set.
+    fn twist(&self, curve: Curve) -> Result<Self::Element, DwError>;
+    /// The twist about the separating curve around the handles `handles`.
+    fn separating(&self, handles: std::ops::Range<usize>) -> Result<Self::Element, DwError>;
+    /// The matrix product X₁⋯X_k (the automorphism τ₁ ∘ ⋯ ∘ τ_k on the free group).
+    fn product(&self, word: &[&Self::Element]) -> Self::Element;
+    /// Whether two elements are equal (for matrices: up to a scalar).
+    fn same(&self, x: &Self::Element, y: &Self::Element) -> bool;
+    /// Whether this is an action of the closed surface's mapping class group, where the
+    /// genus-1 and hyperelliptic relations hold (they fail on the free group).
+    fn closed_surface(&self) -> bool;
+    /// Appended to every relation's name, e.g. ` (free group)`.
+    fn suffix(&self) -> &'static str;
+}
+
+/// The free group on a₀, b₀, …: the relations that hold for the surface with one boundary
+/// component, for every group G at once.
+pub struct FreeGroup(pub usize);
+
+impl TwistAction for FreeGroup {
+    type Element = Automorphism;
+    fn genus(&self) -> usize {
+        self.0
+    }
+    fn twist(&self, curve: Curve) -> Result<Automorphism, DwError> {
+        twist(curve, self.0)
+            .ok_or_else(|| DwError::Inconsistent(format!("no curve {curve} at genus {}", self.0)))
+    }
+    fn separating(&self, handles: std::ops::Range<usize>) -> Result<Automorphism, DwError> {
+        Ok(separating_twist(self.0, handles))
+    }
+    fn product(&self, word: &[&Automorphism]) -> Automorphism {
+        word_automorphism(word, self.0)
+    }
+    fn same(&self, x: &Automorphism, y: &Automorphism) -> bool {
+        x == y
+    }
+    fn closed_surface(&self) -> bool {
+        false
+    }
+    fn suffix(&self) -> &'static str {
+        " (free group)"
+    }
+}
+
+/// The permutations of X_g: a permutation matrix is a multiple of another only when they
+/// are equal, so the projective relations are equalities.
+impl TwistAction for FlatBundles {
+    type Element = Vec<u32>;
+    fn genus(&self) -> usize {
+        FlatBundles::genus(self)
+    }
+    fn twist(&self, curve: Curve) -> Result<Vec<u32>, DwError> {
+        self.permutation(&FreeGroup(self.genus()).twist(curve)?)
+    }
+    fn separating(&self, handles: std::ops::Range<usize>) -> Result<Vec<u32>, DwError> {
+        self.permutation(&separating_twist(self.genus(), handles))
+    }
+    fn product(&self, word: &[&Vec<u32>]) -> Vec<u32> {
+        let slices: Vec<&[u32]> = word.iter().map(|p| p.as_slice()).collect();
+        word_permutation(&slices, self.len())
+    }
+    fn same(&self, x: &Vec<u32>, y: &Vec<u32>) -> bool {
+        x == y
+    }
+    fn closed_surface(&self) -> bool {
+        true
+    }
+    fn suffix(&self) -> &'static str {
+        ""
+    }
+}
+
+/// Every check for the Lickorish curves of X_g (which contain the Humphries curves): the
+/// boundary word and the relations on the free group, then the relations on X_g.
 pub fn check_relations(space: &FlatBundles) -> Result<Vec<RelationCheck>, DwError> {
-    let g = space.genus();
-    let dim = space.len();
-    let curves = GeneratingSet::Lickorish.curves(g);
-    let mut autos = Vec::new();
-    for &c in &curves {
-        let t = twist(c, g)
-            .ok_or_else(|| DwError::Inconsistent(format!("no curve {c} at genus {g}")))?;
-        autos.push((c, t));
-    }
-    let perms: Vec<(Curve, Vec<u32>)> = autos
-        .iter()
-        .map(|(c, t)| Ok((*c, space.permutation(t)?)))
-        .collect::<Result<_, DwError>>()?;
-    let p = |c: Curve| -> &[u32] {
-        &perms
-            .iter()
-            .find(|(k, _)| *k == c)
-            .expect("a Lickorish curve")
-            .1
-    };
-    let auto = |c: Curve| -> &Automorphism {
-        &autos
-            .iter()
-            .find(|(k, _)| *k == c)
-            .expect("a Lickorish curve")
-            .1
-    };
+    let mut out = free_group_checks(space.genus())?;
+    out.extend(relation_checks(space)?);
+    Ok(out)
+}
+
+/// The checks that hold on the free group for every G: every twist fixes the boundary word,
+/// and the braid, commutation and chain relations hold as automorphisms.
+pub fn free_group_checks(genus: usize) -> Result<Vec<RelationCheck>, DwError> {
+    let free = FreeGroup(genus);
+    let boundary = Word::boundary(genus);
     let mut out = Vec::new();
-    let mut record = |name: String, ok: bool| out.push(RelationCheck { name, ok });
-    let boundary = Word::boundary(g);
-    for (c, t) in &autos {
-        record(
-            format!("{c} fixes the boundary word (free group)"),
-            t.apply(&boundary) == boundary,
-        );
+    for c in GeneratingSet::Lickorish.curves(genus) {
+        out.push(RelationCheck {
+            name: format!("{c} fixes the boundary word (free group)"),
+            ok: free.twist(c)?.apply(&boundary) == boundary,
+        });
     }
-    let same = |x: &[&[u32]], y: &[&[u32]]| word_permutation(x, dim) == word_permutation(y, dim);
-    let same_free = |x: &[&Automorphism], y: &[&Automorphism]| {
-        word_automorphism(x, g) == word_automorphism(y, g)
+    out.extend(relation_checks(&free)?);
+    Ok(out)
+}
+
+/// The relations of the module doc in one action, each named with the action's suffix.
+pub fn relation_checks<A: TwistAction>(action: &A) -> Result<Vec<RelationCheck>, DwError> {
+    let g = action.genus();
+    let curves = GeneratingSet::Lickorish.curves(g);
+    let elements: Vec<(Curve, A::Element)> = curves
+        .iter()
+        .map(|&c| Ok((c, action.twist(c)?)))
+        .collect::<Result<_, DwError>>()?;
+    let t = |c: Curve| -> &A::Element {
+        &elements
+            .iter()
+            .find(|(k, _)| *k == c)
+            .expect("a Lickorish curve")
+            .1
     };
+    let suffix = action.suffix();
+    let mut out = Vec::new();
+    let mut record = |name: String, ok: bool| {
+        out.push(RelationCheck {
+            name: format!("{name}{suffix}"),
+            ok,
+        })
+    };
+    let same =
+        |x: &[&A::Element], y: &[&A::Element]| action.same(&action.product(x), &action.product(y));
     for (i, &x) in curves.iter().enumerate() {
         for &y in &curves[i + 1..] {
-            let (px, py) = (p(x), p(y));
-            let (tx, ty) = (auto(x), auto(y));
+            let (tx, ty) = (t(x), t(y));
             if x.meets_once(y) {
-                record(format!("braid {x} {y}"), same(&[px, py, px], &[py, px, py]));
-                record(
-                    format!("braid {x} {y} (free group)"),
-                    same_free(&[tx, ty, tx], &[ty, tx, ty]),
-                );
+                record(format!("braid {x} {y}"), same(&[tx, ty, tx], &[ty, tx, ty]));
             } else {
-                record(format!("commute {x} {y}"), same(&[px, py], &[py, px]));
-                record(
-                    format!("commute {x} {y} (free group)"),
-                    same_free(&[tx, ty], &[ty, tx]),
-                );
+                record(format!("commute {x} {y}"), same(&[tx, ty], &[ty, tx]));
             }
         }
     }
     for h in 0..g {
-        let d = separating_twist(g, h..h + 1);
-        let pd = space.permutation(&d)?;
-        let lhs = repeat(&[p(Curve::Alpha(h)), p(Curve::Beta(h))], 6);
+        let d = action.separating(h..h + 1)?;
+        let lhs = repeat(&[t(Curve::Alpha(h)), t(Curve::Beta(h))], 6);
         record(
             format!("2-chain (alpha{h} beta{h})^6 = twist about the boundary of handle {h}"),
-            same(&lhs, &[&pd]),
-        );
-        let lhs = repeat(&[auto(Curve::Alpha(h)), auto(Curve::Beta(h))], 6);
-        record(
-            format!("2-chain (alpha{h} beta{h})^6 = twist about the boundary of handle {h} (free group)"),
-            same_free(&lhs, &[&d]),
+            same(&lhs, &[&d]),
         );
     }
+    if g >= 2 {
+        let d = action.separating(0..2)?;
+        let chain = [
+            Curve::Alpha(0),
+            Curve::Beta(0),
+            Curve::Gamma(0),
+            Curve::Beta(1),
+        ];
+        let lhs = repeat(&chain.map(t), 10);
+        record(
+            "4-chain (alpha0 beta0 gamma0 beta1)^10 = twist around handles 0,1".into(),
+            same(&lhs, &[&d]),
+        );
+    }
+    if !action.closed_surface() {
+        return Ok(out);
+    }
     if g == 1 {
-        let (a, b) = (p(Curve::Alpha(0)), p(Curve::Beta(0)));
+        let (a, b) = (t(Curve::Alpha(0)), t(Curve::Beta(0)));
         let s = [a, b, a];
         record(
             "genus 1: S^4 = 1 (S = ABA)".into(),
@@ -142,26 +231,6 @@ pub fn check_relations(space: &FlatBundles) -> Result<Vec<RelationCheck>, DwErro
             same(&repeat(&s, 2), &repeat(&[a, b], 3)),
         );
     }
-    if g >= 2 {
-        let d = separating_twist(g, 0..2);
-        let pd = space.permutation(&d)?;
-        let chain = [
-            Curve::Alpha(0),
-            Curve::Beta(0),
-            Curve::Gamma(0),
-            Curve::Beta(1),
-        ];
-        let lhs = repeat(&chain.map(p), 10);
-        record(
-            "4-chain (alpha0 beta0 gamma0 beta1)^10 = twist around handles 0,1".into(),
-            same(&lhs, &[&pd]),
-        );
-        let lhs = repeat(&chain.map(auto), 10);
-        record(
-            "4-chain (alpha0 beta0 gamma0 beta1)^10 = twist around handles 0,1 (free group)".into(),
-            same_free(&lhs, &[&d]),
-        );
-    }
     if g == 2 {
         let c = [
             Curve::Alpha(0),
@@ -170,7 +239,7 @@ pub fn check_relations(space: &FlatBundles) -> Result<Vec<RelationCheck>, DwErro
             Curve::Beta(1),
             Curve::Alpha(1),
         ]
-        .map(p);
+        .map(t);
         record(
             "hyperelliptic (c1 c2 c3 c4 c5)^6 = 1".into(),
             same(&repeat(&c, 6), &[]),

@@ -6,12 +6,16 @@
 //! Coste–Gannon–Ruelle, Phys. Lett. B 477 (2000) (formulas from memory); S² = C,
 //! (ST)³ = S² for c = 0 (standard, modular data); V_1 = C[X_1] carries the same SL(2, Z)
 //! representation as the modular data (Dijkgraaf–Witten 1990; Bakalov–Kirillov §3.2), so the
-//! traces of T_α, ABA and ABA·A agree with tr T, tr S⁻¹, tr S⁻¹T (S = ABA ↦ S⁻¹ as in
-//! cyclorb-mcg's genus-1 convention).
+//! traces of T_α, ABA, ABA·A, (ABA)⁻¹ and (ABA)⁻¹·A agree exactly with tr T, tr S⁻¹,
+//! tr S⁻¹T, tr S and tr ST (S = ABA ↦ S⁻¹ as in cyclorb-mcg's genus-1 convention; no scalar
+//! enters: the permutation matrices and the normalised S, T with c = 0 are the same
+//! representation of SL(2, Z), not only projectively). The vacuum line has orbits of the same size under both
+//! (the orbit of the vacuum subset of X_1 under the permutations; the orbit of the vacuum
+//! anyon's line under S and T of the modular data, listed by the orbit engine).
 
 use cyclorb_dw::{
     builtin_group, character_degrees, character_table, conjugacy_classes, modular_data,
-    word_permutation, FlatBundles, SizeBound,
+    subset_orbit, word_permutation, FlatBundles, SizeBound,
 };
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_mcg::{Curve, GeneratingSet};
@@ -106,6 +110,14 @@ fn genus_one_traces_match_the_permutation_action() {
         let tr_a = fixed_points(&word_permutation(&[a], dim));
         let tr_s = fixed_points(&word_permutation(&[a, b, a], dim));
         let tr_sa = fixed_points(&word_permutation(&[a, b, a, a], dim));
+        // S = (ABA)⁻¹ and ST = (ABA)⁻¹A: the inverse permutation of ABA
+        let aba = word_permutation(&[a, b, a], dim);
+        let mut s_perm = vec![0u32; dim];
+        for (i, &j) in aba.iter().enumerate() {
+            s_perm[j as usize] = i as u32;
+        }
+        let tr_s_direct = fixed_points(&s_perm);
+        let tr_st = fixed_points(&word_permutation(&[&s_perm, a], dim));
         let tr_t = f.sum(md.t.iter()).unwrap();
         // S⁻¹ = S† (S unitary): tr S⁻¹ = Σ conj S_ii, tr S⁻¹T = Σ conj S_ii T_i
         let diag: Vec<Cyc> = (0..dim).map(|i| f.conj(&md.s[i][i])).collect();
@@ -116,9 +128,55 @@ fn genus_one_traces_match_the_permutation_action() {
             .map(|(s, t)| f.mul(s, t).unwrap())
             .collect();
         let tr_sinv_t = f.sum(terms.iter()).unwrap();
+        let tr_s_md = f.sum((0..dim).map(|i| &md.s[i][i])).unwrap();
+        let st_terms: Vec<Cyc> = (0..dim)
+            .map(|i| f.mul(&md.s[i][i], &md.t[i]).unwrap())
+            .collect();
+        let tr_st_md = f.sum(st_terms.iter()).unwrap();
+        assert_eq!(tr_s_md, f.int(tr_s_direct), "{name}: tr S");
+        assert_eq!(tr_st_md, f.int(tr_st), "{name}: tr ST");
         assert_eq!(tr_t, f.int(tr_a), "{name}: tr T");
         assert_eq!(tr_sinv, f.int(tr_s), "{name}: tr S^-1");
         assert_eq!(tr_sinv_t, f.int(tr_sa), "{name}: tr S^-1 T");
+    }
+}
+
+#[test]
+fn genus_one_vacuum_orbits_match_the_modular_data() {
+    use cyclorb_matrix::{Matrix, Operator};
+    use cyclorb_orbit::{GeneratorSet, OrbitOptions, OrbitProblem, Seed, Silent};
+    for name in GROUPS {
+        let g = builtin_group(name).unwrap();
+        let md = modular_data(&g).unwrap();
+        let k = md.anyons.len();
+        // the vacuum anyon: its row of S is d_b / |G| > 0 for every b (standard)
+        let positive = |x: &Cyc| x.as_rational().is_some_and(|(p, _)| p > 0.into());
+        let vacuum = (0..k)
+            .find(|&a| md.s[a].iter().all(positive))
+            .expect("a vacuum row");
+        let generators = GeneratorSet {
+            conductor: md.field.conductor(),
+            dimension: k,
+            names: vec!["S".into(), "T".into()],
+            operators: vec![
+                Operator::Dense(Matrix::from_rows(md.s.clone()).unwrap()),
+                Operator::Diagonal(md.t.clone()),
+            ],
+            basis_labels: (0..k).map(|a| a.to_string()).collect(),
+            form: None,
+            theory: None,
+            genus: None,
+        };
+        let seed = Seed::basis_vector(&md.field, k, vacuum);
+        let problem = OrbitProblem::new(generators, &seed).unwrap();
+        let lines = problem
+            .enumerate(&OrbitOptions::default(), &mut Silent)
+            .unwrap();
+        assert!(lines.is_saturated());
+        let x = FlatBundles::new(&g, 1, SizeBound::default()).unwrap();
+        let perms = x.generators(GeneratingSet::Humphries).unwrap();
+        let subsets = subset_orbit(&x.vacuum(), &perms, usize::MAX).unwrap();
+        assert_eq!(lines.len(), subsets.len(), "{name}");
     }
 }
 

@@ -5,7 +5,8 @@
 //! | field | bytes |
 //! | --- | --- |
 //! | magic `CYCORBCK` | 8 |
-//! | format version (1) | u32 |
+//! | format version (2; version 1 had no origin) | u32 |
+//! | length of the origin text (0: none), then its UTF-8 bytes: how the problem was built, so that `--resume FILE` alone can rebuild it (a hint only: the content hash below decides) | u32 + bytes |
 //! | conductor n, dimension d, degree φ(n), number of generators | 4 × u32 |
 //! | content hash of generators and seed ([`OrbitProblem::content_hash`]) | u128 |
 //! | elements N, processed, number of layer ends L | 3 × u64 |
@@ -35,7 +36,10 @@ use crate::problem::OrbitProblem;
 use crate::store::{KeyArena, OrbitSet, Width};
 
 const MAGIC: &[u8; 8] = b"CYCORBCK";
-const VERSION: u32 = 1;
+const VERSION: u32 = 2;
+
+/// Longest origin text read from a file.
+const MAX_ORIGIN: usize = 1 << 20;
 
 /// A writer that hashes what it writes.
 struct HashingWriter<W: Write> {
@@ -144,6 +148,41 @@ fn verify_checksum(path: &Path) -> Result<u64, OrbitError> {
     Ok(size)
 }
 
+/// Read the magic, the version and the origin text (versions 1 and 2).
+fn read_origin<R: Read>(r: &mut BoundedReader<R>) -> Result<Option<String>, String> {
+    if r.take(8)? != MAGIC {
+        return Err("not a cyclorb orbit checkpoint".into());
+    }
+    let version = r.u32()?;
+    match version {
+        1 => Ok(None),
+        VERSION => {
+            let len = r.u32()? as usize;
+            if len > MAX_ORIGIN {
+                return Err(format!("origin of {len} bytes is out of range"));
+            }
+            let text = String::from_utf8(r.take(len)?)
+                .map_err(|_| "the origin is not UTF-8 text".to_string())?;
+            Ok((!text.is_empty()).then_some(text))
+        }
+        _ => Err(format!(
+            "checkpoint version {version}; this program reads 1 and {VERSION}"
+        )),
+    }
+}
+
+/// The origin text recorded in a checkpoint (see [`OrbitProblem::with_origin`]), after the
+/// file's checksum is verified; `None` when the writer recorded none.
+pub fn checkpoint_origin(path: &Path) -> Result<Option<String>, OrbitError> {
+    let size = verify_checksum(path)?;
+    let file = File::open(path).map_err(|e| io_error(path, e))?;
+    let mut r = BoundedReader {
+        inner: BufReader::new(file),
+        remaining: size - 16,
+    };
+    read_origin(&mut r).map_err(|e| io_error(path, e))
+}
+
 fn io_error(path: &Path, e: impl std::fmt::Display) -> OrbitError {
     OrbitError::Checkpoint {
         path: path.display().to_string(),
@@ -182,6 +221,9 @@ impl OrbitProblem {
         let set = &orbit.set;
         w.put(MAGIC)?;
         w.put(&VERSION.to_le_bytes())?;
+        let origin = self.origin.as_deref().unwrap_or("").as_bytes();
+        w.put(&(origin.len() as u32).to_le_bytes())?;
+        w.put(origin)?;
         for x in [
             self.generators.conductor,
             self.generators.dimension as u32,
@@ -238,15 +280,7 @@ impl OrbitProblem {
     }
 
     fn read_state<R: Read>(&self, r: &mut BoundedReader<R>) -> Result<Orbit, String> {
-        if r.take(8)? != MAGIC {
-            return Err("not a cyclorb orbit checkpoint".into());
-        }
-        let version = r.u32()?;
-        if version != VERSION {
-            return Err(format!(
-                "checkpoint version {version}; this program reads {VERSION}"
-            ));
-        }
+        read_origin(r)?;
         let header = [r.u32()?, r.u32()?, r.u32()?, r.u32()?];
         let ours = [
             self.generators.conductor,

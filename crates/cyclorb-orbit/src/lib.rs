@@ -76,6 +76,7 @@
 #![deny(missing_docs)]
 
 mod checkpoint;
+pub use checkpoint::checkpoint_origin;
 mod commutant;
 mod compiled;
 mod engine;
@@ -107,9 +108,11 @@ pub use error::{FormatError, OrbitError};
 pub use format::{FORMAT_VERSION, GENERATORS_FORMAT, SEED_FORMAT};
 pub use generators::{GeneratorSet, Seed};
 pub use invertible::MAX_DENSE_PROOF;
-pub use memory::peak_memory_bytes;
+pub use memory::{peak_memory_bytes, resident_memory_bytes};
 pub use pairs::{pair_orbit, PairOrbit};
 pub use poincare::PoincareSum;
 pub use problem::OrbitProblem;
-pub use report::{InvariantReport, OrbitReport, PoincareReport};
+pub use report::{
+    InvariantReport, LabelledEntry, ModularInvariantReport, OrbitReport, PoincareReport,
+};
 pub use signal::install_stop_handler;

@@ -29,6 +29,10 @@ pub struct OrbitProblem {
     pub(crate) block_of: Vec<u32>,
     pub(crate) slot_of: Vec<u32>,
     content_hash: u128,
+    /// How the caller built this problem (free text, e.g. JSON with the theory spec, genus
+    /// and generating set), stored in checkpoints so that a resume can rebuild it; never
+    /// trusted for correctness (a resume checks the content hash).
+    pub(crate) origin: Option<String>,
 }
 
 impl OrbitProblem {
@@ -71,7 +75,14 @@ impl OrbitProblem {
             block_of,
             slot_of,
             content_hash,
+            origin: None,
         })
+    }
+
+    /// Record how this problem was built (see [`crate::checkpoint_origin`]).
+    pub fn with_origin(mut self, origin: impl Into<String>) -> OrbitProblem {
+        self.origin = Some(origin.into());
+        self
     }
 
     /// The field context Q(ζ_n).

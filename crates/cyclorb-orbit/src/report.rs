@@ -8,21 +8,49 @@ use cyclorb_matrix::Matrix;
 use serde::{Deserialize, Serialize};
 
 use crate::engine::{Orbit, StopReason};
+use crate::generators::GeneratorSet;
 use crate::memory::peak_memory_bytes;
 use crate::poincare::PoincareSum;
 use crate::problem::OrbitProblem;
 
-/// One term of B over the invariant matrices.
+/// One non-zero entry of a matrix over the basis, keyed by the labels of its row and
+/// column (for a theory: the comb-basis label tuples `a=(…) b=(…) x=(…)`).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct LabelledEntry {
+    /// Label of the row.
+    pub row: String,
+    /// Label of the column.
+    pub column: String,
+    /// The exact value (text syntax of cyclorb elements).
+    pub value: String,
+    /// A floating-point approximation [re, im], for plotting only.
+    pub approx: [f64; 2],
+}
+
+/// At genus 1 in an orthonormal comb basis (G = I): B read as the matrix M of the modular
+/// invariant Z = Σ_ab M_ab χ_a χ̄_b, rows and columns named by the theory's labels (the
+/// label a of the loop of the basis vector; docs/orbits.md).
 #[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
+pub struct ModularInvariantReport {
+    /// The label of each row (and column), in basis order.
+    pub labels: Vec<String>,
+    /// M, row by row, exact.
+    pub matrix: Vec<Vec<String>>,
+}
+
+/// One term of B over the invariant matrices.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct InvariantReport {
     /// The exact coefficient (text syntax of cyclorb elements; a rational such as `3/2`).
     pub coefficient: String,
     /// The invariant matrix, row by row, entries in text syntax.
     pub matrix: Vec<Vec<String>>,
+    /// Its non-zero entries keyed by basis labels.
+    pub entries: Vec<LabelledEntry>,
 }
 
 /// What the Poincaré sum says. Every field is `null` when the orbit is not saturated.
-#[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize, Default)]
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize, Default)]
 pub struct PoincareReport {
     /// Whether B = λ·G⁻¹.
     pub is_scalar: Option<bool>,
@@ -42,6 +70,10 @@ pub struct PoincareReport {
     pub invariants: Option<Vec<InvariantReport>>,
     /// B itself, when it is not scalar.
     pub matrix: Option<Vec<Vec<String>>>,
+    /// The non-zero entries of B (scalar or not) keyed by basis labels.
+    pub entries: Option<Vec<LabelledEntry>>,
+    /// At genus 1 with G = I: B as the modular invariant matrix over the labels.
+    pub modular_invariant: Option<ModularInvariantReport>,
     /// Why the sum is missing or incomplete, when it is.
     pub note: Option<String>,
 }
@@ -91,9 +123,52 @@ fn matrix_text(m: &Matrix) -> Vec<Vec<String>> {
         .collect()
 }
 
+/// The non-zero entries of `m` keyed by the generator set's basis labels.
+fn labelled_entries(m: &Matrix, gens: &GeneratorSet) -> Vec<LabelledEntry> {
+    let mut out = Vec::new();
+    for i in 0..m.rows() {
+        for (j, x) in m.row(i).iter().enumerate() {
+            if !x.is_zero() {
+                let (re, im) = x.to_complex();
+                out.push(LabelledEntry {
+                    row: gens.label(i),
+                    column: gens.label(j),
+                    value: x.to_string(),
+                    approx: [re, im],
+                });
+            }
+        }
+    }
+    out
+}
+
+/// The label a of a genus-1 comb basis vector `a=(a) b=(…) x=()` (the only loop), or `None`
+/// for labels of another shape.
+fn loop_label(basis_label: &str) -> Option<String> {
+    let rest = basis_label.strip_prefix("a=(")?;
+    let (label, tail) = rest.split_once(") b=(")?;
+    tail.ends_with(") x=()").then(|| label.to_string())
+}
+
+/// B as a modular invariant over the labels: only at genus 1, with G = I (then the comb
+/// basis is orthonormal and B's entries are the multiplicities M_ab of Z = Σ M_ab χ_a χ̄_b).
+fn modular_invariant(b: &Matrix, gens: &GeneratorSet) -> Option<ModularInvariantReport> {
+    if gens.genus != Some(1) || gens.form.is_some() {
+        return None;
+    }
+    let labels = (0..gens.dimension)
+        .map(|i| loop_label(&gens.label(i)))
+        .collect::<Option<Vec<String>>>()?;
+    Some(ModularInvariantReport {
+        labels,
+        matrix: matrix_text(b),
+    })
+}
+
 impl PoincareReport {
-    /// The report of a computed sum.
-    pub fn from_sum(sum: &PoincareSum) -> PoincareReport {
+    /// The report of a computed sum over the generator set `gens` (whose basis labels key
+    /// the entries).
+    pub fn from_sum(sum: &PoincareSum, gens: &GeneratorSet) -> PoincareReport {
         let mut r = PoincareReport {
             is_scalar: Some(sum.scalar.is_some()),
             prefactor: match (sum.prefactor(), &sum.scalar) {
@@ -102,6 +177,8 @@ impl PoincareReport {
             },
             seed_norm: Some(sum.norm.to_string()),
             trace_check: Some(sum.trace_check),
+            entries: Some(labelled_entries(&sum.matrix, gens)),
+            modular_invariant: modular_invariant(&sum.matrix, gens),
             ..PoincareReport::default()
         };
         if sum.scalar.is_some() {
@@ -119,6 +196,7 @@ impl PoincareReport {
                         .map(|t| InvariantReport {
                             coefficient: t.coefficient.to_string(),
                             matrix: matrix_text(&t.matrix),
+                            entries: labelled_entries(&t.matrix, gens),
                         })
                         .collect(),
                 );
@@ -154,7 +232,7 @@ impl OrbitReport {
             PoincareReport::missing("the orbit is not saturated")
         } else {
             match poincare {
-                Ok(sum) => PoincareReport::from_sum(sum),
+                Ok(sum) => PoincareReport::from_sum(sum, g),
                 Err(reason) => PoincareReport::missing(reason),
             }
         };

@@ -82,8 +82,8 @@ mod verify;
 mod verlinde;
 
 pub use builtins::{
-    builtin_catalogue, fibonacci, ising_type, minimal, minimal_modular_data, so3, su2,
-    tricritical_ising, zn,
+    builtin_catalogue, defining_product, fibonacci, ising_type, minimal, minimal_modular_data, so3,
+    su2, tricritical_ising, zn,
 };
 pub use digest::Sha256;
 pub use error::TheoryError;

@@ -10,7 +10,7 @@ use hashbrown::HashMap;
 
 use crate::fmatrix::FMatrix;
 use crate::fusion::FusionRules;
-use crate::structure::{key3, key4, Braiding, FBlock};
+use crate::structure::{key3, key4, Braiding, FBlock, FSource};
 
 /// A modular tensor category over Q(ζ_n), in the conventions of docs/conventions.md §2–3:
 /// labels 0..rank (0 the vacuum) with names, duals, fusion rules, F- and R-symbols in a
@@ -115,6 +115,19 @@ impl Theory {
     /// Whether F- and R-symbols are present (false for modular data alone).
     pub fn has_fr(&self) -> bool {
         self.braiding.is_some()
+    }
+
+    /// The factors (A, B) when this theory is a Deligne product A ⊠ B built by
+    /// [`crate::product`] (label (a, b) at index a·rank(B) + b), also after the operations that
+    /// keep its F, R, θ, d and vertex weights ([`crate::renamed`] and
+    /// [`crate::with_negated_total_dimension`], which only renames or scales S by −1); `None`
+    /// for any other theory (a Galois conjugate or regauging of a product included). A
+    /// factor is the theory as it entered the product, with its own spherical structure.
+    pub fn deligne_factors(&self) -> Option<(&Theory, &Theory)> {
+        match &self.braiding.as_ref()?.source {
+            FSource::Product { left, right } => Some((left, right)),
+            _ => None,
+        }
     }
 
     fn block(&self, a: usize, b: usize, c: usize, d: usize) -> Option<&FBlock> {

@@ -84,6 +84,28 @@ fn tricritical_ising() {
 }
 
 #[test]
+fn tricritical_ising_is_its_defining_product() {
+    // The catalogue defines tricritical Ising as conj(fibonacci) * ising:7; the product
+    // route of `orbit` relies on it, so the data must agree label by label.
+    let (a, b) = cyclorb_theory::defining_product("tricritical-ising").unwrap();
+    let named = load("tricritical-ising");
+    let product = load(&format!("{a}*{b}"));
+    assert_eq!(named.rank(), product.rank());
+    assert_eq!(named.field().conductor(), product.field().conductor());
+    for i in 0..named.rank() {
+        assert_eq!(named.twist(i), product.twist(i), "twist of label {i}");
+        for j in 0..named.rank() {
+            assert_eq!(
+                named.s_unnormalized().get(i, j),
+                product.s_unnormalized().get(i, j),
+                "S entry ({i}, {j})"
+            );
+        }
+    }
+    assert_eq!(cyclorb_theory::defining_product("ising"), None);
+}
+
+#[test]
 fn minimal_models() {
     for (p, q) in [
         (3, 2),

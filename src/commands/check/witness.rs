@@ -241,3 +241,66 @@ pub fn check(gens: &GeneratorSet, w: &WitnessCertificate, claims: &mut Claims) -
         ))
     })
 }
+
+/// A witness certified on a factor of a Deligne product (`witness-lifted`): the product is
+/// read from the spec (proved as by every command) without building its generators; the
+/// named factor must have the recorded name, data hash, genus-g dimension and field (claim
+/// `factor`), and the word is then re-checked on the factor's own twists with every claim
+/// above. A word whose eigenvalue ratio on a factor is not a root of unity has the same
+/// ratio on the product (docs/minimal-models.md, "Witnesses lifted from a factor").
+pub fn lifted(
+    envelope: &super::Envelope,
+    w: &super::super::lifted::LiftedWitness,
+    file: &str,
+    claims: &mut Claims,
+) -> Result<(), Stop> {
+    use super::super::lifted::{factor_generators, factors};
+    let space = &envelope.space;
+    let invalid = |e: String| Stop::Invalid(format!("{file}: rebuilding the input: {e}"));
+    let set = super::super::common::parse_set(&space.set).map_err(invalid)?;
+    let theory = super::super::proof::theory(&space.spec).map_err(invalid)?;
+    super::check_theory_files(envelope, claims)?;
+    let named = &w.lifted_from_factor;
+    let mut built = None;
+    claims.claim("factor", || {
+        let (_, factor) = factors(&theory)
+            .into_iter()
+            .find(|(side, _)| *side == named.factor)
+            .ok_or_else(|| format!("{} has no {:?} Deligne factor", theory.name(), named.factor))?;
+        if factor.name() != named.theory || factor.data_hash() != named.data_hash {
+            return Err(format!(
+                "the {} factor is {} with data hash {}, the certificate names {} with {}",
+                named.factor,
+                factor.name(),
+                factor.data_hash(),
+                named.theory,
+                named.data_hash
+            ));
+        }
+        let (factor_space, gens) = factor_generators(factor, space.genus, set)?;
+        if factor_space.dimension() != named.dimension || gens.field().conductor() != named.conductor {
+            return Err(format!(
+                "the factor's genus-{} space has dimension {} over Q(ζ_{}), not {} over Q(ζ_{})",
+                space.genus,
+                factor_space.dimension(),
+                gens.field().conductor(),
+                named.dimension,
+                named.conductor
+            ));
+        }
+        built = Some(gens);
+        Ok(format!(
+            "the {} factor of {} is {} (data hash as recorded), genus-{} dimension {}: the word is checked there",
+            named.factor,
+            theory.name(),
+            named.theory,
+            space.genus,
+            named.dimension
+        ))
+    })?;
+    check(
+        &built.expect("set by the claim above"),
+        &w.certificate,
+        claims,
+    )
+}

@@ -6,15 +6,18 @@
 //! prove faithfulness, as in `cyclorb image`) when the lines fit in `image.max_lines`, else
 //! from enumerating the image modulo scalars up to a cap. An unsaturated orbit of N lines
 //! shows the image has at least N elements, so enumeration is not tried when N exceeds the
-//! cap. A witness is searched for only when the image is not already proven finite.
+//! cap. A witness is searched for only when the image is not already proven finite, on the
+//! factors of a Deligne product first (a witness there lifts, see `lifted`).
 
 use cyclorb_cert::{
     commutant, enumerate_projective_image, find_witness, image_from_lines, CommutantOptions,
     CommutantRoute, GeneratorSet, ImageEnumeration, ImageOptions, WitnessOptions, WitnessOutcome,
 };
+use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use cyclorb_orbit::{Orbit, OrbitProblem};
 
 use crate::commands::certify::faithful_lines;
+use crate::commands::lifted::find_lifted;
 
 use super::plan::{ImageBounds, WitnessBounds};
 use super::result::{CommutantAnswer, ImageAnswer, WitnessAnswer};
@@ -128,23 +131,50 @@ pub fn image_answer(
     }
 }
 
-/// A certified word of infinite projective order, searched within the bounds.
+/// The search options of the plan's witness bounds.
+fn witness_options(bounds: &WitnessBounds) -> WitnessOptions {
+    WitnessOptions {
+        depth: bounds.depth,
+        tries: bounds.tries,
+        ..WitnessOptions::default()
+    }
+}
+
+/// A witness certified on a factor of a Deligne product (re-checked there; see `lifted`),
+/// or `None` when the theory is no product or no factor yields one within the bounds.
+pub fn lifted_witness_answer(
+    space: &BlockSpace,
+    set: GeneratingSet,
+    bounds: &WitnessBounds,
+) -> Result<Option<WitnessAnswer>, String> {
+    let found = find_lifted(space.theory(), space.genus(), set, &witness_options(bounds))?;
+    Ok(found.map(|lifted| WitnessAnswer {
+        found: true,
+        word: lifted.certificate.word.clone(),
+        certificate: Some(lifted.certificate),
+        words_tried: None,
+        note: Some(format!(
+            "certified on the {} factor {}; it lifts to the product",
+            lifted.lifted_from_factor.factor, lifted.lifted_from_factor.theory
+        )),
+        lifted_from_factor: Some(lifted.lifted_from_factor),
+    }))
+}
+
+/// A certified word of infinite projective order, searched within the bounds on the
+/// generators themselves.
 pub fn witness_answer(
     gens: &GeneratorSet,
     bounds: &WitnessBounds,
 ) -> Result<WitnessAnswer, String> {
-    let options = WitnessOptions {
-        depth: bounds.depth,
-        tries: bounds.tries,
-        ..WitnessOptions::default()
-    };
-    match find_witness(gens, &options).map_err(|e| format!("witness: {e}"))? {
+    match find_witness(gens, &witness_options(bounds)).map_err(|e| format!("witness: {e}"))? {
         WitnessOutcome::Found(cert) => Ok(WitnessAnswer {
             found: true,
             word: cert.word.clone(),
             certificate: Some(cert),
             words_tried: None,
             note: None,
+            lifted_from_factor: None,
         }),
         WitnessOutcome::NotFound(report) => Ok(WitnessAnswer {
             found: false,
@@ -155,6 +185,7 @@ pub fn witness_answer(
                 "none among {} words (depth {}, {} random words); this proves nothing",
                 report.words_tried, bounds.depth, bounds.tries
             )),
+            lifted_from_factor: None,
         }),
     }
 }
@@ -169,6 +200,7 @@ pub fn witness_not_needed(order: &str) -> WitnessAnswer {
         note: Some(format!(
             "not searched: the image is finite, of order {order}"
         )),
+        lifted_from_factor: None,
     }
 }
 
@@ -180,5 +212,6 @@ pub fn witness_failed(error: String) -> WitnessAnswer {
         certificate: None,
         words_tried: None,
         note: Some(error),
+        lifted_from_factor: None,
     }
 }

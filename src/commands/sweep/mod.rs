@@ -71,7 +71,7 @@ use std::time::Duration;
 use cyclorb_orbit::install_stop_handler;
 use serde_json::json;
 
-use super::output::{Outcome, Report};
+use super::output::{shell_word, Outcome, Report};
 use crate::cli::SweepArgs;
 use display::SweepDisplay;
 use plan::{read_plan, Plan};
@@ -80,19 +80,11 @@ use result::{finished_result, write_atomically, write_result, RunResult, Stored}
 use run::{execute, RunEnd, SweepSettings};
 use schedule::{schedule, Schedule};
 
-/// The command line, each argument quoted when the shell would need it.
+/// The command line as a user types it: `cyclorb` (not the path the program was started
+/// by) and the arguments, each quoted when the shell would need it.
 fn command_line() -> String {
-    std::env::args()
-        .map(|a| {
-            let plain = !a.is_empty()
-                && a.chars()
-                    .all(|c| c.is_ascii_alphanumeric() || "-_./:=@+,".contains(c));
-            if plain {
-                a
-            } else {
-                format!("'{}'", a.replace('\'', "'\\''"))
-            }
-        })
+    std::iter::once("cyclorb".to_string())
+        .chain(std::env::args().skip(1).map(|a| shell_word(&a)))
         .collect::<Vec<_>>()
         .join(" ")
 }

@@ -6,6 +6,9 @@ use std::path::{Path, PathBuf};
 use cyclorb_cert::WitnessCertificate;
 use cyclorb_orbit::PoincareReport;
 use cyclorb_theory::Sha256;
+
+use super::super::lifted::FactorRef;
+use crate::commands::output::add_approximations;
 use serde::{Deserialize, Serialize};
 
 /// The commutant answer (keys as in `cyclorb commutant --json`).
@@ -47,6 +50,10 @@ pub struct WitnessAnswer {
     pub words_tried: Option<usize>,
     /// Why the search did not run, when it did not.
     pub note: Option<String>,
+    /// The factor of a Deligne product the certificate was found on (the certificate is
+    /// then the factor's; see `cyclorb witness`); absent for a direct witness.
+    #[serde(default)]
+    pub lifted_from_factor: Option<FactorRef>,
 }
 
 /// What a paper needs to cite a result.
@@ -156,7 +163,10 @@ fn sha256_hex(bytes: &[u8]) -> String {
 /// Write a finished result, then the SHA-256 of its bytes beside it (both through a
 /// temporary file and a rename). A result without a matching digest is never reused.
 pub fn write_result(path: &Path, result: &RunResult) -> Result<(), String> {
-    let text = serde_json::to_string_pretty(result).map_err(|e| e.to_string())? + "\n";
+    // as printed with --json: exact numbers with their float approximations beside them
+    let mut value = serde_json::to_value(result).map_err(|e| e.to_string())?;
+    add_approximations(&mut value);
+    let text = serde_json::to_string_pretty(&value).map_err(|e| e.to_string())? + "\n";
     write_atomically(path, &text)?;
     write_atomically(&digest_path(path), &(sha256_hex(text.as_bytes()) + "\n"))
 }

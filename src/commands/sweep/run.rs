@@ -3,7 +3,9 @@
 //! Order of work: the Dehn twists of the block space; the orbit of the vacuum line when
 //! the orbit or the image is asked for (continued from `runs/<id>/checkpoint.bin` when a
 //! usable one exists); the Poincaré sum of a saturated orbit; the image order; the
-//! commutant; a witness when the image is not proven finite. Ctrl-C or SIGTERM is honoured
+//! commutant; a witness when the image is not proven finite (on the factors of a Deligne
+//! product first; a run asking for the witness alone on a product tries its factors before
+//! the product's generators are built). Ctrl-C or SIGTERM is honoured
 //! between these stages (and between chunks of the orbit): the run then ends without a
 //! result and the sweep stops, to continue from the checkpoint next time.
 
@@ -12,12 +14,13 @@ use std::sync::atomic::{AtomicBool, Ordering};
 use std::sync::Arc;
 use std::time::{Duration, Instant};
 
-use cyclorb_orbit::{OrbitProblem, PoincareReport};
+use cyclorb_mcg::BlockSpace;
+use cyclorb_orbit::PoincareReport;
 
 use super::super::dw::DwSpace;
 use super::answers::{
-    certificate_generators, commutant_answer, image_answer, witness_answer, witness_failed,
-    witness_not_needed,
+    certificate_generators, commutant_answer, image_answer, lifted_witness_answer, witness_answer,
+    witness_failed, witness_not_needed,
 };
 use super::display::SweepDisplay;
 use super::orbit_stage::{run_orbit, starting_orbit, EngineSettings, OrbitStop};
@@ -72,8 +75,12 @@ fn reset_peak_memory() {
 }
 
 /// The result skeleton: inputs, citation, costs filled later.
-fn blank_result(run: &PlannedRun, problem: &OrbitProblem, settings: &SweepSettings) -> RunResult {
-    let g = problem.generators();
+fn blank_result(
+    run: &PlannedRun,
+    conductor: u32,
+    generator_names: Vec<String>,
+    settings: &SweepSettings,
+) -> RunResult {
     let version = env!("CARGO_PKG_VERSION");
     RunResult {
         id: run.id.clone(),
@@ -81,9 +88,9 @@ fn blank_result(run: &PlannedRun, problem: &OrbitProblem, settings: &SweepSettin
         label: run.label.clone(),
         genus: run.genus,
         dimension: run.dimension(),
-        conductor: g.conductor,
-        generators: g.operators.len(),
-        generator_names: g.names.clone(),
+        conductor,
+        generators: generator_names.len(),
+        generator_names,
         answers: run.answers.iter().map(|a| a.name().to_string()).collect(),
         orbit_size: None,
         saturated: None,
@@ -102,8 +109,8 @@ fn blank_result(run: &PlannedRun, problem: &OrbitProblem, settings: &SweepSettin
         citation: Citation {
             theory_data_hash: run.theory_hash.clone(),
             generator_set: run.set.name().to_string(),
-            field: format!("Q(ζ_{})", g.conductor),
-            conductor: g.conductor,
+            field: format!("Q(ζ_{conductor})"),
+            conductor,
             program: format!("cyclorb {version}"),
             program_version: version.to_string(),
             command: settings.command.to_string(),
@@ -118,9 +125,9 @@ fn blank_result(run: &PlannedRun, problem: &OrbitProblem, settings: &SweepSettin
 fn dw_answers(run: &PlannedRun, space: &DwSpace, result: &mut RunResult, display: &SweepDisplay) {
     if run.wants(Answer::Image) || run.wants(Answer::Witness) {
         display.stage(run, "image order");
-        match space.image_chain() {
-            Ok(chain) => {
-                let order = chain.order().to_string();
+        match space.image() {
+            Ok(image) => {
+                let order = image.order.to_string();
                 if run.wants(Answer::Witness) {
                     result.witness = Some(witness_not_needed(&order));
                 }
@@ -128,7 +135,7 @@ fn dw_answers(run: &PlannedRun, space: &DwSpace, result: &mut RunResult, display
                     result.image = Some(ImageAnswer {
                         finite: Some(true),
                         order: Some(order),
-                        route: "permutation-schreier-sims".into(),
+                        route: image.route.into(),
                         note: None,
                     });
                 }
@@ -138,17 +145,61 @@ fn dw_answers(run: &PlannedRun, space: &DwSpace, result: &mut RunResult, display
     }
     if run.wants(Answer::Commutant) {
         display.stage(run, "commutant");
-        match space.orbitals() {
-            Ok(o) => {
+        match space.commutant_dimension() {
+            Ok((dimension, route, primes)) => {
                 result.commutant = Some(CommutantAnswer {
-                    commutant_dimension: o.count(),
-                    primes: Vec::new(),
-                    route: "orbitals".into(),
+                    commutant_dimension: dimension,
+                    primes,
+                    route: route.into(),
                 })
             }
             Err(e) => result.errors.push(format!("commutant: {e}")),
         }
     }
+}
+
+/// The block space of a run that asks for the witness alone on a Deligne product (its
+/// factors are searched before anything else is built).
+fn witness_alone_on_a_product(run: &PlannedRun) -> Option<&BlockSpace> {
+    match &run.space {
+        RunSpace::Blocks(space)
+            if run.answers == [Answer::Witness] && space.theory().deligne_factors().is_some() =>
+        {
+            Some(space)
+        }
+        _ => None,
+    }
+}
+
+/// A run that asks for the witness alone, on a Deligne product whose factor yields one:
+/// the result, without building the product's generators (the factor's certificate is
+/// re-checked on the factor; see `lifted`). `None` otherwise: the run goes the usual way.
+fn witness_from_factors(
+    run: &PlannedRun,
+    settings: &SweepSettings,
+    display: &SweepDisplay,
+    started: Instant,
+) -> Result<Option<RunResult>, String> {
+    let Some(space) = witness_alone_on_a_product(run) else {
+        return Ok(None);
+    };
+    display.stage(run, "witness search on the factors");
+    let Some(witness) = lifted_witness_answer(space, run.set, &settings.witness)? else {
+        return Ok(None);
+    };
+    let names = run
+        .set
+        .curves(run.genus)
+        .iter()
+        .map(|c| c.to_string())
+        .collect();
+    let mut result = blank_result(run, run.space.conductor(), names, settings);
+    result.witness = Some(witness);
+    let elapsed = started.elapsed().as_secs_f64();
+    result.elapsed_seconds = elapsed;
+    result.total_seconds = elapsed;
+    result.peak_memory_bytes = cyclorb_orbit::peak_memory_bytes();
+    Ok(Some(result))
 }
 
 /// Run one planned run, checkpointing under `dir`.
@@ -163,8 +214,12 @@ pub fn execute(
     reset_peak_memory();
     display.start(run);
     let interrupted = || settings.signal.load(Ordering::SeqCst);
+    if let Some(result) = witness_from_factors(run, settings, display, started)? {
+        return Ok(RunEnd::Finished(Box::new(result)));
+    }
     let problem = run.space.problem(run.set)?;
-    let mut result = blank_result(run, &problem, settings);
+    let g = problem.generators();
+    let mut result = blank_result(run, g.conductor, g.names.clone(), settings);
     let mut earlier_seconds = 0.0;
     let mut orbit_found = None;
     if run.wants(Answer::Orbit) || run.wants(Answer::Image) {
@@ -281,7 +336,17 @@ pub fn execute(
             Some(order) => witness_not_needed(&order),
             None => {
                 display.stage(run, "witness search");
-                match witness_answer(gens, &settings.witness) {
+                // the factors, unless `witness_from_factors` searched them already
+                let lifted = match &run.space {
+                    RunSpace::Blocks(space) if witness_alone_on_a_product(run).is_none() => {
+                        lifted_witness_answer(space, run.set, &settings.witness)
+                    }
+                    _ => Ok(None),
+                };
+                match lifted.and_then(|found| match found {
+                    Some(w) => Ok(w),
+                    None => witness_answer(gens, &settings.witness),
+                }) {
                     Ok(w) => w,
                     Err(e) => {
                         result.errors.push(e.clone());

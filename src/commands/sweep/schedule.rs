@@ -102,8 +102,8 @@ impl RunSpace {
         }
     }
 
-    /// The Poincaré sum of a saturated orbit (over orbitals, from subsets, for `dw:`
-    /// theories), or the error that stopped it; `trace_check` false reveals an error.
+    /// The Poincaré sum of a saturated orbit (over orbitals, from subsets, for untwisted
+    /// `dw:` theories), or the error that stopped it; `trace_check` false reveals an error.
     pub fn poincare(
         &self,
         problem: &OrbitProblem,
@@ -111,13 +111,13 @@ impl RunSpace {
         threads: usize,
     ) -> Result<PoincareReport, String> {
         match self {
-            RunSpace::Blocks(_) => {
+            RunSpace::Dw(space) if !space.is_twisted() => Ok(space.poincare_report(orbit.len())),
+            _ => {
                 let sum = problem
                     .poincare_sum(orbit, threads)
                     .map_err(|e| e.to_string())?;
-                Ok(PoincareReport::from_sum(&sum))
+                Ok(PoincareReport::from_sum(&sum, problem.generators()))
             }
-            RunSpace::Dw(space) => Ok(space.poincare_report(orbit.len())),
         }
     }
 }

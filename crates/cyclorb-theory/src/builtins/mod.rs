@@ -33,6 +33,15 @@ pub fn tricritical_ising() -> Result<Theory, TheoryError> {
     )
 }
 
+/// The factors, as specs, of a built-in theory that is defined as a Deligne product (the
+/// product of these two specs has the same data up to the names of the labels).
+pub fn defining_product(name: &str) -> Option<(&'static str, &'static str)> {
+    match name {
+        "tricritical-ising" => Some(("conj(fibonacci)", "ising:7")),
+        _ => None,
+    }
+}
+
 /// The built-in spec syntax with a one-line description each, for `cyclorb theories`.
 pub fn builtin_catalogue() -> Vec<(String, String)> {
     let rows: [(&str, &str); 14] = [
