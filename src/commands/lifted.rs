@@ -48,7 +48,7 @@ pub struct LiftedWitness {
 }
 
 /// The factors of a Deligne product with their sides, or none.
-pub(crate) fn factors(theory: &Theory) -> Vec<(&'static str, &Theory)> {
+fn factors(theory: &Theory) -> Vec<(&'static str, &Theory)> {
     match theory.deligne_factors() {
         Some((a, b)) => vec![("left", a), ("right", b)],
         None => Vec::new(),
@@ -56,7 +56,7 @@ pub(crate) fn factors(theory: &Theory) -> Vec<(&'static str, &Theory)> {
 }
 
 /// A factor's block space at genus g and its twists as a certificate generator set.
-pub(crate) fn factor_generators(
+fn factor_generators(
     factor: &Theory,
     genus: usize,
     set: GeneratingSet,
@@ -107,17 +107,14 @@ pub fn find_lifted(
     Ok(None)
 }
 
-/// Re-verify a lifted witness from the product theory: the named factor must exist and
-/// have the recorded name, data hash and genus-g dimension, and the certificate must
-/// re-check on the factor's own generators (its word, block, characteristic polynomial,
-/// norm and non-cyclotomic factor, as for any witness).
-pub fn recheck_lifted(
+/// The factor a lifted witness names, rebuilt from the product theory: it must exist and
+/// have the recorded name, data hash and genus-g dimension; its twists as a generator set.
+pub(crate) fn named_factor(
     theory: &Theory,
     genus: usize,
     set: GeneratingSet,
-    lifted: &LiftedWitness,
-) -> Result<(), String> {
-    let named = &lifted.lifted_from_factor;
+    named: &FactorRef,
+) -> Result<CertSet, String> {
     let (_, factor) = factors(theory)
         .into_iter()
         .find(|(side, _)| *side == named.factor)
@@ -147,6 +144,19 @@ pub fn recheck_lifted(
             named.dimension
         ));
     }
+    Ok(gens)
+}
+
+/// Re-verify a lifted witness from the product theory: the named factor (`named_factor`),
+/// and the certificate must re-check on the factor's own generators (its word, block,
+/// characteristic polynomial, norm and non-cyclotomic factor, as for any witness).
+pub fn recheck_lifted(
+    theory: &Theory,
+    genus: usize,
+    set: GeneratingSet,
+    lifted: &LiftedWitness,
+) -> Result<(), String> {
+    let gens = named_factor(theory, genus, set, &lifted.lifted_from_factor)?;
     lifted
         .certificate
         .recheck(&gens)

@@ -254,7 +254,6 @@ pub fn lifted(
     file: &str,
     claims: &mut Claims,
 ) -> Result<(), Stop> {
-    use super::super::lifted::{factor_generators, factors};
     let space = &envelope.space;
     let invalid = |e: String| Stop::Invalid(format!("{file}: rebuilding the input: {e}"));
     let set = super::super::common::parse_set(&space.set).map_err(invalid)?;
@@ -263,28 +262,11 @@ pub fn lifted(
     let named = &w.lifted_from_factor;
     let mut built = None;
     claims.claim("factor", || {
-        let (_, factor) = factors(&theory)
-            .into_iter()
-            .find(|(side, _)| *side == named.factor)
-            .ok_or_else(|| format!("{} has no {:?} Deligne factor", theory.name(), named.factor))?;
-        if factor.name() != named.theory || factor.data_hash() != named.data_hash {
+        let gens = super::super::lifted::named_factor(&theory, space.genus, set, named)?;
+        if gens.field().conductor() != named.conductor {
             return Err(format!(
-                "the {} factor is {} with data hash {}, the certificate names {} with {}",
-                named.factor,
-                factor.name(),
-                factor.data_hash(),
-                named.theory,
-                named.data_hash
-            ));
-        }
-        let (factor_space, gens) = factor_generators(factor, space.genus, set)?;
-        if factor_space.dimension() != named.dimension || gens.field().conductor() != named.conductor {
-            return Err(format!(
-                "the factor's genus-{} space has dimension {} over Q(ζ_{}), not {} over Q(ζ_{})",
-                space.genus,
-                factor_space.dimension(),
+                "the factor's field is Q(ζ_{}), not Q(ζ_{})",
                 gens.field().conductor(),
-                named.dimension,
                 named.conductor
             ));
         }
