@@ -16,6 +16,7 @@ const COMMANDS: &[&str] = &[
     "image",
     "witness",
     "sweep",
+    "check",
 ];
 
 #[test]

@@ -164,6 +164,30 @@ fn certificate_commands_follow_their_schemas() {
 }
 
 #[test]
+fn check_follows_its_schema() {
+    let cert = common::temp_path("schema-image.json");
+    let out = common::cyclorb(&[
+        "image",
+        "fibonacci",
+        "--genus",
+        "1",
+        "--out",
+        cert.to_str().unwrap(),
+    ]);
+    assert!(out.status.success());
+    conforms(&["check", cert.to_str().unwrap()]);
+    // a failing check reports in the same shape
+    let text = std::fs::read_to_string(&cert).unwrap();
+    let tampered = text.replacen("\"order\": \"60\"", "\"order\": \"61\"", 1);
+    assert_ne!(
+        text, tampered,
+        "the certificate states the order 60 (Fibonacci at genus 1)"
+    );
+    std::fs::write(&cert, tampered).unwrap();
+    conforms(&["check", cert.to_str().unwrap()]);
+}
+
+#[test]
 fn sweep_follows_its_schema() {
     let out = common::temp_path("schema-sweep");
     conforms(&[
