@@ -592,3 +592,27 @@ fn a_huge_genus_is_refused_at_once() {
         30,
     );
 }
+
+#[test]
+fn structural_verify_counts_only_the_building_blocks_f_symbols() {
+    // The structural route proves the F/R equations of a Deligne product on its factors, so
+    // only the factors' F-symbols are computed in full: a product whose own F-symbols would
+    // pass the budget (about 100 MiB for so3:5*so3:7) still verifies under 40 MiB, while the
+    // direct route is refused before computing them. (Both factors are modular: SO(3)_k for
+    // odd k, common practice.)
+    let (code, v) = cyclorb_json(&["--memory-limit", "40", "verify", "so3:5*so3:7"]);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["ok"], true);
+    let pentagon = v["checks"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|c| c["name"] == "pentagon")
+        .unwrap();
+    assert_eq!(pentagon["proved_on"], serde_json::json!(["so3:5", "so3:7"]));
+    refused(
+        &["--memory-limit", "40", "verify", "so3:5*so3:7", "--direct"],
+        &["every F-symbol of so3:5*so3:7", "--memory-limit"],
+        60,
+    );
+}

@@ -5,8 +5,8 @@ use std::time::Instant;
 
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_theory::{
-    builtin_catalogue, parse_spec, parse_spec_traced, theory_to_json, verify_by, CheckId, Route,
-    Theory, TracedSpec,
+    builtin_catalogue, check_verification_storage, parse_spec, parse_spec_traced, theory_to_json,
+    verify_by, CheckId, Route, Theory, TracedSpec,
 };
 use serde_json::{json, Value};
 
@@ -215,7 +215,12 @@ pub fn run_verify(args: &VerifyArgs, as_json: bool) -> Outcome {
         Err(e) => return Outcome::Invalid(e.to_string()),
     };
     let theory = &traced.theory;
-    if let Err(e) = theory.check_f_storage() {
+    let route = if args.direct {
+        Route::Direct
+    } else {
+        Route::Structural
+    };
+    if let Err(e) = check_verification_storage(theory, route) {
         return Outcome::Invalid(e.to_string());
     }
     let ids: Vec<CheckId> = CheckId::ALL
@@ -223,11 +228,6 @@ pub fn run_verify(args: &VerifyArgs, as_json: bool) -> Outcome {
         .filter(|id| !skipped.contains(id))
         .collect();
     let bar = spinner(as_json);
-    let route = if args.direct {
-        Route::Direct
-    } else {
-        Route::Structural
-    };
     let verification = verify_by(theory, &ids, route, &mut |id| {
         if let Some(bar) = &bar {
             bar.set_message(format!("checking {id} of {}", theory.name()));

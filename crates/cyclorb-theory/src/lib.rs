@@ -98,4 +98,7 @@ pub use ops::{
 pub use roots::root_of_unity;
 pub use spec::{parse_spec, parse_spec_traced, FileTheory, TracedSpec, MAX_SPEC_DEPTH};
 pub use theory::Theory;
-pub use verify::{verify, verify_by, verify_selected, Check, CheckId, Route, Verification};
+pub use verify::{
+    check_verification_storage, verify, verify_by, verify_selected, Check, CheckId, Route,
+    Verification,
+};

@@ -13,6 +13,7 @@ mod pentagon;
 
 use std::fmt;
 
+use cyclorb_field::FieldError;
 use serde::Serialize;
 
 use crate::structure::FSource;
@@ -273,6 +274,20 @@ fn building_blocks(theory: &Theory) -> Vec<&Theory> {
         Some(FSource::Galois { base, .. }) => vec![base.as_ref()],
         _ => Vec::new(),
     }
+}
+
+/// Refuse, before any F-symbol is computed, a verification whose F-symbols would pass the
+/// memory budget: by the structural route only the building blocks' F-symbols are computed
+/// in full (recursively down to theories whose data are their own), so only theirs are
+/// counted; by the direct route the theory's own.
+pub fn check_verification_storage(theory: &Theory, route: Route) -> Result<(), FieldError> {
+    let blocks = building_blocks(theory);
+    if route == Route::Direct || blocks.is_empty() {
+        return theory.check_f_storage();
+    }
+    blocks
+        .into_iter()
+        .try_for_each(|block| check_verification_storage(block, route))
 }
 
 /// One check by the structural route: on the building blocks when inherited, else direct.
