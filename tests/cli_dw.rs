@@ -305,6 +305,15 @@ fn sweeps_read_dw_specs() {
     std::fs::remove_dir_all(&dir).ok();
 }
 
+/// A JSON list of strings.
+fn texts(list: &Value) -> Vec<&str> {
+    list.as_array()
+        .unwrap()
+        .iter()
+        .map(|x| x.as_str().unwrap())
+        .collect()
+}
+
 #[test]
 fn describe_prints_modular_data_from_characters() {
     // D(Z2) (toric code): T = diag(1, 1, 1, −1), S_00 = 1/|G| (standard). D(S3): eight anyons,
@@ -312,22 +321,12 @@ fn describe_prints_modular_data_from_characters() {
     // (standard; e.g. Propitius, PhD thesis 1995, for D(S3))
     let (code, v) = cyclorb_json(&["describe", "dw:Z2"]);
     assert_eq!(code, 0, "{v}");
-    let t: Vec<&str> = v["T"]
-        .as_array()
-        .unwrap()
-        .iter()
-        .map(|x| x.as_str().unwrap())
-        .collect();
+    let t = texts(&v["T"]);
     assert_eq!(t, ["1", "1", "1", "-1"]);
     assert_eq!(v["S"][0][0], "1/2");
     let (code, v) = cyclorb_json(&["describe", "dw:S3"]);
     assert_eq!(code, 0, "{v}");
-    let t: Vec<&str> = v["T"]
-        .as_array()
-        .unwrap()
-        .iter()
-        .map(|x| x.as_str().unwrap())
-        .collect();
+    let t = texts(&v["T"]);
     assert_eq!(t.len(), 8);
     assert_eq!(t.iter().filter(|x| **x == "1").count(), 5, "{t:?}");
     assert_eq!(t.iter().filter(|x| **x == "-1").count(), 1, "{t:?}");

@@ -220,16 +220,7 @@ fn a_stopped_run_names_its_checkpoint_and_resumes_from_it_alone() {
     assert!(fresh.get("checkpoint").is_none(), "{fresh}");
 
     // raw files: the checkpoint records their paths
-    let gens = temp_path("resume-alone-gens.json");
-    let out = common::cyclorb(&[
-        "twists",
-        "ising",
-        "--genus",
-        "1",
-        "--out",
-        gens.to_str().unwrap(),
-    ]);
-    assert!(out.status.success());
+    let gens = ising_genus_one_generators("resume-alone-gens.json");
     let seed = fixture("orbit/vacuum-seed-ising.json");
     let ckpt = temp_path("resume-alone.ckpt");
     let (code, _) = cyclorb_json(&[
@@ -318,9 +309,9 @@ fn thread_count_does_not_change_the_answer() {
     assert_eq!(one["poincare_sum"], two["poincare_sum"]);
 }
 
-#[test]
-fn raw_mode_reads_the_files_twists_writes() {
-    let gens = temp_path("ising1-gens.json");
+/// Ising's genus-1 twists written by `cyclorb twists --out` to a scratch file `name`.
+fn ising_genus_one_generators(name: &str) -> std::path::PathBuf {
+    let gens = temp_path(name);
     let (code, _) = cyclorb_json(&[
         "twists",
         "ising",
@@ -330,6 +321,12 @@ fn raw_mode_reads_the_files_twists_writes() {
         gens.to_str().unwrap(),
     ]);
     assert_eq!(code, 0);
+    gens
+}
+
+#[test]
+fn raw_mode_reads_the_files_twists_writes() {
+    let gens = ising_genus_one_generators("ising1-gens.json");
     let seed = fixture("orbit/vacuum-seed-ising.json");
     let (code, v) = cyclorb_json(&[
         "orbit",

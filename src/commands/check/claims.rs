@@ -12,6 +12,15 @@ pub struct Claim {
     pub detail: String,
 }
 
+/// The reason a certificate made over Q(ζ_stated) does not fit generators over Q(ζ_own).
+pub fn same_conductor(stated: u32, own: u32) -> Result<(), String> {
+    if stated == own {
+        Ok(())
+    } else {
+        Err(format!("conductor {stated} but the field is Q(ζ_{own})"))
+    }
+}
+
 /// Why a re-check stopped early.
 pub enum Stop {
     /// A claim failed (it is the last one recorded).

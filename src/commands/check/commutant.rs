@@ -12,6 +12,7 @@ use cyclorb_cert::{CommutantCertificate, GeneratorSet};
 use cyclorb_field::PrimeReduction;
 use cyclorb_matrix::{reduce_vector, Matrix};
 
+use super::claims::same_conductor;
 use super::linear::EchelonModP;
 use super::{Claims, Stop};
 
@@ -113,13 +114,7 @@ pub fn check(
     let d = gens.dim();
     let reduction = PrimeReduction::nth(field, 0).map_err(|e| Stop::Invalid(e.to_string()))?;
     claims.claim("basis-commutes", || {
-        if c.conductor != field.conductor() {
-            return Err(format!(
-                "conductor {} but the field is Q(ζ_{})",
-                c.conductor,
-                field.conductor()
-            ));
-        }
+        same_conductor(c.conductor, field.conductor())?;
         commuting(gens, &c.basis)?;
         Ok(format!(
             "each of the {} basis matrices commutes with all {} generators (dense products)",

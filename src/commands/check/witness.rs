@@ -14,6 +14,7 @@ use cyclorb_cert::{GeneratorSet, WitnessCertificate};
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_matrix::Matrix;
 
+use super::claims::same_conductor;
 use super::linear::determinant;
 use super::poly::{
     cyclotomic, degree, divide_by_x_minus_one, euler_phi, integers, interpolate, mul_z, norm_to_z,
@@ -110,13 +111,7 @@ pub fn check(gens: &GeneratorSet, w: &WitnessCertificate, claims: &mut Claims) -
     let field = gens.field();
     let mut word = Vec::new();
     claims.claim("word", || {
-        if w.conductor != field.conductor() {
-            return Err(format!(
-                "conductor {} but the field is Q(ζ_{})",
-                w.conductor,
-                field.conductor()
-            ));
-        }
+        same_conductor(w.conductor, field.conductor())?;
         word = gens.indices_of(&w.word).map_err(err)?;
         if word.is_empty() {
             return Err("the word is empty".into());
