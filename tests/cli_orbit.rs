@@ -235,6 +235,16 @@ fn a_stopped_run_names_its_checkpoint_and_resumes_from_it_alone() {
         ckpt.to_str().unwrap(),
     ]);
     assert_eq!(code, 3);
+    // the origin is only a hint: a damaged file is still refused by its checksum
+    let mut bytes = std::fs::read(&ckpt).unwrap();
+    let damaged = temp_path("resume-alone-damaged.ckpt");
+    let last = bytes.len() - 20;
+    bytes[last] ^= 1;
+    std::fs::write(&damaged, bytes).unwrap();
+    let out = common::cyclorb(&["orbit", "--resume", damaged.to_str().unwrap()]);
+    assert_eq!(out.status.code(), Some(1));
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(err.contains("checksum mismatch"), "{err}");
     let (code, v) = cyclorb_json(&["orbit", "--resume", ckpt.to_str().unwrap()]);
     assert_eq!(code, 0, "{v}");
     assert_eq!(v["orbit_size"], 24);
