@@ -179,8 +179,13 @@ fn check_names() -> String {
 }
 
 /// A file whose theory has just passed every check is remembered as proved, so that later
-/// commands reading it do not verify it again.
+/// commands reading it do not verify it again. A spec that reads no file (a built-in, or
+/// products and conjugates of built-ins) has nothing to remember, and its data hash, which
+/// fills every F-block, is not computed.
 fn remember_proved_files(traced: &TracedSpec) {
+    if traced.files.is_empty() {
+        return;
+    }
     let hash = traced.theory.data_hash();
     for file in &traced.files {
         if file.theory.data_hash() == hash {
