@@ -1,6 +1,6 @@
 //! Polynomial identities among a theory's numbers, proved on word-sized residues.
 //!
-//! **The argument** (docs/conventions.md, "Identities on residues"). The numbers that enter
+//! **The argument** (docs/conventions.md §5, "Identities on residues"). The numbers that enter
 //! an identity come in groups g (the entries of S, the twists, one scalar, integers, …). For
 //! each group let D_g be the lcm of its entries' denominators (an entry u = A/d in the power
 //! basis, A ∈ Z[ζ_n]) and L_g ≥ 1 at least every ⌈‖A‖₁/d⌉, so |σ(u)| ≤ L_g under every
