@@ -88,6 +88,13 @@ fn describe_text(t: &Theory) -> String {
         t.central_charge_mod_8(),
         approx(d)
     ));
+    if t.has_fr() {
+        out.push_str(&format!(
+            "F- and R-symbols present: {} F-blocks, {} R-symbols (every genus)\n",
+            t.f_block_labels().len(),
+            t.fusion().triples().count()
+        ));
+    }
     if !t.has_fr() {
         out.push_str("modular data only (S and T; no F or R): usable at genus 1\n");
     } else if t.is_unitary_gauge() {

@@ -113,7 +113,11 @@ fn r_and_weights(h: &mut Lines, t: &Theory) {
 pub(crate) fn construction_hash(t: &Theory) -> String {
     let source = match t.braiding.as_ref().map(|b| &b.source) {
         Some(FSource::Product { left, right }) => {
-            format!("F product {} {}", left.construction_hash(), right.construction_hash())
+            format!(
+                "F product {} {}",
+                left.construction_hash(),
+                right.construction_hash()
+            )
         }
         Some(FSource::Galois { base, k }) => {
             format!("F galois {k} {}", base.construction_hash())

@@ -99,7 +99,9 @@ pub(crate) fn product_bytes(left: &Theory, right: &Theory, phi: usize) -> u128 {
     let phi = phi as u128;
     let rank = (left.rank() as u128).saturating_mul(right.rank() as u128);
     let cells = left.f_cell_count().saturating_mul(right.f_cell_count());
-    let triples = left.fusion_triple_count().saturating_mul(right.fusion_triple_count());
+    let triples = left
+        .fusion_triple_count()
+        .saturating_mul(right.fusion_triple_count());
     cells
         .saturating_mul(CELL_BYTES)
         .saturating_add(triples.saturating_mul(triple_bytes(phi)))
@@ -109,9 +111,7 @@ pub(crate) fn product_bytes(left: &Theory, right: &Theory, phi: usize) -> u128 {
 impl Theory {
     /// The number of F-block cells (admissible (a, b, c, d)); 0 for modular data alone.
     fn f_cell_count(&self) -> u128 {
-        self.braiding
-            .as_ref()
-            .map_or(0, |b| b.cells.len() as u128)
+        self.braiding.as_ref().map_or(0, |b| b.cells.len() as u128)
     }
 
     /// The number of (a, b, c) with N_ab^c ≠ 0.

@@ -116,11 +116,16 @@ pub(crate) fn s_unitary(t: &Theory) -> Check {
     let one = EntryBounds::integers(f, 1);
     let map = identity_residues(f, &[(&entries, 2), (&one, 1)], r as u128 + 1);
     let product = ResidueMatrix::of(&map, s).mul(&map, &ResidueMatrix::of(&map, &adjoint));
-    compare_on_residues(&mut tally, &product, &permutation(&map, t, |a| a), |tally| {
-        if let Ok(p) = s.mul(f, &adjoint) {
-            compare(tally, t, "S·S† = 1", &p, &Matrix::identity(f, r));
-        }
-    });
+    compare_on_residues(
+        &mut tally,
+        &product,
+        &permutation(&map, t, |a| a),
+        |tally| {
+            if let Ok(p) = s.mul(f, &adjoint) {
+                compare(tally, t, "S·S† = 1", &p, &Matrix::identity(f, r));
+            }
+        },
+    );
     tally.finish()
 }
 
@@ -348,8 +353,7 @@ mod tests {
                 let c = check(&bad);
                 assert!(!c.ok, "{} accepted S changed by {delta}", c.name);
                 let failure = c.failure.unwrap();
-                let both_sides =
-                    failure.contains("on the right") || failure.contains("N_ab^c =");
+                let both_sides = failure.contains("on the right") || failure.contains("N_ab^c =");
                 assert!(both_sides, "{failure}");
             }
         }
