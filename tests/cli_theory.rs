@@ -91,6 +91,15 @@ fn describe_json_has_the_contract_keys() {
     ] {
         assert!(text.contains(piece), "{piece} missing from:\n{text}");
     }
+    // F and R of M(6,5) (issue 13's "done when"): 175 R-symbols, one per fusion triple of
+    // (so3:3 ⊠ su2:4: 5 · 35; common practice, the SU(2)_k truncated Clebsch–Gordan rule).
+    let text = String::from_utf8_lossy(&cyclorb(&["describe", "minimal:6:5"]).stdout).to_string();
+    assert!(
+        text.contains("F- and R-symbols present:") && text.contains("175 R-symbols"),
+        "{text}"
+    );
+    let text = String::from_utf8_lossy(&cyclorb(&["describe", "kac:6:5"]).stdout).to_string();
+    assert!(!text.contains("F- and R-symbols present"), "{text}");
 }
 
 #[test]

@@ -88,6 +88,13 @@ fn describe_text(t: &Theory) -> String {
         t.central_charge_mod_8(),
         approx(d)
     ));
+    if t.has_fr() {
+        out.push_str(&format!(
+            "F- and R-symbols present: {} F-blocks, {} R-symbols (every genus)\n",
+            t.f_block_labels().len(),
+            t.fusion().triples().count()
+        ));
+    }
     if !t.has_fr() {
         out.push_str("modular data only (S and T; no F or R): usable at genus 1\n");
     } else if t.is_unitary_gauge() {
@@ -179,8 +186,13 @@ fn check_names() -> String {
 }
 
 /// A file whose theory has just passed every check is remembered as proved, so that later
-/// commands reading it do not verify it again.
+/// commands reading it do not verify it again. A spec that reads no file (a built-in, or
+/// products and conjugates of built-ins) has nothing to remember, and its data hash, which
+/// fills every F-block, is not computed.
 fn remember_proved_files(traced: &TracedSpec) {
+    if traced.files.is_empty() {
+        return;
+    }
     let hash = traced.theory.data_hash();
     for file in &traced.files {
         if file.theory.data_hash() == hash {

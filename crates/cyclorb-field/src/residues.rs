@@ -128,6 +128,7 @@ impl ResidueMap {
                     let v = num
                         .iter()
                         .zip(&ideal.powers)
+                        .filter(|(&c, _)| c != 0)
                         .fold(0, |acc, (&c, &w)| m.add(acc, m.mul(m.of_i64(c), w)));
                     (v, m.of_i64(*den))
                 }

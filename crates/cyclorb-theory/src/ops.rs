@@ -26,7 +26,7 @@ pub fn product(left: &Theory, right: &Theory) -> Result<Theory, TheoryError> {
     let (r1, r2) = (left.rank(), right.rank());
     check_budget(
         || format!("the product {}*{}", left.name(), right.name()),
-        u64::try_from(product_bytes(r1, r2, field.degree())).unwrap_or(u64::MAX),
+        u64::try_from(product_bytes(left, right, field.degree())).unwrap_or(u64::MAX),
     )?;
     let rank = r1 * r2;
     let emb = |x: &Cyc| field.embed(x);
@@ -172,6 +172,15 @@ pub fn conjugate(theory: &Theory) -> Result<Theory, TheoryError> {
 
 /// The same theory under a new name and new label names (one per label, distinct).
 pub fn renamed(theory: &Theory, name: &str, labels: Vec<String>) -> Result<Theory, TheoryError> {
+    into_renamed(theory.clone(), name, labels)
+}
+
+/// [`renamed`], consuming the theory (no copy of its data).
+pub(crate) fn into_renamed(
+    theory: Theory,
+    name: &str,
+    labels: Vec<String>,
+) -> Result<Theory, TheoryError> {
     let mut sorted = labels.clone();
     sorted.sort();
     sorted.dedup();
@@ -181,7 +190,7 @@ pub fn renamed(theory: &Theory, name: &str, labels: Vec<String>) -> Result<Theor
             reason: "label names must be distinct, one per label".into(),
         });
     }
-    let mut t = theory.clone();
+    let mut t = theory;
     t.name = name.to_string();
     t.labels = labels;
     t.hash = Default::default();
@@ -253,12 +262,17 @@ pub fn spherical_twist(theory: &Theory, odd: &[bool]) -> Result<Theory, TheoryEr
 /// gains 4. Both signs satisfy every modular relation ((ST)³ = (p₊/D)·S² is covariant);
 /// non-unitary minimal models use the sign with D = 1/S₀₀ of Kac's formula.
 pub fn with_negated_total_dimension(theory: &Theory) -> Result<Theory, TheoryError> {
+    into_negated_total_dimension(theory.clone())
+}
+
+/// [`with_negated_total_dimension`], consuming the theory (no copy of its F-cells).
+pub(crate) fn into_negated_total_dimension(theory: Theory) -> Result<Theory, TheoryError> {
     let field = theory.field().clone();
-    let mut t = theory.clone();
-    t.total_dim = field.neg(&theory.total_dim);
-    t.gauss_phase = field.neg(&theory.gauss_phase);
-    t.s = theory.s.map(|x| Ok(field.neg(x)))?;
-    t.central = theory
+    let mut t = theory;
+    t.total_dim = field.neg(&t.total_dim);
+    t.gauss_phase = field.neg(&t.gauss_phase);
+    t.s = t.s.map(|x| Ok(field.neg(x)))?;
+    t.central = t
         .central
         .add(&cyclorb_field::Rational::from_int(4))
         .rem_euclid(8);

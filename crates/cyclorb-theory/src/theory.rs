@@ -272,6 +272,15 @@ impl Theory {
             .clone()
     }
 
+    /// SHA-256 (hex) of how the theory is built: [`Theory::data_hash`] for a theory whose
+    /// F-symbols are its own; for a Deligne product or a Galois conjugate its own data other
+    /// than F (labels, fusion, d, θ, R, weights, D) and the construction hashes of its
+    /// building blocks, so that the product's F-blocks are never filled. Equal construction
+    /// hashes mean equal data (the canonical text is in the `canonical` module).
+    pub fn construction_hash(&self) -> String {
+        crate::canonical::construction_hash(self)
+    }
+
     /// Every (a, b, c, d) that has an F-block, in increasing order.
     pub fn f_block_labels(&self) -> Vec<(usize, usize, usize, usize)> {
         let Some(braiding) = &self.braiding else {

@@ -36,6 +36,26 @@ impl<'a> Verlinde<'a> {
         })
     }
 
+    /// S_ax/S_0x.
+    pub fn scaled(&self, a: usize, x: usize) -> &Cyc {
+        &self.scaled[a][x]
+    }
+
+    /// conj(S_cx).
+    pub fn conj(&self, c: usize, x: usize) -> &Cyc {
+        &self.conj[c][x]
+    }
+
+    /// Every S_ax/S_0x.
+    pub fn scaled_entries(&self) -> impl Iterator<Item = &Cyc> {
+        self.scaled.iter().flatten()
+    }
+
+    /// Every S_bx and conj(S_cx).
+    pub fn s_entries(&self) -> impl Iterator<Item = &Cyc> {
+        self.plain.iter().chain(&self.conj).flatten()
+    }
+
     /// The products S_ax S_bx / S_0x over x, shared by every c of one pair (a, b).
     pub fn pair(&self, a: usize, b: usize) -> Vec<Cyc> {
         let f = self.field;

@@ -183,3 +183,31 @@ fn the_catalogue_lists_the_contract_names() {
         "the semion"
     );
 }
+
+#[test]
+fn construction_hashes_identify_data_without_filling_a_product() {
+    // A theory whose F-symbols are its own hashes its data.
+    let su2 = load("su2:3");
+    assert_eq!(su2.construction_hash(), su2.data_hash());
+    // Products and conjugates hash their building blocks: stable across builds, different
+    // from the data hash's text, and changed by any change of a factor, of the Galois
+    // exponent or of the sign of D (M(5,2) negates it).
+    let a = load("ising*fibonacci").construction_hash();
+    assert_eq!(a, load("ising*fibonacci").construction_hash());
+    assert_ne!(a, load("ising*fibonacci").data_hash());
+    let others = [
+        "ising*conj(fibonacci)",
+        "ising:3*fibonacci",
+        "fibonacci*ising",
+        "galois:3(su2:3)",
+        "galois:7(su2:3)",
+        "minimal:5:2",
+        "minimal:5:3",
+    ];
+    let mut seen = vec![a];
+    for spec in others {
+        let h = load(spec).construction_hash();
+        assert!(!seen.contains(&h), "{spec} repeats a construction hash");
+        seen.push(h);
+    }
+}

@@ -1,7 +1,9 @@
 //! FNV-1a (64-bit) over lines of text: the run and plan hashes of a sweep.
 //!
 //! Not a cryptographic hash: it only tells whether a stored result was made for the same
-//! run description (the theory's exact data enter through their SHA-256 data hash).
+//! run description (the theory's exact data enter through their SHA-256 construction hash,
+//! `Theory::construction_hash`: the data hash, or for a product or Galois conjugate the
+//! hashes of its building blocks, so a large product's F-blocks are never filled).
 
 /// FNV-1a 64 offset basis (Fowler–Noll–Vo, common practice).
 const OFFSET: u64 = 0xcbf2_9ce4_8422_2325;

@@ -129,7 +129,7 @@ pub fn markdown(header: &SweepHeader, rows: &[&RunResult]) -> String {
          λ_g: B = Σ v v† over the orbit equals λ_g·G⁻¹. Image order: of the projective \
          image, certified; \"infinite\" when the witness word has infinite projective order.\n\n",
     );
-    t.push_str("## Citation data\n\n| run | theory | field | generators | theory data hash (SHA-256) | run hash |\n| --- | --- | --- | --- | --- | --- |\n");
+    t.push_str("## Citation data\n\n| run | theory | field | generators | theory hash (SHA-256; construction hash of a product or conjugate) | run hash |\n| --- | --- | --- | --- | --- | --- |\n");
     for r in rows {
         t.push_str(&format!(
             "| {} | `{}` | {} | {} ({}) | `{}` | `{}` |\n",

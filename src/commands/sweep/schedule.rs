@@ -205,7 +205,9 @@ pub fn schedule(plan: &Plan) -> Result<Schedule, PlanError> {
         } else {
             Some(proof::theory(&spec).map_err(refuse)?)
         };
-        let mut theory_hash = theory.as_ref().map(|t| t.data_hash());
+        // The construction hash: a product's own F-blocks are never filled (for M(11,10)
+        // they would take GBs); it is the data hash for a theory whose data are its own.
+        let mut theory_hash = theory.as_ref().map(|t| t.construction_hash());
         for (k, &genus) in entry.genera.iter().enumerate() {
             let space = match &theory {
                 Some(t) => RunSpace::Blocks(Box::new(

@@ -30,7 +30,7 @@ use super::minimal::{check_parameters, kac_labels, minimal_modular_data};
 use super::su2::{so3, su2};
 use crate::arith::SameField;
 use crate::error::TheoryError;
-use crate::ops::{galois, product, renamed, spherical_twist, with_negated_total_dimension};
+use crate::ops::{galois, into_negated_total_dimension, into_renamed, product, spherical_twist};
 use crate::theory::Theory;
 
 /// One factor of the product: the theory and the Kac coordinate of each of its labels.
@@ -262,8 +262,8 @@ pub fn minimal(p: i64, pp: i64) -> Result<Theory, TheoryError> {
             });
         }
         let built = built.ok_or_else(|| TheoryError::Internal(format!("{name}: no factor")))?;
-        if let Some(theory) = matched(&built, &reference, &bijection)? {
-            return renamed(&theory, &name, names);
+        if let Some(theory) = matched(built, &reference, &bijection)? {
+            return into_renamed(theory, &name, names);
         }
     }
     Err(TheoryError::Internal(format!(
@@ -292,7 +292,7 @@ fn combinations(factors: &[(bool, Factor)]) -> Vec<Vec<usize>> {
 /// The candidate (with D negated when the reference's S₀₀ has the other sign) when its S and
 /// T equal the reference's under the label bijection, exactly.
 fn matched(
-    candidate: &Theory,
+    candidate: Theory,
     reference: &Theory,
     bijection: &[usize],
 ) -> Result<Option<Theory>, TheoryError> {
@@ -304,10 +304,10 @@ fn matched(
             .ok_or_else(|| TheoryError::Internal("no S".into()))?;
         Ok(field.embed(s.get(a, b))?)
     };
-    let theory = if s_of(candidate, 0, 0)? == field.neg(&s_of(reference, 0, 0)?) {
-        with_negated_total_dimension(candidate)?
+    let theory = if s_of(&candidate, 0, 0)? == field.neg(&s_of(reference, 0, 0)?) {
+        into_negated_total_dimension(candidate)?
     } else {
-        candidate.clone()
+        candidate
     };
     for (a, &ra) in bijection.iter().enumerate() {
         if field.embed(theory.twist(a))? != field.embed(reference.twist(ra))? {

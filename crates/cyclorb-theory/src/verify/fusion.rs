@@ -49,20 +49,27 @@ pub(crate) fn fusion_rules(t: &Theory) -> Check {
             }
         }
     }
+    // Associativity: for each (a, b, c), both sides for every d at once, accumulated over
+    // the non-zero coefficients only.
+    let mut left = vec![0u32; r];
+    let mut right = vec![0u32; r];
     for a in 0..r {
         for b in 0..r {
             for c in 0..r {
+                left.iter_mut().for_each(|x| *x = 0);
+                right.iter_mut().for_each(|x| *x = 0);
+                for &e in t.fusion_outcomes(a, b) {
+                    for &d in t.fusion_outcomes(e, c) {
+                        left[d] += n(a, b, e) * n(e, c, d);
+                    }
+                }
+                for &f in t.fusion_outcomes(b, c) {
+                    for &d in t.fusion_outcomes(a, f) {
+                        right[d] += n(b, c, f) * n(a, f, d);
+                    }
+                }
                 for d in 0..r {
-                    let left: u32 = t
-                        .fusion_outcomes(a, b)
-                        .iter()
-                        .map(|&e| n(a, b, e) * n(e, c, d))
-                        .sum();
-                    let right: u32 = t
-                        .fusion_outcomes(b, c)
-                        .iter()
-                        .map(|&f| n(b, c, f) * n(a, f, d))
-                        .sum();
+                    let (left, right) = (left[d], right[d]);
                     if !tally.record(left == right, || {
                         format!(
                             "associativity at a={} b={} c={} d={}: Σ_e N_ab^e N_ec^d = {left}, Σ_f N_bc^f N_af^d = {right}",

@@ -10,6 +10,7 @@ mod braided;
 mod fusion;
 mod modular;
 mod pentagon;
+mod residue;
 
 use std::fmt;
 

@@ -19,13 +19,13 @@
 //! both exact sides.
 
 use cyclorb_field::{Cyc, CyclotomicField, ResidueMap};
-use hashbrown::HashSet;
 use num_bigint::{BigInt, BigUint};
-use num_integer::Integer;
 use num_traits::One;
 
 use crate::arith::SameField;
+use crate::fmatrix::FMatrix;
 use crate::theory::Theory;
+use crate::verify::residue::EntryBounds;
 use crate::verify::{Check, CheckId, Tally};
 
 /// Every F-block of the theory reduced modulo the ideals of a [`ResidueMap`].
@@ -61,56 +61,31 @@ fn positions(labels: &[usize], rank: usize) -> Vec<u32> {
     out
 }
 
-/// Bounds for the zero test over every block: D (lcm of the denominators), L (largest
-/// ⌈‖A‖₁/d⌉), m (most columns), and H, the Galois automorphisms fixing every entry (so every
-/// instance lies in the fixed field of H).
-struct EntryBounds {
-    lcm: BigUint,
-    largest: BigUint,
-    columns: usize,
-    fixing: Vec<i64>,
-}
-
-fn entry_bounds(t: &Theory) -> EntryBounds {
-    let mut lcm = BigUint::one();
-    let mut largest = BigUint::one();
-    let mut columns = 1;
-    let mut distinct: HashSet<&Cyc> = HashSet::new();
-    for (a, b, c, d) in t.f_block_labels() {
-        let Some(block) = t.f_block(a, b, c, d) else {
-            continue;
-        };
-        columns = columns.max(block.cols.len());
-        for i in 0..block.rows.len() {
-            distinct.extend(block.matrix.row(i));
-        }
-    }
-    let distinct: Vec<Cyc> = distinct.into_iter().cloned().collect();
-    for x in &distinct {
-        let (ceil, den) = x.embedding_bound_ceil();
-        lcm = lcm.lcm(&den);
-        largest = largest.max(ceil);
-    }
-    let fixing = t
-        .field()
-        .fixing_group(&distinct)
-        .expect("entries lie in the theory's field");
-    EntryBounds {
-        lcm,
-        largest,
-        columns,
-        fixing,
-    }
+/// The F-entries' bounds (D, L and the fixing group, [`EntryBounds`]) and m, the most
+/// columns of a block.
+fn entry_bounds(t: &Theory) -> (EntryBounds, usize) {
+    let blocks: Vec<&FMatrix> = t
+        .f_block_labels()
+        .into_iter()
+        .filter_map(|(a, b, c, d)| t.f_block(a, b, c, d))
+        .collect();
+    let columns = blocks.iter().map(|b| b.cols.len()).max().unwrap_or(1);
+    let entries = blocks
+        .iter()
+        .flat_map(|b| (0..b.rows.len()).flat_map(|i| b.matrix.row(i)));
+    (EntryBounds::of(t.field(), entries), columns)
 }
 
 impl ResidueBlocks {
     fn new(t: &Theory) -> ResidueBlocks {
-        let EntryBounds {
-            lcm,
-            largest,
+        let (
+            EntryBounds {
+                lcm,
+                largest,
+                fixing,
+            },
             columns,
-            fixing,
-        } = entry_bounds(t);
+        ) = entry_bounds(t);
         let lcm_cubed = lcm.pow(3);
         let bound = &lcm_cubed * &largest * &largest * (BigUint::one() + columns * &largest);
         let residues = t.field().residue_map(&bound, &BigInt::from(lcm), &fixing);
