@@ -75,10 +75,8 @@
 
 mod action;
 mod commutant;
-mod commutant_solver;
 mod cyclotomic_part;
 mod digest;
-mod echelon;
 mod enumerate;
 mod error;
 mod generators;
@@ -91,7 +89,6 @@ mod perm;
 mod poly;
 mod projective;
 mod ratio;
-mod scalars;
 mod schreier_sims;
 mod schreier_tree;
 mod screen;

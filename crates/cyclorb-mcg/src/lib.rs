@@ -25,7 +25,7 @@ mod gamma;
 mod modular;
 mod relations;
 mod space;
-mod words;
+mod word_product;
 
 pub use basis::{CombBasis, CombState};
 pub use curves::{Curve, GeneratingSet};
@@ -33,4 +33,4 @@ pub use error::McgError;
 pub use estimate::SpaceEstimate;
 pub use relations::{check_relations, RelationCheck};
 pub use space::BlockSpace;
-pub use words::{proportionality, word_matrix};
+pub use word_product::word_matrix;

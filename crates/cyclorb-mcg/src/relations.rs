@@ -10,7 +10,7 @@ use serde::Serialize;
 use crate::curves::Curve;
 use crate::error::McgError;
 use crate::space::BlockSpace;
-use crate::words::{is_scalar, proportionality, word_matrix};
+use crate::word_product::word_matrix;
 
 /// One named relation and whether it holds exactly.
 #[derive(Clone, Debug, Serialize)]
@@ -37,11 +37,12 @@ impl Checker<'_> {
     }
 
     fn proportional(&self, x: &[&Operator], y: &[&Operator]) -> Result<bool, McgError> {
-        Ok(proportionality(self.field, &self.word(x)?, &self.word(y)?)?.is_some())
+        let (x, y) = (self.word(x)?, self.word(y)?);
+        Ok(x.scalar_multiple_of(self.field, &y)?.is_some())
     }
 
     fn scalar(&self, x: &[&Operator]) -> Result<bool, McgError> {
-        is_scalar(self.field, &self.word(x)?)
+        Ok(self.word(x)?.is_scalar(self.field).is_some())
     }
 }
 
@@ -211,9 +212,9 @@ fn genus_one_checks(
             .collect::<Vec<_>>(),
     );
     let sts = s_perm.mul(f, &t)?.mul(f, &s_perm.inverse(f)?)?;
-    let ok_a = proportionality(f, &a.to_dense(f), &t)?.is_some();
+    let ok_a = a.to_dense(f).scalar_multiple_of(f, &t)?.is_some();
     ck.record("genus 1: T_alpha ∝ T".into(), ok_a);
-    let ok_b = proportionality(f, &b.to_dense(f), &sts)?.is_some();
+    let ok_b = b.to_dense(f).scalar_multiple_of(f, &sts)?.is_some();
     ck.record("genus 1: T_beta ∝ S T S^-1".into(), ok_b);
     Ok(())
 }
