@@ -86,7 +86,6 @@ mod line_keys;
 mod lines;
 mod parallel;
 mod perm;
-mod poly;
 mod projective;
 mod ratio;
 mod schreier_sims;

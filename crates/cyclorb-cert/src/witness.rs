@@ -22,10 +22,10 @@ use serde::{Deserialize, Serialize};
 use crate::cyclotomic_part::{has_no_cyclotomic_factor, strip, CyclotomicFactor};
 use crate::error::{require, CertError};
 use crate::generators::GeneratorSet;
-use crate::poly::{cyclotomic, degree, from_strings, mul, to_strings, IntPoly};
 use crate::ratio::{norm_to_integers, ratio_polynomial};
 use crate::screen::{candidate_blocks, Screen};
 use crate::words::{is_lyndon, next_word, Xorshift};
+use cyclorb_field::int_poly::{cyclotomic, degree, from_strings, mul, to_strings, IntPoly};
 
 /// Bounds of the search.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

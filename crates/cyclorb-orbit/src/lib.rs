@@ -84,7 +84,6 @@ mod error;
 mod fingerprint;
 mod format;
 mod generators;
-mod hash;
 mod image;
 mod invertible;
 mod key;

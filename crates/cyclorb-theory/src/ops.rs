@@ -11,10 +11,10 @@ use crate::arith::SameField;
 use crate::assemble::{assemble, RawF, RawStructure, RawTheory};
 use crate::error::TheoryError;
 use crate::fusion::FusionRules;
-use crate::roots::canonical_conductor;
 use crate::size::product_bytes;
 use crate::structure::{key3, key4, FBlock, FSource};
 use crate::theory::Theory;
+use cyclorb_field::canonical_conductor;
 
 /// The Deligne product A ⊠ B: labels are pairs (a, b) with index a·rank(B) + b and name
 /// "a*b"; N, F, R, θ, d and vertex weights multiply, S = S_A ⊗ S_B, c adds. The field is

@@ -29,9 +29,9 @@ use crate::assemble::{assemble, conductor_for, RawF, RawStructure, RawTheory};
 use crate::error::TheoryError;
 use crate::fmatrix::FMatrix;
 use crate::fusion::FusionRules;
-use crate::roots::{canonical_conductor, root_of_unity};
 use crate::structure::{key3, FBlock, FSource};
 use crate::theory::Theory;
+use cyclorb_field::{canonical_conductor, root_of_unity};
 
 /// Largest level accepted by `su2:K` and `so3:K`.
 pub const MAX_LEVEL: u32 = 60;
