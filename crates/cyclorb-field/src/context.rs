@@ -56,7 +56,7 @@ impl CyclotomicField {
         // the coefficients of Φ_n for n ≤ MAX_CONDUCTOR are small (far inside i64)
         let cyclotomic = int_poly::cyclotomic(n as u64)
             .iter()
-            .map(|c| c.to_i64().ok_or_else(|| FieldError::BadConductor(n)))
+            .map(|c| c.to_i64().ok_or(FieldError::BadConductor(n)))
             .collect::<Result<Vec<i64>, FieldError>>()?;
         let reduction = if n >= 2 && n.is_power_of_two() {
             Reduction::Negacyclic
