@@ -64,6 +64,7 @@ mod arith;
 mod assemble;
 mod builtins;
 mod canonical;
+mod composite;
 mod digest;
 mod error;
 mod file;
