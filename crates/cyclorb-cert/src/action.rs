@@ -24,7 +24,7 @@ use cyclorb_matrix::{rows_inverse, Echelon, Matrix, ModP, ScalarField};
 use serde::{Deserialize, Serialize};
 
 use crate::error::{require, CertError};
-use crate::lines::LineSet;
+use crate::line_set::LineSet;
 
 /// The data of the faithfulness lemma: indices of orbit lines.
 ///

@@ -81,18 +81,18 @@ mod enumerate;
 mod error;
 mod generators;
 mod hermitian;
-mod image;
+mod image_order;
 mod line_keys;
-mod lines;
+mod line_set;
 mod parallel;
+mod period_screen;
 mod perm;
 mod projective;
-mod ratio;
+mod ratio_polynomial;
 mod schreier_sims;
 mod schreier_tree;
-mod screen;
 mod witness;
-mod words;
+mod witness_words;
 
 pub use action::{faithfulness_proof, FaithfulnessProof};
 pub use commutant::{
@@ -102,12 +102,12 @@ pub use cyclotomic_part::CyclotomicFactor;
 pub use enumerate::{enumerate_projective_image, EnumerationCertificate, ImageEnumeration};
 pub use error::CertError;
 pub use generators::GeneratorSet;
-pub use image::{
+pub use image_order::{
     image_from_lines, image_from_orbit, permutation_group_summary, ImageOptions,
     PermutationGroupSummary, PermutationImageCertificate,
 };
 pub use line_keys::induced_permutations;
-pub use lines::LineSet;
+pub use line_set::LineSet;
 pub use schreier_sims::StabiliserChain;
 pub use witness::{
     find_witness, polynomial_text, WitnessCertificate, WitnessOptions, WitnessOutcome,

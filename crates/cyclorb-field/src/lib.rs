@@ -34,7 +34,7 @@
 //!
 //! ## Modules
 //! `context` (the field and its tables), `element` (values, canonical form), `arith`
-//! (the safe operations and their tiers), `words`, `convolution` and `packed` (machine-word
+//! (the safe operations and their tiers), `word_kernels`, `convolution` and `packed` (machine-word
 //! kernels), `dot` (sums of products), `modular` and `multimodular` (primes p ≡ 1 mod n,
 //! inverse and norm), `galois` (automorphisms, embeddings, trace, roots of unity), `sqrt`,
 //! `text` (syntax and serde), `modp` ([`PrimeReduction`]), `residues` ([`ResidueMap`]: residues
@@ -69,7 +69,7 @@ mod roots;
 mod sqrt;
 mod text;
 mod unique_keys;
-mod words;
+mod word_kernels;
 
 pub use budget::{check_budget, memory_budget, set_memory_budget};
 pub use context::{CyclotomicField, Reduction, MAX_CONDUCTOR};
