@@ -19,6 +19,9 @@
 //!   ([`FaithfulnessProof`]) whose lines are a base, the permutations found through keys
 //!   of the lines modulo a prime ([`induced_permutations`]), and a deterministic
 //!   Schreier–Sims on base images ([`StabiliserChain`]).
+//!   `cyclorb-structure` keeps a Schreier–Sims of its own (with monomial lifts) on purpose:
+//!   the two are independent checks of each other, and neither is to be folded into the
+//!   other.
 //! - **Witness of infinite image** ([`find_witness`] → [`WitnessCertificate`]): a word
 //!   with two eigenvalues whose ratio is not a root of unity, proved from the exact
 //!   characteristic polynomial: ratio polynomial, norm to Q, all cyclotomic factors
