@@ -9,13 +9,7 @@ use super::proof;
 
 /// The generating set named on the command line.
 pub fn parse_set(name: &str) -> Result<GeneratingSet, String> {
-    match name {
-        "humphries" => Ok(GeneratingSet::Humphries),
-        "lickorish" => Ok(GeneratingSet::Lickorish),
-        other => Err(format!(
-            "unknown generating set {other:?} (known: humphries, lickorish)"
-        )),
-    }
+    name.parse()
 }
 
 /// Read a theory (built-in spec or file; files proved first, see `proof`) and build its

@@ -20,13 +20,11 @@
 //! matrix is invertible modulo p, so its inverse reduces to the inverse modulo p).
 
 use cyclorb_field::{Cyc, CyclotomicField, FieldError, PrimeReduction};
-use cyclorb_matrix::Matrix;
+use cyclorb_matrix::{rows_inverse, Echelon, Matrix, ModP, ScalarField};
 use serde::{Deserialize, Serialize};
 
-use crate::echelon::{inverse, Echelon};
 use crate::error::{require, CertError};
-use crate::lines::LineSet;
-use crate::scalars::{ModP, Scalars};
+use crate::line_set::LineSet;
 
 /// The data of the faithfulness lemma: indices of orbit lines.
 ///
@@ -163,7 +161,7 @@ pub fn faithfulness_proof<L: LineSet + ?Sized>(
     let rows: Vec<Vec<u64>> = (0..d)
         .map(|i| columns_mod_p.iter().map(|c| c[i]).collect())
         .collect();
-    let inverse_mod_p = inverse(&s, &rows)?;
+    let inverse_mod_p = rows_inverse(&s, &rows)?;
     let mut joins = Joins::new(d);
     let mut links = Vec::new();
     for k in 0..lines.len() {

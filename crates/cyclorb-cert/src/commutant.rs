@@ -4,7 +4,7 @@
 //! unity r) is a ring homomorphism on the entries, so every minor of the commutant system
 //! that vanishes exactly vanishes mod p: rank_p ≤ rank, hence nullity_p ≥ nullity. The
 //! identity commutes with everything, so nullity ≥ 1, and nullity_p = 1 proves the exact
-//! commutant is the scalars. The system is solved by [`crate::commutant_solver`], whose
+//! commutant is the scalars. The system is solved by [`cyclorb_matrix::solve_commutant`], whose
 //! cut of the unknowns (diagonal generators, or an eigenbasis mod p) keeps 36-dimensional
 //! sets at a few hundred unknowns.
 //!
@@ -14,15 +14,15 @@
 //! prime with nullity_p = k' (dimension ≤ k') or, failing that, the exact nullity itself.
 
 use cyclorb_field::{CyclotomicField, FieldError, PrimeReduction};
-use cyclorb_matrix::{Matrix, MatrixError};
+use cyclorb_matrix::{
+    solve_commutant, CommutantCut, CommutantSystem, EigenbasisCut, Exact, Matrix, MatrixError,
+    ModP, Rows, SolvedCommutant, UnknownOrder, Want,
+};
 use serde::{Deserialize, Serialize};
 
-use crate::commutant_solver::{solve, Reduction, Solved, Want};
-use crate::echelon::Rows;
 use crate::error::{require, CertError};
 use crate::generators::GeneratorSet;
 use crate::hermitian::{g_adjoint, independent_subset, self_adjoint_basis};
-use crate::scalars::{Exact, ModP};
 
 /// Further prime indices tried when a prime divides a denominator of the generators.
 const SPARE_PRIMES: usize = 8;
@@ -184,7 +184,7 @@ fn reduced_generators(
 fn modular_bound(
     gens: &GeneratorSet,
     reduction: &PrimeReduction,
-) -> Result<Solved<u64>, CertError> {
+) -> Result<SolvedCommutant<u64>, CertError> {
     let rows = reduced_generators(gens, reduction)?.ok_or_else(|| {
         CertError::Rejected(format!(
             "the prime {} divides a denominator of the generators",
@@ -195,11 +195,29 @@ fn modular_bound(
     solve(&s, &rows, None, Want::Dimension)
 }
 
+/// [`solve_commutant`] in row-major order with no limit on the unknowns; `candidates`
+/// lists the generators that may be diagonalised (all when `None`).
+fn solve<S: cyclorb_matrix::ScalarField>(
+    s: &S,
+    rows: &[Rows<S::E>],
+    candidates: Option<&[usize]>,
+    want: Want,
+) -> Result<SolvedCommutant<S::E>, CertError> {
+    let system = CommutantSystem {
+        want,
+        eigenbasis: candidates.map_or(EigenbasisCut::Any, EigenbasisCut::Among),
+        order: UnknownOrder::RowMajor,
+        max_unknowns: usize::MAX,
+    };
+    solve_commutant(s, rows, &system)?
+        .ok_or_else(|| CertError::Limit("the commutant system has too many unknowns".into()))
+}
+
 fn exact_solve(
     gens: &GeneratorSet,
     candidates: Option<&[usize]>,
     want: Want,
-) -> Result<Solved<cyclorb_field::Cyc>, CertError> {
+) -> Result<SolvedCommutant<cyclorb_field::Cyc>, CertError> {
     let field = gens.field();
     let rows: Vec<_> = (0..gens.len()).map(|a| rows_of(gens.dense(a))).collect();
     solve(&Exact::new(field), &rows, candidates, want)
@@ -247,7 +265,7 @@ pub fn commutant(
             nullity: solved.nullity,
             unknowns: solved.unknowns,
         });
-        if let Reduction::Eigenbasis(g) = solved.reduction {
+        if let CommutantCut::Eigenbasis(g) = solved.cut {
             eigen_generator = Some(g);
         }
         if solved.nullity == 1 {

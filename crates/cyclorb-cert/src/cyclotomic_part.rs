@@ -17,7 +17,7 @@ use serde::{Deserialize, Serialize};
 
 use cyclorb_field::numtheory::{factorize, is_prime, pow_mod};
 
-use crate::poly::{cyclotomic, degree, div_exact_monic, eval_mod, IntPoly};
+use cyclorb_field::int_poly::{cyclotomic, degree, div_exact_monic, eval_mod, IntPoly};
 
 /// Φ_m divides the polynomial exactly `multiplicity` times.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
@@ -104,7 +104,7 @@ pub(crate) fn has_no_cyclotomic_factor(p: &[BigInt]) -> bool {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::poly::mul;
+    use cyclorb_field::int_poly::mul;
 
     fn ints(cs: &[i64]) -> IntPoly {
         cs.iter().map(|&c| BigInt::from(c)).collect()

@@ -14,11 +14,9 @@
 //! Q and only the X_a + X_a* are used: they span the self-adjoint part.
 
 use cyclorb_field::{Cyc, CyclotomicField};
-use cyclorb_matrix::Matrix;
+use cyclorb_matrix::{Echelon, Exact, Matrix};
 
-use crate::echelon::Echelon;
 use crate::error::CertError;
-use crate::scalars::Exact;
 
 /// X* = G⁻¹ X† G: entry (i, j) is conj(X_ji)·g_j/g_i.
 pub(crate) fn g_adjoint(

@@ -19,6 +19,9 @@
 //!   ([`FaithfulnessProof`]) whose lines are a base, the permutations found through keys
 //!   of the lines modulo a prime ([`induced_permutations`]), and a deterministic
 //!   Schreier–Sims on base images ([`StabiliserChain`]).
+//!   `cyclorb-structure` keeps a Schreier–Sims of its own (with monomial lifts) on purpose:
+//!   the two are independent checks of each other, and neither is to be folded into the
+//!   other.
 //! - **Witness of infinite image** ([`find_witness`] → [`WitnessCertificate`]): a word
 //!   with two eigenvalues whose ratio is not a root of unity, proved from the exact
 //!   characteristic polynomial: ratio polynomial, norm to Q, all cyclotomic factors
@@ -75,28 +78,24 @@
 
 mod action;
 mod commutant;
-mod commutant_solver;
 mod cyclotomic_part;
 mod digest;
-mod echelon;
 mod enumerate;
 mod error;
 mod generators;
 mod hermitian;
-mod image;
+mod image_order;
 mod line_keys;
-mod lines;
+mod line_set;
 mod parallel;
+mod period_screen;
 mod perm;
-mod poly;
 mod projective;
-mod ratio;
-mod scalars;
+mod ratio_polynomial;
 mod schreier_sims;
 mod schreier_tree;
-mod screen;
 mod witness;
-mod words;
+mod witness_words;
 
 pub use action::{faithfulness_proof, FaithfulnessProof};
 pub use commutant::{
@@ -106,12 +105,12 @@ pub use cyclotomic_part::CyclotomicFactor;
 pub use enumerate::{enumerate_projective_image, EnumerationCertificate, ImageEnumeration};
 pub use error::CertError;
 pub use generators::GeneratorSet;
-pub use image::{
+pub use image_order::{
     image_from_lines, image_from_orbit, permutation_group_summary, ImageOptions,
     PermutationGroupSummary, PermutationImageCertificate,
 };
 pub use line_keys::induced_permutations;
-pub use lines::LineSet;
+pub use line_set::LineSet;
 pub use schreier_sims::StabiliserChain;
 pub use witness::{
     find_witness, polynomial_text, WitnessCertificate, WitnessOptions, WitnessOutcome,

@@ -23,7 +23,7 @@ use hashbrown::HashMap;
 
 use crate::error::CertError;
 use crate::generators::GeneratorSet;
-use crate::lines::LineSet;
+use crate::line_set::LineSet;
 use crate::parallel::map_ranges;
 use crate::projective::normalise;
 

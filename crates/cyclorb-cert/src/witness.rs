@@ -1,14 +1,14 @@
 //! Witnesses of an infinite projective image: a word whose matrix W has two eigenvalues
 //! whose ratio is not a root of unity, so no power of W is a scalar.
 //!
-//! For each word (see [`crate::words`]) the product is first formed modulo two primes and
-//! screened ([`crate::screen`]: blocks of small projective period mod p are passed over;
+//! For each word (see [`crate::witness_words`]) the product is first formed modulo two primes and
+//! screened ([`crate::period_screen`]: blocks of small projective period mod p are passed over;
 //! the screen only chooses what to try). For a promising word the exact matrix W is
 //! formed; its coordinates split into the connected components of the non-zero pattern of
 //! W, each spanning a W-invariant subspace (and so does their union), whose eigenvalues are
 //! eigenvalues of W. For each such block, smallest first, that the screen passes:
 //! f = χ of the block over Q(ζ_n), the ratio polynomial and its norm N ∈ Z[x]
-//! ([`crate::ratio`]), every cyclotomic factor removed ([`crate::cyclotomic_part`]). A
+//! ([`crate::ratio_polynomial`]), every cyclotomic factor removed ([`crate::cyclotomic_part`]). A
 //! non-constant rest proves that some ratio λ_i/λ_j is not a root of unity, so no power of
 //! W is a scalar: the projective image is infinite.
 //!
@@ -22,10 +22,10 @@ use serde::{Deserialize, Serialize};
 use crate::cyclotomic_part::{has_no_cyclotomic_factor, strip, CyclotomicFactor};
 use crate::error::{require, CertError};
 use crate::generators::GeneratorSet;
-use crate::poly::{cyclotomic, degree, from_strings, mul, to_strings, IntPoly};
-use crate::ratio::{norm_to_integers, ratio_polynomial};
-use crate::screen::{candidate_blocks, Screen};
-use crate::words::{is_lyndon, next_word, Xorshift};
+use crate::period_screen::{candidate_blocks, Screen};
+use crate::ratio_polynomial::{norm_to_integers, ratio_polynomial};
+use crate::witness_words::{is_lyndon, next_word, Xorshift};
+use cyclorb_field::int_poly::{cyclotomic, degree, from_strings, mul, to_strings, IntPoly};
 
 /// Bounds of the search.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

@@ -2,6 +2,8 @@
 //! on Clifford groups.
 
 mod common;
+#[path = "../../../tests/outside/mod.rs"]
+mod outside;
 
 use common::*;
 use cyclorb_cert::{
@@ -34,14 +36,15 @@ fn orbit_certificate(
 #[test]
 fn fibonacci_genus_one_image_is_a5_by_both_routes() {
     // The projective image of SL(2, Z) in the Fibonacci representation is A₅, order 60
-    // (level-5 congruence representation: SL(2, 5)/±1 ≅ A₅; from memory).
+    // (fixtures/outside.toml: level-5 congruence representation, SL(2, 5)/±1 ≅ A₅).
     let gens = fibonacci().generators();
-    assert_eq!(enumerated_order(&gens, 1000), 60);
+    let order = outside::image_order("fibonacci", 1);
+    assert_eq!(enumerated_order(&gens, 1000), order);
     let (lines, cert) = orbit_certificate(&gens, 1000);
     // the vacuum line's orbit: the 12 vertices of the icosahedron on CP¹, stabiliser C₅
     // (rotation group of the icosahedron; from memory)
     assert_eq!(lines.len(), 12);
-    assert_eq!(cert.group.order, "60");
+    assert_eq!(cert.group.order, order.to_string());
     assert_eq!(cert.group.orbit_of_first_point, 12);
     assert_eq!(cert.group.stabiliser_order, "5");
 }
@@ -51,9 +54,9 @@ fn ising_genus_one_image_orders_agree() {
     let gens = ising().generators();
     let enumerated = enumerated_order(&gens, 100_000);
     let (lines, cert) = orbit_certificate(&gens, 10_000);
-    // orbit of the vacuum line: 24 lines (Castro, Gaberdiel, Hartman, Maloney, Volpato,
-    // Phys. Rev. D 85, 024032 (2012))
-    assert_eq!(lines.len(), 24);
+    // orbit of the vacuum line: 24 lines (fixtures/outside.toml: Castro, Gaberdiel,
+    // Hartman, Maloney, Volpato, Phys. Rev. D 85, 024032 (2012))
+    assert_eq!(lines.len() as u64, outside::orbit("ising", 1).lines);
     assert_eq!(cert.group.order, enumerated.to_string());
     // 384 (both routes agree; value recomputed, not from a source)
     assert_eq!(enumerated, 384);

@@ -10,7 +10,7 @@ use crate::context::{CyclotomicField, Reduction};
 use crate::element::{Cyc, Data};
 use crate::error::FieldError;
 use crate::ring::{convolve, IntRing};
-use crate::words::gcd_u64;
+use crate::word_kernels::gcd_u64;
 
 fn small_wide(c: &Cyc) -> Option<(Vec<i128>, i128)> {
     match &c.data {

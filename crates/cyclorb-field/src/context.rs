@@ -4,7 +4,10 @@ use std::sync::Arc;
 
 use crate::error::FieldError;
 use crate::modular::{ModPrime, PrimeCache};
-use crate::numtheory::{cyclotomic_polynomial, euler_phi};
+use num_traits::ToPrimitive;
+
+use crate::int_poly;
+use crate::numtheory::euler_phi;
 
 /// Largest conductor accepted (tables are n × φ(n) integers).
 pub const MAX_CONDUCTOR: u32 = 20_000;
@@ -50,7 +53,11 @@ impl CyclotomicField {
             CyclotomicField::table_bytes(n),
         )?;
         let phi = euler_phi(n as u64) as usize;
-        let cyclotomic = cyclotomic_polynomial(n as u64);
+        // the coefficients of Φ_n for n ≤ MAX_CONDUCTOR are small (far inside i64)
+        let cyclotomic = int_poly::cyclotomic(n as u64)
+            .iter()
+            .map(|c| c.to_i64().ok_or(FieldError::BadConductor(n)))
+            .collect::<Result<Vec<i64>, FieldError>>()?;
         let reduction = if n >= 2 && n.is_power_of_two() {
             Reduction::Negacyclic
         } else {

@@ -7,7 +7,7 @@
 //! than one large unrolled kernel at length 16).
 //!
 //! Precondition (unchecked arithmetic): the caller proves with [`kernel_terms`] that no
-//! intermediate value leaves `i64` (see [`crate::words::sum_fits`]): every intermediate is
+//! intermediate value leaves `i64` (see [`crate::word_kernels::sum_fits`]): every intermediate is
 //! bounded by `kernel_terms(φ)·max|a|·max|b|`, and s times the final product by the caller's
 //! own bound.
 

@@ -14,7 +14,7 @@ use crate::element::{Cyc, Data};
 use crate::error::FieldError;
 use crate::packed::{packed_sum, PACKED_LIMIT};
 use crate::ring::convolve;
-use crate::words::{gcd_u64, magnitude_bound, max_abs, sum_fits, with_scratch};
+use crate::word_kernels::{gcd_u64, magnitude_bound, max_abs, sum_fits, with_scratch};
 
 /// The running sum: Σ = wide/den, wide of length 2φ − 1.
 #[derive(Debug, Clone)]

@@ -34,7 +34,7 @@
 //!
 //! ## Modules
 //! `context` (the field and its tables), `element` (values, canonical form), `arith`
-//! (the safe operations and their tiers), `words`, `convolution` and `packed` (machine-word
+//! (the safe operations and their tiers), `word_kernels`, `convolution` and `packed` (machine-word
 //! kernels), `dot` (sums of products), `modular` and `multimodular` (primes p ≡ 1 mod n,
 //! inverse and norm), `galois` (automorphisms, embeddings, trace, roots of unity), `sqrt`,
 //! `text` (syntax and serde), `modp` ([`PrimeReduction`]), `residues` ([`ResidueMap`]: residues
@@ -53,28 +53,35 @@ mod convolution;
 mod dot;
 mod element;
 mod error;
+mod fnv;
 mod galois;
+pub mod int_poly;
 mod modp;
 mod modular;
 mod multimodular;
 pub mod numtheory;
 mod packed;
 mod rational;
+mod real_sign;
 mod residues;
 mod ring;
+mod roots;
 mod sqrt;
 mod text;
 mod unique_keys;
-mod words;
+mod word_kernels;
 
 pub use budget::{check_budget, memory_budget, set_memory_budget};
 pub use context::{CyclotomicField, Reduction, MAX_CONDUCTOR};
 pub use dot::DotAccumulator;
 pub use element::Cyc;
 pub use error::FieldError;
+pub use fnv::{Fnv128, Fnv64};
 pub use galois::common_conductor;
 pub use modp::PrimeReduction;
 pub use rational::Rational;
+pub use real_sign::real_sign;
 pub use residues::ResidueMap;
+pub use roots::{canonical_conductor, conductor_of_root, root_of_unity, root_of_unity_at};
 pub use text::{CycText, MAX_PARSE_DEPTH, MAX_POWER_BITS};
 pub use unique_keys::UniqueKeys;

@@ -56,44 +56,6 @@ pub fn moebius(m: u64) -> i64 {
     }
 }
 
-/// The integer coefficients of the cyclotomic polynomial Φ_m, constant term first
-/// (length φ(m) + 1), from Φ_m = Π_{d | m} (x^d − 1)^{μ(m/d)}.
-pub fn cyclotomic_polynomial(m: u64) -> Vec<i64> {
-    // Multiply the factors with μ = +1, then divide exactly by those with μ = −1.
-    let mut num: Vec<i64> = vec![1];
-    let mut den: Vec<i64> = vec![1];
-    for d in 1..=m {
-        if m % d != 0 {
-            continue;
-        }
-        let mu = moebius(m / d);
-        if mu == 0 {
-            continue;
-        }
-        let target = if mu == 1 { &mut num } else { &mut den };
-        // multiply by x^d − 1
-        let mut next = vec![0i64; target.len() + d as usize];
-        for (i, &c) in target.iter().enumerate() {
-            next[i + d as usize] += c;
-            next[i] -= c;
-        }
-        *target = next;
-    }
-    // exact division num / den (den monic up to sign)
-    let lead = *den.last().expect("non-empty");
-    let mut rem = num;
-    let qlen = rem.len() - den.len() + 1;
-    let mut quot = vec![0i64; qlen];
-    for i in (0..qlen).rev() {
-        let c = rem[i + den.len() - 1] / lead;
-        quot[i] = c;
-        for (j, &dj) in den.iter().enumerate() {
-            rem[i + j] -= c * dj;
-        }
-    }
-    quot
-}
-
 /// Modular exponentiation b^e mod p for p < 2^63.
 pub fn pow_mod(b: u64, mut e: u64, p: u64) -> u64 {
     let mut r = 1u128;
@@ -144,16 +106,6 @@ pub fn is_prime(p: u64) -> bool {
 #[cfg(test)]
 mod tests {
     use super::*;
-
-    #[test]
-    fn small_cyclotomic_polynomials() {
-        // Textbook values (common practice): Φ_1 = x − 1, Φ_4 = x² + 1, Φ_6 = x² − x + 1,
-        // Φ_12 = x⁴ − x² + 1.
-        assert_eq!(cyclotomic_polynomial(1), vec![-1, 1]);
-        assert_eq!(cyclotomic_polynomial(4), vec![1, 0, 1]);
-        assert_eq!(cyclotomic_polynomial(6), vec![1, -1, 1]);
-        assert_eq!(cyclotomic_polynomial(12), vec![1, 0, -1, 0, 1]);
-    }
 
     #[test]
     fn phi_and_mu() {

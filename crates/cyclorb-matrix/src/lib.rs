@@ -12,7 +12,11 @@
 //!   [`Matrix::commutes_with`], invariance of a Hermitian form
 //!   ([`Matrix::preserves_form`], X† G X = G);
 //! - the characteristic polynomial and determinant without division (Berkowitz);
-//! - exact Gauss–Jordan elimination: rank, nullspace, solve, inverse;
+//! - exact Gauss–Jordan elimination, written once over any [`ScalarField`] (Q(ζ_n) as
+//!   [`Exact`], F_p as [`ModP`]): rank, nullspace, solve, inverse, the incremental
+//!   [`Echelon`] and eigenbases over a list of candidate eigenvalues;
+//! - the commutant {X : XA = AX for every generator A} ([`solve_commutant`]), its unknowns
+//!   cut by diagonal generators or an eigenbasis, over either field;
 //! - the projective order (order modulo scalars), exactly;
 //! - reduction modulo a prime p ≡ 1 (mod n) to [`ModpMatrix`], with rank and nullspace
 //!   over F_p. **A rank over F_p is a lower bound for the exact rank** (a nullity over F_p
@@ -51,6 +55,7 @@
 #![deny(missing_docs)]
 
 mod charpoly;
+mod commutant;
 mod compare;
 mod dense;
 mod elimination;
@@ -62,9 +67,16 @@ mod operator;
 mod operator_algebra;
 mod order;
 mod power;
+mod scalar_field;
 mod serial;
 
+pub use commutant::{
+    solve_commutant, CommutantCut, CommutantSystem, EigenbasisCut, SolvedCommutant, UnknownOrder,
+    Want,
+};
 pub use dense::Matrix;
+pub use elimination::{eigenbasis, rows_inverse, rows_mul, Echelon, Eigenbasis, Rows};
 pub use error::MatrixError;
 pub use modp::{reduce_vector, ModpMatrix};
 pub use operator::{Block, LinearMap, Operator};
+pub use scalar_field::{Exact, ModP, ScalarField};

@@ -16,11 +16,13 @@
 //! [`MatrixError::Field`], when p divides a denominator: the entry has no image.
 //! Arithmetic is in `u64` with p < 2^31, so every product fits before reduction.
 
-use cyclorb_field::numtheory::{is_prime, pow_mod};
+use cyclorb_field::numtheory::is_prime;
 use cyclorb_field::{Cyc, FieldError, PrimeReduction};
 
 use crate::dense::Matrix;
+use crate::elimination::{eliminate, nullspace_of_reduced, Sweep};
 use crate::error::MatrixError;
+use crate::scalar_field::ModP;
 
 /// The images mod p of the entries of a vector; an error when p divides a denominator.
 pub fn reduce_vector(reduction: &PrimeReduction, v: &[Cyc]) -> Result<Vec<u64>, MatrixError> {
@@ -177,66 +179,31 @@ impl ModpMatrix {
         fits.then_some(c)
     }
 
-    /// Reduced row echelon form in place; returns the pivot columns.
-    fn reduce_rows(&mut self) -> Vec<usize> {
-        let p = self.p;
-        let cols = self.cols;
-        let mut pivots = Vec::new();
-        for c in 0..cols {
-            let r = pivots.len();
-            let Some(best) = (r..self.rows).find(|&i| self.get(i, c) != 0) else {
-                continue;
-            };
-            for j in 0..cols {
-                self.data.swap(r * cols + j, best * cols + j);
-            }
-            let inverse = pow_mod(self.get(r, c), p - 2, p);
-            for x in &mut self.data[r * cols + c..(r + 1) * cols] {
-                *x = *x * inverse % p;
-            }
-            let pivot_row = self.row(r).to_vec();
-            for i in (0..self.rows).filter(|&i| i != r) {
-                let f = self.get(i, c);
-                if f == 0 {
-                    continue;
-                }
-                let row = &mut self.data[i * cols..(i + 1) * cols];
-                for (x, &y) in row[c..].iter_mut().zip(&pivot_row[c..]) {
-                    *x = (*x + (p - f) * y) % p;
-                }
-            }
-            pivots.push(c);
-        }
-        pivots
+    fn row_vectors(&self) -> Vec<Vec<u64>> {
+        (0..self.rows).map(|i| self.row(i).to_vec()).collect()
     }
 
     /// The rank over F_p. When this matrix is the reduction of an exact matrix X, it is a
     /// lower bound: rank_p ≤ rank X (see the module documentation).
     pub fn rank(&self) -> usize {
-        self.clone().reduce_rows().len()
+        // entries are in 0..p and p is prime: F_p arithmetic cannot fail
+        eliminate(
+            &ModP::prime(self.p),
+            self.row_vectors(),
+            self.cols,
+            Sweep::Below,
+        )
+        .map_or(0, |reduced| reduced.pivots.len())
     }
 
     /// A basis of the nullspace over F_p (one vector per non-pivot column, 1 there). When
     /// this matrix reduces an exact X, its length (cols − rank_p) is an upper bound for the
     /// exact nullspace dimension.
     pub fn nullspace(&self) -> Vec<Vec<u64>> {
-        let mut echelon = self.clone();
-        let pivots = echelon.reduce_rows();
-        let p = self.p;
-        let mut is_pivot = vec![false; self.cols];
-        for &c in &pivots {
-            is_pivot[c] = true;
+        let s = ModP::prime(self.p);
+        match eliminate(&s, self.row_vectors(), self.cols, Sweep::Both) {
+            Ok(reduced) => nullspace_of_reduced(&s, &reduced, self.cols),
+            Err(_) => Vec::new(),
         }
-        (0..self.cols)
-            .filter(|&f| !is_pivot[f])
-            .map(|f| {
-                let mut x = vec![0u64; self.cols];
-                x[f] = 1;
-                for (r, &c) in pivots.iter().enumerate() {
-                    x[c] = (p - echelon.get(r, f)) % p;
-                }
-                x
-            })
-            .collect()
     }
 }

@@ -59,11 +59,35 @@ impl GeneratingSet {
         v
     }
 
-    /// The set's name as used on the command line.
+    /// Every generating set, in the order of [`GeneratingSet::NAMES`].
+    pub const ALL: [GeneratingSet; 2] = [GeneratingSet::Humphries, GeneratingSet::Lickorish];
+
+    /// The names of the sets as used on the command line and in files.
+    pub const NAMES: [&'static str; 2] = ["humphries", "lickorish"];
+
+    /// The set's name as used on the command line and in files.
     pub fn name(self) -> &'static str {
         match self {
-            GeneratingSet::Humphries => "humphries",
-            GeneratingSet::Lickorish => "lickorish",
+            GeneratingSet::Humphries => Self::NAMES[0],
+            GeneratingSet::Lickorish => Self::NAMES[1],
         }
+    }
+}
+
+impl std::str::FromStr for GeneratingSet {
+    type Err = String;
+
+    /// The set of a name (`humphries`, `lickorish`); the error names the known ones. The one
+    /// parser of generating-set names (command line, sweep plans, certificates).
+    fn from_str(name: &str) -> Result<GeneratingSet, String> {
+        GeneratingSet::ALL
+            .into_iter()
+            .find(|set| set.name() == name)
+            .ok_or_else(|| {
+                format!(
+                    "unknown generating set {name:?} (known: {})",
+                    GeneratingSet::NAMES.join(", ")
+                )
+            })
     }
 }

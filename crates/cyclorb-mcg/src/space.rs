@@ -113,3 +113,22 @@ impl BlockSpace {
             .collect()
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use cyclorb_theory::parse_spec;
+
+    use super::BlockSpace;
+
+    #[test]
+    fn pointed_theories_have_n_to_the_g_blocks() {
+        // Verlinde's formula dim V_g = Σ_a (D/d_a)^{2g−2} (Verlinde 1988) with every d_a = 1
+        // and D² = N gives N^g for the pointed Z_N theories
+        for (spec, n) in [("zn:2:1", 2usize), ("zn:3:2", 3), ("zn:4:1", 4)] {
+            for genus in 1..=3u32 {
+                let space = BlockSpace::new(parse_spec(spec).unwrap(), genus as usize).unwrap();
+                assert_eq!(space.dimension(), n.pow(genus), "{spec} genus {genus}");
+            }
+        }
+    }
+}

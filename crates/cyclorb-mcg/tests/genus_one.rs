@@ -5,7 +5,7 @@
 //! Primer on Mapping Class Groups, §2.2 and Prop. 6.3 for the action on homology). −I acts on
 //! V_1 as charge conjugation, which is a scalar only when every label is self-dual.
 
-use cyclorb_mcg::{check_relations, proportionality, word_matrix, BlockSpace, Curve};
+use cyclorb_mcg::{check_relations, word_matrix, BlockSpace, Curve};
 use cyclorb_theory::parse_spec;
 
 fn space(spec: &str) -> BlockSpace {
@@ -44,10 +44,10 @@ fn a_wrong_relation_is_refused() {
     let w = |word: &[&cyclorb_matrix::Operator]| word_matrix(f, sp.dimension(), word).unwrap();
     let sa3 = w(&[&a, &b, &a, &a, &a, &b, &a, &a, &a, &b, &a, &a]);
     let s2 = w(&[&a, &b, &a, &a, &b, &a]);
-    assert!(proportionality(f, &sa3, &s2).unwrap().is_none());
+    assert!(sa3.scalar_multiple_of(f, &s2).unwrap().is_none());
     // and S² itself is not a scalar but a permutation of order 2 (charge conjugation)
     let id = w(&[]);
-    assert!(proportionality(f, &s2, &id).unwrap().is_none());
+    assert!(s2.scalar_multiple_of(f, &id).unwrap().is_none());
     let s4 = w(&[&a, &b, &a, &a, &b, &a, &a, &b, &a, &a, &b, &a]);
-    assert!(proportionality(f, &s4, &id).unwrap().is_some());
+    assert!(s4.scalar_multiple_of(f, &id).unwrap().is_some());
 }

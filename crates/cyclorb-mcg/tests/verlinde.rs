@@ -2,6 +2,9 @@
 //! dim V_g = Σ_a S_0a^{2−2g} = Σ_a (D²/d_a²)^{g−1} (Verlinde 1988; Moore–Seiberg 1989),
 //! computed exactly in the theory's field.
 
+#[path = "../../../tests/outside/mod.rs"]
+mod outside;
+
 use cyclorb_mcg::BlockSpace;
 use cyclorb_theory::parse_spec;
 
@@ -35,17 +38,20 @@ fn comb_dimension(spec: &str, genus: usize) -> i64 {
 
 #[test]
 fn published_dimensions() {
-    // Ising 3, 10, 36, 136; Fibonacci 2, 5, 15, 50; SU(2)_4 at genus 2: 35 (docs/check-values.md check
-    // values; Verlinde 1988).
-    for (spec, dims) in [
-        ("ising", vec![3, 10, 36, 136]),
-        ("fibonacci", vec![2, 5, 15, 50]),
-    ] {
-        for (g, &d) in dims.iter().enumerate() {
-            assert_eq!(comb_dimension(spec, g + 1), d, "{spec} genus {}", g + 1);
+    // every published dimension of fixtures/outside.toml (Verlinde 1988; the sources are in
+    // the table)
+    let theories = outside::verlinde_theories();
+    assert!(theories.len() >= 4);
+    for spec in theories {
+        for (g, &d) in outside::verlinde(&spec).iter().enumerate() {
+            assert_eq!(
+                comb_dimension(&spec, g + 1),
+                d as i64,
+                "{spec} genus {}",
+                g + 1
+            );
         }
     }
-    assert_eq!(comb_dimension("su2:4", 2), 35);
 }
 
 #[test]

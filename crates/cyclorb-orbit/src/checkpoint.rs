@@ -31,9 +31,9 @@ use num_bigint::BigInt;
 
 use crate::engine::Orbit;
 use crate::error::OrbitError;
-use crate::hash::Fnv128;
 use crate::problem::OrbitProblem;
 use crate::store::{KeyArena, OrbitSet, Width};
+use cyclorb_field::Fnv128;
 
 const MAGIC: &[u8; 8] = b"CYCORBCK";
 const VERSION: u32 = 2;

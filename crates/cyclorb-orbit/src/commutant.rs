@@ -5,7 +5,7 @@
 //! linear system over Q(ζ_n) in the d² entries of Y. A diagonal generator diag(θ) gives
 //! (θ_i − θ_j) Y_ij = 0, which removes every unknown with θ_i ≠ θ_j before any elimination;
 //! the other generators give equations (X Y − Y X)_ij = 0 solved exactly
-//! (`Matrix::nullspace`). The unknowns are ordered so that the earliest positions in
+//! ([`cyclorb_matrix::solve_commutant`], the commutant solver `cyclorb-cert` uses too). The unknowns are ordered so that the earliest positions in
 //! row-major order are the free ones; (0, 0) is always free because G⁻¹ is invariant. Each
 //! basis matrix P_a is 1 at its free position f_a and 0 at the others, so any invariant M
 //! equals Σ_a M(f_a) P_a.
@@ -17,11 +17,13 @@
 //! them, otherwise over P_1, …, P_m.
 
 use cyclorb_field::{Cyc, CyclotomicField};
-use cyclorb_matrix::Matrix;
+use cyclorb_matrix::{
+    solve_commutant, CommutantSystem, EigenbasisCut, Exact, Matrix, Rows, UnknownOrder, Want,
+};
 
 use crate::error::OrbitError;
 use crate::generators::GeneratorSet;
-use crate::sparse::{diagonal_of, operator_rows};
+use crate::sparse::operator_rows;
 
 /// One term c·M of a decomposition of B.
 #[derive(Debug, Clone, PartialEq, Eq)]
@@ -52,100 +54,55 @@ type InvariantBasis = (Vec<Matrix>, Vec<(usize, usize)>);
 
 /// A basis P_1, …, P_m of the invariant matrices with its free positions, or `None` when
 /// the linear system has more than `max_unknowns` unknowns.
+///
+/// The commutant of the generators is solved by [`solve_commutant`] over Q(ζ_n), cut by the
+/// diagonal generators only (no eigenbasis, so the basis stays in the comb coordinates)
+/// and with the unknowns in reverse row-major order, so that each basis vector Y is 1 at
+/// its free position (its first non-zero entry in row-major order) and 0 at the others.
 pub(crate) fn invariant_basis(
     field: &CyclotomicField,
     generators: &GeneratorSet,
     max_unknowns: usize,
 ) -> Result<Option<InvariantBasis>, OrbitError> {
     let d = generators.dimension;
-    let mut allowed = vec![true; d * d];
-    let mut dense_generators = Vec::new();
-    for op in &generators.operators {
-        match diagonal_of(field, op) {
-            Some(theta) => {
-                for i in 0..d {
-                    for j in 0..d {
-                        if theta[i] != theta[j] {
-                            allowed[i * d + j] = false;
-                        }
-                    }
+    let dense: Vec<Rows<Cyc>> = generators
+        .operators
+        .iter()
+        .map(|op| {
+            let mut rows = vec![vec![field.zero(); d]; d];
+            for (row, entries) in rows.iter_mut().zip(operator_rows(field, op)) {
+                for (j, x) in entries {
+                    row[j] = x;
                 }
             }
-            None => dense_generators.push(operator_rows(field, op)),
-        }
-    }
-    // columns in reverse row-major order, so that early positions end up free
-    let positions: Vec<usize> = (0..d * d).rev().filter(|&p| allowed[p]).collect();
-    if positions.len() > max_unknowns {
+            rows
+        })
+        .collect();
+    let system = CommutantSystem {
+        want: Want::Basis,
+        eigenbasis: EigenbasisCut::Among(&[]),
+        order: UnknownOrder::ReverseRowMajor,
+        max_unknowns,
+    };
+    let Some(solved) = solve_commutant(&Exact::new(field), &dense, &system)? else {
         return Ok(None);
-    }
-    let mut column_of = vec![usize::MAX; d * d];
-    for (c, &p) in positions.iter().enumerate() {
-        column_of[p] = c;
-    }
-    let unknowns = positions.len();
-    let mut equations: Vec<Vec<Cyc>> = Vec::new();
-    for rows in &dense_generators {
-        // (X Y − Y X)_ij = Σ_k X_ik Y_kj − Σ_k Y_ik X_kj
-        let mut columns: Vec<Vec<(usize, &Cyc)>> = vec![Vec::new(); d];
-        for (k, row) in rows.iter().enumerate() {
-            for (j, x) in row {
-                columns[*j].push((k, x));
-            }
-        }
-        for i in 0..d {
-            for j in 0..d {
-                let mut eq = vec![field.zero(); unknowns];
-                let mut any = false;
-                for (k, x) in &rows[i] {
-                    let c = column_of[k * d + j];
-                    if c != usize::MAX {
-                        eq[c] = field.add(&eq[c], x)?;
-                        any = true;
-                    }
-                }
-                for (k, x) in &columns[j] {
-                    let c = column_of[i * d + k];
-                    if c != usize::MAX {
-                        eq[c] = field.sub(&eq[c], x)?;
-                        any = true;
-                    }
-                }
-                if any && eq.iter().any(|x| !x.is_zero()) {
-                    equations.push(eq);
-                }
-            }
-        }
-    }
-    let null = if equations.is_empty() {
-        (0..unknowns)
-            .map(|c| {
-                let mut v = vec![field.zero(); unknowns];
-                v[c] = field.one();
-                v
-            })
-            .collect()
-    } else {
-        Matrix::from_rows(equations)?.nullspace(field)?
     };
     let g = generators.form_diagonal(field);
-    let mut basis: Vec<(usize, Matrix)> = Vec::with_capacity(null.len());
-    for y in null {
-        // the free column is the one entry 1 whose column no other vector uses: take the
-        // last non-zero column that holds exactly 1 (free columns are the latest ones)
-        let free = free_column(field, &y).ok_or_else(|| {
-            OrbitError::Arithmetic("nullspace vector without a free column".into())
+    let mut basis: Vec<(usize, Matrix)> = Vec::with_capacity(solved.nullity);
+    for y in solved.basis.unwrap_or_default() {
+        let (fi, fj) = free_position(field, &y).ok_or_else(|| {
+            OrbitError::Arithmetic("nullspace vector without a free position".into())
         })?;
-        let (fi, fj) = (positions[free] / d, positions[free] % d);
         let mut m = Matrix::zeros(field, d, d);
-        for (c, value) in y.iter().enumerate() {
-            if value.is_zero() {
-                continue;
+        for (i, row) in y.iter().enumerate() {
+            for (j, value) in row.iter().enumerate() {
+                if value.is_zero() {
+                    continue;
+                }
+                // M = Y G⁻¹, scaled so that M(f) = 1: M_ij = Y_ij · G_{fj} / G_j
+                let entry = field.div(&field.mul(value, &g[fj])?, &g[j])?;
+                m.set(i, j, entry);
             }
-            let (i, j) = (positions[c] / d, positions[c] % d);
-            // M = Y G⁻¹, scaled so that M(f) = 1: M_ij = Y_ij · G_{fj} / G_j
-            let entry = field.div(&field.mul(value, &g[fj])?, &g[j])?;
-            m.set(i, j, entry);
         }
         basis.push((fi * d + fj, m));
     }
@@ -154,12 +111,15 @@ pub(crate) fn invariant_basis(
     Ok(Some((basis.into_iter().map(|(_, m)| m).collect(), frees)))
 }
 
-/// The free column of a nullspace vector from `Matrix::nullspace`: x_f = 1 at its own free
-/// column f and 0 at the other free columns; pivot columns come before f in a reduced echelon
-/// form, so f is the last non-zero column.
-fn free_column(field: &CyclotomicField, y: &[Cyc]) -> Option<usize> {
-    let last = y.iter().rposition(|x| !x.is_zero())?;
-    (y[last] == field.one()).then_some(last)
+/// The free position of a commutant basis vector solved in reverse row-major order: the
+/// free unknowns are the latest in that order, so the free position is the first non-zero
+/// entry in row-major order, and it holds 1.
+fn free_position(field: &CyclotomicField, y: &Rows<Cyc>) -> Option<(usize, usize)> {
+    let (i, j) = y
+        .iter()
+        .enumerate()
+        .find_map(|(i, row)| row.iter().position(|x| !x.is_zero()).map(|j| (i, j)))?;
+    (y[i][j] == field.one()).then_some((i, j))
 }
 
 /// B over a basis of the invariant matrices (physical when one is found); `None` when the

@@ -22,9 +22,9 @@ use cyclorb_field::Cyc;
 use serde::{Deserialize, Serialize};
 
 use crate::error::{joined, OrbitError};
-use crate::image::{same_key, Candidate, Outcome, Pending, Workspace};
 use crate::numerators::Numerators;
 use crate::problem::OrbitProblem;
+use crate::step::{same_key, Candidate, Outcome, Pending, Workspace};
 use crate::store::OrbitSet;
 
 /// Where and how often to write checkpoints.

@@ -54,7 +54,7 @@
 //! numerators over one shared denominator (docs/orbits.md §1). A 31-bit fingerprint, the reduction
 //! of the line modulo a prime p ≡ 1 (mod n), picks the hash bucket; equality is always
 //! decided exactly, by cross-multiplication D·U_i = U_k·S_i of an image U against a stored key
-//! S (see the `image` and `fingerprint` modules). No floating-point number takes part in any
+//! S (see the `step` and `fingerprint` modules). No floating-point number takes part in any
 //! decision.
 //!
 //! ## Performance
@@ -84,8 +84,6 @@ mod error;
 mod fingerprint;
 mod format;
 mod generators;
-mod hash;
-mod image;
 mod invertible;
 mod key;
 mod memory;
@@ -97,6 +95,7 @@ mod problem;
 mod report;
 mod signal;
 mod sparse;
+mod step;
 mod store;
 mod sum;
 

@@ -58,17 +58,3 @@ pub(crate) fn operator_rows(field: &CyclotomicField, op: &Operator) -> Vec<Vec<(
     }
     rows
 }
-
-/// The diagonal of X when X is diagonal (every non-zero entry on the diagonal).
-pub(crate) fn diagonal_of(field: &CyclotomicField, op: &Operator) -> Option<Vec<Cyc>> {
-    let rows = operator_rows(field, op);
-    let mut diag = Vec::with_capacity(rows.len());
-    for (i, row) in rows.iter().enumerate() {
-        match row.as_slice() {
-            [] => diag.push(field.zero()),
-            [(j, x)] if *j == i => diag.push(x.clone()),
-            _ => return None,
-        }
-    }
-    Some(diag)
-}

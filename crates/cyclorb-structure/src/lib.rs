@@ -25,6 +25,9 @@
 //!    parts carrying monomial lifts; the diagonal residues span the kernel K, a subgroup of
 //!    (Z/m)^d held in Hermite form ([`ModLattice`]) with its invariant factors by
 //!    diagonalisation over Z/m. |image| = |P|·|K| / |K ∩ scalars|.
+//!    This Schreier–Sims is written apart from `cyclorb-cert`'s [`cyclorb_cert::StabiliserChain`]
+//!    on purpose: the two are independent checks of each other (the tests compare
+//!    their orders on the same groups), so a fault in one cannot hide in both.
 //! 5. **The orbit** (module `orbit`): v₀ is expanded in the monomial basis (module
 //!    `vacuum`); the orbit size is the number of supports (the orbit of the vacuum's
 //!    support S₀ under P) times the phase patterns per support (the orbit of 0 in

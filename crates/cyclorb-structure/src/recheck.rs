@@ -50,15 +50,10 @@ pub fn recheck(
     let theory = space.theory();
     let field = theory.field();
     let roots = RootsOfUnity::new(field)?;
-    let set = match certificate.generating_set.as_str() {
-        "humphries" => GeneratingSet::Humphries,
-        "lickorish" => GeneratingSet::Lickorish,
-        other => {
-            return Err(StructureError::Input(format!(
-                "unknown generating set {other:?}"
-            )))
-        }
-    };
+    let set: GeneratingSet = certificate
+        .generating_set
+        .parse()
+        .map_err(StructureError::Input)?;
     let generators = generators_of(space, set)?;
     let dim = space.dimension();
     require(

@@ -4,7 +4,7 @@
 //! ζ_c = exp(2πi c/8). Its square p₊²/D² lies in the field of the data and is found exactly;
 //! ζ_c itself is one of its two square roots ±exp(πi e/N), so D = p₊/ζ_c is cyclotomic and
 //! lies in the field once exp(πi e/N) does. The sign of D (taken positive) is decided by
-//! [`crate::exact_real::real_sign`], whose error bound is proven (no floating point).
+//! [`cyclorb_field::real_sign`], whose error bound is proven (no floating point).
 
 use std::cmp::Ordering;
 
@@ -13,8 +13,8 @@ use num_bigint::BigInt;
 use num_integer::Integer;
 
 use crate::arith::SameField;
-use crate::exact_real::real_sign;
-use crate::roots::{canonical_conductor, conductor_of_root, root_of_unity};
+use cyclorb_field::real_sign;
+use cyclorb_field::{canonical_conductor, conductor_of_root, root_of_unity};
 
 /// D, exp(2πi c/8) and c mod 8 of a modular theory.
 #[derive(Clone, Debug)]

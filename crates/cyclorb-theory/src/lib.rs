@@ -64,16 +64,15 @@ mod arith;
 mod assemble;
 mod builtins;
 mod canonical;
+mod composite;
 mod digest;
 mod error;
-mod exact_real;
 mod file;
 mod fmatrix;
 mod fusion;
 mod gauss;
 mod lazy;
 mod ops;
-mod roots;
 mod size;
 mod spec;
 mod structure;
@@ -87,7 +86,6 @@ pub use builtins::{
 };
 pub use digest::Sha256;
 pub use error::TheoryError;
-pub use exact_real::real_sign;
 pub use file::{read_theory_file, theory_from_json, theory_to_json, FORMAT_NAME, FORMAT_VERSION};
 pub use fmatrix::FMatrix;
 pub use fusion::FusionRules;
@@ -95,7 +93,6 @@ pub use ops::{
     conjugate, galois, product, random_gauge, regauged, renamed, spherical_twist,
     with_negated_total_dimension,
 };
-pub use roots::root_of_unity;
 pub use spec::{parse_spec, parse_spec_traced, FileTheory, TracedSpec, MAX_SPEC_DEPTH};
 pub use theory::Theory;
 pub use verify::{

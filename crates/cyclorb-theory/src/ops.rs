@@ -9,12 +9,13 @@ use num_integer::Integer;
 
 use crate::arith::SameField;
 use crate::assemble::{assemble, RawF, RawStructure, RawTheory};
+use crate::composite::{GaloisBlocks, ProductBlocks};
 use crate::error::TheoryError;
 use crate::fusion::FusionRules;
-use crate::roots::canonical_conductor;
 use crate::size::product_bytes;
 use crate::structure::{key3, key4, FBlock, FSource};
 use crate::theory::Theory;
+use cyclorb_field::canonical_conductor;
 
 /// The Deligne product A ⊠ B: labels are pairs (a, b) with index a·rank(B) + b and name
 /// "a*b"; N, F, R, θ, d and vertex weights multiply, S = S_A ⊗ S_B, c adds. The field is
@@ -70,10 +71,10 @@ pub fn product(left: &Theory, right: &Theory) -> Result<Theory, TheoryError> {
             }
         }
         RawStructure::Braided {
-            f: RawF::Lazy(FSource::Product {
+            f: RawF::Lazy(FSource::Computed(Arc::new(ProductBlocks {
                 left: Arc::new(left.clone()),
                 right: Arc::new(right.clone()),
-            }),
+            }))),
             r,
             weights,
         }
@@ -135,10 +136,10 @@ pub fn galois(theory: &Theory, k: i64) -> Result<Theory, TheoryError> {
         .collect::<Result<Vec<_>, _>>()?;
     let structure = match &theory.braiding {
         Some(braiding) => RawStructure::Braided {
-            f: RawF::Lazy(FSource::Galois {
+            f: RawF::Lazy(FSource::Computed(Arc::new(GaloisBlocks {
                 base: Arc::new(theory.clone()),
                 k,
-            }),
+            }))),
             r: braiding
                 .r
                 .iter()
@@ -247,10 +248,10 @@ pub fn spherical_twist(theory: &Theory, odd: &[bool]) -> Result<Theory, TheoryEr
         twists: signed(theory.twists()),
         structure: RawStructure::Braided {
             // σ_1 is the identity: the blocks are the base's.
-            f: RawF::Lazy(FSource::Galois {
+            f: RawF::Lazy(FSource::Computed(Arc::new(GaloisBlocks {
                 base: Arc::new(theory.clone()),
                 k: 1,
-            }),
+            }))),
             r: braiding.r.clone(),
             weights: theory.weights.clone(),
         },

@@ -3,10 +3,9 @@
 
 use std::sync::{Arc, OnceLock};
 
-use cyclorb_field::Cyc;
+use cyclorb_field::{Cyc, CyclotomicField};
 use hashbrown::HashMap;
 
-use crate::builtins::su2::Su2Racah;
 use crate::fmatrix::FMatrix;
 use crate::theory::Theory;
 
@@ -18,20 +17,57 @@ pub(crate) struct FBlock {
     pub inverse: Option<FMatrix>,
 }
 
-/// Where F-blocks that are not stored come from. Computed blocks are cached in the theory.
+/// A source of the F-blocks a theory does not store: a formula (the q-Racah formula of
+/// SU(2)_k in `builtins::su2`) or other theories (Deligne products and Galois conjugates in
+/// `composite`). The storage here and the lazy filling in `lazy` know only this trait, so
+/// built-ins and operations depend on the core and never the reverse.
+pub(crate) trait FBlockSource: std::fmt::Debug + Send + Sync {
+    /// [F^{abc}_d] for `labels` = (a, b, c, d) and its inverse, in `field`; `rows` and
+    /// `cols` are the admissible intermediate labels e and f, in increasing order.
+    fn block(
+        &self,
+        field: &CyclotomicField,
+        labels: (usize, usize, usize, usize),
+        rows: Vec<usize>,
+        cols: Vec<usize>,
+    ) -> FBlock;
+
+    /// The theories this source builds the F- and R-symbols from (empty for a formula).
+    fn building_blocks(&self) -> Vec<&Theory> {
+        Vec::new()
+    }
+
+    /// The factors (A, B) when the blocks are those of a Deligne product A ⊠ B.
+    fn deligne_factors(&self) -> Option<(&Theory, &Theory)> {
+        None
+    }
+}
+
+/// Where F-blocks come from. Computed blocks are cached in the theory.
 #[derive(Clone, Debug)]
 pub(crate) enum FSource {
     /// Every block was filled at construction.
     Stored,
-    /// The q-Racah formula of SU(2)_k (also its integer-spin part).
-    Su2(Arc<Su2Racah>),
-    /// Deligne product: blocks are Kronecker products of the factors' blocks.
-    Product {
-        left: Arc<Theory>,
-        right: Arc<Theory>,
-    },
-    /// Galois conjugate σ_k of a theory in the same field.
-    Galois { base: Arc<Theory>, k: i64 },
+    /// Blocks are computed on first use from this source.
+    Computed(Arc<dyn FBlockSource>),
+}
+
+impl FSource {
+    /// The theories the blocks are built from (empty for stored blocks and formulas).
+    pub(crate) fn building_blocks(&self) -> Vec<&Theory> {
+        match self {
+            FSource::Stored => Vec::new(),
+            FSource::Computed(source) => source.building_blocks(),
+        }
+    }
+
+    /// The factors (A, B) when the blocks are those of a Deligne product A ⊠ B.
+    pub(crate) fn deligne_factors(&self) -> Option<(&Theory, &Theory)> {
+        match self {
+            FSource::Stored => None,
+            FSource::Computed(source) => source.deligne_factors(),
+        }
+    }
 }
 
 /// F- and R-symbols of a multiplicity-free theory.

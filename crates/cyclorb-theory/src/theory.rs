@@ -10,7 +10,7 @@ use hashbrown::HashMap;
 
 use crate::fmatrix::FMatrix;
 use crate::fusion::FusionRules;
-use crate::structure::{key3, key4, Braiding, FBlock, FSource};
+use crate::structure::{key3, key4, Braiding, FBlock};
 
 /// A modular tensor category over Q(ζ_n), in the conventions of docs/conventions.md §2–3:
 /// labels 0..rank (0 the vacuum) with names, duals, fusion rules, F- and R-symbols in a
@@ -124,10 +124,7 @@ impl Theory {
     /// for any other theory (a Galois conjugate or regauging of a product included). A
     /// factor is the theory as it entered the product, with its own spherical structure.
     pub fn deligne_factors(&self) -> Option<(&Theory, &Theory)> {
-        match &self.braiding.as_ref()?.source {
-            FSource::Product { left, right } => Some((left, right)),
-            _ => None,
-        }
+        self.braiding.as_ref()?.source.deligne_factors()
     }
 
     fn block(&self, a: usize, b: usize, c: usize, d: usize) -> Option<&FBlock> {

@@ -2,8 +2,9 @@
 
 use std::cmp::Ordering;
 
+use cyclorb_field::{real_sign, root_of_unity};
 use cyclorb_field::{Cyc, CyclotomicField, Rational};
-use cyclorb_theory::{parse_spec, real_sign, root_of_unity, Theory};
+use cyclorb_theory::{parse_spec, Theory};
 use num_bigint::BigInt;
 
 fn load(spec: &str) -> Theory {

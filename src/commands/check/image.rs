@@ -95,13 +95,9 @@ pub fn enumeration(
 
 /// FNV-1a (64 bits) of the images as little-endian 32-bit words, as 16 hexadecimal digits.
 fn digest(perm: &[u32]) -> String {
-    let h = perm
-        .iter()
-        .flat_map(|x| x.to_le_bytes())
-        .fold(0xcbf2_9ce4_8422_2325u64, |h, b| {
-            (h ^ u64::from(b)).wrapping_mul(0x0000_0100_0000_01b3)
-        });
-    format!("{h:016x}")
+    let mut h = cyclorb_field::Fnv64::new();
+    h.write(perm.iter().flat_map(|x| x.to_le_bytes()));
+    h.hex()
 }
 
 /// The orbit of point 0 under the permutations, by a plain search.

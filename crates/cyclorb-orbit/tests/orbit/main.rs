@@ -6,6 +6,8 @@ mod common;
 mod formats;
 mod groups;
 mod ising;
+#[path = "../../../../tests/outside/mod.rs"]
+mod outside;
 mod poincare;
 mod products;
 mod runs;

@@ -6,6 +6,7 @@ use cyclorb_matrix::{Matrix, Operator};
 use cyclorb_orbit::{GeneratorSet, OrbitProblem, OrbitReport};
 
 use crate::common::*;
+use crate::outside;
 
 /// Ising's (T, S) in the basis v = D v': X' = D⁻¹ X D, invariant form G = D† D.
 fn ising_in_gauge(f: &CyclotomicField, d: &[Cyc]) -> GeneratorSet {
@@ -26,16 +27,17 @@ fn ising_in_gauge(f: &CyclotomicField, d: &[Cyc]) -> GeneratorSet {
 
 #[test]
 fn non_orthonormal_gauge_gives_lambda_times_inverse_form() {
-    // B' = D⁻¹ B D⁻† = 8 (D† D)⁻¹ = 8 G⁻¹ when B = 8 I (Castro et al., Phys. Rev. D 85 (2012)
-    // 024032, for B; the change of basis is linear algebra).
+    // B' = D⁻¹ B D⁻† = 8 (D† D)⁻¹ = 8 G⁻¹ when B = 8 I (fixtures/outside.toml: Castro et
+    // al., Phys. Rev. D 85 (2012) 024032, for B; the change of basis is linear algebra).
+    let published = outside::orbit("ising", 1);
     let f = field(16);
     let d = [parse(&f, "1"), parse(&f, "1 + z"), parse(&f, "3")];
     let g = ising_in_gauge(&f, &d);
     let problem = OrbitProblem::new(g.clone(), &vacuum(&g)).unwrap();
     let orbit = run(&problem, 2, 5);
-    assert_eq!(orbit.len(), 24);
+    assert_eq!(orbit.len() as u64, published.lines);
     let sum = problem.poincare_sum(&orbit, 2).unwrap();
-    assert_eq!(sum.scalar, Some(f.int(8)));
+    assert_eq!(sum.scalar, Some(parse(&f, &published.prefactor)));
     assert!(sum.trace_check);
     let g_inv: Vec<Cyc> = g
         .form

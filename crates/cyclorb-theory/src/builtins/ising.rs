@@ -11,9 +11,9 @@ use crate::arith::SameField;
 use crate::assemble::{assemble, blocks_from_entries, RawF, RawStructure, RawTheory};
 use crate::error::TheoryError;
 use crate::fusion::FusionRules;
-use crate::roots::root_of_unity;
 use crate::structure::key3;
 use crate::theory::Theory;
+use cyclorb_field::root_of_unity;
 
 const ONE: usize = 0;
 const SIGMA: usize = 1;

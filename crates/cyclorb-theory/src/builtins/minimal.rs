@@ -19,8 +19,8 @@ use crate::arith::SameField;
 use crate::assemble::{assemble, RawStructure, RawTheory};
 use crate::error::TheoryError;
 use crate::fusion::FusionRules;
-use crate::roots::{root_of_unity, root_of_unity_at};
 use crate::theory::Theory;
+use cyclorb_field::{root_of_unity, root_of_unity_at};
 
 /// Largest p·p′ accepted (the field has conductor 8pp′).
 pub const MAX_PRODUCT: i64 = 600;

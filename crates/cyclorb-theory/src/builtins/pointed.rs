@@ -13,9 +13,9 @@ use num_integer::Integer;
 use crate::assemble::{assemble, blocks_from_entries, RawF, RawStructure, RawTheory};
 use crate::error::TheoryError;
 use crate::fusion::FusionRules;
-use crate::roots::{canonical_conductor, root_of_unity};
 use crate::structure::key3;
 use crate::theory::Theory;
+use cyclorb_field::{canonical_conductor, root_of_unity};
 
 /// Largest N accepted by `zn:N:P`.
 pub const MAX_ORDER: i64 = 64;

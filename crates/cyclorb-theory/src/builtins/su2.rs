@@ -29,9 +29,9 @@ use crate::assemble::{assemble, conductor_for, RawF, RawStructure, RawTheory};
 use crate::error::TheoryError;
 use crate::fmatrix::FMatrix;
 use crate::fusion::FusionRules;
-use crate::roots::{canonical_conductor, root_of_unity};
-use crate::structure::{key3, FBlock, FSource};
+use crate::structure::{key3, FBlock, FBlockSource, FSource};
 use crate::theory::Theory;
+use cyclorb_field::{canonical_conductor, root_of_unity};
 
 /// Largest level accepted by `su2:K` and `so3:K`.
 pub const MAX_LEVEL: u32 = 60;
@@ -228,7 +228,7 @@ impl Su2Racah {
     }
 
     /// The block [F^{abc}_d] (label indices) and its inverse, in `target`.
-    pub(crate) fn block(
+    fn racah_block(
         &self,
         target: &CyclotomicField,
         labels: (usize, usize, usize, usize),
@@ -365,7 +365,7 @@ fn build(name: String, level: u32, spins: Vec<u32>) -> Result<Theory, TheoryErro
         dims: sk.dims,
         twists: sk.twists,
         structure: RawStructure::Braided {
-            f: RawF::Lazy(FSource::Su2(std::sync::Arc::new(racah))),
+            f: RawF::Lazy(FSource::Computed(std::sync::Arc::new(racah))),
             r,
             weights,
         },
@@ -400,4 +400,17 @@ pub fn so3(level: u32) -> Result<Theory, TheoryError> {
         });
     }
     build(name, level, (0..level).step_by(2).collect())
+}
+
+/// The q-Racah formula as the theory's source of F-blocks (also for the integer-spin part).
+impl FBlockSource for Su2Racah {
+    fn block(
+        &self,
+        field: &CyclotomicField,
+        labels: (usize, usize, usize, usize),
+        rows: Vec<usize>,
+        cols: Vec<usize>,
+    ) -> FBlock {
+        self.racah_block(field, labels, rows, cols)
+    }
 }

@@ -17,7 +17,6 @@ use std::fmt;
 use cyclorb_field::FieldError;
 use serde::Serialize;
 
-use crate::structure::FSource;
 use crate::theory::Theory;
 
 /// The checks, in the order they run.
@@ -270,11 +269,10 @@ fn inherited(id: CheckId) -> bool {
 /// The theories a composite theory's F- and R-symbols are built from (empty for a theory
 /// whose data are its own).
 fn building_blocks(theory: &Theory) -> Vec<&Theory> {
-    match theory.braiding.as_ref().map(|b| &b.source) {
-        Some(FSource::Product { left, right }) => vec![left.as_ref(), right.as_ref()],
-        Some(FSource::Galois { base, .. }) => vec![base.as_ref()],
-        _ => Vec::new(),
-    }
+    theory
+        .braiding
+        .as_ref()
+        .map_or_else(Vec::new, |b| b.source.building_blocks())
 }
 
 /// Refuse, before any F-symbol is computed, a verification whose F-symbols would pass the

@@ -13,7 +13,7 @@ use crate::digest::permutation_digest;
 use crate::error::{require, CertError};
 use crate::generators::GeneratorSet;
 use crate::line_keys::induced_permutations;
-use crate::lines::LineSet;
+use crate::line_set::LineSet;
 use crate::perm::orbit;
 use crate::schreier_sims::StabiliserChain;
 

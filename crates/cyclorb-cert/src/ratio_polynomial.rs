@@ -19,7 +19,7 @@ use hashbrown::HashSet;
 use num_bigint::BigInt;
 
 use crate::error::CertError;
-use crate::poly::{from_rationals, IntPoly};
+use cyclorb_field::int_poly::{from_rationals, IntPoly};
 
 /// Power sums p_1, …, p_count of the roots of the monic f = x^m + c_1 x^{m−1} + … + c_m
 /// (given constant term first), by Newton's identities:

@@ -1,6 +1,6 @@
 //! Roots of unity exp(2πi·p/q) inside a field Q(ζ_n), and conductor bookkeeping.
 
-use cyclorb_field::{Cyc, CyclotomicField, Rational};
+use crate::{Cyc, CyclotomicField, Rational};
 use num_integer::Integer;
 use num_traits::ToPrimitive;
 

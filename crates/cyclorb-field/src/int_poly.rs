@@ -1,4 +1,4 @@
-//! Exact univariate polynomials with integer coefficients, constant term first, kept
+//! Exact univariate polynomials with integer coefficients (`BigInt`, no size limit), constant term first, kept
 //! trimmed (no zero leading coefficient; the zero polynomial is empty): products, exact
 //! division by monic polynomials, primitive parts, cyclotomic polynomials and evaluation
 //! modulo a prime. Rational polynomials enter through [`from_rationals`], which clears
@@ -9,13 +9,13 @@ use num_bigint::BigInt;
 use num_integer::Integer;
 use num_traits::{One, Signed, ToPrimitive, Zero};
 
-use cyclorb_field::numtheory::moebius;
+use crate::numtheory::moebius;
 
 /// A polynomial over Z, constant term first, trimmed.
-pub(crate) type IntPoly = Vec<BigInt>;
+pub type IntPoly = Vec<BigInt>;
 
 /// Drop zero leading coefficients.
-pub(crate) fn trim(mut p: IntPoly) -> IntPoly {
+pub fn trim(mut p: IntPoly) -> IntPoly {
     while p.last().is_some_and(Zero::is_zero) {
         p.pop();
     }
@@ -23,12 +23,12 @@ pub(crate) fn trim(mut p: IntPoly) -> IntPoly {
 }
 
 /// The degree (0 for constants, and for the zero polynomial by convention).
-pub(crate) fn degree(p: &[BigInt]) -> usize {
+pub fn degree(p: &[BigInt]) -> usize {
     p.len().saturating_sub(1)
 }
 
 /// a·b.
-pub(crate) fn mul(a: &[BigInt], b: &[BigInt]) -> IntPoly {
+pub fn mul(a: &[BigInt], b: &[BigInt]) -> IntPoly {
     if a.is_empty() || b.is_empty() {
         return Vec::new();
     }
@@ -45,7 +45,7 @@ pub(crate) fn mul(a: &[BigInt], b: &[BigInt]) -> IntPoly {
 }
 
 /// p / m when the monic polynomial m divides p exactly, `None` otherwise.
-pub(crate) fn div_exact_monic(p: &[BigInt], m: &[BigInt]) -> Option<IntPoly> {
+pub fn div_exact_monic(p: &[BigInt], m: &[BigInt]) -> Option<IntPoly> {
     let dm = m.len().checked_sub(1)?;
     if !m[dm].is_one() {
         return None;
@@ -69,7 +69,7 @@ pub(crate) fn div_exact_monic(p: &[BigInt], m: &[BigInt]) -> Option<IntPoly> {
 }
 
 /// The primitive part: divided by the gcd of the coefficients, leading coefficient positive.
-pub(crate) fn primitive_part(p: IntPoly) -> IntPoly {
+pub fn primitive_part(p: IntPoly) -> IntPoly {
     let p = trim(p);
     let Some(lead) = p.last() else {
         return p;
@@ -86,7 +86,7 @@ pub(crate) fn primitive_part(p: IntPoly) -> IntPoly {
 
 /// The primitive integer polynomial proportional to Σ (num_k/den_k) x^k (denominators
 /// positive); empty for the zero polynomial.
-pub(crate) fn from_rationals(coefficients: &[(BigInt, BigInt)]) -> IntPoly {
+pub fn from_rationals(coefficients: &[(BigInt, BigInt)]) -> IntPoly {
     let common = coefficients
         .iter()
         .fold(BigInt::one(), |l, (_, d)| l.lcm(d));
@@ -97,32 +97,46 @@ pub(crate) fn from_rationals(coefficients: &[(BigInt, BigInt)]) -> IntPoly {
     primitive_part(scaled)
 }
 
-/// The cyclotomic polynomial Φ_m = Π_{d | m} (x^d − 1)^{μ(m/d)}: the factors with
-/// μ = +1 multiplied, then those with μ = −1 divided out exactly (they are monic).
-pub(crate) fn cyclotomic(m: u64) -> IntPoly {
-    let binomial = |d: u64| -> IntPoly {
-        let mut p = vec![BigInt::zero(); d as usize + 1];
-        p[0] = -BigInt::one();
-        p[d as usize] = BigInt::one();
-        p
-    };
-    let divisors: Vec<u64> = (1..=m).filter(|d| m % d == 0).collect();
+/// The cyclotomic polynomial Φ_m = Π_{d | m} (x^d − 1)^{μ(m/d)} (m ≥ 1), constant term
+/// first, of degree φ(m): the factors with μ = +1 multiplied, then those with μ = −1
+/// divided out exactly. Both steps are sparse (x^d − 1 has two terms), so the cost is
+/// O(τ(m)·m) big-integer additions. The one computation of Φ_m in the workspace (the field
+/// context reads its reduction tables off it, certificates strip cyclotomic factors).
+pub fn cyclotomic(m: u64) -> IntPoly {
+    let divisors: Vec<usize> = (1..=m).filter(|d| m % d == 0).map(|d| d as usize).collect();
     let mut acc: IntPoly = vec![BigInt::one()];
     for &d in &divisors {
-        if moebius(m / d) == 1 {
-            acc = mul(&acc, &binomial(d));
+        if moebius(m / d as u64) == 1 {
+            // acc·(x^d − 1): coefficient k is acc_{k−d} − acc_k
+            let mut next = vec![BigInt::zero(); acc.len() + d];
+            for (k, c) in acc.iter().enumerate() {
+                next[k + d] += c;
+                next[k] -= c;
+            }
+            acc = next;
         }
     }
     for &d in &divisors {
-        if moebius(m / d) == -1 {
-            acc = div_exact_monic(&acc, &binomial(d)).expect("Φ_m is a polynomial");
+        if moebius(m / d as u64) == -1 {
+            // q·(x^d − 1) = acc reads q_{k−d} = acc_k + q_k from the top down
+            let len = acc.len() - d;
+            let mut q = vec![BigInt::zero(); len];
+            for k in (d..acc.len()).rev() {
+                let above = if k < len {
+                    q[k].clone()
+                } else {
+                    BigInt::zero()
+                };
+                q[k - d] = &acc[k] + above;
+            }
+            acc = q;
         }
     }
-    acc
+    trim(acc)
 }
 
 /// p(x) mod q for a prime q < 2^63 and x < q.
-pub(crate) fn eval_mod(p: &[BigInt], x: u64, q: u64) -> u64 {
+pub fn eval_mod(p: &[BigInt], x: u64, q: u64) -> u64 {
     let modulus = BigInt::from(q);
     p.iter().rev().fold(0u64, |acc, c| {
         let c = c.mod_floor(&modulus).to_u64().expect("reduced below q");
@@ -131,12 +145,12 @@ pub(crate) fn eval_mod(p: &[BigInt], x: u64, q: u64) -> u64 {
 }
 
 /// Integer coefficients as decimal strings.
-pub(crate) fn to_strings(p: &[BigInt]) -> Vec<String> {
+pub fn to_strings(p: &[BigInt]) -> Vec<String> {
     p.iter().map(ToString::to_string).collect()
 }
 
 /// Decimal strings back to a trimmed polynomial; `None` on a malformed number.
-pub(crate) fn from_strings(texts: &[String]) -> Option<IntPoly> {
+pub fn from_strings(texts: &[String]) -> Option<IntPoly> {
     texts
         .iter()
         .map(|t| t.parse::<BigInt>().ok())
@@ -154,8 +168,10 @@ mod tests {
 
     #[test]
     fn cyclotomic_polynomials() {
-        // Φ_1 = x − 1, Φ_6 = x² − x + 1, Φ_12 = x⁴ − x² + 1 (textbook values; common practice)
+        // Φ_1 = x − 1, Φ_4 = x² + 1, Φ_6 = x² − x + 1, Φ_12 = x⁴ − x² + 1 (textbook values;
+        // common practice)
         assert_eq!(cyclotomic(1), ints(&[-1, 1]));
+        assert_eq!(cyclotomic(4), ints(&[1, 0, 1]));
         assert_eq!(cyclotomic(6), ints(&[1, -1, 1]));
         assert_eq!(cyclotomic(12), ints(&[1, 0, -1, 0, 1]));
         // Φ_105 is the first with a coefficient outside {0, ±1}: −2 at x⁷ and x⁴¹

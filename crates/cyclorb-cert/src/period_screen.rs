@@ -15,7 +15,7 @@ use cyclorb_matrix::{Matrix, MatrixError, ModpMatrix};
 
 use crate::error::CertError;
 use crate::generators::GeneratorSet;
-use crate::words::Xorshift;
+use crate::witness_words::Xorshift;
 
 /// Primes used by the screen.
 const SCREEN_PRIMES: usize = 2;

@@ -17,7 +17,7 @@
 
 use std::cmp::Ordering;
 
-use cyclorb_field::{Cyc, CyclotomicField};
+use crate::{Cyc, CyclotomicField};
 use num_bigint::BigInt;
 use num_integer::Integer;
 use num_traits::{Signed, Zero};
