@@ -14,7 +14,6 @@
 use cyclorb_field::Cyc;
 
 use crate::digest::Sha256;
-use crate::structure::FSource;
 use crate::theory::Theory;
 
 fn number(x: &Cyc) -> String {
@@ -111,18 +110,12 @@ fn r_and_weights(h: &mut Lines, t: &Theory) {
 /// differently, which only costs a recomputation where the hash is a cache key (the sweep).
 /// It never fills the product's own F-blocks.
 pub(crate) fn construction_hash(t: &Theory) -> String {
-    let source = match t.braiding.as_ref().map(|b| &b.source) {
-        Some(FSource::Product { left, right }) => {
-            format!(
-                "F product {} {}",
-                left.construction_hash(),
-                right.construction_hash()
-            )
-        }
-        Some(FSource::Galois { base, k }) => {
-            format!("F galois {k} {}", base.construction_hash())
-        }
-        _ => return t.data_hash(),
+    let Some(source) = t
+        .braiding
+        .as_ref()
+        .and_then(|b| b.source.construction_line())
+    else {
+        return t.data_hash();
     };
     let mut h = Lines(Sha256::new());
     h.line("cyclorb-theory-construction/1");

@@ -52,6 +52,14 @@ impl FBlockSource for ProductBlocks {
     fn deligne_factors(&self) -> Option<(&Theory, &Theory)> {
         Some((self.left.as_ref(), self.right.as_ref()))
     }
+
+    fn construction_line(&self) -> Option<String> {
+        Some(format!(
+            "F product {} {}",
+            self.left.construction_hash(),
+            self.right.construction_hash()
+        ))
+    }
 }
 
 /// Galois conjugate σ_k of a theory in the same field: [F^{abc}_d] ↦ σ_k([F^{abc}_d]).
@@ -85,6 +93,14 @@ impl FBlockSource for GaloisBlocks {
 
     fn building_blocks(&self) -> Vec<&Theory> {
         vec![self.base.as_ref()]
+    }
+
+    fn construction_line(&self) -> Option<String> {
+        Some(format!(
+            "F galois {} {}",
+            self.k,
+            self.base.construction_hash()
+        ))
     }
 }
 

@@ -41,6 +41,13 @@ pub(crate) trait FBlockSource: std::fmt::Debug + Send + Sync {
     fn deligne_factors(&self) -> Option<(&Theory, &Theory)> {
         None
     }
+
+    /// How the blocks follow from other theories, as the line of the construction hash
+    /// (`F product LEFT RIGHT`, `F galois k BASE` with the building blocks' construction
+    /// hashes); `None` when the blocks are the theory's own (a formula).
+    fn construction_line(&self) -> Option<String> {
+        None
+    }
 }
 
 /// Where F-blocks come from. Computed blocks are cached in the theory.
@@ -66,6 +73,14 @@ impl FSource {
         match self {
             FSource::Stored => None,
             FSource::Computed(source) => source.deligne_factors(),
+        }
+    }
+
+    /// The construction line of the blocks (see [`FBlockSource::construction_line`]).
+    pub(crate) fn construction_line(&self) -> Option<String> {
+        match self {
+            FSource::Stored => None,
+            FSource::Computed(source) => source.construction_line(),
         }
     }
 }
