@@ -226,6 +226,12 @@ impl DwSpace {
         &self.twists
     }
 
+    /// The phases of a twisted theory: per generator (in the order of `twists`), the
+    /// exponent of ζ_{N²} in each row; `None` when untwisted.
+    pub fn phases(&self) -> Option<&[Vec<u32>]> {
+        self.twisting.as_ref().map(|t| t.phases.as_slice())
+    }
+
     /// |X_g|.
     pub fn dimension(&self) -> usize {
         self.bundles.len()
@@ -674,7 +680,7 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
 
 /// The generators as named permutations of X_g, as certificates list them, with the
 /// exponents of ζ_{N²} of each row when twisted.
-fn generator_images(space: &DwSpace) -> Vec<Value> {
+pub fn generator_images(space: &DwSpace) -> Vec<Value> {
     space
         .twists
         .iter()
