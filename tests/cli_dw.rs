@@ -124,6 +124,42 @@ fn double_semion_agrees_with_the_pointed_product() {
 }
 
 #[test]
+fn describe_gives_the_double_semion_data() {
+    // the double semion: the boson 1, the semion (θ = i), the anti-semion (θ = −i) and their
+    // bound state (θ = 1), S = S_semion ⊗ conj(S_semion) with entries ±1/2, c ≡ 0 (mod 8)
+    // (Levin–Wen, Phys. Rev. B 71 (2005); common practice)
+    let (code, v) = cyclorb_json(&["describe", "dw:Z2:1"]);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["conductor"], 4);
+    // `z` is ζ_4 = i in Q(ζ_4)
+    let twists: Vec<&str> = ["(0,0)", "(0,1)", "(1,0)", "(1,1)"]
+        .iter()
+        .map(|l| v["twists"][l].as_str().unwrap())
+        .collect();
+    assert_eq!(twists, ["1", "1", "z", "-z"]);
+    assert_eq!(v["central_charge_mod_8"], "0");
+    assert_eq!(v["quantum_dimensions"], serde_json::json!([1, 1, 1, 1]));
+    for row in v["S"].as_array().unwrap() {
+        for x in row.as_array().unwrap() {
+            assert!(x == "1/2" || x == "-1/2", "{v}");
+        }
+    }
+    // every anyon is its own dual (fusion group Z_2 × Z_2)
+    assert_eq!(v["duals"]["(1,0)"], "(1,0)");
+    assert_eq!(
+        v["dimensions_by_genus"],
+        serde_json::json!(["4", "16", "64"])
+    );
+    // the cocycle ω_1(1, 1, 1) = exp(2πi·1·1·2/4) = −1 (the formula of de Wild Propitius 1995)
+    assert_eq!(v["cocycle"]["exponents"][1][1][1], 2);
+    // D^{ω_1}(Z_3): the flux (1, 0) has θ = ζ_9 (spins ζ_9^{p k²}, de Wild Propitius 1995, from
+    // memory), in Q(ζ_9) written `z`
+    let (code, v) = cyclorb_json(&["describe", "dw:Z3:1"]);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["twists"]["(1,0)"], "z");
+}
+
+#[test]
 fn twisted_z3_agrees_with_the_pointed_z9_theories() {
     // D^{ω_p}(Z_3) is pointed with fusion group Z_9 (the flux (1, 0) has order 9) and
     // spins θ(k) = ζ_9^{p k²} (de Wild Propitius, thesis 1995, ch. 3, from memory), i.e.

@@ -41,17 +41,6 @@ pub fn is_dw(spec: &str) -> bool {
     spec.starts_with(PREFIX)
 }
 
-/// The group of `dw:NAME` (a built-in) or `dw:PATH` (a group file, see `cyclorb theories`);
-/// the twisted `dw:ZN:P` are refused here (see [`theory_of`]).
-pub fn group_of(spec: &str) -> Result<FiniteGroup, String> {
-    match theory_of(spec)? {
-        (group, None) => Ok(group),
-        (_, Some(_)) => Err(format!(
-            "{spec}: the modular data of the twisted theory are not computed from characters; `cyclorb twists {spec} --genus 1` shows its generators"
-        )),
-    }
-}
-
 /// The group and, for `dw:ZN:P`, the cocycle ω_p of the twisted theory D^{ω_p}(Z_N).
 pub fn theory_of(spec: &str) -> Result<(FiniteGroup, Option<CyclicCocycle>), String> {
     let rest = spec.strip_prefix(PREFIX).unwrap_or(spec);
@@ -778,8 +767,11 @@ pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
 /// total dimension D = |G|, dim V_g for g = 1, 2, 3, and S and T of D(G) from the
 /// centralisers' characters (cyclorb-dw's `modular_data`), in Q(ζ_e), e the exponent of G.
 pub fn describe(spec: &str, as_json: bool) -> Outcome {
-    let group = match group_of(spec) {
-        Ok(g) => g,
+    let group = match theory_of(spec) {
+        Ok((g, None)) => g,
+        Ok((g, Some(cocycle))) => {
+            return super::dw_describe::describe_twisted(spec, &g, &cocycle, as_json)
+        }
         Err(e) => return Outcome::Invalid(e),
     };
     let classes = conjugacy_classes(&group);
