@@ -300,7 +300,7 @@ fn sweeps_read_dw_specs() {
     let plan = dir.join("plan.toml");
     std::fs::write(
         &plan,
-        "name = \"dw-small\"\nthreads = 1\nanswers = [\"orbit\", \"image\", \"commutant\", \"witness\"]\n\n[[theory]]\nspec = \"dw:Z2\"\ngenera = [1, 2]\n\n[[theory]]\nspec = \"dw:S3\"\ngenera = [1]\n\n[[theory]]\nspec = \"dw:Z2:1\"\ngenera = [1]\n",
+        "name = \"dw-small\"\nthreads = 1\nanswers = [\"orbit\", \"image\", \"commutant\", \"witness\"]\n\n[[theory]]\nspec = \"dw:Z2\"\ngenera = [1, 2]\n\n[[theory]]\nspec = \"dw:S3\"\ngenera = [1]\n\n[[theory]]\nspec = \"dw:Z2:1\"\ngenera = [1]\n\n[[theory]]\nspec = \"dw:S3\"\nlabel = \"S3 counted\"\ngenera = [1, 2]\nmethod = \"structure\"\n",
     )
     .unwrap();
     let out = dir.join("out");
@@ -312,7 +312,7 @@ fn sweeps_read_dw_specs() {
     ]);
     assert_eq!(code, 0, "{v}");
     let runs = v["runs"].as_array().unwrap();
-    assert_eq!(runs.len(), 4);
+    assert_eq!(runs.len(), 6);
     let find = |theory: &str, genus: u64| {
         runs.iter()
             .find(|r| r["theory"] == theory && r["genus"] == genus)
@@ -338,6 +338,47 @@ fn sweeps_read_dw_specs() {
     assert_eq!(ds["commutant"]["commutant_dimension"], 2);
     assert_eq!(ds["poincare_sum"]["trace_check"], true, "{ds}");
     assert!(ds["errors"].as_array().is_none_or(|e| e.is_empty()), "{ds}");
+    // method = "structure": the orbit counted as |P| / |Stab_P(S)| equals the listed one
+    // (38 400 at genus 2, as `orbit` lists it), with the image order of `image` and B from
+    // the orbitals (the same 27 orbitals as the listing route)
+    for genus in [1, 2] {
+        let counted = runs
+            .iter()
+            .find(|r| r["id"] == format!("s3-counted-g{genus}"))
+            .unwrap();
+        assert_eq!(
+            counted["orbit_size"],
+            orbit("dw:S3", genus)["orbit_size"],
+            "{counted}"
+        );
+        assert_eq!(counted["counted"]["kind"], "dw-vacuum-set-stabiliser");
+        assert_eq!(counted["image"]["order"], image_order("dw:S3", genus));
+        assert_eq!(counted["poincare_sum"]["trace_check"], true, "{counted}");
+    }
+    let counted = runs.iter().find(|r| r["id"] == "s3-counted-g2").unwrap();
+    assert_eq!(counted["commutant"]["commutant_dimension"], 27);
+    assert_eq!(counted["poincare_sum"]["commutant_dimension"], 27);
+    let summary = std::fs::read_to_string(out.join("summary.md")).unwrap();
+    assert!(summary.contains("38400 (counted)"), "{summary}");
+    // the counting route in a sweep is for untwisted dw: theories; a plan asking it of
+    // another theory is refused before anything runs, naming the entry
+    std::fs::write(
+        &plan,
+        "[[theory]]\nspec = \"dw:Z2:1\"\ngenera = [1]\nmethod = \"structure\"\n",
+    )
+    .unwrap();
+    let run = cyclorb(&[
+        "sweep",
+        plan.to_str().unwrap(),
+        "--out",
+        out.to_str().unwrap(),
+    ]);
+    assert_eq!(run.status.code(), Some(1));
+    let stderr = String::from_utf8_lossy(&run.stderr);
+    assert!(
+        stderr.contains("plan.toml:2") && stderr.contains("untwisted"),
+        "{stderr}"
+    );
     std::fs::remove_dir_all(&dir).ok();
 }
 
