@@ -842,17 +842,7 @@ pub fn describe(spec: &str, as_json: bool) -> Outcome {
                 "modular data in Q(ζ_{conductor}) from the centralisers' characters (Coste–Gannon–Ruelle 2000):\n"
             ));
             text.push_str(&format!("T = diag({})\n", t_diag.join(", ")));
-            if labels.len() <= MATRIX_PRINT_LIMIT / 4 {
-                text.push_str("S (normalised, rows and columns in label order):\n");
-                for row in &s_rows {
-                    text.push_str(&format!("  [{}]\n", row.join(", ")));
-                }
-            } else {
-                text.push_str(&format!(
-                    "S has {0}×{0} entries: --json prints them\n",
-                    labels.len()
-                ));
-            }
+            text.push_str(&s_text(&s_rows, MATRIX_PRINT_LIMIT / 4));
             (json!(s_rows), json!(t_diag), json!(conductor))
         }
         Err(DwError::TooLarge(reason)) => {
@@ -877,6 +867,18 @@ pub fn describe(spec: &str, as_json: bool) -> Outcome {
         "T": t_diag,
     });
     Outcome::Done(Report::new(value, text, as_json))
+}
+
+/// S as text: row by row up to `limit` labels, else a pointer to `--json`.
+pub fn s_text(s_rows: &[Vec<String>], limit: usize) -> String {
+    if s_rows.len() > limit {
+        return format!("S has {0}×{0} entries: --json prints them\n", s_rows.len());
+    }
+    let mut text = String::from("S (normalised, rows and columns in label order):\n");
+    for row in s_rows {
+        text.push_str(&format!("  [{}]\n", row.join(", ")));
+    }
+    text
 }
 
 /// S and T of D(G) as printed: exact values in Q(ζ_conductor).

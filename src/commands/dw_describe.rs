@@ -6,6 +6,7 @@
 use cyclorb_dw::{fuse, twisted_modular_data, CyclicCocycle, FiniteGroup};
 use serde_json::json;
 
+use super::dw::s_text;
 use super::output::{Outcome, Report};
 
 /// Largest N whose table of ω_p(a, b, c) is printed in the text (N³ values).
@@ -98,17 +99,7 @@ pub fn describe_twisted(
             .collect::<Vec<_>>()
             .join(", ")
     ));
-    if labels.len() <= S_PRINT_LIMIT {
-        text.push_str("S (normalised, rows and columns in label order):\n");
-        for row in &s_rows {
-            text.push_str(&format!("  [{}]\n", row.join(", ")));
-        }
-    } else {
-        text.push_str(&format!(
-            "S has {0}×{0} entries: --json prints them\n",
-            labels.len()
-        ));
-    }
+    text.push_str(&s_text(&s_rows, S_PRINT_LIMIT));
     let value = json!({
         "theory": spec,
         "group": group.name(),

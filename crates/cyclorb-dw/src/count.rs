@@ -233,12 +233,9 @@ pub fn count_vacuum_orbit(
         }
     };
     let x = bundles.len();
-    if x > limits.max_chain_states {
-        let reason = format!(
-            "Schreier–Sims with every state a base point is not attempted on {x} states (more than {})",
-            limits.max_chain_states
-        );
-        return bounds(
+    // bounds from the complete Ω when the chain or the search is not run to the end
+    let stopped = |reason: String| {
+        bounds(
             bundles,
             generators,
             &vacuum,
@@ -246,7 +243,14 @@ pub fn count_vacuum_orbit(
             (0, parts.len()),
             reason,
             limits,
+        )
+    };
+    if x > limits.max_chain_states {
+        let reason = format!(
+            "Schreier–Sims with every state a base point is not attempted on {x} states (more than {})",
+            limits.max_chain_states
         );
+        return stopped(reason);
     }
     let degree = x + space.subsets.len();
     let extended: Vec<Vec<u32>> = permutations
@@ -284,15 +288,7 @@ pub fn count_vacuum_orbit(
             "the search over transversal choices exceeds {} nodes",
             limits.max_search_nodes
         );
-        return bounds(
-            bundles,
-            generators,
-            &vacuum,
-            &space,
-            (0, parts.len()),
-            reason,
-            limits,
-        );
+        return stopped(reason);
     }
     let lengths: Vec<usize> = (0..chain.level_count())
         .map(|j| chain.basic_orbit(j).len())

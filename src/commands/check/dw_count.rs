@@ -14,6 +14,7 @@
 //! - the arithmetic |Stab| = c·|P_(Σ)| and |orbit| = |P| / |Stab| is redone, and an orbit
 //!   of at most `MAX_LISTED_ORBIT` subsets is listed (cyclorb-dw's `subset_orbit`, no group
 //!   theory) and must have the stated size.
+//!
 //! The parts themselves come from cyclorb-dw's abelianisation (the producer's derivation;
 //! the claim says so).
 
