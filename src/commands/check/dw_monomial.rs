@@ -61,8 +61,8 @@ mod tests {
 
     #[test]
     fn the_pauli_group_modulo_scalars_has_four_elements() {
-        // X = swap, Z = diag(1, −1): ⟨X, Z⟩ is the Pauli group of order 8 (with ±1, ±i·…
-        // only ±1 appear here), modulo scalars Z_2 × Z_2 (standard)
+        // X = swap, Z = diag(1, −1) generate the dihedral group of order 8 (the real Pauli
+        // group); its scalars are ±1, so modulo scalars it is Z_2 × Z_2 (standard)
         let perms = vec![vec![1, 0], vec![0, 1]];
         let phases = vec![vec![0, 0], vec![0, 1]];
         assert_eq!(projective_order(&perms, &phases, 2, 100), Some(4));
