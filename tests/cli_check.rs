@@ -325,6 +325,107 @@ fn dijkgraaf_witten_certificates_recheck_and_each_change_is_caught() {
 }
 
 #[test]
+fn twisted_dijkgraaf_witten_certificates_recheck_and_each_change_is_caught() {
+    // the double semion D^{ω_1}(Z_2) at genus 1: four anyons of dimension 1, so
+    // |X_1| = N^{2g} = 4 (Verlinde formula; standard)
+    let (path, i) = produce("dwt-image", &["image", "dw:Z2:1", "--genus", "1"]);
+    holds(&path, "dw-monomial-image");
+    assert_eq!(i["degree"], 4);
+    let order: u64 = i["order"].as_str().unwrap().parse().unwrap();
+    let phase = i["generators"][0]["phases"][1].as_u64().unwrap();
+    let tamperings = [
+        ("/order", Value::from((2 * order).to_string()), "order"),
+        (
+            "/generators/0/phases/1",
+            Value::from((phase + 1) % 4),
+            "generators",
+        ),
+    ];
+    all_caught(&i, "dwt-image", tamperings);
+    let (path, o) = produce("dwt-commutant", &["commutant", "dw:Z2:1", "--genus", "1"]);
+    holds(&path, "dw-monomial-commutant");
+    let n = o["commutant_dimension"].as_u64().unwrap();
+    let tamperings = [(
+        "/commutant_dimension",
+        Value::from(n + 1),
+        "commutant-dimension",
+    )];
+    all_caught(&o, "dwt-commutant", tamperings);
+}
+
+/// `value` with `key` (a big decimal string) multiplied by `factor` / `divisor`.
+fn scaled(value: &mut Value, key: &str, factor: u64, divisor: u64) {
+    let n: num_bigint::BigUint = value[key].as_str().unwrap().parse().unwrap();
+    value[key] = Value::from((n * factor / divisor).to_string());
+}
+
+#[test]
+fn counted_dijkgraaf_witten_orbits_recheck_and_each_change_is_caught() {
+    // D(S_3) at genus 2: |X_2| = Σ_{([x], ρ)} (|C(x)| / dim ρ)² = (36 + 36 + 9) + 2·4 + 3·9
+    // = 116 (Verlinde dimension of the quantum double; standard)
+    let (path, c) = produce(
+        "dw-count",
+        &["orbit", "dw:S3", "--genus", "2", "--method", "structure"],
+    );
+    let report = holds(&path, "dw-vacuum-set-stabiliser");
+    assert_eq!(report["claims"].as_array().unwrap().len(), 7, "{report:#}");
+    assert_eq!(c["degree"].as_u64().unwrap() - 100, 116);
+    let arrangements = c["arrangements"].as_u64().unwrap();
+    let parts = c["parts"].as_u64().unwrap();
+    let first = c["part_orbits"][0]["orbit_size"].as_u64().unwrap();
+    let length = c["basic_orbit_lengths"][0].as_u64().unwrap();
+    let mut swapped: Vec<u64> =
+        serde_json::from_value(c["generators"][0]["images"].clone()).unwrap();
+    let moved = (0..swapped.len())
+        .find(|&k| swapped[k] != k as u64)
+        .unwrap();
+    let target = swapped[moved] as usize;
+    swapped.swap(moved, target);
+    let tamperings = [
+        ("/generators/0/images", Value::from(swapped), "generators"),
+        ("/parts", Value::from(parts + 1), "parts"),
+        (
+            "/part_orbits/0/orbit_size",
+            Value::from(first + 1),
+            "part-orbits",
+        ),
+        (
+            "/basic_orbit_lengths/0",
+            Value::from(length + 1),
+            "chain-arithmetic",
+        ),
+        (
+            "/arrangements",
+            Value::from(arrangements + 1),
+            "chain-arithmetic",
+        ),
+    ];
+    all_caught(&c, "dw-count", tamperings);
+    // consistent arithmetic, a false |P|: the first basic orbit, |P| and the orbit doubled
+    let mut larger = c.clone();
+    larger["basic_orbit_lengths"][0] = Value::from(2 * length);
+    scaled(&mut larger, "image_order", 2, 1);
+    caught(
+        &larger,
+        "dw-count-p",
+        "/orbit_size",
+        Value::from("76800"),
+        "image-order",
+    );
+    // consistent arithmetic, a false stabiliser: c and |Stab| doubled, the orbit halved
+    let mut doubled = c.clone();
+    doubled["arrangements"] = Value::from(2 * arrangements);
+    scaled(&mut doubled, "stabiliser_order", 2, 1);
+    caught(
+        &doubled,
+        "dw-count-c",
+        "/orbit_size",
+        Value::from("19200"),
+        "stabiliser-order",
+    );
+}
+
+#[test]
 fn theory_files_are_proved_and_their_data_pinned() {
     // a theory file: Ising written out by `describe --json`
     let file = temp_path("ising-theory.json");

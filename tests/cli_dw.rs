@@ -124,6 +124,42 @@ fn double_semion_agrees_with_the_pointed_product() {
 }
 
 #[test]
+fn describe_gives_the_double_semion_data() {
+    // the double semion: the boson 1, the semion (θ = i), the anti-semion (θ = −i) and their
+    // bound state (θ = 1), S = S_semion ⊗ conj(S_semion) with entries ±1/2, c ≡ 0 (mod 8)
+    // (Levin–Wen, Phys. Rev. B 71 (2005); common practice)
+    let (code, v) = cyclorb_json(&["describe", "dw:Z2:1"]);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["conductor"], 4);
+    // `z` is ζ_4 = i in Q(ζ_4)
+    let twists: Vec<&str> = ["(0,0)", "(0,1)", "(1,0)", "(1,1)"]
+        .iter()
+        .map(|l| v["twists"][l].as_str().unwrap())
+        .collect();
+    assert_eq!(twists, ["1", "1", "z", "-z"]);
+    assert_eq!(v["central_charge_mod_8"], "0");
+    assert_eq!(v["quantum_dimensions"], serde_json::json!([1, 1, 1, 1]));
+    for row in v["S"].as_array().unwrap() {
+        for x in row.as_array().unwrap() {
+            assert!(x == "1/2" || x == "-1/2", "{v}");
+        }
+    }
+    // every anyon is its own dual (fusion group Z_2 × Z_2)
+    assert_eq!(v["duals"]["(1,0)"], "(1,0)");
+    assert_eq!(
+        v["dimensions_by_genus"],
+        serde_json::json!(["4", "16", "64"])
+    );
+    // the cocycle ω_1(1, 1, 1) = exp(2πi·1·1·2/4) = −1 (the formula of de Wild Propitius 1995)
+    assert_eq!(v["cocycle"]["exponents"][1][1][1], 2);
+    // D^{ω_1}(Z_3): the flux (1, 0) has θ = ζ_9 (spins ζ_9^{p k²}, de Wild Propitius 1995, from
+    // memory), in Q(ζ_9) written `z`
+    let (code, v) = cyclorb_json(&["describe", "dw:Z3:1"]);
+    assert_eq!(code, 0, "{v}");
+    assert_eq!(v["twists"]["(1,0)"], "z");
+}
+
+#[test]
 fn twisted_z3_agrees_with_the_pointed_z9_theories() {
     // D^{ω_p}(Z_3) is pointed with fusion group Z_9 (the flux (1, 0) has order 9) and
     // spins θ(k) = ζ_9^{p k²} (de Wild Propitius, thesis 1995, ch. 3, from memory), i.e.
@@ -264,7 +300,7 @@ fn sweeps_read_dw_specs() {
     let plan = dir.join("plan.toml");
     std::fs::write(
         &plan,
-        "name = \"dw-small\"\nthreads = 1\nanswers = [\"orbit\", \"image\", \"commutant\", \"witness\"]\n\n[[theory]]\nspec = \"dw:Z2\"\ngenera = [1, 2]\n\n[[theory]]\nspec = \"dw:S3\"\ngenera = [1]\n\n[[theory]]\nspec = \"dw:Z2:1\"\ngenera = [1]\n",
+        "name = \"dw-small\"\nthreads = 1\nanswers = [\"orbit\", \"image\", \"commutant\", \"witness\"]\n\n[[theory]]\nspec = \"dw:Z2\"\ngenera = [1, 2]\n\n[[theory]]\nspec = \"dw:S3\"\ngenera = [1]\n\n[[theory]]\nspec = \"dw:Z2:1\"\ngenera = [1]\n\n[[theory]]\nspec = \"dw:S3\"\nlabel = \"S3 counted\"\ngenera = [1, 2]\nmethod = \"structure\"\n",
     )
     .unwrap();
     let out = dir.join("out");
@@ -276,7 +312,7 @@ fn sweeps_read_dw_specs() {
     ]);
     assert_eq!(code, 0, "{v}");
     let runs = v["runs"].as_array().unwrap();
-    assert_eq!(runs.len(), 4);
+    assert_eq!(runs.len(), 6);
     let find = |theory: &str, genus: u64| {
         runs.iter()
             .find(|r| r["theory"] == theory && r["genus"] == genus)
@@ -302,6 +338,47 @@ fn sweeps_read_dw_specs() {
     assert_eq!(ds["commutant"]["commutant_dimension"], 2);
     assert_eq!(ds["poincare_sum"]["trace_check"], true, "{ds}");
     assert!(ds["errors"].as_array().is_none_or(|e| e.is_empty()), "{ds}");
+    // method = "structure": the orbit counted as |P| / |Stab_P(S)| equals the listed one
+    // (38 400 at genus 2, as `orbit` lists it), with the image order of `image` and B from
+    // the orbitals (the same 27 orbitals as the listing route)
+    for genus in [1, 2] {
+        let counted = runs
+            .iter()
+            .find(|r| r["id"] == format!("s3-counted-g{genus}"))
+            .unwrap();
+        assert_eq!(
+            counted["orbit_size"],
+            orbit("dw:S3", genus)["orbit_size"],
+            "{counted}"
+        );
+        assert_eq!(counted["counted"]["kind"], "dw-vacuum-set-stabiliser");
+        assert_eq!(counted["image"]["order"], image_order("dw:S3", genus));
+        assert_eq!(counted["poincare_sum"]["trace_check"], true, "{counted}");
+    }
+    let counted = runs.iter().find(|r| r["id"] == "s3-counted-g2").unwrap();
+    assert_eq!(counted["commutant"]["commutant_dimension"], 27);
+    assert_eq!(counted["poincare_sum"]["commutant_dimension"], 27);
+    let summary = std::fs::read_to_string(out.join("summary.md")).unwrap();
+    assert!(summary.contains("38400 (counted)"), "{summary}");
+    // the counting route in a sweep is for untwisted dw: theories; a plan asking it of
+    // another theory is refused before anything runs, naming the entry
+    std::fs::write(
+        &plan,
+        "[[theory]]\nspec = \"dw:Z2:1\"\ngenera = [1]\nmethod = \"structure\"\n",
+    )
+    .unwrap();
+    let run = cyclorb(&[
+        "sweep",
+        plan.to_str().unwrap(),
+        "--out",
+        out.to_str().unwrap(),
+    ]);
+    assert_eq!(run.status.code(), Some(1));
+    let stderr = String::from_utf8_lossy(&run.stderr);
+    assert!(
+        stderr.contains("plan.toml:2") && stderr.contains("untwisted"),
+        "{stderr}"
+    );
     std::fs::remove_dir_all(&dir).ok();
 }
 

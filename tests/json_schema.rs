@@ -123,7 +123,7 @@ fn the_validator_rejects_what_it_must() {
 fn theory_commands_follow_their_schemas() {
     conforms(&["theories"]);
     conforms(&["field", "-n", "8", "z^2 + 1", "1/3"]);
-    for spec in ["ising", "su2:4", "kac:5:4", "dw:S3"] {
+    for spec in ["ising", "su2:4", "kac:5:4", "dw:S3", "dw:Z2:1"] {
         conforms(&["describe", spec]);
     }
     conforms(&["verify", "ising"]);

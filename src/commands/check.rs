@@ -22,6 +22,9 @@ use crate::cli::{CertArgs, CheckArgs, SpaceArgs};
 mod claims;
 mod commutant;
 mod dw;
+mod dw_count;
+mod dw_monomial;
+mod dw_pairs;
 mod image;
 mod linear;
 mod poly;
@@ -45,7 +48,8 @@ pub(crate) struct Envelope {
 /// The kinds `cyclorb check` reads.
 const KINDS: &str =
     "commutant, image-enumeration, image-orbit, structure, witness, witness-lifted, \
-                     dw-permutation-image, dw-orbitals";
+                     dw-permutation-image, dw-orbitals, dw-monomial-image, dw-monomial-commutant, \
+                     dw-vacuum-set-stabiliser";
 
 fn key<'a>(body: &'a Value, name: &str, file: &str) -> Result<&'a Value, String> {
     body.get(name).ok_or_else(|| {

@@ -41,17 +41,6 @@ pub fn is_dw(spec: &str) -> bool {
     spec.starts_with(PREFIX)
 }
 
-/// The group of `dw:NAME` (a built-in) or `dw:PATH` (a group file, see `cyclorb theories`);
-/// the twisted `dw:ZN:P` are refused here (see [`theory_of`]).
-pub fn group_of(spec: &str) -> Result<FiniteGroup, String> {
-    match theory_of(spec)? {
-        (group, None) => Ok(group),
-        (_, Some(_)) => Err(format!(
-            "{spec}: the modular data of the twisted theory are not computed from characters; `cyclorb twists {spec} --genus 1` shows its generators"
-        )),
-    }
-}
-
 /// The group and, for `dw:ZN:P`, the cocycle ω_p of the twisted theory D^{ω_p}(Z_N).
 pub fn theory_of(spec: &str) -> Result<(FiniteGroup, Option<CyclicCocycle>), String> {
     let rest = spec.strip_prefix(PREFIX).unwrap_or(spec);
@@ -224,6 +213,12 @@ impl DwSpace {
     /// The twists as named permutations of X_g.
     pub fn twists(&self) -> &[(Curve, Vec<u32>)] {
         &self.twists
+    }
+
+    /// The phases of a twisted theory: per generator (in the order of `twists`), the
+    /// exponent of ζ_{N²} in each row; `None` when untwisted.
+    pub fn phases(&self) -> Option<&[Vec<u32>]> {
+        self.twisting.as_ref().map(|t| t.phases.as_slice())
     }
 
     /// |X_g|.
@@ -674,7 +669,7 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
 
 /// The generators as named permutations of X_g, as certificates list them, with the
 /// exponents of ζ_{N²} of each row when twisted.
-fn generator_images(space: &DwSpace) -> Vec<Value> {
+pub fn generator_images(space: &DwSpace) -> Vec<Value> {
     space
         .twists
         .iter()
@@ -772,8 +767,11 @@ pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
 /// total dimension D = |G|, dim V_g for g = 1, 2, 3, and S and T of D(G) from the
 /// centralisers' characters (cyclorb-dw's `modular_data`), in Q(ζ_e), e the exponent of G.
 pub fn describe(spec: &str, as_json: bool) -> Outcome {
-    let group = match group_of(spec) {
-        Ok(g) => g,
+    let group = match theory_of(spec) {
+        Ok((g, None)) => g,
+        Ok((g, Some(cocycle))) => {
+            return super::dw_describe::describe_twisted(spec, &g, &cocycle, as_json)
+        }
         Err(e) => return Outcome::Invalid(e),
     };
     let classes = conjugacy_classes(&group);
@@ -844,17 +842,7 @@ pub fn describe(spec: &str, as_json: bool) -> Outcome {
                 "modular data in Q(ζ_{conductor}) from the centralisers' characters (Coste–Gannon–Ruelle 2000):\n"
             ));
             text.push_str(&format!("T = diag({})\n", t_diag.join(", ")));
-            if labels.len() <= MATRIX_PRINT_LIMIT / 4 {
-                text.push_str("S (normalised, rows and columns in label order):\n");
-                for row in &s_rows {
-                    text.push_str(&format!("  [{}]\n", row.join(", ")));
-                }
-            } else {
-                text.push_str(&format!(
-                    "S has {0}×{0} entries: --json prints them\n",
-                    labels.len()
-                ));
-            }
+            text.push_str(&s_text(&s_rows, MATRIX_PRINT_LIMIT / 4));
             (json!(s_rows), json!(t_diag), json!(conductor))
         }
         Err(DwError::TooLarge(reason)) => {
@@ -879,6 +867,18 @@ pub fn describe(spec: &str, as_json: bool) -> Outcome {
         "T": t_diag,
     });
     Outcome::Done(Report::new(value, text, as_json))
+}
+
+/// S as text: row by row up to `limit` labels, else a pointer to `--json`.
+pub fn s_text(s_rows: &[Vec<String>], limit: usize) -> String {
+    if s_rows.len() > limit {
+        return format!("S has {0}×{0} entries: --json prints them\n", s_rows.len());
+    }
+    let mut text = String::from("S (normalised, rows and columns in label order):\n");
+    for row in s_rows {
+        text.push_str(&format!("  [{}]\n", row.join(", ")));
+    }
+    text
 }
 
 /// S and T of D(G) as printed: exact values in Q(ζ_conductor).

@@ -5,13 +5,16 @@
 //! (image, pair in O) two ways gives its value without listing the orbit:
 //! B(O)·|O| = |orbit|·#((S × S) ∩ O) (each image g(S) meets O in as many pairs as S does).
 
+use std::path::Path;
 use std::time::Instant;
 
 use cyclorb_dw::{count_vacuum_orbit, CountLimits, Orbitals, VacuumCount, VacuumOrbit};
+use cyclorb_orbit::{InvariantReport, PoincareReport};
 use num_bigint::BigUint;
 use serde_json::{json, Value};
 
-use super::dw::DwSpace;
+use super::dw::{generator_images, DwSpace};
+use super::envelope::{self, Source};
 use super::output::{Outcome, Report};
 
 /// Largest |X_g| whose orbitals (|X_g|² pairs) are computed for B.
@@ -22,24 +25,45 @@ fn number(n: &BigUint) -> Value {
     u64::try_from(n).map_or_else(|_| json!(n.to_string()), |v| json!(v))
 }
 
-/// Run the counting route; `limit` caps the listed orbits of the parts (Ω).
-pub fn run(
-    spec: &str,
-    genus: usize,
-    set: &str,
-    limit: Option<usize>,
-    as_json: bool,
-    started: Instant,
-) -> Outcome {
-    let space = match DwSpace::new(spec, genus, set) {
-        Ok(s) => s,
-        Err(e) => return Outcome::Invalid(e),
-    };
+/// The count of an untwisted `dw:` space under `limit` subsets of Ω (the default cap when
+/// `None`); a twisted theory is refused (its generators are not permutations).
+pub fn count(space: &DwSpace, limit: Option<usize>) -> Result<VacuumOrbit, String> {
+    if space.is_twisted() {
+        return Err(
+            "the counting route covers untwisted dw: theories (the twisted generators carry phases); use --method enumerate"
+                .into(),
+        );
+    }
     let mut limits = CountLimits::default();
     if let Some(l) = limit {
         limits.max_part_subsets = l;
     }
-    let result = match count_vacuum_orbit(space.bundles(), space.twists(), limits) {
+    count_vacuum_orbit(space.bundles(), space.twists(), limits).map_err(|e| e.to_string())
+}
+
+/// What `cyclorb orbit dw:… --method structure` reads from its command line.
+pub struct CountArgs<'a> {
+    /// The `dw:` spec.
+    pub spec: &'a str,
+    /// The genus.
+    pub genus: usize,
+    /// The generating set's name.
+    pub set: &'a str,
+    /// The cap on Ω (`--limit`).
+    pub limit: Option<usize>,
+    /// Where to write the certificate (`--out`).
+    pub out: Option<&'a Path>,
+}
+
+/// Run the counting route; `limit` caps the listed orbits of the parts (Ω); `out` receives
+/// the certificate of an exact count (kind `dw-vacuum-set-stabiliser`).
+pub fn run(args: &CountArgs, as_json: bool, started: Instant) -> Outcome {
+    let (spec, genus) = (args.spec, args.genus);
+    let space = match DwSpace::new(spec, genus, args.set) {
+        Ok(s) => s,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let result = match count(&space, args.limit) {
         Ok(r) => r,
         Err(e) => return Outcome::Invalid(format!("{spec} at genus {genus}: {e}")),
     };
@@ -63,19 +87,39 @@ pub fn run(
     );
     let outcome = match result {
         VacuumOrbit::Counted(c) => {
-            let poincare = poincare(&space, &c);
+            let poincare = counted_poincare(&space, &c);
+            let cert = certificate(&c);
+            if let Some(path) = args.out {
+                let mut cert = cert.clone();
+                cert["theory"] = json!(spec);
+                cert["genus"] = json!(genus);
+                cert["generators"] = json!(generator_images(&space));
+                let source = Source {
+                    spec,
+                    genus,
+                    set: args.set,
+                };
+                let kind = "dw-vacuum-set-stabiliser";
+                if let Err(e) = envelope::write(Some(path), kind, &source, &cert) {
+                    return Outcome::Invalid(e);
+                }
+                text.push_str(&format!(
+                    "certificate written to {} (re-check: cyclorb check {})\n",
+                    path.display(),
+                    path.display()
+                ));
+            }
             text.push_str(&counted_text(&c));
             text.push_str(&format!(
                 "Poincaré sum: {}\n",
-                poincare["note"].as_str().unwrap_or("")
+                poincare.note.as_deref().unwrap_or("")
             ));
             value["orbit_size"] = number(&c.orbit_size);
             value["saturated"] = json!(true);
             value["image_order"] = json!(c.image_order.to_string());
-            value["poincare_sum"] = poincare;
+            value["poincare_sum"] = json!(poincare);
             value["certificate_rechecked"] = json!(false);
-            value["details"] =
-                json!({ "route": "dw-set-stabiliser", "certificate": certificate(&c) });
+            value["details"] = json!({ "route": "dw-set-stabiliser", "certificate": cert });
             Outcome::Done
         }
         VacuumOrbit::Bounded(b) => {
@@ -105,7 +149,7 @@ pub fn run(
 }
 
 /// The figures that prove the count, in the order of the argument.
-fn certificate(c: &VacuumCount) -> Value {
+pub fn certificate(c: &VacuumCount) -> Value {
     json!({
         "kind": "dw-vacuum-set-stabiliser",
         "vacuum_states": c.vacuum_states,
@@ -150,20 +194,26 @@ fn counted_text(c: &VacuumCount) -> String {
 }
 
 /// B on the orbitals of P on X_g, from B(O)·|O| = |orbit|·#((S × S) ∩ O) (checked to divide).
-fn poincare(space: &DwSpace, c: &VacuumCount) -> Value {
+pub fn counted_poincare(space: &DwSpace, c: &VacuumCount) -> PoincareReport {
     let d = space.dimension();
     let norm = c.vacuum_states;
+    let mut report = PoincareReport {
+        seed_norm: Some(norm.to_string()),
+        ..PoincareReport::default()
+    };
     if d > ORBITAL_LIMIT {
-        return json!({
-            "is_scalar": null,
-            "seed_norm": norm.to_string(),
-            "note": format!("not computed: the orbitals of {d} states exceed {ORBITAL_LIMIT}"),
-        });
+        report.note = Some(format!(
+            "not computed: the orbitals of {d} states exceed {ORBITAL_LIMIT}"
+        ));
+        return report;
     }
     let perms: Vec<&[u32]> = space.twists().iter().map(|(_, p)| p.as_slice()).collect();
     let orbitals = match Orbitals::new(d, &perms) {
         Ok(o) => o,
-        Err(e) => return json!({"note": format!("not computed: {e}")}),
+        Err(e) => {
+            report.note = Some(format!("not computed: {e}"));
+            return report;
+        }
     };
     let mut size = vec![0u64; orbitals.count()];
     for i in 0..d {
@@ -183,7 +233,11 @@ fn poincare(space: &DwSpace, c: &VacuumCount) -> Value {
         let total = &c.orbit_size * m;
         let (q, r) = (&total / n, &total % n);
         if r != BigUint::default() {
-            return json!({"trace_check": false, "note": format!("|orbit|·#(S×S ∩ O) is not divisible by |O| on orbital {o}: not invariant")});
+            report.trace_check = Some(false);
+            report.note = Some(format!(
+                "|orbit|·#(S×S ∩ O) is not divisible by |O| on orbital {o}: not invariant"
+            ));
+            return report;
         }
         coefficient.push(q);
     }
@@ -207,23 +261,30 @@ fn poincare(space: &DwSpace, c: &VacuumCount) -> Value {
         .collect();
     values.sort_unstable_by(|a, b| b.cmp(a));
     values.dedup();
-    json!({
-        "is_scalar": scalar,
-        "prefactor": scalar.then(|| first.to_string()),
-        "seed_norm": norm.to_string(),
-        "trace_check": trace == &c.orbit_size * BigUint::from(norm),
-        "commutant_dimension": orbitals.count(),
-        "physical_basis": true,
-        "invariants": values.iter().map(|v| json!({"coefficient": v.to_string(), "matrix": []})).collect::<Vec<_>>(),
-        "note": format!(
-            "B = Σ coefficient × (indicator of the pairs of states where B takes that value), {} distinct non-zero values over the {} orbitals of P on pairs of states (the commutant dimension), from B(O)·|O| = |orbit|·#((S×S) ∩ O); matrices not printed by the counting route; {}",
-            values.len(),
-            orbitals.count(),
-            if scalar {
-                format!("B = {first}·1 (scalar)")
-            } else {
-                "no λ: B is not a multiple of the identity".to_string()
-            }
-        ),
-    })
+    report.is_scalar = Some(scalar);
+    report.prefactor = scalar.then(|| first.to_string());
+    report.trace_check = Some(trace == &c.orbit_size * BigUint::from(norm));
+    report.commutant_dimension = Some(orbitals.count());
+    report.physical_basis = Some(true);
+    report.invariants = Some(
+        values
+            .iter()
+            .map(|v| InvariantReport {
+                coefficient: v.to_string(),
+                matrix: Vec::new(),
+                entries: Vec::new(),
+            })
+            .collect(),
+    );
+    report.note = Some(format!(
+        "B = Σ coefficient × (indicator of the pairs of states where B takes that value), {} distinct non-zero values over the {} orbitals of P on pairs of states (the commutant dimension), from B(O)·|O| = |orbit|·#((S×S) ∩ O); matrices not printed by the counting route; {}",
+        values.len(),
+        orbitals.count(),
+        if scalar {
+            format!("B = {first}·1 (scalar)")
+        } else {
+            "no λ: B is not a multiple of the identity".to_string()
+        }
+    ));
+    report
 }

@@ -6,6 +6,7 @@ mod check;
 mod common;
 mod dw;
 mod dw_count;
+mod dw_describe;
 mod envelope;
 mod field;
 mod lifted;

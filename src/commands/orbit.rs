@@ -468,7 +468,14 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
         );
     }
     if is_dw(spec) {
-        return super::dw_count::run(spec, genus, &args.set, args.limit, as_json, started);
+        let count = super::dw_count::CountArgs {
+            spec,
+            genus,
+            set: &args.set,
+            limit: args.limit,
+            out: args.out.as_deref(),
+        };
+        return super::dw_count::run(&count, as_json, started);
     }
     let space = match parse_set(&args.set).and_then(|set| Ok((set, build_space(spec, genus)?))) {
         Ok(x) => x,

@@ -65,6 +65,7 @@ mod relations;
 mod space;
 mod subsets;
 mod twisted;
+mod twisted_modular;
 mod twists;
 mod words;
 
@@ -90,5 +91,6 @@ pub use subsets::subset_orbit;
 pub use twisted::{
     check_twisted_relations, CyclicCocycle, PhasedPermutation, TwistedBundles, MAX_TWISTED_ORDER,
 };
+pub use twisted_modular::{fuse, twisted_modular_data, TwistedModularData};
 pub use twists::{gamma_word, separating_twist, twist};
 pub use words::{Automorphism, Word};

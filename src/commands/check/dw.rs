@@ -1,9 +1,10 @@
 //! Re-checking the certificates of Dijkgraaf–Witten theories (docs/certificates.md §6): X_g
-//! and the twists are rebuilt from the group and compared with the stated permutations; the
-//! image order is the product of the stated basic orbit lengths and is found again by
-//! listing the permutation group (up to `MAX_LISTED` elements; beyond, by Schreier–Sims with
-//! every point a base point, the producer's method); the commutant dimension is the number
-//! of orbits on pairs of states, counted here by a union–find of its own.
+//! and the twists (with their phases when twisted) are rebuilt from the group and compared
+//! with the stated ones; the image order is the product of the stated basic orbit lengths
+//! and is found again by listing the permutation (or monomial) group (up to `MAX_LISTED`
+//! elements; beyond, by the producer's Schreier–Sims, said so); the commutant dimension is
+//! the number of orbits on pairs of states that carry an invariant, counted here by a
+//! union–find of its own (`dw_pairs`); a counted vacuum orbit is re-derived in `dw_count`.
 
 use std::collections::HashSet;
 
@@ -12,7 +13,10 @@ use num_bigint::BigUint;
 use serde_json::Value;
 
 use super::super::dw::DwSpace;
-use super::{Claims, Envelope, Stop};
+use super::dw_count::{self, SetStabiliser};
+use super::dw_monomial::projective_order;
+use super::dw_pairs::commutant_dimension;
+use super::{body_as, Claims, Envelope, Stop};
 
 /// Largest group listed element by element.
 const MAX_LISTED: u64 = 200_000;
@@ -34,22 +38,37 @@ fn same_generators(space: &DwSpace, body: &Value) -> Result<String, String> {
             twists.len()
         ));
     }
-    for ((curve, perm), s) in twists.iter().zip(stated) {
-        let images: Option<Vec<u32>> = s["images"].as_array().and_then(|a| {
+    let numbers = |v: &Value| -> Option<Vec<u32>> {
+        v.as_array().and_then(|a| {
             a.iter()
                 .map(|x| x.as_u64().and_then(|x| u32::try_from(x).ok()))
                 .collect()
-        });
-        if s["name"].as_str() != Some(&curve.to_string()) || images.as_ref() != Some(perm) {
+        })
+    };
+    for (k, ((curve, perm), s)) in twists.iter().zip(stated).enumerate() {
+        if s["name"].as_str() != Some(&curve.to_string())
+            || numbers(&s["images"]).as_ref() != Some(perm)
+        {
             return Err(format!(
                 "the twist {curve} differs from the stated permutation"
             ));
         }
+        let phases = space.phases().map(|p| &p[k]);
+        if numbers(&s["phases"]).as_ref() != phases {
+            return Err(format!(
+                "the phases of the twist {curve} differ from the stated ones"
+            ));
+        }
     }
     Ok(format!(
-        "{} twists rebuilt on |X_g| = {} states equal the stated permutations",
+        "{} twists rebuilt on |X_g| = {} states equal the stated permutations{}",
         twists.len(),
-        space.dimension()
+        space.dimension(),
+        if space.is_twisted() {
+            " and phases"
+        } else {
+            ""
+        }
     ))
 }
 
@@ -98,34 +117,6 @@ fn basic_orbits(elements: &[Vec<u32>], base: &[u32]) -> Result<Vec<u64>, String>
     Ok(lengths)
 }
 
-/// The number of orbits of the group on pairs (i, j), by union–find.
-fn orbital_count(perms: &[Vec<u32>], d: usize) -> usize {
-    let mut parent: Vec<usize> = (0..d * d).collect();
-    fn root(parent: &mut [usize], mut x: usize) -> usize {
-        while parent[x] != x {
-            parent[x] = parent[parent[x]];
-            x = parent[x];
-        }
-        x
-    }
-    let mut classes = d * d;
-    for p in perms {
-        for i in 0..d {
-            for j in 0..d {
-                let (a, b) = (
-                    root(&mut parent, i * d + j),
-                    root(&mut parent, p[i] as usize * d + p[j] as usize),
-                );
-                if a != b {
-                    parent[b] = a;
-                    classes -= 1;
-                }
-            }
-        }
-    }
-    classes
-}
-
 /// Every claim of a `dw-…` certificate.
 pub fn check(
     envelope: &Envelope,
@@ -143,7 +134,7 @@ pub fn check(
                 body["theory"], a.spec
             ));
         }
-        if body["kind"] == "dw-permutation-image"
+        if (body["kind"] == "dw-permutation-image" || body["kind"] == "dw-monomial-image")
             && body["degree"].as_u64() != Some(space.dimension() as u64)
         {
             return Err(format!(
@@ -195,13 +186,42 @@ pub fn check(
                 }
             })
         }
-        "dw-orbitals" => claims.claim("commutant-dimension", || {
-            let n = orbital_count(&perms, space.dimension());
+        "dw-orbitals" | "dw-monomial-commutant" => claims.claim("commutant-dimension", || {
+            let n = commutant_dimension(&perms, space.phases(), space.conductor(), space.dimension());
             if body["commutant_dimension"].as_u64() != Some(n as u64) {
-                return Err(format!("{n} orbits on pairs of states, the certificate says {}", body["commutant_dimension"]));
+                return Err(format!("{n} orbits on pairs of states carry an invariant, the certificate says {}", body["commutant_dimension"]));
             }
-            Ok(format!("{n} orbits on pairs of states (union–find here): the commutant of a permutation representation has this dimension"))
+            Ok(if space.is_twisted() {
+                format!("{n} orbits on pairs of states without a phase round a cycle (a union–find with phases, written for the check; the producer used the commutant certificate): the commutant of the monomial representation has this dimension")
+            } else {
+                format!("{n} orbits on pairs of states (union–find here): the commutant of a permutation representation has this dimension")
+            })
         }),
+        "dw-monomial-image" => {
+            let order = body["order"].as_str().unwrap_or_default().to_string();
+            claims.claim("order", || {
+                let phases = space.phases().ok_or("the theory is not twisted")?;
+                let stated: u64 = order.parse().unwrap_or(u64::MAX);
+                match projective_order(&perms, phases, space.conductor(), MAX_LISTED.min(stated)) {
+                    Some(n) if n.to_string() == order => Ok(format!("{order} monomial matrices modulo scalars listed by closure (code of the check; the producer used the monomial Schreier–Sims)")),
+                    Some(n) => Err(format!("the twists generate {n} monomial matrices modulo scalars, not {order}")),
+                    None if stated <= MAX_LISTED => Err(format!("the twists generate more than {order} monomial matrices modulo scalars")),
+                    None => {
+                        // |P| of the permutation parts divides the order (P is a quotient of the image)
+                        let p = StabiliserChain::new(space.dimension(), &perms).map_err(err)?.order();
+                        let image = space.image()?;
+                        if image.order.to_string() != order || &image.order % &p != BigUint::default() {
+                            return Err(format!("the monomial Schreier–Sims gives {}, the permutation parts {p}; stated {order}", image.order));
+                        }
+                        Ok(format!("more than {MAX_LISTED} elements: the monomial Schreier–Sims again (the producer's method, not an independent check); the permutation parts alone generate {p} (Schreier–Sims), which divides it"))
+                    }
+                }
+            })
+        }
+        "dw-vacuum-set-stabiliser" => {
+            let c: SetStabiliser = body_as(body, file, "dw-vacuum-set-stabiliser")?;
+            dw_count::check(&space, &c, file, claims)
+        }
         other => Err(Stop::Invalid(format!("{file}: key `kind`: unknown kind {other:?}"))),
     }
 }

@@ -33,6 +33,12 @@
 //! genera = [1]
 //! answers = ["orbit"]           # per-entry answers, set and limits override the defaults
 //! limits = { lines = 5000 }
+//!
+//! [[theory]]
+//! spec = "dw:S3"
+//! genera = [3]
+//! method = "structure"          # count the orbit without listing it (untwisted dw: only;
+//!                               # default "enumerate"; may also be set for the whole plan)
 //! ```
 //!
 //! A malformed plan is refused before anything runs, with `PLAN:LINE:COLUMN: reason` and

@@ -41,6 +41,27 @@ impl Answer {
     }
 }
 
+/// How a run finds the vacuum orbit.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Deserialize)]
+#[serde(rename_all = "lowercase")]
+pub enum OrbitMethod {
+    /// List every line (the orbit engine), under the run's caps.
+    #[default]
+    Enumerate,
+    /// Count it without listing (`orbit --method structure`; untwisted `dw:` theories).
+    Structure,
+}
+
+impl OrbitMethod {
+    /// The name used in plans and results.
+    pub fn name(self) -> &'static str {
+        match self {
+            OrbitMethod::Enumerate => "enumerate",
+            OrbitMethod::Structure => "structure",
+        }
+    }
+}
+
 /// Caps of one run; `None` means no cap.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 pub struct Limits {
@@ -104,6 +125,8 @@ pub struct Entry {
     pub answers: Vec<Answer>,
     /// The generating set of Dehn twists.
     pub set: GeneratingSet,
+    /// How the orbit is found.
+    pub method: OrbitMethod,
     /// Caps of each run of this entry.
     pub limits: Limits,
     /// Where the entry's theory is named (for refusals found later).
@@ -243,6 +266,7 @@ struct RawEntry {
     genera: Spanned<Vec<Spanned<usize>>>,
     answers: Option<Spanned<Vec<Answer>>>,
     set: Option<Spanned<String>>,
+    method: Option<OrbitMethod>,
     limits: Option<RawLimits>,
 }
 
@@ -254,6 +278,7 @@ struct RawPlan {
     checkpoint_seconds: Option<Spanned<u64>>,
     answers: Option<Spanned<Vec<Answer>>>,
     set: Option<Spanned<String>>,
+    method: Option<OrbitMethod>,
     limits: Option<RawLimits>,
     witness: Option<RawWitness>,
     image: Option<RawImage>,
@@ -339,7 +364,7 @@ impl Checker<'_> {
         &self,
         number: usize,
         raw: &Spanned<RawEntry>,
-        defaults: (&[Answer], GeneratingSet, Limits),
+        defaults: (&[Answer], GeneratingSet, OrbitMethod, Limits),
     ) -> Result<Entry, PlanError> {
         let e = raw.get_ref();
         let (source, at) = match (&e.spec, &e.file) {
@@ -388,7 +413,7 @@ impl Checker<'_> {
             }
             genera.push(genus);
         }
-        let (answers, set, limits) = defaults;
+        let (answers, set, method, limits) = defaults;
         Ok(Entry {
             number,
             location: Location::of(self.source, at.span().start),
@@ -397,6 +422,7 @@ impl Checker<'_> {
             genera,
             answers: self.answers(&e.answers, answers)?,
             set: self.set(&e.set, set)?,
+            method: e.method.unwrap_or(method),
             limits: self.limits(&e.limits, limits)?,
         })
     }
@@ -449,7 +475,10 @@ pub fn parse_plan(path: &Path, source: String) -> Result<Plan, PlanError> {
         .theory
         .iter()
         .enumerate()
-        .map(|(i, e)| c.entry(i + 1, e, (&answers, set, limits)))
+        .map(|(i, e)| {
+            let method = raw.method.unwrap_or_default();
+            c.entry(i + 1, e, (&answers, set, method, limits))
+        })
         .collect::<Result<Vec<_>, _>>()?;
     let witness = raw.witness.as_ref();
     let image = raw.image.as_ref();
@@ -496,7 +525,14 @@ mod tests {
         assert_eq!(e.limits.lines, Some(10));
         assert_eq!(e.limits.seconds, Some(5));
         assert_eq!(e.set, GeneratingSet::Humphries);
+        assert_eq!(e.method, OrbitMethod::Enumerate);
         assert_eq!(plan.name, "p");
+        let text = "method = \"structure\"\n[[theory]]\nspec = \"dw:S3\"\ngenera = [1]\n\
+                    [[theory]]\nspec = \"dw:S3\"\nlabel = \"listed\"\ngenera = [2]\n\
+                    method = \"enumerate\"\n";
+        let plan = parse(text).unwrap();
+        assert_eq!(plan.entries[0].method, OrbitMethod::Structure);
+        assert_eq!(plan.entries[1].method, OrbitMethod::Enumerate);
     }
 
     #[test]
@@ -531,6 +567,11 @@ mod tests {
                 "[[theory]]\nspec = \"ising\"\ngenera = [1]\ncolour = 1\n",
                 4,
                 "unknown field",
+            ),
+            (
+                "[[theory]]\nspec = \"ising\"\ngenera = [1]\nmethod = \"count\"\n",
+                4,
+                "unknown variant",
             ),
             (
                 "[[theory]]\nspec = \"ising\"\ngenera = [1, 1]\n",

@@ -23,10 +23,23 @@ pub struct SweepHeader<'a> {
     pub planned: usize,
 }
 
-/// The orbit cell: the size, or "not closed after N (cap)".
+/// The orbit cell: the size ("N (counted)" when counted, not listed), "not closed after N
+/// (cap)", or for a count stopped by its caps the proved bounds.
 pub fn orbit_cell(r: &RunResult) -> String {
+    let bound = |key: &str| {
+        r.counted
+            .as_ref()
+            .and_then(|c| c[key].as_str().map(str::to_string))
+    };
     match (r.orbit_size, r.saturated) {
+        (Some(n), Some(true)) if r.counted.is_some() => format!("{n} (counted)"),
         (Some(n), Some(true)) => n.to_string(),
+        (None, Some(false)) if bound("stopped").is_some() => format!(
+            "between {} and {} (count stopped: {})",
+            bound("orbit_lower_bound").unwrap_or_default(),
+            bound("orbit_upper_bound").unwrap_or_default(),
+            bound("stopped").unwrap_or_default()
+        ),
         (Some(n), _) => format!(
             "not closed after {n} ({})",
             r.stop_reason.as_deref().unwrap_or("stopped")
@@ -125,7 +138,8 @@ pub fn markdown(header: &SweepHeader, rows: &[&RunResult]) -> String {
     }
     t.push_str(
         "\nOrbit: lines of the vacuum block under the Dehn twists; \"not closed after N\" \
-         means the run stopped at its cap (limit, memory or time) with N lines found. \
+         means the run stopped at its cap (limit, memory or time) with N lines found; \
+         \"(counted)\": counted as |P| / |Stab_P(S)| without listing (plan key method). \
          λ_g: B = Σ v v† over the orbit equals λ_g·G⁻¹. Image order: of the projective \
          image, certified; \"infinite\" when the witness word has infinite projective order.\n\n",
     );

@@ -104,6 +104,11 @@ pub struct RunResult {
     pub stop_reason: Option<String>,
     /// New lines at each breadth-first depth.
     pub layer_sizes: Option<Vec<usize>>,
+    /// When the orbit was counted, not listed (plan key `method = "structure"`): the figures
+    /// that prove the count (|P|, the parts, the arrangements, |Stab_P(S)|), as the
+    /// certificate of `orbit --method structure` states them.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub counted: Option<serde_json::Value>,
     /// The Poincaré sum (all null inside when the orbit is not saturated).
     pub poincare_sum: Option<PoincareReport>,
     /// The commutant, when asked for.

@@ -18,16 +18,18 @@ use cyclorb_mcg::BlockSpace;
 use cyclorb_orbit::PoincareReport;
 
 use super::super::dw::DwSpace;
+use super::super::dw_count::{certificate, count, counted_poincare};
 use super::answers::{
     certificate_generators, commutant_answer, image_answer, lifted_witness_answer, witness_answer,
     witness_failed, witness_not_needed,
 };
 use super::display::SweepDisplay;
 use super::orbit_stage::{run_orbit, starting_orbit, EngineSettings, OrbitStop};
-use super::plan::{Answer, ImageBounds, WitnessBounds};
+use super::plan::{Answer, ImageBounds, OrbitMethod, WitnessBounds};
 use super::result::CommutantAnswer;
 use super::result::{Citation, ImageAnswer, RunResult};
 use super::schedule::{PlannedRun, RunSpace};
+use cyclorb_dw::VacuumOrbit;
 
 /// Settings shared by every run of a sweep.
 pub struct SweepSettings<'a> {
@@ -96,6 +98,7 @@ fn blank_result(
         saturated: None,
         stop_reason: None,
         layer_sizes: None,
+        counted: None,
         poincare_sum: None,
         commutant: None,
         image: None,
@@ -120,10 +123,14 @@ fn blank_result(
     }
 }
 
-/// The permutation routes of a `dw:` run: the image order by Schreier–Sims on X_g, the
-/// commutant dimension as the number of orbitals, and no witness (the image is finite).
+/// The permutation routes of a `dw:` run: the image order by Schreier–Sims on X_g (unless
+/// the count found it already), the commutant dimension as the number of orbitals, and no
+/// witness (the image is finite).
 fn dw_answers(run: &PlannedRun, space: &DwSpace, result: &mut RunResult, display: &SweepDisplay) {
-    if run.wants(Answer::Image) || run.wants(Answer::Witness) {
+    let known = result.image.as_ref().and_then(|i| i.order.clone());
+    if let Some(order) = known.filter(|_| run.wants(Answer::Witness)) {
+        result.witness = Some(witness_not_needed(&order));
+    } else if result.image.is_none() && (run.wants(Answer::Image) || run.wants(Answer::Witness)) {
         display.stage(run, "image order");
         match space.image() {
             Ok(image) => {
@@ -156,6 +163,67 @@ fn dw_answers(run: &PlannedRun, space: &DwSpace, result: &mut RunResult, display
             Err(e) => result.errors.push(format!("commutant: {e}")),
         }
     }
+}
+
+/// The counting route of an untwisted `dw:` run (`method = "structure"`): the vacuum orbit as
+/// |P| / |Stab_P(S)| (`orbit --method structure`), B from the orbitals, and the image order
+/// |P| of the same chain (Schreier–Sims on X_g ⊔ Ω, on which P acts faithfully). A count
+/// stopped by its caps leaves the orbit open (proved bounds in `counted`, no size).
+fn counted_orbit(
+    run: &PlannedRun,
+    space: &DwSpace,
+    result: &mut RunResult,
+    display: &SweepDisplay,
+) {
+    display.stage(run, "orbit counted (set stabiliser)");
+    let counted = match count(space, None) {
+        Ok(VacuumOrbit::Counted(c)) => c,
+        Ok(VacuumOrbit::Bounded(b)) => {
+            result.saturated = Some(false);
+            result.stop_reason = Some("limit".into());
+            result.counted = Some(serde_json::json!({
+                "stopped": b.reason,
+                "orbit_lower_bound": b.lower.to_string(),
+                "lower_bound_proof": b.lower_proof,
+                "orbit_upper_bound": b.upper.to_string(),
+                "upper_bound_proof": b.upper_proof,
+            }));
+            return;
+        }
+        Err(e) => {
+            result.errors.push(format!("counted orbit: {e}"));
+            return;
+        }
+    };
+    match usize::try_from(&counted.orbit_size) {
+        Ok(n) => {
+            result.orbit_size = Some(n);
+            result.saturated = Some(true);
+        }
+        Err(_) => result.errors.push(format!(
+            "counted orbit: {} lines exceed the results' machine-word orbit sizes",
+            counted.orbit_size
+        )),
+    }
+    if run.wants(Answer::Orbit) {
+        display.stage(run, "Poincaré sum");
+        let report = counted_poincare(space, &counted);
+        if report.trace_check == Some(false) {
+            result
+                .errors
+                .push("Poincaré sum: tr B ≠ |orbit|·|S| or B not invariant".into());
+        }
+        result.poincare_sum = Some(report);
+    }
+    if run.wants(Answer::Image) {
+        result.image = Some(ImageAnswer {
+            finite: Some(true),
+            order: Some(counted.image_order.to_string()),
+            route: "permutation-schreier-sims".into(),
+            note: Some("|P| from the counting route's chain on X_g ⊔ Ω".into()),
+        });
+    }
+    result.counted = Some(certificate(&counted));
 }
 
 /// The block space of a run that asks for the witness alone on a Deligne product (its
@@ -222,7 +290,15 @@ pub fn execute(
     let mut result = blank_result(run, g.conductor, g.names.clone(), settings);
     let mut earlier_seconds = 0.0;
     let mut orbit_found = None;
-    if run.wants(Answer::Orbit) || run.wants(Answer::Image) {
+    let counting = match &run.space {
+        RunSpace::Dw(space) if run.method == OrbitMethod::Structure => Some(space),
+        _ => None,
+    };
+    if let Some(space) = counting {
+        if run.wants(Answer::Orbit) || run.wants(Answer::Image) {
+            counted_orbit(run, space, &mut result, display);
+        }
+    } else if run.wants(Answer::Orbit) || run.wants(Answer::Image) {
         display.stage(run, "orbit");
         let (start, unusable) = starting_orbit(&problem, &dir.join("checkpoint.bin"), &run.limits);
         if let Some(reason) = unusable {

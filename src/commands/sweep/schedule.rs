@@ -14,7 +14,7 @@ use super::super::common::generator_set_file;
 use super::super::dw::{is_dw, DwSpace};
 use super::super::proof;
 use super::hash::Fnv64;
-use super::plan::{Answer, Entry, Limits, Plan, PlanError};
+use super::plan::{Answer, Entry, Limits, OrbitMethod, Plan, PlanError};
 
 /// One run of the sweep: a theory at a genus with its answers and caps.
 pub struct PlannedRun {
@@ -32,6 +32,8 @@ pub struct PlannedRun {
     pub space: RunSpace,
     /// The generating set.
     pub set: GeneratingSet,
+    /// How the orbit is found.
+    pub method: OrbitMethod,
     /// What to compute.
     pub answers: Vec<Answer>,
     /// Caps.
@@ -161,6 +163,10 @@ fn run_hash(
     h.line(&format!("theory data {theory_hash}"));
     h.line(&format!("genus {genus}"));
     h.line(&format!("set {}", entry.set.name()));
+    // only the counting route changes the hash, so listed runs keep their stored results
+    if entry.method != OrbitMethod::Enumerate {
+        h.line(&format!("method {}", entry.method.name()));
+    }
     for a in answers {
         h.line(&format!("answer {}", a.name()));
     }
@@ -205,6 +211,13 @@ pub fn schedule(plan: &Plan) -> Result<Schedule, PlanError> {
         } else {
             Some(proof::theory(&spec).map_err(refuse)?)
         };
+        if theory.is_some() && entry.method == OrbitMethod::Structure {
+            return Err(refuse(
+                "method \"structure\" in a sweep counts the orbits of untwisted dw: theories; \
+                 use `cyclorb orbit SPEC --method structure` for the others"
+                    .into(),
+            ));
+        }
         // The construction hash: a product's own F-blocks are never filled (for M(11,10)
         // they would take GBs); it is the data hash for a theory whose data are its own.
         let mut theory_hash = theory.as_ref().map(|t| t.construction_hash());
@@ -217,6 +230,13 @@ pub fn schedule(plan: &Plan) -> Result<Schedule, PlanError> {
                 None => {
                     let space = DwSpace::with_set(&spec, genus, entry.set)
                         .map_err(|e| refuse(format!("genus {genus}: {e}")))?;
+                    if entry.method == OrbitMethod::Structure && space.is_twisted() {
+                        return Err(refuse(
+                            "method \"structure\" counts the orbits of untwisted dw: theories; \
+                             a twisted theory's twists carry phases (use \"enumerate\")"
+                                .into(),
+                        ));
+                    }
                     let mut h = Fnv64::new();
                     for line in space.group_data() {
                         h.line(&line);
@@ -242,6 +262,7 @@ pub fn schedule(plan: &Plan) -> Result<Schedule, PlanError> {
                 genus,
                 space,
                 set: entry.set,
+                method: entry.method,
                 answers: entry.answers.clone(),
                 limits: entry.limits,
                 theory_hash,
