@@ -8,21 +8,18 @@ use cyclorb_cert::{
     polynomial_text, CommutantOptions, GeneratorSet as CertSet, ImageEnumeration, ImageOptions,
     WitnessCertificate, WitnessOptions, WitnessOutcome,
 };
-use cyclorb_mcg::{BlockSpace, GeneratingSet};
+use cyclorb_mcg::BlockSpace;
 use cyclorb_orbit::{OrbitOptions, OrbitProblem, Seed, Silent};
 use serde::Serialize;
 use serde_json::json;
 
-use super::common::{build_space, generator_set_file, parse_set};
 use super::envelope::{self, Source};
-use super::lifted::{find_lifted, FactorRef};
 use super::output::{Outcome, Report};
 use super::structure::counted;
 use crate::cli::{CertArgs, ImageArgs, SpaceArgs, WitnessArgs};
-
-mod lines;
-
-pub(crate) use lines::{faithful_lines, OrbitLines};
+use cyclorb_pipeline::lifted::{find_lifted, FactorRef};
+use cyclorb_pipeline::lines::{faithful_lines, OrbitLines};
+use cyclorb_pipeline::space::{build_space, cert_generators, generator_set_file, parse_set};
 
 /// The block space and its generators as a certificate input.
 pub(super) fn load(args: &CertArgs) -> Result<(BlockSpace, CertSet), String> {
@@ -30,28 +27,6 @@ pub(super) fn load(args: &CertArgs) -> Result<(BlockSpace, CertSet), String> {
     let space = build_space(&args.space.spec, args.space.genus)?;
     let cert = cert_generators(&space, set)?;
     Ok((space, cert))
-}
-
-/// The twists of a generating set on a block space, as a certificate input (with the form).
-pub(crate) fn cert_generators(space: &BlockSpace, set: GeneratingSet) -> Result<CertSet, String> {
-    let gens = space.generators(set).map_err(|e| e.to_string())?;
-    // the certificate routes hold every generator as a dense d × d matrix: the Cyc values
-    // alone (a zero holds no heap, so this is a lower bound) are checked against the budget
-    let d = space.dimension() as u64;
-    let bytes = (d * d)
-        .saturating_mul(gens.len() as u64)
-        .saturating_mul(std::mem::size_of::<cyclorb_field::Cyc>() as u64);
-    cyclorb_field::check_budget(
-        || format!("{} dense generator matrices of size {d} × {d}", gens.len()),
-        bytes,
-    )
-    .map_err(|e| e.to_string())?;
-    let named = gens
-        .into_iter()
-        .map(|(c, op)| (c.to_string(), op))
-        .collect();
-    let form = Some(space.form().to_vec());
-    CertSet::new(space.theory().field().clone(), named, form).map_err(|e| e.to_string())
 }
 
 /// Write a certificate of `kind` with its envelope (`envelope`: spec, genus, set, program).
@@ -81,7 +56,7 @@ fn header(space: &BlockSpace) -> String {
 
 /// Run `cyclorb commutant`.
 pub fn commutant(args: &CertArgs, as_json: bool) -> Outcome {
-    if super::dw::is_dw(&args.space.spec) {
+    if cyclorb_pipeline::dw_space::is_dw(&args.space.spec) {
         return super::dw::commutant(args, as_json);
     }
     let (space, gens) = match load(args) {
@@ -333,7 +308,7 @@ impl ImageRun<'_> {
 /// scalars when no faithful set of lines fits. "Undecided", with the reason, when none of
 /// these decides within its bounds.
 pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
-    if super::dw::is_dw(&args.common.space.spec) {
+    if cyclorb_pipeline::dw_space::is_dw(&args.common.space.spec) {
         return super::dw::image(args, as_json);
     }
     let (space, gens) = match load(&args.common) {
@@ -500,7 +475,7 @@ fn witness_found(
 /// there lifts, see `lifted`); the product's own generators are built only when no factor
 /// yields one.
 pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
-    if super::dw::is_dw(&args.common.space.spec) {
+    if cyclorb_pipeline::dw_space::is_dw(&args.common.space.spec) {
         return super::dw::witness(args, as_json);
     }
     let set = match parse_set(&args.common.space.set) {

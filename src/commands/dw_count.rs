@@ -11,8 +11,8 @@ use cyclorb_dw::{count_vacuum_orbit, CountLimits, Orbitals, VacuumCount, VacuumO
 use num_bigint::BigUint;
 use serde_json::{json, Value};
 
-use super::dw::DwSpace;
 use super::output::{Outcome, Report};
+use cyclorb_pipeline::dw_space::DwSpace;
 
 /// Largest |X_g| whose orbitals (|X_g|² pairs) are computed for B.
 const ORBITAL_LIMIT: usize = 8192;

@@ -12,15 +12,15 @@ use cyclorb_orbit::{
 };
 use serde_json::json;
 
-use super::common::{build_space, parse_set, vacuum_problem};
-use super::dw::{is_dw, DwSpace};
 use super::envelope::{self, Source};
 use super::output::{shell_word, Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
-use super::proof;
 use super::structure::{counted, orbit_json, orbit_text, scalar_sum_entries};
 use crate::cli::OrbitArgs;
+use cyclorb_pipeline::dw_space::{is_dw, DwSpace};
+use cyclorb_pipeline::proof;
+use cyclorb_pipeline::space::{build_space, parse_set, vacuum_problem};
 
 /// The generator set and seed from either a theory or raw files.
 fn load_problem(args: &OrbitArgs) -> Result<OrbitProblem, String> {

@@ -18,10 +18,10 @@ use cyclorb_field::Rational;
 use cyclorb_orbit::{install_stop_handler, pair_orbit, OrbitOptions, Silent};
 use serde_json::{json, Value};
 
-use super::common::vacuum_problem;
 use super::orbit::options;
 use super::output::{Outcome, Report};
 use crate::cli::OrbitArgs;
+use cyclorb_pipeline::space::vacuum_problem;
 
 /// The two factors of a spec `A*B` split at its first `*` outside parentheses, or of a
 /// built-in theory defined as a product (`tricritical-ising`).
@@ -149,7 +149,7 @@ pub fn run_product(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome
             "--method product keeps no checkpoints (its factors are short runs); drop --checkpoint/--resume".into(),
         );
     }
-    let conductor = match super::proof::theory(spec) {
+    let conductor = match cyclorb_pipeline::proof::theory(spec) {
         Ok(theory) => theory.field().conductor(),
         Err(e) => return Outcome::Invalid(e),
     };

@@ -11,8 +11,8 @@ use cyclorb_cert::StabiliserChain;
 use num_bigint::BigUint;
 use serde_json::Value;
 
-use super::super::dw::DwSpace;
 use super::{Claims, Envelope, Stop};
+use cyclorb_pipeline::dw_space::DwSpace;
 
 /// Largest group listed element by element.
 const MAX_LISTED: u64 = 200_000;

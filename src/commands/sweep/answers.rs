@@ -16,8 +16,8 @@ use cyclorb_cert::{
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use cyclorb_orbit::{Orbit, OrbitProblem};
 
-use crate::commands::certify::faithful_lines;
-use crate::commands::lifted::find_lifted;
+use cyclorb_pipeline::lifted::find_lifted;
+use cyclorb_pipeline::lines::faithful_lines;
 
 use super::plan::{ImageBounds, WitnessBounds};
 use super::result::{CommutantAnswer, ImageAnswer, WitnessAnswer};

@@ -7,8 +7,8 @@ use cyclorb_cert::WitnessCertificate;
 use cyclorb_orbit::PoincareReport;
 use cyclorb_theory::Sha256;
 
-use super::super::lifted::FactorRef;
 use crate::commands::output::add_approximations;
+use cyclorb_pipeline::lifted::FactorRef;
 use serde::{Deserialize, Serialize};
 
 /// The commutant answer (keys as in `cyclorb commutant --json`).
