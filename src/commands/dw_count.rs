@@ -100,7 +100,7 @@ pub fn run(
         }
     };
     value["elapsed_seconds"] = json!(started.elapsed().as_secs_f64());
-    value["peak_memory_bytes"] = json!(cyclorb_orbit::peak_memory_bytes());
+    value["peak_memory_bytes"] = json!(crate::runtime::peak_memory_bytes());
     outcome(Report::new(value, text, as_json))
 }
 

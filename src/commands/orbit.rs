@@ -7,8 +7,8 @@ use std::sync::Arc;
 use std::time::{Duration, Instant};
 
 use cyclorb_orbit::{
-    checkpoint_origin, install_stop_handler, CheckpointPlan, GeneratorSet, LabelledEntry, Orbit,
-    OrbitOptions, OrbitProblem, OrbitReport, PoincareReport, Seed,
+    checkpoint_origin, CheckpointPlan, GeneratorSet, LabelledEntry, Orbit, OrbitOptions,
+    OrbitProblem, OrbitReport, PoincareReport, Seed,
 };
 use serde_json::json;
 
@@ -18,6 +18,7 @@ use super::product::run_product;
 use super::progress::OrbitProgress;
 use super::structure::{counted, orbit_json, orbit_text, scalar_sum_entries};
 use crate::cli::OrbitArgs;
+use crate::runtime::{install_stop_handler, peak_memory_bytes};
 use cyclorb_pipeline::dw_space::{is_dw, DwSpace};
 use cyclorb_pipeline::proof;
 use cyclorb_pipeline::space::{build_space, parse_set, vacuum_problem};
@@ -411,6 +412,7 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         None => Err("the orbit is not saturated".to_string()),
     };
     let mut report = OrbitReport::new(&problem, &orbit, poincare, started.elapsed());
+    report.peak_memory_bytes = peak_memory_bytes();
     if let (Some(space), true, false) = (&dw_space, orbit.is_saturated(), dense_sum) {
         report.poincare_sum = space.poincare_report(orbit.len());
     }

@@ -15,12 +15,13 @@ use std::sync::Arc;
 use std::time::Instant;
 
 use cyclorb_field::Rational;
-use cyclorb_orbit::{install_stop_handler, pair_orbit, OrbitOptions, Silent};
+use cyclorb_orbit::{pair_orbit, OrbitOptions, Silent};
 use serde_json::{json, Value};
 
 use super::orbit::options;
 use super::output::{Outcome, Report};
 use crate::cli::OrbitArgs;
+use crate::runtime::install_stop_handler;
 use cyclorb_pipeline::space::vacuum_problem;
 
 /// The two factors of a spec `A*B` split at its first `*` outside parentheses, or of a
@@ -224,7 +225,7 @@ pub fn run_product(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome
     };
     value["poincare_sum"] = sum;
     value["elapsed_seconds"] = json!(started.elapsed().as_secs_f64());
-    value["peak_memory_bytes"] = json!(cyclorb_orbit::peak_memory_bytes());
+    value["peak_memory_bytes"] = json!(crate::runtime::peak_memory_bytes());
     let text = format!(
         "theory {spec} at genus {genus}: dimension {} = {} × {}, {} generators (product route)\n\
          factor {}: {} lines{}; factor {}: {} lines{}\n\

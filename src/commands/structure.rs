@@ -90,7 +90,7 @@ pub fn orbit_json(r: &StructureReport, started: Instant) -> Value {
         "image_order": r.image_order,
         "certificate_rechecked": true,
         "elapsed_seconds": started.elapsed().as_secs_f64(),
-        "peak_memory_bytes": cyclorb_orbit::peak_memory_bytes(),
+        "peak_memory_bytes": crate::runtime::peak_memory_bytes(),
         "details": { "image": r.image, "orbit": r.orbit, "power": r.power },
     })
 }

@@ -9,7 +9,7 @@
 //! - [`OrbitProblem::enumerate`] saturates the orbit breadth-first into an [`Orbit`]: lines in
 //!   order of discovery, layer sizes, a Schreier record (parent, generator) per line
 //!   ([`Orbit::word`]). [`OrbitOptions`] sets a line limit, a memory ceiling, threads, a stop
-//!   flag ([`install_stop_handler`] hooks SIGINT/SIGTERM) and periodic checkpoints;
+//!   flag (the program sets it on SIGINT/SIGTERM) and periodic checkpoints;
 //!   [`OrbitProblem::resume`] continues from a checkpoint to the identical answer.
 //! - [`OrbitProblem::poincare_sum`] computes B exactly, checks tr(B·G) = |orbit|·⟨v₀, v₀⟩_G,
 //!   tests B = λ·G⁻¹, and otherwise writes B over the invariant matrices.
@@ -88,14 +88,12 @@ mod hash;
 mod image;
 mod invertible;
 mod key;
-mod memory;
 mod numerators;
 mod pairs;
 mod poincare;
 mod poly;
 mod problem;
 mod report;
-mod signal;
 mod sparse;
 mod store;
 mod sum;
@@ -108,11 +106,9 @@ pub use error::{FormatError, OrbitError};
 pub use format::{FORMAT_VERSION, GENERATORS_FORMAT, SEED_FORMAT};
 pub use generators::{GeneratorSet, Seed};
 pub use invertible::MAX_DENSE_PROOF;
-pub use memory::{peak_memory_bytes, resident_memory_bytes};
 pub use pairs::{pair_orbit, PairOrbit};
 pub use poincare::PoincareSum;
 pub use problem::OrbitProblem;
 pub use report::{
     InvariantReport, LabelledEntry, ModularInvariantReport, OrbitReport, PoincareReport,
 };
-pub use signal::install_stop_handler;

@@ -9,7 +9,6 @@ use serde::{Deserialize, Serialize};
 
 use crate::engine::{Orbit, StopReason};
 use crate::generators::GeneratorSet;
-use crate::memory::peak_memory_bytes;
 use crate::poincare::PoincareSum;
 use crate::problem::OrbitProblem;
 
@@ -107,7 +106,7 @@ pub struct OrbitReport {
     pub elapsed_seconds: f64,
     /// Enumeration time over all runs that built this orbit (resumed runs included).
     pub compute_seconds: f64,
-    /// Peak resident memory of the process.
+    /// Peak resident memory of the process (measured by the caller; `None` here).
     pub peak_memory_bytes: Option<u64>,
     /// Bytes held by the orbit store.
     pub store_bytes: usize,
@@ -250,7 +249,7 @@ impl OrbitReport {
             poincare_sum,
             elapsed_seconds: elapsed.as_secs_f64(),
             compute_seconds: orbit.compute_seconds(),
-            peak_memory_bytes: peak_memory_bytes(),
+            peak_memory_bytes: None,
             store_bytes: orbit.store_bytes(),
             bytes_per_element: orbit.bytes_per_element(),
             numerator_width: orbit.numerator_width(),

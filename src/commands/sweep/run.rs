@@ -55,25 +55,6 @@ pub enum RunEnd {
     Interrupted,
 }
 
-/// Give freed heap pages back to the system (glibc's `malloc_trim`) and reset the
-/// peak-resident-memory counter (Linux: 5 written to /proc/self/clear_refs sets VmHWM to
-/// the current resident size), so each run reports its own peak rather than the largest
-/// of the sweep so far. Where either is unavailable the peak is the process's.
-fn reset_peak_memory() {
-    #[cfg(all(target_os = "linux", target_env = "gnu"))]
-    {
-        extern "C" {
-            /// `int malloc_trim(size_t pad)` from the C library.
-            fn malloc_trim(pad: usize) -> i32;
-        }
-        // SAFETY: malloc_trim only returns free pages of the allocator to the system.
-        unsafe {
-            malloc_trim(0);
-        }
-    }
-    let _ = std::fs::write("/proc/self/clear_refs", "5");
-}
-
 /// The result skeleton: inputs, citation, costs filled later.
 fn blank_result(
     run: &PlannedRun,
@@ -198,7 +179,7 @@ fn witness_from_factors(
     let elapsed = started.elapsed().as_secs_f64();
     result.elapsed_seconds = elapsed;
     result.total_seconds = elapsed;
-    result.peak_memory_bytes = cyclorb_orbit::peak_memory_bytes();
+    result.peak_memory_bytes = crate::runtime::peak_memory_bytes();
     Ok(Some(result))
 }
 
@@ -211,7 +192,7 @@ pub fn execute(
     notes: &mut Vec<String>,
 ) -> Result<RunEnd, String> {
     let started = Instant::now();
-    reset_peak_memory();
+    crate::runtime::reset_peak_memory();
     display.start(run);
     let interrupted = || settings.signal.load(Ordering::SeqCst);
     if let Some(result) = witness_from_factors(run, settings, display, started)? {
@@ -375,6 +356,6 @@ pub fn execute(
     let elapsed = started.elapsed().as_secs_f64();
     result.elapsed_seconds = elapsed;
     result.total_seconds = elapsed + earlier_seconds.max(0.0);
-    result.peak_memory_bytes = cyclorb_orbit::peak_memory_bytes();
+    result.peak_memory_bytes = crate::runtime::peak_memory_bytes();
     Ok(RunEnd::Finished(Box::new(result)))
 }

@@ -8,8 +8,8 @@ use std::time::Duration;
 
 use cyclorb_matrix::Operator;
 use cyclorb_orbit::{
-    install_stop_handler, CheckpointPlan, OrbitError, OrbitOptions, OrbitProblem, OrbitReport,
-    Progress, Silent, StopReason,
+    CheckpointPlan, OrbitError, OrbitOptions, OrbitProblem, OrbitReport, Progress, Silent,
+    StopReason,
 };
 
 use crate::common::*;
@@ -207,18 +207,4 @@ fn words_print_generator_names() {
     assert_eq!(names.len(), orbit.layer_sizes().len() - 1);
     assert!(names.iter().all(|n| problem.generators().names.contains(n)));
     assert!(problem.word_names(&orbit, 0).is_empty());
-}
-
-#[cfg(unix)]
-#[test]
-fn sigterm_sets_the_stop_flag() {
-    extern "C" {
-        /// `int raise(int sig)` from the C library: deliver a signal to this thread.
-        fn raise(sig: i32) -> i32;
-    }
-    let flag = Arc::new(AtomicBool::new(false));
-    install_stop_handler(&flag).unwrap();
-    // SAFETY: the installed handler only sets the flag (and restores the default action).
-    assert_eq!(unsafe { raise(15) }, 0);
-    assert!(flag.load(Ordering::SeqCst));
 }

@@ -19,3 +19,22 @@ fn status_bytes(key: &str) -> Option<u64> {
     let kib: u64 = line.split_whitespace().nth(1)?.parse().ok()?;
     Some(kib * 1024)
 }
+
+/// Give freed heap pages back to the system (glibc's `malloc_trim`) and reset the
+/// peak-resident-memory counter (Linux: 5 written to /proc/self/clear_refs sets VmHWM to
+/// the current resident size), so each run reports its own peak rather than the largest
+/// of the sweep so far. Where either is unavailable the peak is the process's.
+pub fn reset_peak_memory() {
+    #[cfg(all(target_os = "linux", target_env = "gnu"))]
+    {
+        extern "C" {
+            /// `int malloc_trim(size_t pad)` from the C library.
+            fn malloc_trim(pad: usize) -> i32;
+        }
+        // SAFETY: malloc_trim only returns free pages of the allocator to the system.
+        unsafe {
+            malloc_trim(0);
+        }
+    }
+    let _ = std::fs::write("/proc/self/clear_refs", "5");
+}
