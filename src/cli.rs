@@ -3,6 +3,7 @@
 use std::path::PathBuf;
 
 use clap::{Args, Parser, Subcommand};
+use cyclorb_pipeline::OrbitMethod;
 
 /// Most worker threads accepted: more gain nothing on any machine this program targets, and
 /// a thread the system cannot start would end the process.
@@ -172,7 +173,8 @@ pub struct OrbitArgs {
     #[arg(long, value_parser = thread_count)]
     pub threads: Option<usize>,
     /// Write a resumable checkpoint here periodically and when stopped (default: a file
-    /// `cyclorb-orbit-HASH.ckpt` in the current folder, removed when the orbit closes).
+    /// `cyclorb-orbit-HASH.ckpt` in $XDG_CACHE_HOME/cyclorb or ~/.cache/cyclorb, removed
+    /// when the orbit closes).
     #[arg(long)]
     pub checkpoint: Option<PathBuf>,
     /// Seconds between periodic checkpoints.
@@ -186,11 +188,9 @@ pub struct OrbitArgs {
     /// Print the word (in generator names) of this many orbit elements, farthest first.
     #[arg(long, default_value_t = 0)]
     pub words: usize,
-    /// How to find the orbit: `enumerate` lists every line; `structure` counts them through
-    /// the monomial structure of the representation (when it has one; Ising does);
-    /// `product` finds the orbit of a Deligne product A*B from its factors' orbits.
-    #[arg(long, default_value = "enumerate", value_parser = ["enumerate", "structure", "product"])]
-    pub method: String,
+    /// How to find the orbit.
+    #[arg(long, value_enum, default_value_t = OrbitMethod::Enumerate)]
+    pub method: OrbitMethod,
     /// With `--method structure`: write its certificate (JSON) to this file; `cyclorb check`
     /// re-checks it.
     #[arg(long)]

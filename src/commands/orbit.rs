@@ -17,6 +17,8 @@ use super::output::{shell_word, Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
 use super::structure::{counted, orbit_json, orbit_text, scalar_sum_entries};
+use cyclorb_pipeline::OrbitMethod;
+
 use crate::cli::OrbitArgs;
 use crate::runtime::{install_stop_handler, peak_memory_bytes};
 use cyclorb_pipeline::dw_space::{is_dw, DwSpace};
@@ -326,7 +328,7 @@ fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
 /// Run `cyclorb orbit`.
 pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
     let started = Instant::now();
-    if args.out.is_some() && args.method != "structure" {
+    if args.out.is_some() && args.method != OrbitMethod::Structure {
         return Outcome::Invalid(
             "--out writes the certificate of --method structure; for an image certificate use \
              `cyclorb image --out`"
@@ -344,10 +346,10 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         }
         _ => args,
     };
-    if args.method == "structure" {
+    if args.method == OrbitMethod::Structure {
         return run_structure(args, as_json, started);
     }
-    if args.method == "product" {
+    if args.method == OrbitMethod::Product {
         return run_product(args, as_json, started);
     }
     // dw:GROUP keeps its space: the Poincaré sum is read over its orbitals

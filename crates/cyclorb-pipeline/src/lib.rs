@@ -9,6 +9,7 @@
 //! - [`proof`]: only proved data are used (theory files verified, cached by data hash;
 //!   raw generators proved invertible), and a process-wide record of whether they were.
 //! - [`space`]: spec → block space → generator sets → the vacuum orbit problem.
+//! - [`method`]: the routes to the vacuum orbit ([`OrbitMethod`]).
 //! - [`dw_space`]: the same for Dijkgraaf–Witten theories `dw:GROUP`, as permutations.
 //! - [`lines`]: the faithful set of orbit lines the image route needs.
 //! - [`lifted`]: witnesses of infinite image found on a Deligne factor.
@@ -18,6 +19,9 @@
 pub mod dw_space;
 pub mod lifted;
 pub mod lines;
+pub mod method;
 pub mod proof;
 mod proof_cache;
 pub mod space;
+
+pub use method::OrbitMethod;
