@@ -8,7 +8,7 @@ use std::time::{Duration, Instant};
 
 use cyclorb_orbit::{
     checkpoint_origin, CheckpointPlan, GeneratorSet, LabelledEntry, Orbit, OrbitOptions,
-    OrbitProblem, OrbitReport, PoincareReport, Seed,
+    OrbitProblem, PoincareReport, Seed,
 };
 use serde_json::json;
 
@@ -17,7 +17,7 @@ use super::output::{shell_word, Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
 use super::structure::{counted, orbit_json, orbit_text, scalar_sum_entries};
-use cyclorb_pipeline::OrbitMethod;
+use cyclorb_pipeline::{OrbitAnswer, OrbitMethod};
 
 use crate::cli::OrbitArgs;
 use crate::runtime::{install_stop_handler, peak_memory_bytes};
@@ -265,7 +265,7 @@ fn poincare_text(p: &PoincareReport) -> String {
     t
 }
 
-fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
+fn text_report(report: &OrbitAnswer, words: &[(usize, Vec<String>)]) -> String {
     let mut t = String::new();
     if let Some(theory) = &report.theory {
         t.push_str(&format!("theory {theory}"));
@@ -284,18 +284,20 @@ fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
     if report.saturated {
         t.push_str(&format!(
             "orbit: {} lines, saturated (closed under every generator)\n",
-            report.orbit_size
+            report.size_text()
         ));
     } else {
         t.push_str(&format!(
             "orbit: not saturated after {} lines (stopped: {})\n",
-            report.orbit_size,
+            report.size_text(),
             report
                 .stop_reason
                 .map_or("unknown".to_string(), |r| format!("{r:?}").to_lowercase())
         ));
     }
-    t.push_str(&format!("layer sizes: {:?}\n", report.layer_sizes));
+    if let Some(layers) = &report.layer_sizes {
+        t.push_str(&format!("layer sizes: {layers:?}\n"));
+    }
     let p = &report.poincare_sum;
     t.push_str(&poincare_text(p));
     if let Some(ok) = p.trace_check {
@@ -314,10 +316,13 @@ fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
             }
         ));
     }
-    t.push_str(&format!(
-        "time {:.2} s, store {} bytes ({:.1} bytes per line)",
-        report.elapsed_seconds, report.store_bytes, report.bytes_per_element
-    ));
+    t.push_str(&format!("time {:.2} s", report.elapsed_seconds));
+    if let Some(store) = &report.store {
+        t.push_str(&format!(
+            ", store {} bytes ({:.1} bytes per line)",
+            store.store_bytes, store.bytes_per_element
+        ));
+    }
     if let Some(m) = report.peak_memory_bytes {
         t.push_str(&format!(", peak memory {:.1} MiB", m as f64 / 1048576.0));
     }
@@ -350,7 +355,7 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         return run_structure(args, as_json, started);
     }
     if args.method == OrbitMethod::Product {
-        return run_product(args, as_json, started);
+        return run_product(args, as_json);
     }
     // dw:GROUP keeps its space: the Poincaré sum is read over its orbitals
     let dw_space = match (&args.spec, args.genus) {
@@ -413,7 +418,7 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         Some(Err(e)) => Err(e.clone()),
         None => Err("the orbit is not saturated".to_string()),
     };
-    let mut report = OrbitReport::new(&problem, &orbit, poincare, started.elapsed());
+    let mut report = OrbitAnswer::enumerated(&problem, &orbit, poincare, started.elapsed());
     report.peak_memory_bytes = peak_memory_bytes();
     if let (Some(space), true, false) = (&dw_space, orbit.is_saturated(), dense_sum) {
         report.poincare_sum = space.poincare_report(orbit.len());

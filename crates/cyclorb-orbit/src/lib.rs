@@ -13,7 +13,7 @@
 //!   [`OrbitProblem::resume`] continues from a checkpoint to the identical answer.
 //! - [`OrbitProblem::poincare_sum`] computes B exactly, checks tr(B·G) = |orbit|·⟨v₀, v₀⟩_G,
 //!   tests B = λ·G⁻¹, and otherwise writes B over the invariant matrices.
-//! - [`OrbitReport`] is the JSON result of the command-line contract.
+//! - [`PoincareReport`] is the sum's serialisable form (B by basis labels, the invariants).
 //! - [`pair_orbit`] finds the orbit of a Deligne product's vacuum line from the permutations
 //!   the generators induce on the two factors' orbits (the `pairs` module).
 //!
@@ -109,6 +109,4 @@ pub use invertible::MAX_DENSE_PROOF;
 pub use pairs::{pair_orbit, PairOrbit};
 pub use poincare::PoincareSum;
 pub use problem::OrbitProblem;
-pub use report::{
-    InvariantReport, LabelledEntry, ModularInvariantReport, OrbitReport, PoincareReport,
-};
+pub use report::{InvariantReport, LabelledEntry, ModularInvariantReport, PoincareReport};

@@ -9,19 +9,24 @@
 //! - [`proof`]: only proved data are used (theory files verified, cached by data hash;
 //!   raw generators proved invertible), and a process-wide record of whether they were.
 //! - [`space`]: spec → block space → generator sets → the vacuum orbit problem.
+//! - [`answer`]: the one answer of the orbit routes ([`OrbitAnswer`]), with its JSON keys.
 //! - [`method`]: the routes to the vacuum orbit ([`OrbitMethod`]).
 //! - [`dw_space`]: the same for Dijkgraaf–Witten theories `dw:GROUP`, as permutations.
+//! - [`product`]: the orbit of a Deligne product from its factors' orbits.
 //! - [`lines`]: the faithful set of orbit lines the image route needs.
 //! - [`lifted`]: witnesses of infinite image found on a Deligne factor.
 
 #![deny(missing_docs)]
 
+pub mod answer;
 pub mod dw_space;
 pub mod lifted;
 pub mod lines;
 pub mod method;
+pub mod product;
 pub mod proof;
 mod proof_cache;
 pub mod space;
 
+pub use answer::{Count, OrbitAnswer};
 pub use method::OrbitMethod;

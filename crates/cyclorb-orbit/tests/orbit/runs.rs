@@ -8,8 +8,7 @@ use std::time::Duration;
 
 use cyclorb_matrix::Operator;
 use cyclorb_orbit::{
-    CheckpointPlan, OrbitError, OrbitOptions, OrbitProblem, OrbitReport, Progress, Silent,
-    StopReason,
+    CheckpointPlan, OrbitError, OrbitOptions, OrbitProblem, Progress, Silent, StopReason,
 };
 
 use crate::common::*;
@@ -47,12 +46,6 @@ fn line_limit_stops_unsaturated_then_continues_to_the_same_answer() {
     let last = sizes.len() - 1;
     assert_eq!(sizes[..last], full_sizes[..last]);
     assert!(sizes[last] <= full_sizes[last]);
-    let report = OrbitReport::new(&problem, &partial, Err("unused".into()), Duration::ZERO);
-    let json = serde_json::to_value(&report).unwrap();
-    assert_eq!(json["saturated"], false);
-    assert_eq!(json["stop_reason"], "limit");
-    assert_eq!(json["orbit_size"], 500);
-    assert_eq!(json["poincare_sum"]["is_scalar"], serde_json::Value::Null);
     assert!(problem.poincare_sum(&partial, 1).is_err());
     // a limit equal to the orbit size does not stop a run that closes
     let exact = OrbitOptions {
