@@ -173,6 +173,19 @@ pub struct OrbitAnswer {
     /// The product route's factors.
     #[serde(flatten, default, skip_serializing_if = "Option::is_none")]
     pub product: Option<ProductFigures>,
+    /// Words of listed lines in generator names, when asked for.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub words: Option<Vec<LineWord>>,
+}
+
+/// A listed line and the word of generators that reaches it from the seed (the first
+/// generator applied first: the line is X_k ⋯ X_1 · v₀ for the word X_1 … X_k).
+#[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
+pub struct LineWord {
+    /// The line's index in the order of discovery (0 is the seed).
+    pub line: usize,
+    /// The generator names.
+    pub word: Vec<String>,
 }
 
 impl OrbitAnswer {
@@ -217,6 +230,7 @@ impl OrbitAnswer {
             }),
             count: None,
             product: None,
+            words: None,
         }
     }
 

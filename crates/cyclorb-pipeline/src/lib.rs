@@ -12,6 +12,7 @@
 //! - [`answer`]: the one answer of the orbit routes ([`OrbitAnswer`]), with its JSON keys.
 //! - [`method`]: the routes to the vacuum orbit ([`OrbitMethod`]).
 //! - [`dw_space`]: the same for Dijkgraaf–Witten theories `dw:GROUP`, as permutations.
+//! - [`listing`]: the enumerating route (origin, checkpoints, the run, its answer).
 //! - [`product`]: the orbit of a Deligne product from its factors' orbits.
 //! - [`lines`]: the faithful set of orbit lines the image route needs.
 //! - [`lifted`]: witnesses of infinite image found on a Deligne factor.
@@ -22,6 +23,7 @@ pub mod answer;
 pub mod dw_space;
 pub mod lifted;
 pub mod lines;
+pub mod listing;
 pub mod method;
 pub mod product;
 pub mod proof;

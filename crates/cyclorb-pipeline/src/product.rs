@@ -188,5 +188,6 @@ pub fn product_orbit(
             factors: vec![a.answer.clone(), b.answer.clone()],
             note,
         }),
+        words: None,
     })
 }
