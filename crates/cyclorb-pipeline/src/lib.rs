@@ -14,6 +14,7 @@
 //! - [`dw_space`]: the same for Dijkgraaf–Witten theories `dw:GROUP`, as permutations.
 //! - [`listing`]: the enumerating route (origin, checkpoints, the run, its answer).
 //! - [`product`]: the orbit of a Deligne product from its factors' orbits.
+//! - [`runtime`]: resident memory of the process and the default memory budget.
 //! - [`lines`]: the faithful set of orbit lines the image route needs.
 //! - [`lifted`]: witnesses of infinite image found on a Deligne factor.
 
@@ -28,6 +29,7 @@ pub mod method;
 pub mod product;
 pub mod proof;
 mod proof_cache;
+pub mod runtime;
 pub mod space;
 
 pub use answer::{Count, OrbitAnswer};

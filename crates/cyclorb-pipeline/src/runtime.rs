@@ -1,4 +1,6 @@
-//! Resident memory of this process (now and at its peak), for reports and progress.
+//! What a run needs to know about the process and the machine: resident memory (now and at
+//! its peak, for reports and progress) and the default memory budget. Linux reads
+//! /proc; elsewhere the figures are `None` and the budget falls back to a fixed size.
 
 /// The peak resident set size (VmHWM of /proc/self/status) in bytes; `None` where the
 /// operating system does not provide it.
@@ -37,4 +39,24 @@ pub fn reset_peak_memory() {
         }
     }
     let _ = std::fs::write("/proc/self/clear_refs", "5");
+}
+
+/// Used when /proc/meminfo cannot be read.
+const FALLBACK_BYTES: u64 = 8 << 30;
+
+/// The machine's memory in bytes, from /proc/meminfo.
+fn machine_bytes() -> Option<u64> {
+    let text = std::fs::read_to_string("/proc/meminfo").ok()?;
+    let line = text.lines().find(|l| l.starts_with("MemTotal:"))?;
+    let kib: u64 = line.split_whitespace().nth(1)?.parse().ok()?;
+    kib.checked_mul(1024)
+}
+
+/// The budget in bytes: `mib` when given, else a quarter of the machine's memory (a share
+/// that stays safe on a machine shared with other work).
+pub fn budget_bytes(mib: Option<u64>) -> u64 {
+    match mib {
+        Some(mib) => mib.saturating_mul(1 << 20),
+        None => machine_bytes().map_or(FALLBACK_BYTES, |b| b / 4),
+    }
 }
