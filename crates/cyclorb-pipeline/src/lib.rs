@@ -18,6 +18,28 @@
 //! - [`lines`]: the faithful set of orbit lines the image route needs.
 //! - [`lifted`]: witnesses of infinite image found on a Deligne factor.
 
+//!
+//! ```
+//! use cyclorb_orbit::{OrbitOptions, Silent};
+//! use cyclorb_pipeline::listing::{Listing, Origin};
+//! use cyclorb_pipeline::space::{build_space, cert_generators, parse_set};
+//!
+//! // the vacuum orbit of Ising at genus 2 and its Poincaré sum
+//! let origin = Origin::Theory { spec: "ising".into(), genus: 2, set: "humphries".into() };
+//! let listing = Listing::new(&origin).unwrap();
+//! let orbit = listing.run(&OrbitOptions::default(), None, &mut Silent).unwrap();
+//! let answer = listing.answer(&orbit, 1, Default::default());
+//! // 3840 lines, B = 384·G⁻¹ (the all-genus follow-up of Castro et al., 2019)
+//! assert_eq!(answer.orbit_size.unwrap().to_u64(), Some(3840));
+//! assert_eq!(answer.poincare_sum.prefactor.as_deref(), Some("384"));
+//!
+//! // the commutant of the twists, certified: the representation is irreducible
+//! let space = build_space("ising", 2).unwrap();
+//! let gens = cert_generators(&space, parse_set("humphries").unwrap()).unwrap();
+//! let commutant = cyclorb_cert::commutant(&gens, Default::default()).unwrap();
+//! assert_eq!(commutant.dimension, 1);
+//! ```
+
 #![deny(missing_docs)]
 
 pub mod answer;
