@@ -3,6 +3,7 @@
 use std::path::PathBuf;
 
 use clap::{Args, Parser, Subcommand};
+use cyclorb_pipeline::image::ImageStrategy;
 use cyclorb_pipeline::OrbitMethod;
 
 /// Most worker threads accepted: more gain nothing on any machine this program targets, and
@@ -231,11 +232,10 @@ pub struct ImageArgs {
     /// 1 228 800 lines, 450 MB).
     #[arg(long, default_value_t = 2_000_000)]
     pub orbit_limit: usize,
-    /// Which route to take: `auto` tries the monomial structure, then the vacuum orbit (with
-    /// a witness search once it passes 100 000 lines unclosed) and Schreier–Sims, then
-    /// enumeration; the others take only the route named.
-    #[arg(long, default_value = "auto", value_parser = ["auto", "structure", "enumeration", "orbit"])]
-    pub route: String,
+    /// Which route to take (`auto` tries them in turn, once the vacuum orbit passes 100 000
+    /// lines unclosed with a witness search; the others take only the route named).
+    #[arg(long, value_enum, default_value_t = ImageStrategy::Auto)]
+    pub route: ImageStrategy,
 }
 
 /// `cyclorb witness`: search for an element of infinite projective order.

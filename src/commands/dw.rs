@@ -134,7 +134,7 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
     let mut value = base_json(&space);
     value["finite"] = json!(true);
     value["order"] = json!(order);
-    value["route"] = json!(image.route);
+    value["route"] = json!(image.route.name());
     value["base"] = json!(image.base);
     value["basic_orbit_lengths"] = json!(image.basic_orbit_lengths);
     value["strong_generators"] = json!(image.strong_generators);

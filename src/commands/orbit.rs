@@ -16,9 +16,10 @@ use super::envelope::{self, Source};
 use super::output::{shell_word, Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
-use super::structure::{counted, orbit_json, orbit_text, scalar_sum_entries};
+use super::structure::{orbit_json, orbit_text};
 use crate::cli::OrbitArgs;
 use crate::runtime::{install_stop_handler, peak_memory_bytes};
+use cyclorb_pipeline::counting::{counted, scalar_sum_entries};
 
 /// The engine's options from the command line (limit, memory, threads, checkpoints, stop).
 pub(super) fn options(args: &OrbitArgs, stop: Arc<AtomicBool>) -> OrbitOptions {

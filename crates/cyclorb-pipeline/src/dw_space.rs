@@ -21,6 +21,7 @@ use cyclorb_orbit::{
 use cyclorb_structure::{Monomial, MonomialChain};
 use num_bigint::BigUint;
 
+use crate::image::ImageRoute;
 use crate::proof;
 use crate::space::parse_set;
 
@@ -100,7 +101,7 @@ pub struct DwImage {
     /// The order.
     pub order: BigUint,
     /// `permutation-schreier-sims` or `monomial-schreier-sims`.
-    pub route: &'static str,
+    pub route: ImageRoute,
     /// The base of the chain.
     pub base: Vec<u32>,
     /// Its basic orbit lengths.
@@ -309,7 +310,7 @@ impl DwSpace {
             let chain = StabiliserChain::new(d, &perms).map_err(|e| e.to_string())?;
             return Ok(DwImage {
                 order: chain.order(),
-                route: "permutation-schreier-sims",
+                route: ImageRoute::PermutationSchreierSims,
                 base: chain.base(),
                 basic_orbit_lengths: chain.basic_orbit_lengths(),
                 strong_generators: chain.strong_generator_count(),
@@ -318,7 +319,7 @@ impl DwSpace {
         let chain = MonomialChain::new(d, self.monomial_modulus(), &self.monomials(t));
         Ok(DwImage {
             order: chain.projective_order(),
-            route: "monomial-schreier-sims",
+            route: ImageRoute::MonomialSchreierSims,
             base: chain.base(),
             basic_orbit_lengths: chain.basic_orbit_lengths(),
             strong_generators: chain.strong_generators().len(),

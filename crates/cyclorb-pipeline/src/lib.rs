@@ -15,6 +15,9 @@
 //! - [`listing`]: the enumerating route (origin, checkpoints, the run, its answer).
 //! - [`product`]: the orbit of a Deligne product from its factors' orbits.
 //! - [`runtime`]: resident memory of the process and the default memory budget.
+//! - [`counting`]: the counting route through the monomial structure, re-checked.
+//! - [`image`]: the decision of the projective image's order, route by route.
+//! - [`witness`]: the search for a witness of infinite image (factors first).
 //! - [`lines`]: the faithful set of orbit lines the image route needs.
 //! - [`lifted`]: witnesses of infinite image found on a Deligne factor.
 
@@ -43,7 +46,9 @@
 #![deny(missing_docs)]
 
 pub mod answer;
+pub mod counting;
 pub mod dw_space;
+pub mod image;
 pub mod lifted;
 pub mod lines;
 pub mod listing;
@@ -53,6 +58,7 @@ pub mod proof;
 mod proof_cache;
 pub mod runtime;
 pub mod space;
+pub mod witness;
 
 pub use answer::{Count, OrbitAnswer};
 pub use method::OrbitMethod;

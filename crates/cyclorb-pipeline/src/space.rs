@@ -50,10 +50,13 @@ pub fn vacuum_problem(spec: &str, genus: usize, set: &str) -> Result<OrbitProble
     if dw_space::is_dw(spec) {
         return dw_space::DwSpace::new(spec, genus, set)?.problem();
     }
-    let set = parse_set(set)?;
-    let space = build_space(spec, genus)?;
+    vacuum_problem_of(&build_space(spec, genus)?, parse_set(set)?)
+}
+
+/// The orbit problem of the vacuum line of a block space under a generating set.
+pub fn vacuum_problem_of(space: &BlockSpace, set: GeneratingSet) -> Result<OrbitProblem, String> {
     let twists = space.generators(set).map_err(|e| e.to_string())?;
-    let gens = generator_set_file(&space, &twists);
+    let gens = generator_set_file(space, &twists);
     let seed = Seed::basis_vector(
         space.theory().field(),
         space.dimension(),

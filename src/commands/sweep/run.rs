@@ -116,7 +116,7 @@ fn dw_answers(run: &PlannedRun, space: &DwSpace, result: &mut RunResult, display
                     result.image = Some(ImageAnswer {
                         finite: Some(true),
                         order: Some(order),
-                        route: image.route.into(),
+                        route: image.route.name().into(),
                         note: None,
                     });
                 }
