@@ -12,7 +12,14 @@ Every decision is exact; numbers come back exactly (int, ``fractions.Fraction``,
 """
 
 from ._native import CyclorbError, __version__
-from .certificates import CommutantResult, WitnessResult, commutant, witness
+from .certificates import (
+    CommutantResult,
+    ImageResult,
+    WitnessResult,
+    commutant,
+    image,
+    witness,
+)
 from .matrix import Matrix
 from .numbers import Cyclotomic
 from .orbit import Invariant, OrbitInterrupted, OrbitResult, orbit
@@ -23,6 +30,7 @@ __all__ = [
     "CommutantResult",
     "Cyclotomic",
     "CyclorbError",
+    "ImageResult",
     "Invariant",
     "Matrix",
     "OrbitInterrupted",
@@ -32,6 +40,7 @@ __all__ = [
     "WitnessResult",
     "__version__",
     "commutant",
+    "image",
     "orbit",
     "witness",
 ]

@@ -35,3 +35,13 @@ def commutant(spec: str, genus: int, set: str = ...) -> dict: ...
 def witness(
     spec: str, genus: int, set: str = ..., depth: Optional[int] = ..., tries: Optional[int] = ...
 ) -> dict: ...
+def image(
+    spec: str,
+    genus: int,
+    set: str = ...,
+    route: str = ...,
+    orbit_limit: int = ...,
+    enumeration_cap: int = ...,
+    witness_after: int = ...,
+    threads: Optional[int] = ...,
+) -> dict: ...

@@ -55,3 +55,45 @@ def witness(
 ) -> WitnessResult:
     """Search for a certified element of infinite projective order."""
     return WitnessResult(_native.witness(spec, genus, set, depth, tries))
+
+
+class ImageResult:
+    """The order of the projective image: ``finite`` (None when undecided), ``order`` (an
+    int when finite), the ``route`` that decided it (the program's route names), the
+    ``steps`` passed over, the ``reason`` when undecided, and the re-checked
+    ``certificate``."""
+
+    def __init__(self, raw: dict):
+        self.raw = raw
+        self.finite: Optional[bool] = raw["finite"]
+        self.order: Optional[int] = None if raw["order"] is None else int(raw["order"])
+        self.route: str = raw["route"]
+        self.steps: List[str] = raw["steps"]
+        self.reason: Optional[str] = raw["reason"]
+        self.certificate: Optional[dict] = raw["certificate"]
+
+    def __repr__(self) -> str:
+        if self.finite:
+            return f"<ImageResult: finite, order {self.order} ({self.route})>"
+        if self.finite is False:
+            return f"<ImageResult: infinite ({self.route})>"
+        return f"<ImageResult: undecided ({self.reason})>"
+
+
+def image(
+    spec: str,
+    genus: int,
+    set: str = "humphries",
+    route: str = "auto",
+    orbit_limit: int = 2_000_000,
+    enumeration_cap: int = 20_000,
+    witness_after: int = 100_000,
+    threads: Optional[int] = None,
+) -> ImageResult:
+    """Decide the order of the projective image of the twists (``route``: ``auto``,
+    ``structure``, ``enumeration`` or ``orbit``, as ``cyclorb image --route``)."""
+    return ImageResult(
+        _native.image(
+            spec, genus, set, route, orbit_limit, enumeration_cap, witness_after, threads
+        )
+    )

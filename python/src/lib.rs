@@ -40,5 +40,6 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add_function(wrap_pyfunction!(orbit::orbit, m)?)?;
     m.add_function(wrap_pyfunction!(certs::commutant, m)?)?;
     m.add_function(wrap_pyfunction!(certs::witness, m)?)?;
+    m.add_function(wrap_pyfunction!(certs::image, m)?)?;
     Ok(())
 }

@@ -11,9 +11,11 @@ use std::sync::Arc;
 use std::time::{Duration, Instant};
 
 use cyclorb_orbit::{CheckpointPlan, OrbitOptions, Progress, ProgressObserver};
+use cyclorb_pipeline::counting::{counted, counted_answer};
 use cyclorb_pipeline::listing::{check_writable, default_checkpoint, Listing, Origin};
 use cyclorb_pipeline::product::product_orbit;
 use cyclorb_pipeline::runtime::{budget_bytes, peak_memory_bytes};
+use cyclorb_pipeline::space::{build_space, parse_set};
 use cyclorb_pipeline::{OrbitAnswer, OrbitMethod};
 use pyo3::prelude::*;
 use pyo3::types::PyDict;
@@ -165,9 +167,10 @@ pub fn orbit<'py>(
             return Ok((answer_value(py, &answer)?, None, None));
         }
         OrbitMethod::Structure => {
-            return Err(error(
-                "method 'structure' is reached through the cyclorb program for now (cyclorb orbit SPEC --genus G --method structure)",
-            ))
+            let started = Instant::now();
+            let mut answer = py.detach(|| counted_orbit(spec, *genus, set, started))?;
+            answer.peak_memory_bytes = peak_memory_bytes();
+            return Ok((answer_value(py, &answer)?, None, None));
         }
     }
     let started = Instant::now();
@@ -220,6 +223,24 @@ pub fn orbit<'py>(
         HostStop::Time => "time",
     });
     Ok((value, stopped_by, observer.error))
+}
+
+/// The counting route: the orbit counted through the monomial structure, its certificate
+/// re-checked (`cyclorb_pipeline::counting`).
+fn counted_orbit(spec: &str, genus: usize, set: &str, started: Instant) -> PyResult<OrbitAnswer> {
+    if cyclorb_pipeline::dw_space::is_dw(spec) {
+        return Err(error(format!(
+            "{spec}: the counting route of dw: theories is reached through the program for now (cyclorb orbit {spec} --genus {genus} --method structure)"
+        )));
+    }
+    let set = parse_set(set).map_err(error)?;
+    let space = build_space(spec, genus).map_err(error)?;
+    match counted(&space, set).map_err(error)? {
+        Ok(report) => counted_answer(&space, &report, started.elapsed()).map_err(error),
+        Err(absent) => Err(error(format!(
+            "{spec} at genus {genus} has no monomial structure ({absent}); use method='enumerate'"
+        ))),
+    }
 }
 
 /// An answer as a Python dict with the JSON keys.

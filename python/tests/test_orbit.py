@@ -90,3 +90,25 @@ def test_certificates():
     # Fibonacci at genus 2 has an infinite image (Freedman, Larsen and Wang 2002)
     w = cyclorb.witness("fibonacci", 2)
     assert w.found and w.word
+
+
+def test_counting_route_agrees_with_listing():
+    # Ising at genus 2 counted through the monomial structure: the published 3840 lines and
+    # λ = 384 (as above), 15 supports = (2+1)(4+1) Lagrangian subspaces of F_2^4 (Grove,
+    # Classical Groups and Geometric Algebra)
+    r = cyclorb.orbit("ising", genus=2, method="structure", progress=False)
+    assert (r.size, r.prefactor, r.method) == (3840, 384, "structure")
+    assert r.raw["supports"] == 15 and r.raw["certificate_rechecked"]
+
+
+def test_image_routes_agree():
+    # the structure's count and Schreier–Sims on the 3840 lines are independent routes
+    by_structure = cyclorb.image("ising", 2)
+    by_orbit = cyclorb.image("ising", 2, route="orbit")
+    assert by_structure.route == "structure" and by_orbit.route == "orbit-schreier-sims"
+    assert by_structure.order == by_orbit.order and by_structure.finite
+    # 3840 lines, each stabilised by the same number of elements: the orbit divides |image|
+    assert by_orbit.order % 3840 == 0
+    # Fibonacci at genus 2: infinite image (Freedman, Larsen and Wang 2002)
+    fib = cyclorb.image("fibonacci", 2)
+    assert fib.finite is False and fib.route == "witness"

@@ -16,10 +16,10 @@ use super::envelope::{self, Source};
 use super::output::{shell_word, Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
-use super::structure::{orbit_json, orbit_text};
+use super::structure::orbit_text;
 use crate::cli::OrbitArgs;
 use crate::runtime::{install_stop_handler, peak_memory_bytes};
-use cyclorb_pipeline::counting::{counted, scalar_sum_entries};
+use cyclorb_pipeline::counting::{counted, counted_answer};
 
 /// The engine's options from the command line (limit, memory, threads, checkpoints, stop).
 pub(super) fn options(args: &OrbitArgs, stop: Arc<AtomicBool>) -> OrbitOptions {
@@ -372,20 +372,19 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
             if let Err(e) = written {
                 return Outcome::Invalid(e);
             }
-            let mut value = orbit_json(&report, started);
-            let mut entries_text = String::new();
-            if let Some(lambda) = &report.prefactor {
-                match scalar_sum_entries(&space.1, lambda) {
-                    Ok(entries) => {
-                        entries_text = format!(
-                            "  B by comb-basis labels (row | column: value, non-zero entries):\n{}",
-                            entry_lines(&entries, "poincare_sum.entries")
-                        );
-                        value["poincare_sum"]["entries"] = json!(entries);
-                    }
-                    Err(e) => return Outcome::Invalid(format!("B = λ·G⁻¹ by entries: {e}")),
-                }
-            }
+            let mut answer = match counted_answer(&space.1, &report, started.elapsed()) {
+                Ok(a) => a,
+                Err(e) => return Outcome::Invalid(e),
+            };
+            answer.peak_memory_bytes = peak_memory_bytes();
+            let entries_text = match &answer.poincare_sum.entries {
+                Some(entries) => format!(
+                    "  B by comb-basis labels (row | column: value, non-zero entries):\n{}",
+                    entry_lines(entries, "poincare_sum.entries")
+                ),
+                None => String::new(),
+            };
+            let value = serde_json::to_value(&answer).expect("answers serialise");
             let text = orbit_text(&report, &entries_text);
             Outcome::Done(Report::new(value, text, as_json))
         }

@@ -74,6 +74,22 @@ pub enum ImageStrategy {
     Orbit,
 }
 
+impl std::str::FromStr for ImageStrategy {
+    type Err = String;
+
+    fn from_str(s: &str) -> Result<Self, Self::Err> {
+        match s {
+            "auto" => Ok(ImageStrategy::Auto),
+            "structure" => Ok(ImageStrategy::Structure),
+            "enumeration" => Ok(ImageStrategy::Enumeration),
+            "orbit" => Ok(ImageStrategy::Orbit),
+            other => Err(format!(
+                "unknown route {other:?} (known: auto, structure, enumeration, orbit)"
+            )),
+        }
+    }
+}
+
 /// The bounds of the decision and the names the caller gives them in messages (a flag
 /// such as `--orbit-limit`, or a plan key such as `image.max_lines`).
 #[derive(Debug, Clone)]
