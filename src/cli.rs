@@ -3,6 +3,8 @@
 use std::path::PathBuf;
 
 use clap::{Args, Parser, Subcommand};
+use cyclorb_pipeline::image::ImageStrategy;
+use cyclorb_pipeline::OrbitMethod;
 
 /// Most worker threads accepted: more gain nothing on any machine this program targets, and
 /// a thread the system cannot start would end the process.
@@ -172,7 +174,8 @@ pub struct OrbitArgs {
     #[arg(long, value_parser = thread_count)]
     pub threads: Option<usize>,
     /// Write a resumable checkpoint here periodically and when stopped (default: a file
-    /// `cyclorb-orbit-HASH.ckpt` in the current folder, removed when the orbit closes).
+    /// `cyclorb-orbit-HASH.ckpt` in $XDG_CACHE_HOME/cyclorb or ~/.cache/cyclorb, removed
+    /// when the orbit closes).
     #[arg(long)]
     pub checkpoint: Option<PathBuf>,
     /// Seconds between periodic checkpoints.
@@ -186,11 +189,9 @@ pub struct OrbitArgs {
     /// Print the word (in generator names) of this many orbit elements, farthest first.
     #[arg(long, default_value_t = 0)]
     pub words: usize,
-    /// How to find the orbit: `enumerate` lists every line; `structure` counts them through
-    /// the monomial structure of the representation (when it has one; Ising does);
-    /// `product` finds the orbit of a Deligne product A*B from its factors' orbits.
-    #[arg(long, default_value = "enumerate", value_parser = ["enumerate", "structure", "product"])]
-    pub method: String,
+    /// How to find the orbit.
+    #[arg(long, value_enum, default_value_t = OrbitMethod::Enumerate)]
+    pub method: OrbitMethod,
     /// With `--method structure`: write its certificate (JSON) to this file; `cyclorb check`
     /// re-checks it.
     #[arg(long)]
@@ -231,11 +232,10 @@ pub struct ImageArgs {
     /// 1 228 800 lines, 450 MB).
     #[arg(long, default_value_t = 2_000_000)]
     pub orbit_limit: usize,
-    /// Which route to take: `auto` tries the monomial structure, then the vacuum orbit (with
-    /// a witness search once it passes 100 000 lines unclosed) and Schreier–Sims, then
-    /// enumeration; the others take only the route named.
-    #[arg(long, default_value = "auto", value_parser = ["auto", "structure", "enumeration", "orbit"])]
-    pub route: String,
+    /// Which route to take (`auto` tries them in turn, once the vacuum orbit passes 100 000
+    /// lines unclosed with a witness search; the others take only the route named).
+    #[arg(long, value_enum, default_value_t = ImageStrategy::Auto)]
+    pub route: ImageStrategy,
 }
 
 /// `cyclorb witness`: search for an element of infinite projective order.

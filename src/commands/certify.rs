@@ -4,25 +4,20 @@
 use std::path::Path;
 
 use cyclorb_cert::{
-    commutant as commutant_cert, enumerate_projective_image, find_witness, image_from_lines,
-    polynomial_text, CommutantOptions, GeneratorSet as CertSet, ImageEnumeration, ImageOptions,
-    WitnessCertificate, WitnessOptions, WitnessOutcome,
+    commutant as commutant_cert, polynomial_text, CommutantOptions, GeneratorSet as CertSet,
+    WitnessCertificate, WitnessOptions,
 };
-use cyclorb_mcg::{BlockSpace, GeneratingSet};
-use cyclorb_orbit::{OrbitOptions, OrbitProblem, Seed, Silent};
+use cyclorb_mcg::BlockSpace;
+use cyclorb_pipeline::image::{decide_image, ImageBounds, ImageEvidence, ImageRequest};
+use cyclorb_pipeline::lifted::{find_lifted, FactorRef};
+use cyclorb_pipeline::space::{build_space, cert_generators, parse_set};
+use cyclorb_pipeline::witness::search_generators;
 use serde::Serialize;
 use serde_json::json;
 
-use super::common::{build_space, generator_set_file, parse_set};
 use super::envelope::{self, Source};
-use super::lifted::{find_lifted, FactorRef};
 use super::output::{Outcome, Report};
-use super::structure::counted;
 use crate::cli::{CertArgs, ImageArgs, SpaceArgs, WitnessArgs};
-
-mod lines;
-
-pub(crate) use lines::{faithful_lines, OrbitLines};
 
 /// The block space and its generators as a certificate input.
 pub(super) fn load(args: &CertArgs) -> Result<(BlockSpace, CertSet), String> {
@@ -30,28 +25,6 @@ pub(super) fn load(args: &CertArgs) -> Result<(BlockSpace, CertSet), String> {
     let space = build_space(&args.space.spec, args.space.genus)?;
     let cert = cert_generators(&space, set)?;
     Ok((space, cert))
-}
-
-/// The twists of a generating set on a block space, as a certificate input (with the form).
-pub(crate) fn cert_generators(space: &BlockSpace, set: GeneratingSet) -> Result<CertSet, String> {
-    let gens = space.generators(set).map_err(|e| e.to_string())?;
-    // the certificate routes hold every generator as a dense d × d matrix: the Cyc values
-    // alone (a zero holds no heap, so this is a lower bound) are checked against the budget
-    let d = space.dimension() as u64;
-    let bytes = (d * d)
-        .saturating_mul(gens.len() as u64)
-        .saturating_mul(std::mem::size_of::<cyclorb_field::Cyc>() as u64);
-    cyclorb_field::check_budget(
-        || format!("{} dense generator matrices of size {d} × {d}", gens.len()),
-        bytes,
-    )
-    .map_err(|e| e.to_string())?;
-    let named = gens
-        .into_iter()
-        .map(|(c, op)| (c.to_string(), op))
-        .collect();
-    let form = Some(space.form().to_vec());
-    CertSet::new(space.theory().field().clone(), named, form).map_err(|e| e.to_string())
 }
 
 /// Write a certificate of `kind` with its envelope (`envelope`: spec, genus, set, program).
@@ -81,7 +54,7 @@ fn header(space: &BlockSpace) -> String {
 
 /// Run `cyclorb commutant`.
 pub fn commutant(args: &CertArgs, as_json: bool) -> Outcome {
-    if super::dw::is_dw(&args.space.spec) {
+    if cyclorb_pipeline::dw_space::is_dw(&args.space.spec) {
         return super::dw::commutant(args, as_json);
     }
     let (space, gens) = match load(args) {
@@ -140,305 +113,158 @@ pub fn commutant(args: &CertArgs, as_json: bool) -> Outcome {
 /// orbit then goes on up to `--orbit-limit` when none is found).
 const QUICK_LINES: usize = 100_000;
 
-/// What `cyclorb image` is working with.
-struct ImageRun<'a> {
-    args: &'a ImageArgs,
-    as_json: bool,
-    gens: CertSet,
-    text: String,
-    value: serde_json::Value,
+/// The JSON keys, the text line and the certificate file of a decided image.
+fn render_evidence(
+    evidence: &ImageEvidence,
+    order: Option<&str>,
+    value: &mut serde_json::Value,
+    text: &mut String,
+    out: Option<&Path>,
+    space: &SpaceArgs,
+) -> Result<(), String> {
+    let order = order.unwrap_or_default();
+    match evidence {
+        ImageEvidence::Structure(r) => {
+            write_certificate(out, "structure", space, &r.certificate)?;
+            value["permutation_order"] = json!(r.image.permutation_order);
+            value["kernel_order"] = json!(r.image.kernel_order);
+            value["kernel_invariants"] = json!(r.image.kernel_invariants);
+            value["orbit_size"] = json!(r.orbit_size);
+            value["stabiliser_order"] = json!(r.orbit.line_stabiliser_order);
+            text.push_str(&format!(
+                "projective image: finite, order {order} = |P| {} × |K| {} / |K ∩ scalars| {} (monomial structure; certificate re-checked)\n",
+                r.image.permutation_order, r.image.kernel_order, r.image.kernel_scalars
+            ));
+        }
+        ImageEvidence::Enumeration(cert) => {
+            write_certificate(out, "image-enumeration", space, cert)?;
+            text.push_str(&format!(
+                "projective image: finite, order {order} (enumeration modulo scalars, re-checked)\n"
+            ));
+        }
+        ImageEvidence::LiftedWitness(lifted) => {
+            write_certificate(out, "witness-lifted", space, lifted)?;
+            let (w, f) = (&lifted.certificate, &lifted.lifted_from_factor);
+            text.push_str(&format!(
+                "projective image: infinite; word {} has eigenvalue ratios that are not roots of unity on the {} factor {} (factor {}), so on the product too\n",
+                w.word.join(" "),
+                f.factor,
+                f.theory,
+                w.remaining_factor_text()
+            ));
+            value["word"] = json!(w.word);
+            value["lifted_from_factor"] = json!(f);
+        }
+        ImageEvidence::Witness(w) => {
+            write_certificate(out, "witness", space, w)?;
+            text.push_str(&format!(
+                "projective image: infinite; word {} has eigenvalue ratios that are not roots of unity (factor {})\n",
+                w.word.join(" "),
+                w.remaining_factor_text()
+            ));
+            value["word"] = json!(w.word);
+        }
+        ImageEvidence::Orbit {
+            certificate,
+            added_seeds,
+            vacuum_orbit,
+        } => {
+            // the file also names the line set: the vacuum orbit, then the orbits of these seeds
+            let mut file = serde_json::to_value(certificate).expect("certificates serialise");
+            file["added_orbits"] = json!(added_seeds);
+            write_certificate(out, "image-orbit", space, &file)?;
+            let g = &certificate.group;
+            let seeds = if added_seeds.is_empty() {
+                String::new()
+            } else {
+                format!(
+                    " (the vacuum orbit with the orbits of {})",
+                    added_seeds.join(", ")
+                )
+            };
+            text.push_str(&format!(
+                "projective image: finite, order {} (Schreier–Sims on {} lines{seeds}; faithfulness proved exactly)\n  basic orbits {:?}, {} strong generators; orbit–stabiliser: |orbit| × |stabiliser| = {} × {}\n",
+                g.order, g.degree, g.basic_orbit_lengths, g.strong_generators, g.orbit_of_first_point, g.stabiliser_order
+            ));
+            value["orbit_size"] = json!(vacuum_orbit);
+            value["lines"] = json!(g.degree);
+            value["added_orbits"] = json!(added_seeds);
+            value["stabiliser_order"] = json!(g.stabiliser_order);
+            value["base"] = json!(g.base);
+            value["basic_orbit_lengths"] = json!(g.basic_orbit_lengths);
+            value["strong_generators"] = json!(g.strong_generators);
+        }
+    }
+    Ok(())
 }
 
-impl ImageRun<'_> {
-    /// The report so far (taken out of the run).
-    fn report(&mut self) -> Report {
-        Report::new(
-            std::mem::take(&mut self.value),
-            std::mem::take(&mut self.text),
-            self.as_json,
-        )
-    }
-
-    fn done(&mut self, route: &str, order: String, line: String) -> Outcome {
-        self.text.push_str(&line);
-        self.value["finite"] = json!(true);
-        self.value["order"] = json!(order);
-        self.value["route"] = json!(route);
-        Outcome::Done(self.report())
-    }
-
-    fn undecided(&mut self, reason: String) -> Outcome {
-        self.text.push_str(&format!("undecided: {reason}\n"));
-        self.value["route"] = json!("undecided");
-        self.value["reason"] = json!(reason);
-        Outcome::Stopped(self.report())
-    }
-
-    fn write<T: Serialize>(&self, kind: &str, cert: &T) -> Result<(), String> {
-        let common = &self.args.common;
-        write_certificate(common.out.as_deref(), kind, &common.space, cert)
-    }
-
-    /// Route 0: the monomial structure; `None` when there is none.
-    fn structure(&mut self, space: &BlockSpace) -> Option<Outcome> {
-        let set = parse_set(&self.args.common.space.set).expect("parsed in load");
-        let r = match counted(space, set) {
-            Ok(Ok(r)) => r,
-            Ok(Err(absent)) => {
-                self.text
-                    .push_str(&format!("no monomial structure ({absent})\n"));
-                return None;
-            }
-            Err(e) => return Some(Outcome::Invalid(e)),
-        };
-        if let Err(e) = self.write("structure", &r.certificate) {
-            return Some(Outcome::Invalid(e));
-        }
-        self.value["permutation_order"] = json!(r.image.permutation_order);
-        self.value["kernel_order"] = json!(r.image.kernel_order);
-        self.value["kernel_invariants"] = json!(r.image.kernel_invariants);
-        self.value["orbit_size"] = json!(r.orbit_size);
-        self.value["stabiliser_order"] = json!(r.orbit.line_stabiliser_order);
-        let line = format!(
-            "projective image: finite, order {} = |P| {} × |K| {} / |K ∩ scalars| {} (monomial structure; certificate re-checked)\n",
-            r.image_order, r.image.permutation_order, r.image.kernel_order, r.image.kernel_scalars
-        );
-        Some(self.done("structure", r.image_order.to_string(), line))
-    }
-
-    /// Route 1: enumeration of the image modulo scalars, up to `--enumeration-cap`.
-    fn enumeration(&mut self) -> Outcome {
-        let cap = self.args.enumeration_cap;
-        match enumerate_projective_image(&self.gens, cap) {
-            Ok(ImageEnumeration::Finite(cert)) => {
-                if let Err(e) = cert
-                    .verify(&self.gens)
-                    .map_err(|e| e.to_string())
-                    .and_then(|_| self.write("image-enumeration", &cert))
-                {
-                    return Outcome::Invalid(e);
-                }
-                let line = format!(
-                    "projective image: finite, order {} (enumeration modulo scalars, re-checked)\n",
-                    cert.order
-                );
-                self.done("enumeration", cert.order.to_string(), line)
-            }
-            Ok(ImageEnumeration::Exceeds { .. }) => {
-                let reason = format!("the image has more than {cap} elements (--enumeration-cap)");
-                self.text.push_str(&format!("enumeration: {reason}\n"));
-                self.undecided(reason)
-            }
-            Err(e) => Outcome::Invalid(e.to_string()),
-        }
-    }
-
-    /// Route 3: a certified word of infinite projective order, first on the factors of a
-    /// Deligne product (see `lifted`), then on the generators themselves; `Err` with the
-    /// number of words tried when none is found.
-    fn witness(&mut self, space: &BlockSpace) -> Result<Outcome, usize> {
-        let set = parse_set(&self.args.common.space.set).expect("parsed in load");
-        let options = WitnessOptions::default();
-        match find_lifted(space.theory(), space.genus(), set, &options) {
-            Ok(Some(lifted)) => {
-                if let Err(e) = self.write("witness-lifted", &lifted) {
-                    return Ok(Outcome::Invalid(e));
-                }
-                let (w, f) = (&lifted.certificate, &lifted.lifted_from_factor);
-                self.text.push_str(&format!(
-                    "projective image: infinite; word {} has eigenvalue ratios that are not roots of unity on the {} factor {} (factor {}), so on the product too\n",
-                    w.word.join(" "),
-                    f.factor,
-                    f.theory,
-                    w.remaining_factor_text()
-                ));
-                self.value["finite"] = json!(false);
-                self.value["route"] = json!("witness");
-                self.value["word"] = json!(w.word);
-                self.value["lifted_from_factor"] = json!(f);
-                return Ok(Outcome::Done(self.report()));
-            }
-            Ok(None) => {}
-            Err(e) => return Ok(Outcome::Invalid(e)),
-        }
-        match find_witness(&self.gens, &options) {
-            Ok(WitnessOutcome::Found(w)) => {
-                if let Err(e) = w
-                    .recheck(&self.gens)
-                    .map_err(|e| e.to_string())
-                    .and_then(|_| self.write("witness", &w))
-                {
-                    return Ok(Outcome::Invalid(e));
-                }
-                self.text.push_str(&format!(
-                    "projective image: infinite; word {} has eigenvalue ratios that are not roots of unity (factor {})\n",
-                    w.word.join(" "),
-                    w.remaining_factor_text()
-                ));
-                self.value["finite"] = json!(false);
-                self.value["route"] = json!("witness");
-                self.value["word"] = json!(w.word);
-                Ok(Outcome::Done(self.report()))
-            }
-            Ok(WitnessOutcome::NotFound(r)) => Err(r.words_tried),
-            Err(e) => Ok(Outcome::Invalid(e.to_string())),
-        }
-    }
-
-    /// Route 2: Schreier–Sims on a saturated union of orbits proving faithfulness.
-    fn orbit_certificate(&mut self, lines: &OrbitLines, threads: usize) -> Outcome {
-        let options = ImageOptions { threads };
-        // The certificate's own checks ran while it was made (the faithfulness lemma
-        // exactly, the orbit–stabiliser identity); `verify` would repeat the same
-        // deterministic computation, so it is left to whoever re-reads an `--out` file.
-        let cert = match image_from_lines(&self.gens, lines, &options) {
-            Ok(c) => c,
-            Err(e) => return Outcome::Invalid(e.to_string()),
-        };
-        // the file also names the line set: the vacuum orbit, then the orbits of these seeds
-        let mut file = serde_json::to_value(&cert).expect("certificates serialise");
-        file["added_orbits"] = json!(lines.added_seeds());
-        if let Err(e) = self.write("image-orbit", &file) {
-            return Outcome::Invalid(e);
-        }
-        let g = &cert.group;
-        let seeds = if lines.added_seeds().is_empty() {
-            String::new()
-        } else {
-            format!(
-                " (the vacuum orbit with the orbits of {})",
-                lines.added_seeds().join(", ")
-            )
-        };
-        let line = format!(
-            "projective image: finite, order {} (Schreier–Sims on {} lines{seeds}; faithfulness proved exactly)\n  basic orbits {:?}, {} strong generators; orbit–stabiliser: |orbit| × |stabiliser| = {} × {}\n",
-            g.order, g.degree, g.basic_orbit_lengths, g.strong_generators, g.orbit_of_first_point, g.stabiliser_order
-        );
-        self.value["orbit_size"] = json!(lines.vacuum_orbit_len());
-        self.value["lines"] = json!(g.degree);
-        self.value["added_orbits"] = json!(lines.added_seeds());
-        self.value["stabiliser_order"] = json!(g.stabiliser_order);
-        self.value["base"] = json!(g.base);
-        self.value["basic_orbit_lengths"] = json!(g.basic_orbit_lengths);
-        self.value["strong_generators"] = json!(g.strong_generators);
-        let order = g.order.clone();
-        self.done("orbit-schreier-sims", order, line)
-    }
-}
-
-/// Run `cyclorb image`. The automatic route: the monomial structure when there is one;
-/// otherwise the orbit of the vacuum line, with a witness search once it passes
-/// 100 000 lines unclosed, up to `--orbit-limit` lines; Schreier–Sims on the saturated
-/// orbit (extended by further orbits until it proves faithfulness); enumeration modulo
-/// scalars when no faithful set of lines fits. "Undecided", with the reason, when none of
-/// these decides within its bounds.
+/// Run `cyclorb image`: the decision of `cyclorb_pipeline::image` (the monomial structure;
+/// the vacuum orbit with a witness search once it passes 100 000 lines unclosed, up to
+/// `--orbit-limit` lines; Schreier–Sims on the saturated orbit; enumeration modulo scalars),
+/// its certificate written with `--out`, and the report.
 pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
-    if super::dw::is_dw(&args.common.space.spec) {
+    if cyclorb_pipeline::dw_space::is_dw(&args.common.space.spec) {
         return super::dw::image(args, as_json);
     }
     let (space, gens) = match load(&args.common) {
         Ok(x) => x,
         Err(e) => return Outcome::Invalid(e),
     };
-    let mut run = ImageRun {
-        args,
-        as_json,
-        gens,
-        text: header(&space),
-        value: json!({
-            "theory": space.theory().name(),
-            "genus": space.genus(),
-            "dimension": space.dimension(),
-            "conductor": space.theory().field().conductor(),
-            "finite": null, "order": null, "route": null,
-        }),
+    let set = match parse_set(&args.common.space.set) {
+        Ok(s) => s,
+        Err(e) => return Outcome::Invalid(e),
     };
-    let auto = args.route == "auto";
-    match args.route.as_str() {
-        "enumeration" => return run.enumeration(),
-        "structure" => {
-            return match run.structure(&space) {
-                Some(outcome) => outcome,
-                None => run.undecided("the representation has no monomial structure".into()),
+    let request = ImageRequest {
+        strategy: args.route,
+        bounds: ImageBounds {
+            orbit_limit: args.orbit_limit,
+            enumeration_cap: args.enumeration_cap,
+            orbit_limit_name: "--orbit-limit",
+            enumeration_cap_name: "--enumeration-cap",
+        },
+        witness_after: QUICK_LINES,
+        witness: WitnessOptions::default(),
+        threads: std::thread::available_parallelism().map_or(1, |n| n.get()),
+    };
+    let decision = match decide_image(&space, set, &gens, &request) {
+        Ok(d) => d,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let mut text = header(&space);
+    for step in &decision.steps {
+        text.push_str(step);
+        text.push('\n');
+    }
+    let mut value = json!({
+        "theory": space.theory().name(),
+        "genus": space.genus(),
+        "dimension": space.dimension(),
+        "conductor": space.theory().field().conductor(),
+        "finite": decision.finite,
+        "order": decision.order,
+        "route": decision.route.name(),
+    });
+    match (&decision.evidence, &decision.reason) {
+        (Some(evidence), _) => {
+            let written = render_evidence(
+                evidence,
+                decision.order.as_deref(),
+                &mut value,
+                &mut text,
+                args.common.out.as_deref(),
+                &args.common.space,
+            );
+            if let Err(e) = written {
+                return Outcome::Invalid(e);
             }
+            Outcome::Done(Report::new(value, text, as_json))
         }
-        "auto" => {
-            if let Some(outcome) = run.structure(&space) {
-                return outcome;
-            }
+        (None, reason) => {
+            let reason = reason.clone().unwrap_or_default();
+            text.push_str(&format!("undecided: {reason}\n"));
+            value["reason"] = json!(reason);
+            Outcome::Stopped(Report::new(value, text, as_json))
         }
-        _ => {}
-    }
-    // route 2: the orbit of the vacuum line
-    let set = parse_set(&args.common.space.set).expect("parsed in load");
-    let twists = space.generators(set).expect("built in load");
-    let problem = match OrbitProblem::new(
-        generator_set_file(&space, &twists),
-        &Seed::basis_vector(
-            space.theory().field(),
-            space.dimension(),
-            space.basis().vacuum(),
-        ),
-    ) {
-        Ok(p) => p,
-        Err(e) => return Outcome::Invalid(e.to_string()),
-    };
-    let threads = std::thread::available_parallelism().map_or(1, |n| n.get());
-    let options = |limit: usize| OrbitOptions {
-        limit: Some(limit),
-        threads,
-        ..OrbitOptions::default()
-    };
-    let quick = if auto {
-        QUICK_LINES.min(args.orbit_limit)
-    } else {
-        args.orbit_limit
-    };
-    let mut orbit = match problem.enumerate(&options(quick), &mut Silent) {
-        Ok(o) => o,
-        Err(e) => return Outcome::Invalid(e.to_string()),
-    };
-    let mut words_tried = None;
-    if !orbit.is_saturated() && auto {
-        run.text.push_str(&format!(
-            "orbit: not closed after {} lines; searching for a witness of infinite image\n",
-            orbit.len()
-        ));
-        match run.witness(&space) {
-            Ok(outcome) => return outcome,
-            Err(tried) => words_tried = Some(tried),
-        }
-        if quick < args.orbit_limit {
-            run.text.push_str(&format!(
-                "no witness among {tried} words; the orbit goes on up to {} lines\n",
-                args.orbit_limit,
-                tried = words_tried.unwrap_or(0)
-            ));
-            orbit = match problem.extend(orbit, &options(args.orbit_limit), &mut Silent) {
-                Ok(o) => o,
-                Err(e) => return Outcome::Invalid(e.to_string()),
-            };
-        }
-    }
-    if !orbit.is_saturated() {
-        let mut reason = format!(
-            "the vacuum orbit is not closed within {} lines (--orbit-limit)",
-            args.orbit_limit
-        );
-        if let Some(tried) = words_tried {
-            reason.push_str(&format!(" and no witness among {tried} words"));
-        }
-        return run.undecided(reason);
-    }
-    match faithful_lines(&problem, &orbit, args.orbit_limit, threads) {
-        Ok(Ok(lines)) => run.orbit_certificate(&lines, threads),
-        Ok(Err(reason)) if auto => {
-            run.text
-                .push_str(&format!("orbit route: {reason}; trying enumeration\n"));
-            run.enumeration()
-        }
-        Ok(Err(reason)) => run.undecided(reason),
-        Err(e) => Outcome::Invalid(e),
     }
 }
 
@@ -500,7 +326,7 @@ fn witness_found(
 /// there lifts, see `lifted`); the product's own generators are built only when no factor
 /// yields one.
 pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
-    if super::dw::is_dw(&args.common.space.spec) {
+    if cyclorb_pipeline::dw_space::is_dw(&args.common.space.spec) {
         return super::dw::witness(args, as_json);
     }
     let set = match parse_set(&args.common.space.set) {
@@ -550,15 +376,8 @@ pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
         Ok(g) => g,
         Err(e) => return Outcome::Invalid(e),
     };
-    match find_witness(&gens, &options) {
-        Ok(WitnessOutcome::Found(w)) => {
-            if let Err(e) = w.recheck(&gens) {
-                return Outcome::CheckFailed(Report::new(
-                    json!({"found": false, "error": e.to_string()}),
-                    format!("witness does not re-check: {e}"),
-                    as_json,
-                ));
-            }
+    match search_generators(&gens, &options) {
+        Ok(Ok(w)) => {
             if let Err(e) = write_certificate(
                 args.common.out.as_deref(),
                 "witness",
@@ -569,20 +388,21 @@ pub fn witness(args: &WitnessArgs, as_json: bool) -> Outcome {
             }
             witness_found(base, text, &w, None, as_json)
         }
-        Ok(WitnessOutcome::NotFound(r)) => {
+        Ok(Err(words_tried)) => {
             let mut text = text;
             text.push_str(&format!(
-                "no witness among {} words (this proves nothing about finiteness)\n",
-                r.words_tried
+                "no witness among {words_tried} words (this proves nothing about finiteness)\n"
             ));
             let mut value = base;
             value["found"] = json!(false);
             value["word"] = json!(null);
             value["certificate"] = json!(null);
             value["lifted_from_factor"] = json!(null);
-            value["words_tried"] = json!(r.words_tried);
+            value["words_tried"] = json!(words_tried);
             Outcome::Done(Report::new(value, text, as_json))
         }
-        Err(e) => Outcome::Invalid(e.to_string()),
+        Err(e) => {
+            Outcome::CheckFailed(Report::new(json!({"found": false, "error": e}), e, as_json))
+        }
     }
 }

@@ -110,7 +110,7 @@ pub(crate) fn body_as<T: DeserializeOwned>(
 
 /// The theory files read now against those the certificate records.
 pub(crate) fn check_theory_files(envelope: &Envelope, claims: &mut Claims) -> Result<(), Stop> {
-    let now = super::proof::files_read();
+    let now = cyclorb_pipeline::proof::files_read();
     claims.claim("theory-files", || {
         if now == envelope.theory_files {
             Ok(if now.is_empty() {

@@ -13,9 +13,10 @@ use cyclorb_orbit::{InvariantReport, PoincareReport};
 use num_bigint::BigUint;
 use serde_json::{json, Value};
 
-use super::dw::{generator_images, DwSpace};
+use super::dw::generator_images;
 use super::envelope::{self, Source};
 use super::output::{Outcome, Report};
+use cyclorb_pipeline::dw_space::DwSpace;
 
 /// Largest |X_g| whose orbitals (|X_g|² pairs) are computed for B.
 const ORBITAL_LIMIT: usize = 8192;
@@ -144,7 +145,7 @@ pub fn run(args: &CountArgs, as_json: bool, started: Instant) -> Outcome {
         }
     };
     value["elapsed_seconds"] = json!(started.elapsed().as_secs_f64());
-    value["peak_memory_bytes"] = json!(cyclorb_orbit::peak_memory_bytes());
+    value["peak_memory_bytes"] = json!(crate::runtime::peak_memory_bytes());
     outcome(Report::new(value, text, as_json))
 }
 

@@ -12,7 +12,7 @@ use std::path::Path;
 use serde::Serialize;
 use serde_json::{json, Map, Value};
 
-use super::proof;
+use cyclorb_pipeline::proof;
 
 /// The input of a certificate: a theory spec, a genus and a generating set.
 pub struct Source<'a> {

@@ -3,19 +3,15 @@
 mod budget;
 mod certify;
 mod check;
-mod common;
 mod dw;
 mod dw_count;
 mod dw_describe;
 mod envelope;
 mod field;
-mod lifted;
 mod orbit;
 pub mod output;
 mod product;
 mod progress;
-mod proof;
-mod proof_cache;
 mod shell;
 mod structure;
 mod sweep;
@@ -29,7 +25,7 @@ use crate::cli::{Cli, Command};
 /// Run the chosen subcommand and turn its outcome into the process exit code.
 pub fn dispatch(cli: Cli) -> ExitCode {
     let json = cli.json;
-    proof::set_unverified(cli.unverified);
+    cyclorb_pipeline::proof::set_unverified(cli.unverified);
     budget::install(cli.memory_limit);
     let outcome = match &cli.command {
         Command::Field(a) => field::run(a, json),

@@ -1,118 +1,25 @@
 //! `cyclorb orbit`: the orbit of the vacuum line (or any seed) and its exact Poincaré sum,
 //! with limits, checkpoints, resume, and a progress display on terminals.
 
-use std::path::{Path, PathBuf};
 use std::sync::atomic::AtomicBool;
 use std::sync::Arc;
 use std::time::{Duration, Instant};
 
-use cyclorb_orbit::{
-    checkpoint_origin, install_stop_handler, CheckpointPlan, GeneratorSet, LabelledEntry, Orbit,
-    OrbitOptions, OrbitProblem, OrbitReport, PoincareReport, Seed,
-};
+use cyclorb_orbit::{CheckpointPlan, LabelledEntry, OrbitOptions, PoincareReport};
+use cyclorb_pipeline::dw_space::is_dw;
+use cyclorb_pipeline::listing::{check_writable, default_checkpoint, Listing, Origin};
+use cyclorb_pipeline::space::{build_space, parse_set};
+use cyclorb_pipeline::{OrbitAnswer, OrbitMethod};
 use serde_json::json;
 
-use super::common::{build_space, parse_set, vacuum_problem};
-use super::dw::{is_dw, DwSpace};
 use super::envelope::{self, Source};
 use super::output::{shell_word, Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
-use super::proof;
-use super::structure::{counted, orbit_json, orbit_text, scalar_sum_entries};
+use super::structure::orbit_text;
 use crate::cli::OrbitArgs;
-
-/// The generator set and seed from either a theory or raw files.
-fn load_problem(args: &OrbitArgs) -> Result<OrbitProblem, String> {
-    match (&args.matrices, &args.seed, &args.spec) {
-        (Some(m), Some(s), _) => {
-            let gens = GeneratorSet::read(m).map_err(|e| e.to_string())?;
-            let seed = Seed::read(s).map_err(|e| e.to_string())?;
-            gens.validate()
-                .map_err(|e| format!("{}: {e}", m.display()))?;
-            proof::generators(&gens, &m.display().to_string())?;
-            OrbitProblem::new(gens, &seed).map_err(|e| e.to_string())
-        }
-        (_, _, Some(spec)) => {
-            let genus = args.genus.ok_or("--genus is required with a theory")?;
-            vacuum_problem(spec, genus, &args.set)
-        }
-        _ => Err("give a theory SPEC with --genus, or --matrices FILE --seed FILE".into()),
-    }
-}
-
-/// How the problem of `args` is built, as JSON recorded in its checkpoints, so that
-/// `--resume FILE` alone can rebuild it (raw files by absolute path).
-fn origin_of(args: &OrbitArgs) -> String {
-    let absolute = |p: &Path| {
-        std::path::absolute(p)
-            .unwrap_or_else(|_| p.to_path_buf())
-            .display()
-            .to_string()
-    };
-    match (&args.matrices, &args.seed) {
-        (Some(m), Some(s)) => json!({"matrices": absolute(m), "seed": absolute(s)}),
-        _ => json!({"theory": args.spec, "genus": args.genus, "set": args.set}),
-    }
-    .to_string()
-}
-
-/// `--resume FILE` without a theory or raw files: the arguments completed with what the
-/// checkpoint records (theory, genus and generating set, or the raw files).
-fn recorded_arguments(args: &OrbitArgs, path: &Path) -> Result<OrbitArgs, String> {
-    let place = path.display();
-    let origin = checkpoint_origin(path)
-        .map_err(|e| e.to_string())?
-        .ok_or_else(|| {
-            format!(
-                "{place}: this checkpoint records no theory (an older format); give SPEC --genus G \
-                 (and --set) as when it was written"
-            )
-        })?;
-    let v: serde_json::Value = serde_json::from_str(&origin)
-        .map_err(|e| format!("{place}: the recorded origin is not JSON: {e}"))?;
-    let mut out = args.clone();
-    match (
-        v["matrices"].as_str(),
-        v["seed"].as_str(),
-        v["theory"].as_str(),
-        v["genus"].as_u64(),
-        v["set"].as_str(),
-    ) {
-        (Some(m), Some(s), ..) => {
-            out.matrices = Some(m.into());
-            out.seed = Some(s.into());
-        }
-        (_, _, Some(theory), Some(genus), Some(set)) => {
-            out.spec = Some(theory.to_string());
-            out.genus = Some(genus as usize);
-            out.set = set.to_string();
-        }
-        _ => {
-            return Err(format!(
-                "{place}: the recorded origin {origin} names no problem"
-            ))
-        }
-    }
-    Ok(out)
-}
-
-/// Where a run without `--checkpoint` keeps its checkpoint: `cyclorb-orbit-HASH.ckpt` (HASH
-/// from the generators and seed) in `$XDG_CACHE_HOME/cyclorb`, `~/.cache/cyclorb` or the
-/// temporary folder, created when missing; `None` when none can be written.
-fn default_checkpoint(problem: &OrbitProblem) -> Option<PathBuf> {
-    let base = std::env::var_os("XDG_CACHE_HOME")
-        .map(PathBuf::from)
-        .or_else(|| std::env::var_os("HOME").map(|h| PathBuf::from(h).join(".cache")))
-        .unwrap_or_else(std::env::temp_dir)
-        .join("cyclorb");
-    std::fs::create_dir_all(&base).ok()?;
-    let path = base.join(format!(
-        "cyclorb-orbit-{:016x}.ckpt",
-        problem.content_hash() as u64
-    ));
-    check_writable(&path).ok().map(|_| path)
-}
+use crate::runtime::{install_stop_handler, peak_memory_bytes};
+use cyclorb_pipeline::counting::{counted, counted_answer};
 
 /// The engine's options from the command line (limit, memory, threads, checkpoints, stop).
 pub(super) fn options(args: &OrbitArgs, stop: Arc<AtomicBool>) -> OrbitOptions {
@@ -131,28 +38,6 @@ pub(super) fn options(args: &OrbitArgs, stop: Arc<AtomicBool>) -> OrbitOptions {
         stop: Some(stop),
         ..OrbitOptions::default()
     }
-}
-
-/// Prove before any work that a checkpoint can be written at `path`: a file beside it is
-/// created and removed (checkpoints are written through a temporary file and a rename, so
-/// the folder must take new files). An unwritable path found only at the first periodic
-/// write would lose the work done until then.
-fn check_writable(path: &Path) -> Result<(), String> {
-    let mut probe = path.as_os_str().to_owned();
-    probe.push(format!(".probe{}", std::process::id()));
-    let probe = PathBuf::from(probe);
-    std::fs::OpenOptions::new()
-        .write(true)
-        .create_new(true)
-        .open(&probe)
-        .map_err(|e| {
-            format!(
-                "checkpoint {} cannot be written ({e}); choose another --checkpoint path",
-                path.display()
-            )
-        })?;
-    std::fs::remove_file(&probe).ok();
-    Ok(())
 }
 
 /// Entries of B (or of an invariant) printed as text before pointing to the JSON.
@@ -262,7 +147,7 @@ fn poincare_text(p: &PoincareReport) -> String {
     t
 }
 
-fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
+fn text_report(report: &OrbitAnswer) -> String {
     let mut t = String::new();
     if let Some(theory) = &report.theory {
         t.push_str(&format!("theory {theory}"));
@@ -281,18 +166,20 @@ fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
     if report.saturated {
         t.push_str(&format!(
             "orbit: {} lines, saturated (closed under every generator)\n",
-            report.orbit_size
+            report.size_text()
         ));
     } else {
         t.push_str(&format!(
             "orbit: not saturated after {} lines (stopped: {})\n",
-            report.orbit_size,
+            report.size_text(),
             report
                 .stop_reason
                 .map_or("unknown".to_string(), |r| format!("{r:?}").to_lowercase())
         ));
     }
-    t.push_str(&format!("layer sizes: {:?}\n", report.layer_sizes));
+    if let Some(layers) = &report.layer_sizes {
+        t.push_str(&format!("layer sizes: {layers:?}\n"));
+    }
     let p = &report.poincare_sum;
     t.push_str(&poincare_text(p));
     if let Some(ok) = p.trace_check {
@@ -301,20 +188,24 @@ fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
             if ok { "holds" } else { "FAILS" }
         ));
     }
-    for (i, w) in words {
+    for w in report.words.iter().flatten() {
         t.push_str(&format!(
-            "word of line {i}: {}\n",
-            if w.is_empty() {
+            "word of line {}: {}\n",
+            w.line,
+            if w.word.is_empty() {
                 "(seed)".into()
             } else {
-                w.join(" ")
+                w.word.join(" ")
             }
         ));
     }
-    t.push_str(&format!(
-        "time {:.2} s, store {} bytes ({:.1} bytes per line)",
-        report.elapsed_seconds, report.store_bytes, report.bytes_per_element
-    ));
+    t.push_str(&format!("time {:.2} s", report.elapsed_seconds));
+    if let Some(store) = &report.store {
+        t.push_str(&format!(
+            ", store {} bytes ({:.1} bytes per line)",
+            store.store_bytes, store.bytes_per_element
+        ));
+    }
     if let Some(m) = report.peak_memory_bytes {
         t.push_str(&format!(", peak memory {:.1} MiB", m as f64 / 1048576.0));
     }
@@ -325,7 +216,7 @@ fn text_report(report: &OrbitReport, words: &[(usize, Vec<String>)]) -> String {
 /// Run `cyclorb orbit`.
 pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
     let started = Instant::now();
-    if args.out.is_some() && args.method != "structure" {
+    if args.out.is_some() && args.method != OrbitMethod::Structure {
         return Outcome::Invalid(
             "--out writes the certificate of --method structure; for an image certificate use \
              `cyclorb image --out`"
@@ -335,33 +226,22 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
     let completed;
     let args = match &args.resume {
         Some(path) if args.spec.is_none() && args.matrices.is_none() => {
-            completed = match recorded_arguments(args, path) {
-                Ok(a) => a,
+            completed = match Origin::recorded(path) {
+                Ok(origin) => with_origin(args, origin),
                 Err(e) => return Outcome::Invalid(e),
             };
             &completed
         }
         _ => args,
     };
-    if args.method == "structure" {
+    if args.method == OrbitMethod::Structure {
         return run_structure(args, as_json, started);
     }
-    if args.method == "product" {
-        return run_product(args, as_json, started);
+    if args.method == OrbitMethod::Product {
+        return run_product(args, as_json);
     }
-    // dw:GROUP keeps its space: the Poincaré sum is read over its orbitals
-    let dw_space = match (&args.spec, args.genus) {
-        (Some(spec), Some(genus)) if is_dw(spec) => match DwSpace::new(spec, genus, &args.set) {
-            Ok(s) => Some(s),
-            Err(e) => return Outcome::Invalid(e),
-        },
-        _ => None,
-    };
-    let problem = match dw_space
-        .as_ref()
-        .map_or_else(|| load_problem(args), DwSpace::problem)
-    {
-        Ok(p) => p.with_origin(origin_of(args)),
+    let listing = match origin_of(args).and_then(|origin| Listing::new(&origin)) {
+        Ok(l) => l,
         Err(e) => return Outcome::Invalid(e),
     };
     let stop = Arc::new(AtomicBool::new(false));
@@ -376,7 +256,7 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
             }
         }
         None => {
-            opts.checkpoint = default_checkpoint(&problem).map(|path| CheckpointPlan {
+            opts.checkpoint = default_checkpoint(listing.problem()).map(|path| CheckpointPlan {
                 path,
                 every: Duration::from_secs(args.checkpoint_every.max(1)),
             });
@@ -384,48 +264,17 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
     }
     let chosen_checkpoint = args.checkpoint.is_none() && args.resume.is_none();
     let mut progress = OrbitProgress::new(as_json);
-    let result: Result<Orbit, _> = match &args.resume {
-        Some(path) => problem.resume(path, &opts, &mut progress),
-        None => problem.enumerate(&opts, &mut progress),
-    };
+    let result = listing.run(&opts, args.resume.as_deref(), &mut progress);
     progress.finish();
     let orbit = match result {
         Ok(o) => o,
-        Err(e) => return Outcome::Invalid(e.to_string()),
+        Err(e) => return Outcome::Invalid(e),
     };
-    // dw: B comes from the subsets and orbitals (no dense d×d matrix over the field)
-    // (a twisted dw: theory has phases: its B is summed like any other theory's)
-    let dense_sum = dw_space.as_ref().map_or(true, DwSpace::is_twisted);
-    let sum = if orbit.is_saturated() && dense_sum {
-        Some(
-            problem
-                .poincare_sum(&orbit, opts.threads)
-                .map_err(|e| e.to_string()),
-        )
-    } else {
-        None
-    };
-    let poincare = match &sum {
-        Some(Ok(s)) => Ok(s),
-        Some(Err(e)) => Err(e.clone()),
-        None => Err("the orbit is not saturated".to_string()),
-    };
-    let mut report = OrbitReport::new(&problem, &orbit, poincare, started.elapsed());
-    if let (Some(space), true, false) = (&dw_space, orbit.is_saturated(), dense_sum) {
-        report.poincare_sum = space.poincare_report(orbit.len());
-    }
-    let words: Vec<(usize, Vec<String>)> = (0..args.words.min(orbit.len()))
-        .map(|k| orbit.len() - 1 - k)
-        .map(|i| (i, problem.word_names(&orbit, i)))
-        .collect();
+    let mut report = listing.answer(&orbit, opts.threads, started.elapsed());
+    report.peak_memory_bytes = peak_memory_bytes();
+    report.words = listing.farthest_words(&orbit, args.words);
     let mut value = serde_json::to_value(&report).expect("reports serialise");
-    if !words.is_empty() {
-        value["words"] = json!(words
-            .iter()
-            .map(|(i, w)| json!({"line": i, "word": w}))
-            .collect::<Vec<_>>());
-    }
-    let mut text = text_report(&report, &words);
+    let mut text = text_report(&report);
     if let Some(plan) = &opts.checkpoint {
         if orbit.is_saturated() {
             if chosen_checkpoint {
@@ -453,6 +302,39 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
     } else {
         Outcome::Done(out)
     }
+}
+
+/// The origin of the problem the arguments name (a theory with its genus, or raw files).
+fn origin_of(args: &OrbitArgs) -> Result<Origin, String> {
+    match (&args.matrices, &args.seed, &args.spec) {
+        (Some(m), Some(s), _) => Ok(Origin::Files {
+            matrices: m.clone(),
+            seed: s.clone(),
+        }),
+        (_, _, Some(spec)) => Ok(Origin::Theory {
+            spec: spec.clone(),
+            genus: args.genus.ok_or("--genus is required with a theory")?,
+            set: args.set.clone(),
+        }),
+        _ => Err("give a theory SPEC with --genus, or --matrices FILE --seed FILE".into()),
+    }
+}
+
+/// `--resume FILE` alone: the arguments completed with the origin the checkpoint records.
+fn with_origin(args: &OrbitArgs, origin: Origin) -> OrbitArgs {
+    let mut out = args.clone();
+    match origin {
+        Origin::Files { matrices, seed } => {
+            out.matrices = Some(matrices);
+            out.seed = Some(seed);
+        }
+        Origin::Theory { spec, genus, set } => {
+            out.spec = Some(spec);
+            out.genus = Some(genus);
+            out.set = set;
+        }
+    }
+    out
 }
 
 /// `--method structure`: count the orbit instead of listing it.
@@ -497,20 +379,19 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
             if let Err(e) = written {
                 return Outcome::Invalid(e);
             }
-            let mut value = orbit_json(&report, started);
-            let mut entries_text = String::new();
-            if let Some(lambda) = &report.prefactor {
-                match scalar_sum_entries(&space.1, lambda) {
-                    Ok(entries) => {
-                        entries_text = format!(
-                            "  B by comb-basis labels (row | column: value, non-zero entries):\n{}",
-                            entry_lines(&entries, "poincare_sum.entries")
-                        );
-                        value["poincare_sum"]["entries"] = json!(entries);
-                    }
-                    Err(e) => return Outcome::Invalid(format!("B = λ·G⁻¹ by entries: {e}")),
-                }
-            }
+            let mut answer = match counted_answer(&space.1, &report, started.elapsed()) {
+                Ok(a) => a,
+                Err(e) => return Outcome::Invalid(e),
+            };
+            answer.peak_memory_bytes = peak_memory_bytes();
+            let entries_text = match &answer.poincare_sum.entries {
+                Some(entries) => format!(
+                    "  B by comb-basis labels (row | column: value, non-zero entries):\n{}",
+                    entry_lines(entries, "poincare_sum.entries")
+                ),
+                None => String::new(),
+            };
+            let value = serde_json::to_value(&answer).expect("answers serialise");
             let text = orbit_text(&report, &entries_text);
             Outcome::Done(Report::new(value, text, as_json))
         }

@@ -5,7 +5,7 @@ use std::process::ExitCode;
 
 use serde_json::Value;
 
-use super::proof;
+use cyclorb_pipeline::proof;
 
 /// The result of a subcommand, before it is printed.
 pub enum Outcome {

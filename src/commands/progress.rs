@@ -3,7 +3,9 @@
 
 use std::time::Duration;
 
-use cyclorb_orbit::{resident_memory_bytes, Progress, ProgressObserver};
+use cyclorb_orbit::{Progress, ProgressObserver};
+
+use crate::runtime::resident_memory_bytes;
 use indicatif::{ProgressBar, ProgressStyle};
 
 use super::output::progress_allowed;

@@ -12,15 +12,15 @@ use serde_json::{json, Value};
 
 use super::output::{Outcome, Report};
 use super::progress::spinner;
-use super::proof_cache;
 use crate::cli::{DescribeArgs, VerifyArgs};
+use cyclorb_pipeline::proof;
 
 const GRAMMAR: &str = "spec := factor ('*' factor)* ; factor := conj(spec) | galois:K(spec) | gauge:SEED(spec) | (spec) | NAME | PATH.json";
 
 /// Run `cyclorb theories`.
 pub fn run_theories(as_json: bool) -> Outcome {
     let mut rows = builtin_catalogue();
-    rows.extend(super::dw::catalogue());
+    rows.extend(cyclorb_pipeline::dw_space::catalogue());
     let width = rows.iter().map(|(s, _)| s.len()).max().unwrap_or(0);
     let mut text = String::from("Theory specs (usable wherever SPEC is asked):\n");
     for (spec, description) in &rows {
@@ -155,7 +155,7 @@ fn describe_text(t: &Theory) -> String {
 
 /// Run `cyclorb describe SPEC`.
 pub fn run_describe(args: &DescribeArgs, as_json: bool) -> Outcome {
-    if super::dw::is_dw(&args.spec) {
+    if cyclorb_pipeline::dw_space::is_dw(&args.spec) {
         return super::dw::describe(&args.spec, as_json);
     }
     let theory = match parse_spec(&args.spec) {
@@ -196,14 +196,14 @@ fn remember_proved_files(traced: &TracedSpec) {
     let hash = traced.theory.data_hash();
     for file in &traced.files {
         if file.theory.data_hash() == hash {
-            proof_cache::remember(&hash);
+            proof::remember_proved(&hash);
         }
     }
 }
 
 /// Run `cyclorb verify SPEC|FILE`.
 pub fn run_verify(args: &VerifyArgs, as_json: bool) -> Outcome {
-    if super::dw::is_dw(&args.spec) {
+    if cyclorb_pipeline::dw_space::is_dw(&args.spec) {
         return Outcome::Invalid(format!(
             "{}: a Dijkgraaf–Witten theory is built from its group (checked when read); its twists are checked by `cyclorb twists {} --genus G --check`",
             args.spec, args.spec

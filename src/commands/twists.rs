@@ -5,9 +5,9 @@ use cyclorb_matrix::{LinearMap, Operator};
 use cyclorb_mcg::{check_relations, BlockSpace};
 use serde_json::json;
 
-use super::common::{build_space, generator_set_file, parse_set};
 use super::output::{Outcome, Report};
 use crate::cli::TwistsArgs;
+use cyclorb_pipeline::space::{build_space, generator_set_file, parse_set};
 
 fn kind(op: &Operator) -> String {
     match op {
@@ -26,7 +26,7 @@ fn kind(op: &Operator) -> String {
 
 /// Run `cyclorb twists`.
 pub fn run(args: &TwistsArgs, as_json: bool) -> Outcome {
-    if super::dw::is_dw(&args.space.spec) {
+    if cyclorb_pipeline::dw_space::is_dw(&args.space.spec) {
         return super::dw::twists(args, as_json);
     }
     let set = match parse_set(&args.space.set) {

@@ -49,7 +49,7 @@ pub struct OrbitOptions {
     pub chunk_size: usize,
     /// Periodic checkpoints.
     pub checkpoint: Option<CheckpointPlan>,
-    /// Set (e.g. by [`crate::install_stop_handler`]) to stop after the current chunk.
+    /// Set (for example by a signal handler) to stop after the current chunk.
     pub stop: Option<Arc<AtomicBool>>,
 }
 

@@ -9,11 +9,11 @@
 //! - [`OrbitProblem::enumerate`] saturates the orbit breadth-first into an [`Orbit`]: lines in
 //!   order of discovery, layer sizes, a Schreier record (parent, generator) per line
 //!   ([`Orbit::word`]). [`OrbitOptions`] sets a line limit, a memory ceiling, threads, a stop
-//!   flag ([`install_stop_handler`] hooks SIGINT/SIGTERM) and periodic checkpoints;
+//!   flag (the program sets it on SIGINT/SIGTERM) and periodic checkpoints;
 //!   [`OrbitProblem::resume`] continues from a checkpoint to the identical answer.
 //! - [`OrbitProblem::poincare_sum`] computes B exactly, checks tr(B·G) = |orbit|·⟨v₀, v₀⟩_G,
 //!   tests B = λ·G⁻¹, and otherwise writes B over the invariant matrices.
-//! - [`OrbitReport`] is the JSON result of the command-line contract.
+//! - [`PoincareReport`] is the sum's serialisable form (B by basis labels, the invariants).
 //! - [`pair_orbit`] finds the orbit of a Deligne product's vacuum line from the permutations
 //!   the generators induce on the two factors' orbits (the `pairs` module).
 //!
@@ -86,14 +86,12 @@ mod format;
 mod generators;
 mod invertible;
 mod key;
-mod memory;
 mod numerators;
 mod pairs;
 mod poincare;
 mod poly;
 mod problem;
 mod report;
-mod signal;
 mod sparse;
 mod step;
 mod store;
@@ -107,11 +105,7 @@ pub use error::{FormatError, OrbitError};
 pub use format::{FORMAT_VERSION, GENERATORS_FORMAT, SEED_FORMAT};
 pub use generators::{GeneratorSet, Seed};
 pub use invertible::MAX_DENSE_PROOF;
-pub use memory::{peak_memory_bytes, resident_memory_bytes};
 pub use pairs::{pair_orbit, PairOrbit};
 pub use poincare::PoincareSum;
 pub use problem::OrbitProblem;
-pub use report::{
-    InvariantReport, LabelledEntry, ModularInvariantReport, OrbitReport, PoincareReport,
-};
-pub use signal::install_stop_handler;
+pub use report::{InvariantReport, LabelledEntry, ModularInvariantReport, PoincareReport};

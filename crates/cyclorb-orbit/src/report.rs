@@ -1,17 +1,12 @@
-//! The serialisable result of an orbit run, with the keys of the command-line contract
-//! (`cyclorb orbit --json`).
-
-use std::time::Duration;
+//! The serialisable form of a Poincaré sum: B by basis labels, its decomposition over the
+//! invariant matrices, and at genus 1 the modular invariant it is.
 
 use cyclorb_field::Cyc;
 use cyclorb_matrix::Matrix;
 use serde::{Deserialize, Serialize};
 
-use crate::engine::{Orbit, StopReason};
 use crate::generators::GeneratorSet;
-use crate::memory::peak_memory_bytes;
 use crate::poincare::PoincareSum;
-use crate::problem::OrbitProblem;
 
 /// One non-zero entry of a matrix over the basis, keyed by the labels of its row and
 /// column (for a theory: the comb-basis label tuples `a=(…) b=(…) x=(…)`).
@@ -76,45 +71,6 @@ pub struct PoincareReport {
     pub modular_invariant: Option<ModularInvariantReport>,
     /// Why the sum is missing or incomplete, when it is.
     pub note: Option<String>,
-}
-
-/// The result of `cyclorb orbit`, serialisable as the JSON of the contract.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
-pub struct OrbitReport {
-    /// The theory spec (filled by the caller or from the generator file).
-    pub theory: Option<String>,
-    /// The genus (filled by the caller or from the generator file).
-    pub genus: Option<u32>,
-    /// Dimension of the block space.
-    pub dimension: usize,
-    /// n of Q(ζ_n).
-    pub conductor: u32,
-    /// Number of generators.
-    pub generators: usize,
-    /// Their names.
-    pub generator_names: Vec<String>,
-    /// Distinct lines found.
-    pub orbit_size: usize,
-    /// Whether the orbit is proven closed under every generator.
-    pub saturated: bool,
-    /// Why the run stopped early (`limit`, `memory`, `interrupted`), or null.
-    pub stop_reason: Option<StopReason>,
-    /// New lines at each breadth-first depth.
-    pub layer_sizes: Vec<usize>,
-    /// The Poincaré sum.
-    pub poincare_sum: PoincareReport,
-    /// Wall time of this run (given by the caller).
-    pub elapsed_seconds: f64,
-    /// Enumeration time over all runs that built this orbit (resumed runs included).
-    pub compute_seconds: f64,
-    /// Peak resident memory of the process.
-    pub peak_memory_bytes: Option<u64>,
-    /// Bytes held by the orbit store.
-    pub store_bytes: usize,
-    /// Store bytes per line.
-    pub bytes_per_element: f64,
-    /// Bytes per stored key numerator.
-    pub numerator_width: usize,
 }
 
 fn matrix_text(m: &Matrix) -> Vec<Vec<String>> {
@@ -213,47 +169,6 @@ impl PoincareReport {
         PoincareReport {
             note: Some(reason.into()),
             ..PoincareReport::default()
-        }
-    }
-}
-
-impl OrbitReport {
-    /// The report of `orbit`. `poincare` is the sum (when computed) or the reason it is
-    /// missing; `elapsed` is the caller's wall time. Theory and genus come from the
-    /// generator set (the caller may overwrite them).
-    pub fn new(
-        problem: &OrbitProblem,
-        orbit: &Orbit,
-        poincare: Result<&PoincareSum, String>,
-        elapsed: Duration,
-    ) -> OrbitReport {
-        let g = problem.generators();
-        let poincare_sum = if !orbit.is_saturated() {
-            PoincareReport::missing("the orbit is not saturated")
-        } else {
-            match poincare {
-                Ok(sum) => PoincareReport::from_sum(sum, g),
-                Err(reason) => PoincareReport::missing(reason),
-            }
-        };
-        OrbitReport {
-            theory: g.theory.clone(),
-            genus: g.genus,
-            dimension: g.dimension,
-            conductor: g.conductor,
-            generators: g.operators.len(),
-            generator_names: g.names.clone(),
-            orbit_size: orbit.len(),
-            saturated: orbit.is_saturated(),
-            stop_reason: orbit.stop_reason(),
-            layer_sizes: orbit.layer_sizes(),
-            poincare_sum,
-            elapsed_seconds: elapsed.as_secs_f64(),
-            compute_seconds: orbit.compute_seconds(),
-            peak_memory_bytes: peak_memory_bytes(),
-            store_bytes: orbit.store_bytes(),
-            bytes_per_element: orbit.bytes_per_element(),
-            numerator_width: orbit.numerator_width(),
         }
     }
 }

@@ -12,11 +12,11 @@ use cyclorb_cert::StabiliserChain;
 use num_bigint::BigUint;
 use serde_json::Value;
 
-use super::super::dw::DwSpace;
 use super::dw_count::{self, SetStabiliser};
 use super::dw_monomial::projective_order;
 use super::dw_pairs::commutant_dimension;
 use super::{body_as, Claims, Envelope, Stop};
+use cyclorb_pipeline::dw_space::DwSpace;
 
 /// Largest group listed element by element.
 const MAX_LISTED: u64 = 200_000;

@@ -25,8 +25,8 @@ use cyclorb_dw::{subset_orbit, AbelianFibres};
 use num_bigint::BigUint;
 use serde::Deserialize;
 
-use super::super::dw::DwSpace;
 use super::{Claims, Stop};
+use cyclorb_pipeline::dw_space::DwSpace;
 
 /// Largest orbit listed as subsets to confirm the count.
 const MAX_LISTED_ORBIT: usize = 200_000;

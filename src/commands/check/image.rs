@@ -28,9 +28,9 @@ use cyclorb_orbit::{OrbitOptions, OrbitProblem, Seed, Silent};
 use num_bigint::BigUint;
 use serde_json::Value;
 
-use super::super::certify::faithful_lines;
-use super::super::common::{generator_set_file, parse_set};
 use super::{body_as, Claims, Envelope, Stop};
+use cyclorb_pipeline::lines::faithful_lines;
+use cyclorb_pipeline::space::{generator_set_file, parse_set};
 
 fn err(e: impl ToString) -> String {
     e.to_string()

@@ -9,15 +9,16 @@
 //! cap. A witness is searched for only when the image is not already proven finite, on the
 //! factors of a Deligne product first (a witness there lifts, see `lifted`).
 
-use cyclorb_cert::{
-    commutant, enumerate_projective_image, find_witness, image_from_lines, CommutantOptions,
-    CommutantRoute, GeneratorSet, ImageEnumeration, ImageOptions, WitnessOptions, WitnessOutcome,
-};
+use cyclorb_cert::{commutant, CommutantOptions, CommutantRoute, GeneratorSet, WitnessOptions};
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use cyclorb_orbit::{Orbit, OrbitProblem};
 
-use crate::commands::certify::faithful_lines;
-use crate::commands::lifted::find_lifted;
+use cyclorb_pipeline::image::{
+    enumerate_image, image_of_orbit, ImageBounds as DecisionBounds, ImageDecision, ImageEvidence,
+    ImageRoute,
+};
+use cyclorb_pipeline::lifted::find_lifted;
+use cyclorb_pipeline::witness::search_generators;
 
 use super::plan::{ImageBounds, WitnessBounds};
 use super::result::{CommutantAnswer, ImageAnswer, WitnessAnswer};
@@ -48,35 +49,40 @@ fn undecided(note: String) -> ImageAnswer {
     ImageAnswer {
         finite: None,
         order: None,
-        route: "undecided".into(),
+        route: ImageRoute::Undecided.name().into(),
         note: Some(note),
     }
 }
 
-fn enumerated(
-    gens: &GeneratorSet,
-    cap: usize,
-    passed_over: Option<String>,
-) -> Result<ImageAnswer, String> {
-    match enumerate_projective_image(gens, cap).map_err(|e| format!("image: {e}"))? {
-        ImageEnumeration::Finite(cert) => Ok(ImageAnswer {
-            finite: Some(true),
-            order: Some(cert.order.to_string()),
-            route: "enumeration".into(),
-            note: passed_over,
-        }),
-        ImageEnumeration::Exceeds { cap } => {
-            let exceeded =
-                format!("the image has more than {cap} elements (image.enumeration_cap)");
-            Ok(undecided(match passed_over {
-                Some(before) => format!("{before}; {exceeded}"),
-                None => exceeded,
-            }))
+/// The sweep's answer of a decision; the note joins what was passed over (`before`, then
+/// the decision's steps) with the reason it is undecided, or names the added orbits.
+fn answer_of(decision: ImageDecision, before: Option<String>) -> ImageAnswer {
+    let mut parts: Vec<String> = before.into_iter().chain(decision.steps).collect();
+    parts.extend(decision.reason);
+    if let Some(ImageEvidence::Orbit {
+        certificate,
+        added_seeds,
+        ..
+    }) = &decision.evidence
+    {
+        if !added_seeds.is_empty() {
+            parts.push(format!(
+                "{} lines: the vacuum orbit with the orbits of {}",
+                certificate.lines,
+                added_seeds.join(", ")
+            ));
         }
+    }
+    ImageAnswer {
+        finite: decision.finite,
+        order: decision.order,
+        route: decision.route.name().into(),
+        note: (!parts.is_empty()).then(|| parts.join("; ")),
     }
 }
 
-/// The order of the projective image, when a certificate decides it within the bounds.
+/// The order of the projective image, when a certificate decides it within the bounds:
+/// Schreier–Sims on the saturated orbit (`cyclorb_pipeline::image`), else enumeration.
 pub fn image_answer(
     gens: &GeneratorSet,
     problem: &OrbitProblem,
@@ -90,6 +96,12 @@ pub fn image_answer(
             orbit.len()
         )));
     }
+    let decision_bounds = DecisionBounds {
+        orbit_limit: bounds.max_lines,
+        enumeration_cap: bounds.enumeration_cap,
+        orbit_limit_name: "image.max_lines",
+        enumeration_cap_name: "image.enumeration_cap",
+    };
     if orbit.len() > bounds.max_lines {
         if orbit.len() > bounds.enumeration_cap {
             return Ok(undecided(format!(
@@ -97,38 +109,16 @@ pub fn image_answer(
                 orbit.len()
             )));
         }
-        return enumerated(
-            gens,
-            bounds.enumeration_cap,
-            Some(format!(
-                "the orbit has more than {} lines",
-                bounds.max_lines
-            )),
-        );
+        let passed = format!("the orbit has more than {} lines", bounds.max_lines);
+        return Ok(answer_of(
+            enumerate_image(gens, &decision_bounds)?,
+            Some(passed),
+        ));
     }
-    let lines = match faithful_lines(problem, orbit, bounds.max_lines, threads)? {
-        Ok(lines) => lines,
-        Err(reason) => return enumerated(gens, bounds.enumeration_cap, Some(reason)),
-    };
-    match image_from_lines(gens, &lines, &ImageOptions { threads }) {
-        Ok(cert) => Ok(ImageAnswer {
-            finite: Some(true),
-            order: Some(cert.group.order),
-            route: "orbit-permutations".into(),
-            note: (!lines.added_seeds().is_empty()).then(|| {
-                format!(
-                    "{} lines: the vacuum orbit with the orbits of {}",
-                    cert.lines,
-                    lines.added_seeds().join(", ")
-                )
-            }),
-        }),
-        Err(e) => enumerated(
-            gens,
-            bounds.enumeration_cap,
-            Some(format!("orbit route not available: {e}")),
-        ),
-    }
+    Ok(answer_of(
+        image_of_orbit(gens, problem, orbit, &decision_bounds, threads, true)?,
+        None,
+    ))
 }
 
 /// The search options of the plan's witness bounds.
@@ -167,8 +157,8 @@ pub fn witness_answer(
     gens: &GeneratorSet,
     bounds: &WitnessBounds,
 ) -> Result<WitnessAnswer, String> {
-    match find_witness(gens, &witness_options(bounds)).map_err(|e| format!("witness: {e}"))? {
-        WitnessOutcome::Found(cert) => Ok(WitnessAnswer {
+    match search_generators(gens, &witness_options(bounds)).map_err(|e| format!("witness: {e}"))? {
+        Ok(cert) => Ok(WitnessAnswer {
             found: true,
             word: cert.word.clone(),
             certificate: Some(cert),
@@ -176,14 +166,14 @@ pub fn witness_answer(
             note: None,
             lifted_from_factor: None,
         }),
-        WitnessOutcome::NotFound(report) => Ok(WitnessAnswer {
+        Err(words_tried) => Ok(WitnessAnswer {
             found: false,
             word: Vec::new(),
             certificate: None,
-            words_tried: Some(report.words_tried),
+            words_tried: Some(words_tried),
             note: Some(format!(
-                "none among {} words (depth {}, {} random words); this proves nothing",
-                report.words_tried, bounds.depth, bounds.tries
+                "none among {words_tried} words (depth {}, {} random words); this proves nothing",
+                bounds.depth, bounds.tries
             )),
             lifted_from_factor: None,
         }),

@@ -9,7 +9,9 @@
 use std::io::IsTerminal;
 use std::time::Duration;
 
-use cyclorb_orbit::{peak_memory_bytes, Progress, ProgressObserver};
+use cyclorb_orbit::{Progress, ProgressObserver};
+
+use crate::runtime::peak_memory_bytes;
 use indicatif::{MultiProgress, ProgressBar, ProgressDrawTarget, ProgressStyle};
 
 use super::plan::Limits;

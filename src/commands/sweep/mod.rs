@@ -74,7 +74,7 @@ use std::sync::atomic::AtomicBool;
 use std::sync::Arc;
 use std::time::Duration;
 
-use cyclorb_orbit::install_stop_handler;
+use crate::runtime::install_stop_handler;
 use serde_json::json;
 
 use super::output::{shell_word, Outcome, Report};

@@ -13,7 +13,7 @@ use cyclorb_mcg::GeneratingSet;
 use serde::Deserialize;
 use toml::Spanned;
 
-use super::super::common::parse_set;
+use cyclorb_pipeline::space::parse_set;
 
 /// The answers a run can compute.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash, Deserialize)]

@@ -7,8 +7,8 @@ use cyclorb_cert::WitnessCertificate;
 use cyclorb_orbit::PoincareReport;
 use cyclorb_theory::Sha256;
 
-use super::super::lifted::FactorRef;
 use crate::commands::output::add_approximations;
+use cyclorb_pipeline::lifted::FactorRef;
 use serde::{Deserialize, Serialize};
 
 /// The commutant answer (keys as in `cyclorb commutant --json`).
@@ -29,8 +29,9 @@ pub struct ImageAnswer {
     pub finite: Option<bool>,
     /// Its order (exact integer string) when finite.
     pub order: Option<String>,
-    /// Which certificate decided it: `orbit-permutations` (Schreier–Sims on the saturated
-    /// orbit, after the faithfulness lemma), `enumeration`, `witness`, or `undecided`.
+    /// Which route decided it (the names of `cyclorb_pipeline::image::ImageRoute`, as in
+    /// `cyclorb image --json`): `orbit-schreier-sims`, `enumeration`, `witness`,
+    /// `permutation-schreier-sims` or `monomial-schreier-sims` (`dw:`), or `undecided`.
     pub route: String,
     /// Why it is undecided, or why a route was passed over.
     pub note: Option<String>,

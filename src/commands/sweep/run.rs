@@ -17,7 +17,6 @@ use std::time::{Duration, Instant};
 use cyclorb_mcg::BlockSpace;
 use cyclorb_orbit::PoincareReport;
 
-use super::super::dw::DwSpace;
 use super::super::dw_count::{certificate, count, counted_poincare};
 use super::answers::{
     certificate_generators, commutant_answer, image_answer, lifted_witness_answer, witness_answer,
@@ -30,6 +29,7 @@ use super::result::CommutantAnswer;
 use super::result::{Citation, ImageAnswer, RunResult};
 use super::schedule::{PlannedRun, RunSpace};
 use cyclorb_dw::VacuumOrbit;
+use cyclorb_pipeline::dw_space::DwSpace;
 
 /// Settings shared by every run of a sweep.
 pub struct SweepSettings<'a> {
@@ -55,25 +55,6 @@ pub enum RunEnd {
     Finished(Box<RunResult>),
     /// Stopped by Ctrl-C or SIGTERM; its checkpoint is on disk.
     Interrupted,
-}
-
-/// Give freed heap pages back to the system (glibc's `malloc_trim`) and reset the
-/// peak-resident-memory counter (Linux: 5 written to /proc/self/clear_refs sets VmHWM to
-/// the current resident size), so each run reports its own peak rather than the largest
-/// of the sweep so far. Where either is unavailable the peak is the process's.
-fn reset_peak_memory() {
-    #[cfg(all(target_os = "linux", target_env = "gnu"))]
-    {
-        extern "C" {
-            /// `int malloc_trim(size_t pad)` from the C library.
-            fn malloc_trim(pad: usize) -> i32;
-        }
-        // SAFETY: malloc_trim only returns free pages of the allocator to the system.
-        unsafe {
-            malloc_trim(0);
-        }
-    }
-    let _ = std::fs::write("/proc/self/clear_refs", "5");
 }
 
 /// The result skeleton: inputs, citation, costs filled later.
@@ -142,7 +123,7 @@ fn dw_answers(run: &PlannedRun, space: &DwSpace, result: &mut RunResult, display
                     result.image = Some(ImageAnswer {
                         finite: Some(true),
                         order: Some(order),
-                        route: image.route.into(),
+                        route: image.route.name().into(),
                         note: None,
                     });
                 }
@@ -266,7 +247,7 @@ fn witness_from_factors(
     let elapsed = started.elapsed().as_secs_f64();
     result.elapsed_seconds = elapsed;
     result.total_seconds = elapsed;
-    result.peak_memory_bytes = cyclorb_orbit::peak_memory_bytes();
+    result.peak_memory_bytes = crate::runtime::peak_memory_bytes();
     Ok(Some(result))
 }
 
@@ -279,7 +260,7 @@ pub fn execute(
     notes: &mut Vec<String>,
 ) -> Result<RunEnd, String> {
     let started = Instant::now();
-    reset_peak_memory();
+    crate::runtime::reset_peak_memory();
     display.start(run);
     let interrupted = || settings.signal.load(Ordering::SeqCst);
     if let Some(result) = witness_from_factors(run, settings, display, started)? {
@@ -451,6 +432,6 @@ pub fn execute(
     let elapsed = started.elapsed().as_secs_f64();
     result.elapsed_seconds = elapsed;
     result.total_seconds = elapsed + earlier_seconds.max(0.0);
-    result.peak_memory_bytes = cyclorb_orbit::peak_memory_bytes();
+    result.peak_memory_bytes = crate::runtime::peak_memory_bytes();
     Ok(RunEnd::Finished(Box::new(result)))
 }

@@ -10,11 +10,11 @@
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use cyclorb_orbit::{Orbit, OrbitProblem, PoincareReport, Seed};
 
-use super::super::common::generator_set_file;
-use super::super::dw::{is_dw, DwSpace};
-use super::super::proof;
 use super::hash::Fnv64;
 use super::plan::{Answer, Entry, Limits, OrbitMethod, Plan, PlanError};
+use cyclorb_pipeline::dw_space::{is_dw, DwSpace};
+use cyclorb_pipeline::proof;
+use cyclorb_pipeline::space::generator_set_file;
 
 /// One run of the sweep: a theory at a genus with its answers and caps.
 pub struct PlannedRun {

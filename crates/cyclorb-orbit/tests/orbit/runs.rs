@@ -8,8 +8,7 @@ use std::time::Duration;
 
 use cyclorb_matrix::Operator;
 use cyclorb_orbit::{
-    install_stop_handler, CheckpointPlan, OrbitError, OrbitOptions, OrbitProblem, OrbitReport,
-    Progress, Silent, StopReason,
+    CheckpointPlan, OrbitError, OrbitOptions, OrbitProblem, Progress, Silent, StopReason,
 };
 
 use crate::common::*;
@@ -47,12 +46,6 @@ fn line_limit_stops_unsaturated_then_continues_to_the_same_answer() {
     let last = sizes.len() - 1;
     assert_eq!(sizes[..last], full_sizes[..last]);
     assert!(sizes[last] <= full_sizes[last]);
-    let report = OrbitReport::new(&problem, &partial, Err("unused".into()), Duration::ZERO);
-    let json = serde_json::to_value(&report).unwrap();
-    assert_eq!(json["saturated"], false);
-    assert_eq!(json["stop_reason"], "limit");
-    assert_eq!(json["orbit_size"], 500);
-    assert_eq!(json["poincare_sum"]["is_scalar"], serde_json::Value::Null);
     assert!(problem.poincare_sum(&partial, 1).is_err());
     // a limit equal to the orbit size does not stop a run that closes
     let exact = OrbitOptions {
@@ -207,18 +200,4 @@ fn words_print_generator_names() {
     assert_eq!(names.len(), orbit.layer_sizes().len() - 1);
     assert!(names.iter().all(|n| problem.generators().names.contains(n)));
     assert!(problem.word_names(&orbit, 0).is_empty());
-}
-
-#[cfg(unix)]
-#[test]
-fn sigterm_sets_the_stop_flag() {
-    extern "C" {
-        /// `int raise(int sig)` from the C library: deliver a signal to this thread.
-        fn raise(sig: i32) -> i32;
-    }
-    let flag = Arc::new(AtomicBool::new(false));
-    install_stop_handler(&flag).unwrap();
-    // SAFETY: the installed handler only sets the flag (and restores the default action).
-    assert_eq!(unsafe { raise(15) }, 0);
-    assert!(flag.load(Ordering::SeqCst));
 }

@@ -19,7 +19,7 @@ use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use cyclorb_theory::Theory;
 use serde::{Deserialize, Serialize};
 
-use super::certify::cert_generators;
+use crate::space::cert_generators;
 
 /// Which factor of A ⊠ B a witness was found on, and how to rebuild it.
 #[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
@@ -109,7 +109,7 @@ pub fn find_lifted(
 
 /// The factor a lifted witness names, rebuilt from the product theory: it must exist and
 /// have the recorded name, data hash and genus-g dimension; its twists as a generator set.
-pub(crate) fn named_factor(
+pub fn named_factor(
     theory: &Theory,
     genus: usize,
     set: GeneratingSet,

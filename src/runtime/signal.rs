@@ -63,3 +63,21 @@ pub fn install_stop_handler(_flag: &Arc<AtomicBool>) -> std::io::Result<()> {
         "stop signals are only hooked on Unix",
     ))
 }
+
+#[cfg(all(test, unix))]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn sigterm_sets_the_stop_flag() {
+        extern "C" {
+            /// `int raise(int sig)` from the C library: deliver a signal to this thread.
+            fn raise(sig: i32) -> i32;
+        }
+        let flag = Arc::new(AtomicBool::new(false));
+        install_stop_handler(&flag).unwrap();
+        // SAFETY: the installed handler only sets the flag (and restores the default action).
+        assert_eq!(unsafe { raise(15) }, 0);
+        assert!(flag.load(Ordering::SeqCst));
+    }
+}

@@ -16,7 +16,7 @@ use std::sync::Mutex;
 use cyclorb_orbit::GeneratorSet;
 use cyclorb_theory::{parse_spec_traced, verify, FileTheory, Theory};
 
-use super::proof_cache;
+use crate::proof_cache;
 
 static SKIP_PROOFS: AtomicBool = AtomicBool::new(false);
 
@@ -64,6 +64,12 @@ pub fn theory(spec: &str) -> Result<Theory, String> {
         record(true);
     }
     Ok(traced.theory)
+}
+
+/// Remember a theory whose data hash has just passed every check of `verify` (a file read
+/// later with the same data is not verified again; see the sealed cache).
+pub fn remember_proved(data_hash: &str) {
+    proof_cache::remember(data_hash);
 }
 
 /// The theory files read so far (path, data hash), each once, in reading order.

@@ -1,11 +1,13 @@
-//! Pieces shared by the theory-driven commands: reading a spec, building the block space,
-//! naming generating sets, and exporting generators in the orbit engine's file format.
+//! From a spec to the objects every route works on: the proved theory, its genus-g block
+//! space, the twists of a generating set as the orbit engine's generator set or as the
+//! certificates' generator set, and the orbit problem of the vacuum line.
 
+use cyclorb_cert::GeneratorSet as CertSet;
 use cyclorb_matrix::Operator;
 use cyclorb_mcg::{BlockSpace, Curve, GeneratingSet};
 use cyclorb_orbit::{GeneratorSet, OrbitProblem, Seed};
 
-use super::proof;
+use crate::{dw_space, proof};
 
 /// The generating set named on the command line.
 pub fn parse_set(name: &str) -> Result<GeneratingSet, String> {
@@ -39,17 +41,42 @@ pub fn generator_set_file(space: &BlockSpace, gens: &[(Curve, Operator)]) -> Gen
 /// The orbit problem of a theory's vacuum line at genus g under the named generating set:
 /// the twists as a generator set, the vacuum basis vector as the seed.
 pub fn vacuum_problem(spec: &str, genus: usize, set: &str) -> Result<OrbitProblem, String> {
-    if super::dw::is_dw(spec) {
-        return super::dw::DwSpace::new(spec, genus, set)?.problem();
+    if dw_space::is_dw(spec) {
+        return dw_space::DwSpace::new(spec, genus, set)?.problem();
     }
-    let set = parse_set(set)?;
-    let space = build_space(spec, genus)?;
+    vacuum_problem_of(&build_space(spec, genus)?, parse_set(set)?)
+}
+
+/// The orbit problem of the vacuum line of a block space under a generating set.
+pub fn vacuum_problem_of(space: &BlockSpace, set: GeneratingSet) -> Result<OrbitProblem, String> {
     let twists = space.generators(set).map_err(|e| e.to_string())?;
-    let gens = generator_set_file(&space, &twists);
+    let gens = generator_set_file(space, &twists);
     let seed = Seed::basis_vector(
         space.theory().field(),
         space.dimension(),
         space.basis().vacuum(),
     );
     OrbitProblem::new(gens, &seed).map_err(|e| e.to_string())
+}
+
+/// The twists of a generating set on a block space, as a certificate input (with the form).
+pub fn cert_generators(space: &BlockSpace, set: GeneratingSet) -> Result<CertSet, String> {
+    let gens = space.generators(set).map_err(|e| e.to_string())?;
+    // the certificate routes hold every generator as a dense d × d matrix: the Cyc values
+    // alone (a zero holds no heap, so this is a lower bound) are checked against the budget
+    let d = space.dimension() as u64;
+    let bytes = (d * d)
+        .saturating_mul(gens.len() as u64)
+        .saturating_mul(std::mem::size_of::<cyclorb_field::Cyc>() as u64);
+    cyclorb_field::check_budget(
+        || format!("{} dense generator matrices of size {d} × {d}", gens.len()),
+        bytes,
+    )
+    .map_err(|e| e.to_string())?;
+    let named = gens
+        .into_iter()
+        .map(|(c, op)| (c.to_string(), op))
+        .collect();
+    let form = Some(space.form().to_vec());
+    CertSet::new(space.theory().field().clone(), named, form).map_err(|e| e.to_string())
 }

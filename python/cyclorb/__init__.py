@@ -1,0 +1,46 @@
+"""cyclorb: exact mapping class group orbits of conformal blocks over cyclotomic fields.
+
+The same library as the ``cyclorb`` program, as Python objects::
+
+    import cyclorb
+    r = cyclorb.orbit("ising", genus=2)
+    r.size, r.prefactor          # 3840, 384
+    cyclorb.Theory("fibonacci").S
+
+Every decision is exact; numbers come back exactly (int, ``fractions.Fraction``,
+:class:`Cyclotomic`). Errors raise :class:`CyclorbError` with the program's messages.
+"""
+
+from ._native import CyclorbError, __version__
+from .certificates import (
+    CommutantResult,
+    ImageResult,
+    WitnessResult,
+    commutant,
+    image,
+    witness,
+)
+from .matrix import Matrix
+from .numbers import Cyclotomic
+from .orbit import Invariant, OrbitInterrupted, OrbitResult, orbit
+from .theory import BlockSpace, Theory, Verification
+
+__all__ = [
+    "BlockSpace",
+    "CommutantResult",
+    "Cyclotomic",
+    "CyclorbError",
+    "ImageResult",
+    "Invariant",
+    "Matrix",
+    "OrbitInterrupted",
+    "OrbitResult",
+    "Theory",
+    "Verification",
+    "WitnessResult",
+    "__version__",
+    "commutant",
+    "image",
+    "orbit",
+    "witness",
+]
