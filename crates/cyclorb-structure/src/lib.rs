@@ -68,9 +68,12 @@
 mod analyse;
 mod chain;
 mod commutant;
+mod components;
 mod error;
+mod imprimitive;
 mod irreducible;
 mod lattice;
+mod lineorbit;
 mod monomial;
 mod orbit;
 mod power;
@@ -79,6 +82,9 @@ mod refine;
 mod report;
 mod roots;
 mod search;
+mod sectors;
+mod sectorsum;
+mod setstab;
 mod smith;
 mod sparse;
 mod vacuum;
@@ -86,6 +92,9 @@ mod vacuum;
 pub use analyse::{analyse, analyse_spec, StructureOptions};
 pub use chain::MonomialChain;
 pub use error::StructureError;
+pub use imprimitive::{
+    analyse_imprimitive, ImprimitiveCertificate, ImprimitiveOptions, ImprimitiveReport,
+};
 pub use lattice::ModLattice;
 pub use monomial::{Monomial, MonomialForm};
 pub use orbit::OrbitCount;
@@ -95,4 +104,5 @@ pub use report::{
     StructureCertificate, StructureReport,
 };
 pub use roots::RootsOfUnity;
+pub use sectorsum::SectorOrbit;
 pub use sparse::{ColumnMap, SparseVec};
