@@ -17,7 +17,7 @@ use super::common::{build_space, generator_set_file, parse_set};
 use super::envelope::{self, Source};
 use super::lifted::{find_lifted, FactorRef};
 use super::output::{Outcome, Report};
-use super::structure::counted;
+use super::structure::{counted, counted_imprimitive};
 use crate::cli::{CertArgs, ImageArgs, SpaceArgs, WitnessArgs};
 
 mod lines;
@@ -187,7 +187,7 @@ impl ImageRun<'_> {
             Ok(Err(absent)) => {
                 self.text
                     .push_str(&format!("no monomial structure ({absent})\n"));
-                return None;
+                return self.imprimitive(space, set);
             }
             Err(e) => return Some(Outcome::Invalid(e)),
         };
@@ -204,6 +204,33 @@ impl ImageRun<'_> {
             r.image_order, r.image.permutation_order, r.image.kernel_order, r.image.kernel_scalars
         );
         Some(self.done("structure", r.image_order.to_string(), line))
+    }
+
+    /// Route 0 continued: the imprimitive structure; `None` when there is none.
+    fn imprimitive(&mut self, space: &BlockSpace, set: GeneratingSet) -> Option<Outcome> {
+        let r = match counted_imprimitive(space, set) {
+            Ok(Ok(r)) => r,
+            Ok(Err(absent)) => {
+                self.text
+                    .push_str(&format!("no imprimitive structure ({absent})\n"));
+                return None;
+            }
+            Err(e) => return Some(Outcome::Invalid(e)),
+        };
+        if let Err(e) = self.write("structure-imprimitive", &r.certificate) {
+            return Some(Outcome::Invalid(e));
+        }
+        self.value["block_permutation_order"] = json!(r.block_permutation_order);
+        self.value["block_kernel_order"] = json!(r.block_kernel_order);
+        self.value["line_permutation_order"] = json!(r.line_permutation_order);
+        self.value["kernel_order"] = json!(r.kernel_order);
+        self.value["orbit_size"] = json!(r.orbit_size);
+        self.value["sectors"] = json!(r.sectors);
+        let line = format!(
+            "projective image: finite, order {} = |block permutations| {} × |block kernel| {} (imprimitive structure: {} sectors, {} component lines; certificate re-checked)\n",
+            r.image_order, r.block_permutation_order, r.block_kernel_order, r.sectors, r.component_lines
+        );
+        Some(self.done("structure", r.image_order.clone(), line))
     }
 
     /// Route 1: enumeration of the image modulo scalars, up to `--enumeration-cap`.
@@ -359,7 +386,9 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
         "structure" => {
             return match run.structure(&space) {
                 Some(outcome) => outcome,
-                None => run.undecided("the representation has no monomial structure".into()),
+                None => run.undecided(
+                    "the representation has neither a monomial nor an imprimitive structure".into(),
+                ),
             }
         }
         "auto" => {

@@ -23,6 +23,7 @@ mod claims;
 mod commutant;
 mod dw;
 mod image;
+mod imprimitive;
 mod linear;
 mod poly;
 mod structure;
@@ -44,8 +45,8 @@ pub(crate) struct Envelope {
 
 /// The kinds `cyclorb check` reads.
 const KINDS: &str =
-    "commutant, image-enumeration, image-orbit, structure, witness, witness-lifted, \
-                     dw-permutation-image, dw-orbitals";
+    "commutant, image-enumeration, image-orbit, structure, structure-imprimitive, witness, \
+                     witness-lifted, dw-permutation-image, dw-orbitals";
 
 fn key<'a>(body: &'a Value, name: &str, file: &str) -> Result<&'a Value, String> {
     body.get(name).ok_or_else(|| {
@@ -142,7 +143,12 @@ fn check_kind(
     }
     if !matches!(
         kind,
-        "commutant" | "image-enumeration" | "image-orbit" | "structure" | "witness"
+        "commutant"
+            | "image-enumeration"
+            | "image-orbit"
+            | "structure"
+            | "structure-imprimitive"
+            | "witness"
     ) {
         return Err(Stop::Invalid(format!(
             "{file}: key `kind`: unknown kind {kind:?} (known: {KINDS})"
@@ -175,6 +181,7 @@ fn check_kind(
         "commutant" => commutant::check(&gens, &body_as(body, file, kind)?, claims),
         "image-enumeration" => image::enumeration(&gens, &body_as(body, file, kind)?, claims),
         "image-orbit" => image::orbit(&space, envelope, &gens, body, file, claims),
+        "structure-imprimitive" => imprimitive::check(&space, &body_as(body, file, kind)?, claims),
         _ => structure::check(&space, &gens, &body_as(body, file, kind)?, claims),
     }
 }

@@ -10,6 +10,7 @@ use cyclorb_orbit::{
     checkpoint_origin, install_stop_handler, CheckpointPlan, GeneratorSet, LabelledEntry, Orbit,
     OrbitOptions, OrbitProblem, OrbitReport, PoincareReport, Seed,
 };
+use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use serde_json::json;
 
 use super::common::{build_space, parse_set, vacuum_problem};
@@ -19,7 +20,10 @@ use super::output::{shell_word, Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
 use super::proof;
-use super::structure::{counted, orbit_json, orbit_text, scalar_sum_entries};
+use super::structure::{
+    counted, counted_imprimitive, imprimitive_orbit_json, imprimitive_orbit_text, orbit_json,
+    orbit_text, scalar_sum_entries,
+};
 use crate::cli::OrbitArgs;
 
 /// The generator set and seed from either a theory or raw files.
@@ -507,8 +511,49 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
             let text = orbit_text(&report, &entries_text);
             Outcome::Done(Report::new(value, text, as_json))
         }
+        Ok(Err(absent)) => imprimitive(&space.1, space.0, args, &absent, as_json, started),
+        Err(e) => Outcome::Invalid(e),
+    }
+}
+
+/// `--method structure` through the imprimitive structure, for a theory without a
+/// monomial one (`monomial`: why not).
+fn imprimitive(
+    space: &BlockSpace,
+    set: GeneratingSet,
+    args: &OrbitArgs,
+    monomial: &str,
+    as_json: bool,
+    started: Instant,
+) -> Outcome {
+    let (Some(spec), Some(genus)) = (&args.spec, args.genus) else {
+        return Outcome::Invalid("--method structure needs a theory SPEC and --genus".into());
+    };
+    match counted_imprimitive(space, set) {
+        Ok(Ok(report)) => {
+            let source = Source {
+                spec,
+                genus,
+                set: &args.set,
+            };
+            let written = envelope::write(
+                args.out.as_deref(),
+                "structure-imprimitive",
+                &source,
+                &report.certificate,
+            );
+            if let Err(e) = written {
+                return Outcome::Invalid(e);
+            }
+            match imprimitive_orbit_json(space, &report, started) {
+                Ok(value) => {
+                    Outcome::Done(Report::new(value, imprimitive_orbit_text(&report), as_json))
+                }
+                Err(e) => Outcome::Invalid(e),
+            }
+        }
         Ok(Err(absent)) => Outcome::Invalid(format!(
-            "{spec} at genus {genus} has no monomial structure ({absent}); use --method enumerate"
+            "{spec} at genus {genus} has no monomial structure ({monomial}) and no imprimitive one ({absent}); use --method enumerate"
         )),
         Err(e) => Outcome::Invalid(e),
     }

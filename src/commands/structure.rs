@@ -1,13 +1,16 @@
 //! The structural route for `cyclorb orbit --method structure` and `cyclorb image`: count the
 //! vacuum orbit and the projective image through the monomial structure of the
-//! representation (cyclorb-structure), re-check the certificate, and report with the keys of
-//! the enumerating route.
+//! representation, or else through its imprimitive structure (cyclorb-structure), re-check
+//! the certificate, and report with the keys of the enumerating route.
 
 use std::time::Instant;
 
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use cyclorb_orbit::LabelledEntry;
-use cyclorb_structure::{analyse, recheck, StructureOptions, StructureReport};
+use cyclorb_structure::{
+    analyse, analyse_imprimitive, recheck, recheck_imprimitive, ImprimitiveOptions,
+    ImprimitiveReport, StructureOptions, StructureReport,
+};
 use serde_json::{json, Value};
 
 /// Analyse and re-check. The inner `Err` carries the reason when the theory lacks the
@@ -123,6 +126,169 @@ pub fn orbit_text(r: &StructureReport, sum_entries: &str) -> String {
     t.push_str(&format!(
         "projective image order {} = |P| {} × |K| {} / |K ∩ scalars| {}\ncertificate re-checked\n",
         r.image_order, r.image.permutation_order, r.image.kernel_order, r.image.kernel_scalars
+    ));
+    t
+}
+
+/// The imprimitive route (cyclorb-structure's `analyse_imprimitive`) and its re-check, for a
+/// theory without a monomial structure. The inner `Err` carries the reason when this
+/// structure is absent too.
+pub fn counted_imprimitive(
+    space: &BlockSpace,
+    set: GeneratingSet,
+) -> Result<Result<ImprimitiveReport, String>, String> {
+    let options = ImprimitiveOptions {
+        generating_set: set,
+        ..ImprimitiveOptions::default()
+    };
+    match analyse_imprimitive(space, &options) {
+        Ok(report) => {
+            recheck_imprimitive(space, &report.certificate, options.stabiliser_limit)
+                .map_err(|e| format!("the structure certificate does not re-check: {e}"))?;
+            Ok(Ok(report))
+        }
+        Err(e) if e.is_absent() => Ok(Err(e.to_string())),
+        Err(e) => Err(e.to_string()),
+    }
+}
+
+/// B's vacuum column B_{j,vac} by comb-basis labels (B = Σ_O β_O·Π_O), when the commutant
+/// is spanned by the sector projectors.
+fn vacuum_column(space: &BlockSpace, r: &ImprimitiveReport) -> Result<Vec<LabelledEntry>, String> {
+    let theory = space.theory();
+    let field = theory.field();
+    let vacuum = space.states()[space.basis().vacuum()].describe(theory);
+    r.vacuum_column
+        .iter()
+        .map(|(j, text)| {
+            let value = field.parse(text).map_err(|e| e.to_string())?;
+            let (re, im) = value.to_complex();
+            Ok(LabelledEntry {
+                row: space.states()[*j as usize].describe(theory),
+                column: vacuum.clone(),
+                value: text.clone(),
+                approx: [re, im],
+            })
+        })
+        .collect()
+}
+
+/// The orbit report (interface keys) of an orbit counted through the imprimitive structure.
+pub fn imprimitive_orbit_json(
+    space: &BlockSpace,
+    r: &ImprimitiveReport,
+    started: Instant,
+) -> Result<Value, String> {
+    let decided = r.sector_orbits.iter().all(|o| o.coefficient.is_some());
+    let prefactor = (decided && r.sector_orbits.len() == 1)
+        .then(|| r.sector_orbits[0].coefficient.clone())
+        .flatten();
+    Ok(json!({
+        "theory": r.theory,
+        "genus": r.genus,
+        "dimension": r.dimension,
+        "conductor": r.conductor,
+        "generators": r.generators.len(),
+        "generator_names": r.generators,
+        "method": "structure",
+        "structure": "imprimitive",
+        "orbit_size": count_value(&r.orbit_size),
+        "saturated": true,
+        "layer_sizes": null,
+        "supports": count_value(&(
+            r.sector_supports.parse::<num_bigint::BigUint>().map_err(|e| e.to_string())?
+                * r.line_tuples_per_sector_support.parse::<num_bigint::BigUint>().map_err(|e| e.to_string())?
+        ).to_string()),
+        "patterns_per_support": count_value(&r.patterns_per_support),
+        "decomposition": {
+            "sector_supports": count_value(&r.sector_supports),
+            "line_tuples_per_sector_support": count_value(&r.line_tuples_per_sector_support),
+            "patterns_per_support": count_value(&r.patterns_per_support),
+            "support_sectors": r.support_sectors,
+            "sectors": r.sectors,
+            "sector_dimensions": r.sector_dimensions,
+            "component_lines": r.component_lines,
+            "power": r.power,
+        },
+        "poincare_sum": {
+            "is_scalar": if decided { json!(r.sector_orbits.len() == 1) } else { Value::Null },
+            "prefactor": prefactor,
+            "commutant_dimension": r.commutant_dimension,
+            "sector_terms": r.sector_orbits,
+            "vacuum_column": vacuum_column(space, r)?,
+            "note": "B = Σ_O β_O·P_O·G⁻¹ over the orbits O of sectors (P_O the G-orthogonal projector onto them), β_O = |orbit|·‖P_O v₀‖²_G / dim, when every sector's commutant is 1-dimensional (certified); vacuum_column lists B_{j,vac}",
+        },
+        "image_order": r.image_order,
+        "image": {
+            "block_permutation_order": r.block_permutation_order,
+            "block_kernel_order": r.block_kernel_order,
+            "line_permutation_order": r.line_permutation_order,
+            "kernel_order": r.kernel_order,
+            "kernel_scalars": r.kernel_scalars,
+        },
+        "certificate_rechecked": true,
+        "elapsed_seconds": started.elapsed().as_secs_f64(),
+        "peak_memory_bytes": cyclorb_orbit::peak_memory_bytes(),
+    }))
+}
+
+/// The text form of an orbit counted through the imprimitive structure.
+pub fn imprimitive_orbit_text(r: &ImprimitiveReport) -> String {
+    let dims: Vec<String> = r
+        .sector_dimensions
+        .iter()
+        .map(|(d, n)| format!("{n} of dimension {d}"))
+        .collect();
+    let mut t = format!(
+        "theory {} at genus {}: dimension {} over Q(ζ_{}), {} generators\n",
+        r.theory,
+        r.genus,
+        r.dimension,
+        r.conductor,
+        r.generators.len()
+    );
+    t.push_str(&format!(
+        "sectors (joint eigenspaces of the {}-th twist powers): {} ({}); {} component lines\n",
+        r.power,
+        r.sectors,
+        dims.join(", "),
+        r.component_lines
+    ));
+    t.push_str(&format!(
+        "orbit (counted through the imprimitive structure): {} lines = {} sector supports × {} component-line tuples × {} phase patterns\n",
+        r.orbit_size, r.sector_supports, r.line_tuples_per_sector_support, r.patterns_per_support
+    ));
+    let decided = r.sector_orbits.iter().all(|o| o.coefficient.is_some());
+    if decided {
+        t.push_str(&format!(
+            "Poincaré sum: B = Σ_O β_O·P_O·G⁻¹ over {} orbits of sectors (commutant of dimension {}):\n",
+            r.sector_orbits.len(),
+            r.commutant_dimension
+        ));
+        for o in &r.sector_orbits {
+            t.push_str(&format!(
+                "  β = {} on {} sector(s) of dimension {} (first sector {}; ‖P_O v₀‖² = {})\n",
+                o.coefficient.as_deref().unwrap_or("?"),
+                o.sectors.len(),
+                o.sector_dimension,
+                o.sectors[0],
+                o.vacuum_weight
+            ));
+        }
+    } else {
+        t.push_str(&format!(
+            "Poincaré sum: not decided by this route (a sector's commutant is larger than the scalars; commutant of dimension {})\n",
+            r.commutant_dimension
+        ));
+    }
+    t.push_str(&format!(
+        "projective image order {} = |block permutations| {} × |block kernel| {} (= |P_L| {} × |K| {} / |K ∩ scalars| {})\ncertificate re-checked\n",
+        r.image_order,
+        r.block_permutation_order,
+        r.block_kernel_order,
+        r.line_permutation_order,
+        r.kernel_order,
+        r.kernel_scalars
     ));
     t
 }

@@ -44,7 +44,7 @@ use crate::report::KernelCertificate;
 use crate::roots::RootsOfUnity;
 use crate::search::{generators_of, Generators};
 use crate::sectors::{sectors, Sectors};
-use crate::sectorsum::{sector_orbits, SectorOrbit};
+use crate::sectorsum::{sector_orbits, vacuum_column, SectorOrbit};
 use crate::sparse::SparseVec;
 
 /// Choices of the imprimitive route.
@@ -169,6 +169,8 @@ pub struct ImprimitiveReport {
     pub commutant_dimension: usize,
     /// The sector orbits: commutants and terms of B = Σ_O β_O·Π_O.
     pub sector_orbits: Vec<SectorOrbit>,
+    /// B's vacuum column B_{j,vac} (comb index, exact), when B is decided.
+    pub vacuum_column: Vec<(u32, String)>,
     /// Wall-clock time of the analysis.
     pub elapsed_seconds: f64,
     /// The certificate.
@@ -352,6 +354,7 @@ pub fn analyse_imprimitive(
         &counted.orbit_size,
         options.commutant_primes,
     )?;
+    let column = vacuum_column(field, space.form(), vacuum, &lines, &sectors, &orbits)?;
     let blocks = permutation_group_summary(sectors.count(), &sectors.permutations)?;
     let block_order: BigUint = blocks
         .order
@@ -420,6 +423,7 @@ pub fn analyse_imprimitive(
         patterns_per_support: counted.patterns.to_string(),
         commutant_dimension: orbits.iter().map(|o| o.commutant_dimension).sum(),
         sector_orbits: orbits,
+        vacuum_column: column,
         elapsed_seconds: start.elapsed().as_secs_f64(),
         certificate,
     })

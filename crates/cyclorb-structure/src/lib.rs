@@ -71,6 +71,7 @@ mod commutant;
 mod components;
 mod error;
 mod imprimitive;
+mod imprimitive_check;
 mod irreducible;
 mod lattice;
 mod lineorbit;
@@ -92,6 +93,7 @@ mod vacuum;
 pub use analyse::{analyse, analyse_spec, StructureOptions};
 pub use chain::MonomialChain;
 pub use error::StructureError;
+pub use imprimitive_check::{recheck_imprimitive, ImprimitiveCheck};
 pub use imprimitive::{
     analyse_imprimitive, ImprimitiveCertificate, ImprimitiveOptions, ImprimitiveReport,
 };

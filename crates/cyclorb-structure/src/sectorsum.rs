@@ -197,3 +197,28 @@ pub(crate) fn sector_orbits(
     }
     Ok(out)
 }
+
+/// B·e_vac = Σ_O β_O·P_O G⁻¹ e_vac = Σ_O β_O·(Σ_{σ∈O} v_σ) / G_vac (v_σ the vacuum's
+/// components, the first lines), when every β_O is known; empty otherwise.
+pub(crate) fn vacuum_column(
+    field: &CyclotomicField,
+    form: &[Cyc],
+    vacuum: usize,
+    lines: &LineOrbit,
+    sectors: &Sectors,
+    orbits: &[SectorOrbit],
+) -> Result<Vec<(u32, String)>, StructureError> {
+    let mut column = SparseVec::default();
+    for o in orbits {
+        let Some(beta) = &o.coefficient else {
+            return Ok(Vec::new());
+        };
+        let scale = field.div(&field.parse(beta)?, &form[vacuum])?;
+        for (k, v) in lines.vectors[..lines.starts].iter().enumerate() {
+            if o.sectors.contains(&sectors.class_of[k]) {
+                column = column.sub_scaled(field, &field.neg(&scale), v)?;
+            }
+        }
+    }
+    Ok(column.0.iter().map(|(i, x)| (*i, x.to_string())).collect())
+}
