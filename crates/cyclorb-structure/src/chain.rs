@@ -34,6 +34,8 @@ struct Level {
     base_point: u32,
     generators: Vec<Monomial>,
     transversal: Vec<Option<Monomial>>,
+    /// The inverses of the transversal elements (sifting multiplies by them).
+    inverses: Vec<Option<Monomial>>,
     orbit: Vec<u32>,
 }
 
@@ -41,10 +43,12 @@ impl Level {
     fn new(base_point: u32, degree: usize) -> Level {
         let mut transversal = vec![None; degree];
         transversal[base_point as usize] = Some(Monomial::identity(degree));
+        let inverses = transversal.clone();
         Level {
             base_point,
             generators: Vec::new(),
             transversal,
+            inverses,
             orbit: vec![base_point],
         }
     }
@@ -197,8 +201,11 @@ impl MonomialChain {
     fn sift(&self, from: usize, mut g: Monomial) -> (usize, Monomial) {
         for (k, level) in self.levels.iter().enumerate().skip(from) {
             let beta = g.perm[level.base_point as usize];
-            match &level.transversal[beta as usize] {
-                Some(rep) => g = g.then_inverse(rep, self.modulus),
+            if beta == level.base_point {
+                continue;
+            }
+            match &level.inverses[beta as usize] {
+                Some(inverse) => g.then_in_place(inverse, self.modulus),
                 None => return (k, g),
             }
         }
@@ -218,13 +225,14 @@ impl MonomialChain {
                 .expect("queued points lie in the basic orbit");
             let tau = rep.then(&l.generators[generator], self.modulus);
             let gamma = tau.perm[l.base_point as usize];
-            match &l.transversal[gamma as usize] {
+            match &l.inverses[gamma as usize] {
                 Some(existing) => {
-                    let schreier = tau.then_inverse(existing, self.modulus);
+                    let schreier = tau.then(existing, self.modulus);
                     self.add_schreier_generator(level, schreier, queue);
                 }
                 None => {
                     let l = &mut self.levels[level];
+                    l.inverses[gamma as usize] = Some(tau.inverse(self.modulus));
                     l.transversal[gamma as usize] = Some(tau);
                     l.orbit.push(gamma);
                     queue.extend((0..l.generators.len()).map(|generator| Test {

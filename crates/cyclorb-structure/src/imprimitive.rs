@@ -36,7 +36,7 @@ use crate::analyse::kernel_certificate;
 use crate::chain::MonomialChain;
 use crate::components::{components, Signature};
 use crate::error::{require, StructureError};
-use crate::lineorbit::{line_orbit, spans, LineOrbit};
+use crate::lineorbit::{first_outside, line_orbit, spans, LineOrbit};
 use crate::monomial::Monomial;
 use crate::orbit::count_patterns;
 use crate::power::{candidate_powers, power_candidate, twist_order, PowerCandidate};
@@ -64,8 +64,8 @@ impl Default for ImprimitiveOptions {
     fn default() -> Self {
         ImprimitiveOptions {
             generating_set: GeneratingSet::Humphries,
-            line_limit: 200_000,
-            stabiliser_limit: 2_000_000,
+            line_limit: 20_000,
+            stabiliser_limit: 1_000_000,
             commutant_primes: 2,
         }
     }
@@ -88,8 +88,11 @@ pub struct ImprimitiveCertificate {
     pub phase_modulus: u32,
     /// The power k of the Lickorish twists whose joint eigenspaces are the sectors.
     pub power: u32,
-    /// The vacuum's components v_σ (comb coordinates, exact): the first lines.
+    /// The starting lines (comb coordinates, exact): first the vacuum's components v_σ,
+    /// then, where the vacuum's lines do not span V, components of coordinate vectors.
     pub components: Vec<Vec<(u32, String)>>,
+    /// How many of the starting lines are the vacuum's components.
+    pub vacuum_components: usize,
     /// The tree of the other lines: (parent, generator), v = A_generator·v_parent.
     pub tree: Vec<(u32, u32)>,
     /// Every generator on the lines: A v_ℓ = ζ_m^{phases[ℓ]}·v_{perm[ℓ]}.
@@ -202,7 +205,7 @@ pub(crate) fn count(
     sectors: &Sectors,
     stabiliser_limit: usize,
 ) -> Result<Counted, StructureError> {
-    let s = lines.starts;
+    let s = lines.support;
     let degree = lines.vectors.len();
     let base: Vec<u32> = (0..s as u32).collect();
     let chain = MonomialChain::with_classes(
@@ -276,17 +279,39 @@ fn try_power(
     candidate: &PowerCandidate,
     limit: usize,
 ) -> Result<(LineOrbit, Sectors), StructureError> {
+    let dim = space.dimension();
     let vacuum = SparseVec::unit(field, space.basis().vacuum());
-    let parts = components(field, candidate, &vacuum)?;
-    let starts = parts.into_iter().map(|(_, v)| v).collect();
-    let lines = line_orbit(field, roots, &generators.maps, starts, limit)?;
-    if !spans(field, &lines.vectors, space.dimension())? {
-        return Err(StructureError::Absent(
-            "the component lines are not proved to span the space".into(),
-        ));
+    let mut starts: Vec<SparseVec> = components(field, candidate, &vacuum)?
+        .into_iter()
+        .map(|(_, v)| v)
+        .collect();
+    let support = starts.len();
+    loop {
+        let lines = line_orbit(field, roots, &generators.maps, starts.clone(), support, limit)?;
+        if spans(field, &lines.vectors, dim)? {
+            let sectors = sectors(field, candidate, &lines, dim)?;
+            return Ok((lines, sectors));
+        }
+        // the vacuum's lines leave a proper invariant subspace: add the components of a
+        // coordinate vector outside their span, whose lines are new
+        let absent =
+            || StructureError::Absent("the component lines are not proved to span the space".into());
+        let missing = first_outside(field, &lines.vectors, dim)?.ok_or_else(absent)?;
+        let known = lines
+            .vectors
+            .iter()
+            .map(|v| v.normalised(field))
+            .collect::<Result<HashSet<_>, _>>()?;
+        let before = starts.len();
+        for (_, v) in components(field, candidate, &SparseVec::unit(field, missing))? {
+            if !known.contains(&v.normalised(field)?) {
+                starts.push(v);
+            }
+        }
+        if starts.len() == before {
+            return Err(absent());
+        }
     }
-    let sectors = sectors(field, candidate, &lines, space.dimension())?;
-    Ok((lines, sectors))
 }
 
 fn sparse_text(v: &SparseVec) -> Vec<(u32, String)> {
@@ -360,7 +385,7 @@ pub fn analyse_imprimitive(
         .order
         .parse()
         .map_err(|_| StructureError::Rejected("a block permutation order".into()))?;
-    let sector_supports = BigUint::from(sector_supports(&sectors, lines.starts));
+    let sector_supports = BigUint::from(sector_supports(&sectors, lines.support));
     require(
         (&counted.supports % &sector_supports).is_zero()
             && (&counted.image_order % &block_order).is_zero(),
@@ -384,6 +409,7 @@ pub fn analyse_imprimitive(
         phase_modulus: m,
         power,
         components: lines.vectors[..lines.starts].iter().map(sparse_text).collect(),
+        vacuum_components: lines.support,
         tree: lines.tree.clone(),
         monomials: lines.monomials.clone(),
         sector_of_line: sectors.class_of.clone(),
@@ -417,7 +443,7 @@ pub fn analyse_imprimitive(
         line_permutation_order: counted.chain.permutation_order().to_string(),
         kernel_order: kernel.order().to_string(),
         kernel_scalars: kernel.scalar_order(),
-        support_sectors: lines.starts,
+        support_sectors: lines.support,
         line_tuples_per_sector_support: (&counted.supports / &sector_supports).to_string(),
         sector_supports: sector_supports.to_string(),
         patterns_per_support: counted.patterns.to_string(),

@@ -129,8 +129,12 @@ impl<'a> ImprimitiveCheck<'a> {
             .iter()
             .map(|e| sparse_parse(field, e, dim))
             .collect::<Result<Vec<_>, _>>()?;
+        let support = self.certificate.vacuum_components;
+        require(support >= 1 && support <= parts.len(), || {
+            "the number of vacuum components is out of range".into()
+        })?;
         let mut sum = SparseVec::default();
-        for v in &parts {
+        for v in &parts[..support] {
             sum = sum.sub_scaled(field, &field.int(-1), v)?;
         }
         require(
@@ -138,7 +142,7 @@ impl<'a> ImprimitiveCheck<'a> {
             || "the components do not sum to the vacuum vector".into(),
         )?;
         let detail = format!(
-            "{} components sum to the vacuum vector exactly",
+            "the first {support} of {} starting lines sum to the vacuum vector exactly",
             parts.len()
         );
         self.components = parts;
@@ -154,6 +158,7 @@ impl<'a> ImprimitiveCheck<'a> {
             &self.roots,
             &self.generators.maps,
             starts,
+            self.certificate.vacuum_components,
             &self.certificate.tree,
             &self.certificate.monomials,
         )?;
@@ -222,7 +227,7 @@ impl<'a> ImprimitiveCheck<'a> {
             "the block permutation group on {} sectors has order {} (cyclorb-cert's Schreier–Sims, every point a base point); the vacuum's set of sectors has {} images",
             sectors.count(),
             summary.order,
-            sector_supports(sectors, self.certificate.components.len())
+            sector_supports(sectors, self.certificate.vacuum_components)
         ))
     }
 

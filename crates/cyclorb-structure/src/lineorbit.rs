@@ -32,6 +32,9 @@ pub(crate) struct LineOrbit {
     pub(crate) vectors: Vec<SparseVec>,
     /// The number of starts.
     pub(crate) starts: usize,
+    /// The first `support` starts are the vacuum's components (the rest, if any, were
+    /// added to make the lines span V).
+    pub(crate) support: usize,
     /// For every line after the starts, (parent, generator): v_ℓ = A_generator·v_parent.
     pub(crate) tree: Vec<(u32, u32)>,
     /// A_a·v_ℓ = ζ_m^{φ_a(ℓ)}·v_{π_a(ℓ)}.
@@ -78,13 +81,15 @@ fn phase(
     Ok(e)
 }
 
-/// The orbit of the lines of `starts` (distinct lines) under `maps`, up to `limit` lines;
-/// `Absent` beyond the limit or when a phase is not a root of unity.
+/// The orbit of the lines of `starts` (distinct lines, the first `support` of them the
+/// vacuum's components) under `maps`, up to `limit` lines; `Absent` beyond the limit or
+/// when a phase is not a root of unity.
 pub(crate) fn line_orbit(
     field: &CyclotomicField,
     roots: &RootsOfUnity,
     maps: &[ColumnMap],
     starts: Vec<SparseVec>,
+    support: usize,
     limit: usize,
 ) -> Result<LineOrbit, StructureError> {
     let mut index = LineIndex(HashMap::new());
@@ -96,6 +101,7 @@ pub(crate) fn line_orbit(
     }
     let mut orbit = LineOrbit {
         starts: starts.len(),
+        support,
         vectors: starts,
         tree: Vec::new(),
         monomials: vec![
@@ -140,6 +146,7 @@ pub(crate) fn replay(
     roots: &RootsOfUnity,
     maps: &[ColumnMap],
     starts: Vec<SparseVec>,
+    support: usize,
     tree: &[(u32, u32)],
     monomials: &[Monomial],
 ) -> Result<LineOrbit, StructureError> {
@@ -170,6 +177,7 @@ pub(crate) fn replay(
     Ok(LineOrbit {
         vectors,
         starts,
+        support,
         tree: tree.to_vec(),
         monomials: monomials.to_vec(),
     })
@@ -272,4 +280,26 @@ pub(crate) fn spans(
         }
     }
     Ok(false)
+}
+
+/// A coordinate j whose unit vector is outside the span of the vectors modulo the first
+/// usable prime (a choice, not a proof: the span is proved by [`spans`] afterwards).
+pub(crate) fn first_outside(
+    field: &CyclotomicField,
+    vectors: &[SparseVec],
+    dim: usize,
+) -> Result<Option<usize>, StructureError> {
+    let reduction = PrimeReduction::nth(field, 0)?;
+    let mut echelon = ModpEchelon::new(&reduction);
+    for v in vectors {
+        echelon.insert(reduce_vector(&reduction, v, dim)?);
+        if echelon.rank() == dim {
+            return Ok(None);
+        }
+    }
+    Ok((0..dim).find(|&j| {
+        let mut unit = vec![0u64; dim];
+        unit[j] = 1;
+        echelon.insert(unit)
+    }))
 }

@@ -164,7 +164,7 @@ pub(crate) fn sector_orbits(
         let members: Vec<u32> = orbit.iter().map(|(s, _)| *s).collect();
         let mut weight = field.zero();
         let mut entry = field.zero();
-        for (k, v) in lines.vectors[..lines.starts].iter().enumerate() {
+        for (k, v) in lines.vectors[..lines.support].iter().enumerate() {
             if members.contains(&sectors.class_of[k]) {
                 weight = field.add(&weight, &inner(field, form, v, v)?)?;
                 if let Some((_, x)) = v.0.iter().find(|(i, _)| *i as usize == vacuum) {
@@ -214,7 +214,7 @@ pub(crate) fn vacuum_column(
             return Ok(Vec::new());
         };
         let scale = field.div(&field.parse(beta)?, &form[vacuum])?;
-        for (k, v) in lines.vectors[..lines.starts].iter().enumerate() {
+        for (k, v) in lines.vectors[..lines.support].iter().enumerate() {
             if o.sectors.contains(&sectors.class_of[k]) {
                 column = column.sub_scaled(field, &field.neg(&scale), v)?;
             }
