@@ -36,9 +36,7 @@ fn su2_level_four_genus_two_agrees_with_enumeration() {
     // the enumerating route lists the 1 228 800 lines and sums B exactly; the structural
     // route counts them through the 16 sectors. B = 38 400·I₁ + 7 680·I₂ (README): its
     // vacuum column is 38 400 at the vacuum and 7 680 at the labels (0,2), (2,0), (2,2).
-    let (c1, counted) = cyclorb_json(&[
-        "orbit", "su2:4", "--genus", "2", "--method", "structure",
-    ]);
+    let (c1, counted) = cyclorb_json(&["orbit", "su2:4", "--genus", "2", "--method", "structure"]);
     let (c2, listed) = cyclorb_json(&["orbit", "su2:4", "--genus", "2"]);
     assert_eq!((c1, c2), (0, 0), "{counted}");
     assert_eq!(counted["orbit_size"], 1228800);
@@ -79,7 +77,12 @@ fn produce(tag: &str, args: &[&str]) -> (PathBuf, Value) {
     let mut all = args.to_vec();
     all.extend(["--out", &out]);
     let run = cyclorb(&all);
-    assert_eq!(run.status.code(), Some(0), "{}", String::from_utf8_lossy(&run.stderr));
+    assert_eq!(
+        run.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&run.stderr)
+    );
     let value = serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
     (path, value)
 }
@@ -102,10 +105,18 @@ fn imprimitive_certificates_recheck_and_changes_are_caught() {
     assert_eq!(cert["orbit_size"], "48");
     let phase = cert["monomials"][0]["phases"][0].as_u64().unwrap();
     let tamperings = [
-        ("/monomials/0/phases/0", Value::from((phase + 1) % 24), "line-monomials"),
+        (
+            "/monomials/0/phases/0",
+            Value::from((phase + 1) % 24),
+            "line-monomials",
+        ),
         ("/components/0/0/1", Value::from("7"), "vacuum-components"),
         ("/sector_of_line/0", Value::from(3), "sectors"),
-        ("/basic_orbit_lengths/0", Value::from(1000), "line-permutation-order"),
+        (
+            "/basic_orbit_lengths/0",
+            Value::from(1000),
+            "line-permutation-order",
+        ),
         ("/orbit_size", Value::from("49"), "orbit-arithmetic"),
         ("/support_permutations", Value::from(5), "derived-data"),
         ("/genus", Value::from(2), "identity"),

@@ -6,11 +6,11 @@ use std::sync::atomic::AtomicBool;
 use std::sync::Arc;
 use std::time::{Duration, Instant};
 
+use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use cyclorb_orbit::{
     checkpoint_origin, install_stop_handler, CheckpointPlan, GeneratorSet, LabelledEntry, Orbit,
     OrbitOptions, OrbitProblem, OrbitReport, PoincareReport, Seed,
 };
-use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use serde_json::json;
 
 use super::common::{build_space, parse_set, vacuum_problem};

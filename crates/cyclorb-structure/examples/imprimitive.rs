@@ -15,9 +15,10 @@ fn main() {
     let genus: usize = args.get(1).and_then(|g| g.parse().ok()).unwrap_or(2);
     let with_certificate = args.iter().any(|a| a == "--certificate");
     let start = Instant::now();
-    let space = match parse_spec(spec).map_err(|e| e.to_string()).and_then(|t| {
-        BlockSpace::new(t, genus).map_err(|e| e.to_string())
-    }) {
+    let space = match parse_spec(spec)
+        .map_err(|e| e.to_string())
+        .and_then(|t| BlockSpace::new(t, genus).map_err(|e| e.to_string()))
+    {
         Ok(s) => s,
         Err(e) => {
             eprintln!("{e}");

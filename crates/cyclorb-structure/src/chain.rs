@@ -56,7 +56,11 @@ impl Level {
 
 /// The permutation a permutation of points induces on classes of points (`class_of[i] <
 /// classes`), when it maps every class onto a class.
-pub(crate) fn induced_permutation(perm: &[u32], class_of: &[u32], classes: usize) -> Option<Vec<u32>> {
+pub(crate) fn induced_permutation(
+    perm: &[u32],
+    class_of: &[u32],
+    classes: usize,
+) -> Option<Vec<u32>> {
     let mut induced = vec![u32::MAX; classes];
     for (i, &p) in perm.iter().enumerate() {
         let (from, to) = (class_of[i] as usize, class_of[p as usize]);
@@ -98,7 +102,10 @@ impl MonomialChain {
     pub fn new(degree: usize, modulus: u32, generators: &[Monomial]) -> MonomialChain {
         let identity = (0..degree as u32).collect();
         let chain = MonomialChain::build(degree, modulus, generators, &[0], identity, degree);
-        debug_assert!(chain.inconsistent.is_none(), "singleton classes are always consistent");
+        debug_assert!(
+            chain.inconsistent.is_none(),
+            "singleton classes are always consistent"
+        );
         chain
     }
 

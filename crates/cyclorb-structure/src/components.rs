@@ -75,11 +75,10 @@ pub(crate) fn signature(
     let mut signature = Vec::with_capacity(candidate.operators.len());
     for x in &candidate.operators {
         let w = x.apply(field, v)?;
-        let value = w
-            .0
-            .iter()
-            .find(|(j, _)| j == i)
-            .map_or_else(|| Ok(field.zero()), |(_, y)| field.div(y, lead))?;
+        let value =
+            w.0.iter()
+                .find(|(j, _)| j == i)
+                .map_or_else(|| Ok(field.zero()), |(_, y)| field.div(y, lead))?;
         let Some(e) = candidate.eigenvalues.iter().position(|nu| *nu == value) else {
             return Ok(None);
         };

@@ -287,15 +287,23 @@ fn try_power(
         .collect();
     let support = starts.len();
     loop {
-        let lines = line_orbit(field, roots, &generators.maps, starts.clone(), support, limit)?;
+        let lines = line_orbit(
+            field,
+            roots,
+            &generators.maps,
+            starts.clone(),
+            support,
+            limit,
+        )?;
         if spans(field, &lines.vectors, dim)? {
             let sectors = sectors(field, candidate, &lines, dim)?;
             return Ok((lines, sectors));
         }
         // the vacuum's lines leave a proper invariant subspace: add the components of a
         // coordinate vector outside their span, whose lines are new
-        let absent =
-            || StructureError::Absent("the component lines are not proved to span the space".into());
+        let absent = || {
+            StructureError::Absent("the component lines are not proved to span the space".into())
+        };
         let missing = first_outside(field, &lines.vectors, dim)?.ok_or_else(absent)?;
         let known = lines
             .vectors
@@ -352,7 +360,14 @@ pub fn analyse_imprimitive(
                 continue;
             }
         };
-        match try_power(field, &roots, space, &generators, &candidate, options.line_limit) {
+        match try_power(
+            field,
+            &roots,
+            space,
+            &generators,
+            &candidate,
+            options.line_limit,
+        ) {
             Ok(x) => {
                 found = Some((k, x));
                 break;
@@ -363,17 +378,17 @@ pub fn analyse_imprimitive(
     }
     let Some((power, (lines, sectors))) = found else {
         if reasons.is_empty() {
-            reasons.push(format!("the twists have order {order}, with no proper divisor k > 1"));
+            reasons.push(format!(
+                "the twists have order {order}, with no proper divisor k > 1"
+            ));
         }
         return Err(StructureError::Absent(reasons.join("; ")));
     };
     let counted = count(m, &lines, &sectors, options.stabiliser_limit)?;
     let vacuum = space.basis().vacuum();
     let orbits = sector_orbits(
-        field,
+        space,
         &roots,
-        space.form(),
-        vacuum,
         &lines,
         &sectors,
         &counted.orbit_size,
@@ -408,7 +423,10 @@ pub fn analyse_imprimitive(
         conductor: field.conductor(),
         phase_modulus: m,
         power,
-        components: lines.vectors[..lines.starts].iter().map(sparse_text).collect(),
+        components: lines.vectors[..lines.starts]
+            .iter()
+            .map(sparse_text)
+            .collect(),
         vacuum_components: lines.support,
         tree: lines.tree.clone(),
         monomials: lines.monomials.clone(),

@@ -233,7 +233,11 @@ impl<'a> ImprimitiveCheck<'a> {
 
     /// Claim `derived-data`: the chain, kernel, set stabiliser, patterns, counts and sector
     /// commutants derived again by the producer's steps and compared.
-    pub fn derived(&self, stabiliser_limit: usize, primes: usize) -> Result<String, StructureError> {
+    pub fn derived(
+        &self,
+        stabiliser_limit: usize,
+        primes: usize,
+    ) -> Result<String, StructureError> {
         let lines = self.line_orbit()?;
         let sectors = self.sector_data()?;
         let c = self.certificate;
@@ -254,10 +258,8 @@ impl<'a> ImprimitiveCheck<'a> {
             || "the image order or the orbit count differ".into(),
         )?;
         let orbits = sector_orbits(
-            self.field(),
+            self.space,
             &self.roots,
-            self.space.form(),
-            self.space.basis().vacuum(),
             lines,
             sectors,
             &counted.orbit_size,

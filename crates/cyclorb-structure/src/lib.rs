@@ -93,10 +93,10 @@ mod vacuum;
 pub use analyse::{analyse, analyse_spec, StructureOptions};
 pub use chain::MonomialChain;
 pub use error::StructureError;
-pub use imprimitive_check::{recheck_imprimitive, ImprimitiveCheck};
 pub use imprimitive::{
     analyse_imprimitive, ImprimitiveCertificate, ImprimitiveOptions, ImprimitiveReport,
 };
+pub use imprimitive_check::{recheck_imprimitive, ImprimitiveCheck};
 pub use lattice::ModLattice;
 pub use monomial::{Monomial, MonomialForm};
 pub use orbit::OrbitCount;

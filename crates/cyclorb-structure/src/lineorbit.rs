@@ -58,7 +58,9 @@ fn ratio(
 ) -> Result<cyclorb_field::Cyc, StructureError> {
     match (u.leading(), v.leading()) {
         (Some((_, a)), Some((_, b))) => Ok(field.div(a, b)?),
-        _ => Err(StructureError::Rejected("a zero vector among the lines".into())),
+        _ => Err(StructureError::Rejected(
+            "a zero vector among the lines".into(),
+        )),
     }
 }
 
@@ -95,9 +97,10 @@ pub(crate) fn line_orbit(
     let mut index = LineIndex(HashMap::new());
     for (k, v) in starts.iter().enumerate() {
         let key = v.normalised(field)?;
-        require(!key.is_zero() && index.0.insert(key, k as u32).is_none(), || {
-            "the starting lines are not distinct non-zero lines".into()
-        })?;
+        require(
+            !key.is_zero() && index.0.insert(key, k as u32).is_none(),
+            || "the starting lines are not distinct non-zero lines".into(),
+        )?;
     }
     let mut orbit = LineOrbit {
         starts: starts.len(),

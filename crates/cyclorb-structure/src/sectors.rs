@@ -80,7 +80,10 @@ pub(crate) fn sectors(
     }
     let mut dimensions = Vec::with_capacity(lines.len());
     for members in &lines {
-        let vectors: Vec<&SparseVec> = members.iter().map(|&l| &orbit.vectors[l as usize]).collect();
+        let vectors: Vec<&SparseVec> = members
+            .iter()
+            .map(|&l| &orbit.vectors[l as usize])
+            .collect();
         dimensions.push(independent_subset(field, &vectors, dim)?.0.len());
     }
     let total: usize = dimensions.iter().sum();

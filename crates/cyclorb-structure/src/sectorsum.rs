@@ -20,6 +20,7 @@
 use cyclorb_cert::{commutant, CommutantOptions, GeneratorSet};
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_matrix::{Matrix, Operator};
+use cyclorb_mcg::BlockSpace;
 use hashbrown::HashSet;
 use num_bigint::{BigInt, BigUint};
 use serde::{Deserialize, Serialize};
@@ -92,7 +93,10 @@ fn sector_commutant(
         return Ok(1);
     }
     let members = &sectors.lines[sigma];
-    let vectors: Vec<&SparseVec> = members.iter().map(|&l| &lines.vectors[l as usize]).collect();
+    let vectors: Vec<&SparseVec> = members
+        .iter()
+        .map(|&l| &lines.vectors[l as usize])
+        .collect();
     let (chosen, pivots) = independent_subset(field, &vectors, dim)?;
     let basis: Vec<u32> = chosen.iter().map(|&k| members[k]).collect();
     let mut a = Matrix::zeros(field, r, r);
@@ -149,15 +153,16 @@ fn form_dim(sectors: &Sectors) -> usize {
 
 /// Every orbit of sectors with its commutant dimension and, when all are 1, its term of B.
 pub(crate) fn sector_orbits(
-    field: &CyclotomicField,
+    space: &BlockSpace,
     roots: &RootsOfUnity,
-    form: &[Cyc],
-    vacuum: usize,
     lines: &LineOrbit,
     sectors: &Sectors,
     orbit_size: &BigUint,
     primes: usize,
 ) -> Result<Vec<SectorOrbit>, StructureError> {
+    let field = space.theory().field();
+    let form = space.form();
+    let vacuum = space.basis().vacuum();
     let mut out = Vec::new();
     for orbit in sectors.orbits() {
         let commutant_dimension = sector_commutant(field, roots, lines, sectors, &orbit, primes)?;
@@ -182,7 +187,9 @@ pub(crate) fn sector_orbits(
             coefficient: None,
             vacuum_entry: field.div(&entry, &form[vacuum])?.to_string(),
         });
-        let total = out.last().map_or(0, |o| o.sector_dimension * o.sectors.len());
+        let total = out
+            .last()
+            .map_or(0, |o| o.sector_dimension * o.sectors.len());
         let size = field.big_rational(&BigInt::from(orbit_size.clone()), &BigInt::from(1))?;
         let beta = field.div(&field.mul(&size, &weight)?, &field.int(total as i64))?;
         if let Some(o) = out.last_mut() {

@@ -53,10 +53,9 @@ impl Search<'_> {
             if image >= self.s || used[image] {
                 continue;
             }
-            let u = self
-                .chain
-                .transversal(k, beta)
-                .ok_or_else(|| StructureError::Rejected("a basic orbit without transversal".into()))?;
+            let u = self.chain.transversal(k, beta).ok_or_else(|| {
+                StructureError::Rejected("a basic orbit without transversal".into())
+            })?;
             let next = u.then(x, self.modulus);
             used[image] = true;
             self.descend(k + 1, &next, used)?;

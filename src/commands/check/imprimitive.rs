@@ -39,7 +39,9 @@ pub fn check(
     claims.claim("vacuum-components", || {
         check.components().map_err(|e| e.to_string())
     })?;
-    claims.claim("line-monomials", || check.lines().map_err(|e| e.to_string()))?;
+    claims.claim("line-monomials", || {
+        check.lines().map_err(|e| e.to_string())
+    })?;
     claims.claim("spanning", || check.spanning().map_err(|e| e.to_string()))?;
     claims.claim("sectors", || check.sectors().map_err(|e| e.to_string()))?;
     claims.claim("block-permutations", || {

@@ -3,8 +3,7 @@
 //! monomial theories through the generalised route.
 
 use cyclorb_structure::{
-    analyse_imprimitive, recheck_imprimitive, ImprimitiveOptions, ImprimitiveReport,
-    StructureError,
+    analyse_imprimitive, recheck_imprimitive, ImprimitiveOptions, ImprimitiveReport, StructureError,
 };
 
 use crate::common::{brute_orbit, lagrangians, report, space, symplectic_order};
@@ -16,8 +15,9 @@ fn imprimitive(spec: &str, genus: usize) -> ImprimitiveReport {
 /// The sector dimensions of SU(2)_4 at genus g (docs/orbits.md §5): (3^g + 1)/2 for the
 /// untwisted sector, (3^{g−1} + 1)/2 for each of the 4^g − 1 others.
 fn sector_dimensions(g: u32) -> Vec<(usize, usize)> {
-    let untwisted = (3usize.pow(g) + 1) / 2;
-    let twisted = (3usize.pow(g - 1) + 1) / 2;
+    // 3^g is odd: (3^g + 1)/2 = ⌈3^g / 2⌉
+    let untwisted = 3usize.pow(g).div_ceil(2);
+    let twisted = 3usize.pow(g - 1).div_ceil(2);
     let mut dims = vec![(untwisted, 1), (twisted, 4usize.pow(g) - 1)];
     dims.sort_unstable();
     dims
@@ -57,7 +57,10 @@ fn su2_level_four_genus_two_matches_the_enumerating_route() {
     assert_eq!(r.commutant_dimension, 2);
     // the factorisation 15 × 40 × 4³ × 32: the supports are the Lagrangians of F_2^4
     assert_eq!(r.sector_supports, lagrangians(2).to_string());
-    assert_eq!(r.line_tuples_per_sector_support, (40 * 4 * 4 * 4).to_string());
+    assert_eq!(
+        r.line_tuples_per_sector_support,
+        (40 * 4 * 4 * 4).to_string()
+    );
     assert_eq!(r.patterns_per_support, "32");
     assert_eq!(r.sector_dimensions, sector_dimensions(2));
     // the block permutation group is Sp(4, F_2) ≅ S_6, of order 720 (ATLAS of Finite Groups)
@@ -69,12 +72,21 @@ fn su2_level_four_genus_two_matches_the_enumerating_route() {
 fn monomial_theories_give_the_same_answers() {
     // blocks of size 1 are a special case: the orbit and the image order of the monomial
     // route (itself checked against brute force and published values in ising.rs)
-    for (spec, genus) in [("ising", 1), ("ising", 2), ("ising", 3), ("su2:2", 2), ("zn:4:1", 2)] {
+    for (spec, genus) in [
+        ("ising", 1),
+        ("ising", 2),
+        ("ising", 3),
+        ("su2:2", 2),
+        ("zn:4:1", 2),
+    ] {
         let s = space(spec, genus);
         let monomial = report(&s);
         let r = imprimitive(spec, genus);
         assert_eq!(r.orbit_size, monomial.orbit_size, "{spec} at genus {genus}");
-        assert_eq!(r.image_order, monomial.image_order, "{spec} at genus {genus}");
+        assert_eq!(
+            r.image_order, monomial.image_order,
+            "{spec} at genus {genus}"
+        );
         recheck_imprimitive(&s, &r.certificate, 1_000_000).unwrap();
     }
 }
