@@ -480,18 +480,7 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
     };
     match counted(&space.1, space.0) {
         Ok(Ok(report)) => {
-            let source = Source {
-                spec,
-                genus,
-                set: &args.set,
-            };
-            let written = envelope::write(
-                args.out.as_deref(),
-                "structure",
-                &source,
-                &report.certificate,
-            );
-            if let Err(e) = written {
+            if let Err(e) = write_structure(args, "structure", &report.certificate) {
                 return Outcome::Invalid(e);
             }
             let mut value = orbit_json(&report, started);
@@ -516,6 +505,20 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
     }
 }
 
+/// Write a certificate of the structural route with its envelope (`--out`, when given).
+fn write_structure<T: serde::Serialize>(
+    args: &OrbitArgs,
+    kind: &str,
+    certificate: &T,
+) -> Result<(), String> {
+    let source = Source {
+        spec: args.spec.as_deref().unwrap_or_default(),
+        genus: args.genus.unwrap_or_default(),
+        set: &args.set,
+    };
+    envelope::write(args.out.as_deref(), kind, &source, certificate)
+}
+
 /// `--method structure` through the imprimitive structure, for a theory without a
 /// monomial one (`monomial`: why not).
 fn imprimitive(
@@ -531,18 +534,7 @@ fn imprimitive(
     };
     match counted_imprimitive(space, set) {
         Ok(Ok(report)) => {
-            let source = Source {
-                spec,
-                genus,
-                set: &args.set,
-            };
-            let written = envelope::write(
-                args.out.as_deref(),
-                "structure-imprimitive",
-                &source,
-                &report.certificate,
-            );
-            if let Err(e) = written {
+            if let Err(e) = write_structure(args, "structure-imprimitive", &report.certificate) {
                 return Outcome::Invalid(e);
             }
             match imprimitive_orbit_json(space, &report, started) {

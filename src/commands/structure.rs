@@ -9,12 +9,28 @@ use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use cyclorb_orbit::LabelledEntry;
 use cyclorb_structure::{
     analyse, analyse_imprimitive, recheck, recheck_imprimitive, ImprimitiveOptions,
-    ImprimitiveReport, StructureOptions, StructureReport,
+    ImprimitiveReport, StructureError, StructureOptions, StructureReport,
 };
 use serde_json::{json, Value};
 
-/// Analyse and re-check. The inner `Err` carries the reason when the theory lacks the
+/// An analysis re-checked: the inner `Err` carries the reason when the theory lacks the
 /// structure; the outer `Err` is a failure (including a certificate that does not re-check).
+fn rechecked<R>(
+    analysis: Result<R, StructureError>,
+    recheck: impl FnOnce(&R) -> Result<(), StructureError>,
+) -> Result<Result<R, String>, String> {
+    match analysis {
+        Ok(report) => {
+            recheck(&report)
+                .map_err(|e| format!("the structure certificate does not re-check: {e}"))?;
+            Ok(Ok(report))
+        }
+        Err(e) if e.is_absent() => Ok(Err(e.to_string())),
+        Err(e) => Err(e.to_string()),
+    }
+}
+
+/// Analyse through the monomial structure and re-check (see [`rechecked`]).
 pub fn counted(
     space: &BlockSpace,
     set: GeneratingSet,
@@ -23,15 +39,7 @@ pub fn counted(
         generating_set: set,
         ..StructureOptions::default()
     };
-    match analyse(space, &options) {
-        Ok(report) => {
-            recheck(space, &report.certificate)
-                .map_err(|e| format!("the structure certificate does not re-check: {e}"))?;
-            Ok(Ok(report))
-        }
-        Err(e) if e.is_absent() => Ok(Err(e.to_string())),
-        Err(e) => Err(e.to_string()),
-    }
+    rechecked(analyse(space, &options), |r| recheck(space, &r.certificate))
 }
 
 /// B = λ·G⁻¹ entry by entry over the comb basis: the diagonal entries (x, x, λ/G_x),
@@ -131,8 +139,7 @@ pub fn orbit_text(r: &StructureReport, sum_entries: &str) -> String {
 }
 
 /// The imprimitive route (cyclorb-structure's `analyse_imprimitive`) and its re-check, for a
-/// theory without a monomial structure. The inner `Err` carries the reason when this
-/// structure is absent too.
+/// theory without a monomial structure (see [`rechecked`]).
 pub fn counted_imprimitive(
     space: &BlockSpace,
     set: GeneratingSet,
@@ -141,15 +148,9 @@ pub fn counted_imprimitive(
         generating_set: set,
         ..ImprimitiveOptions::default()
     };
-    match analyse_imprimitive(space, &options) {
-        Ok(report) => {
-            recheck_imprimitive(space, &report.certificate, options.stabiliser_limit)
-                .map_err(|e| format!("the structure certificate does not re-check: {e}"))?;
-            Ok(Ok(report))
-        }
-        Err(e) if e.is_absent() => Ok(Err(e.to_string())),
-        Err(e) => Err(e.to_string()),
-    }
+    rechecked(analyse_imprimitive(space, &options), |r| {
+        recheck_imprimitive(space, &r.certificate, options.stabiliser_limit)
+    })
 }
 
 /// B's vacuum column B_{j,vac} by comb-basis labels (B = Σ_O β_O·Π_O), when the commutant
