@@ -106,16 +106,28 @@ pub fn orbit_json(r: &StructureReport, started: Instant) -> Value {
     })
 }
 
+/// The first line of a counted orbit's text.
+fn header(
+    theory: &str,
+    genus: usize,
+    dimension: usize,
+    conductor: u32,
+    generators: usize,
+) -> String {
+    format!(
+        "theory {theory} at genus {genus}: dimension {dimension} over Q(ζ_{conductor}), {generators} generators\n"
+    )
+}
+
 /// The text form of a counted orbit; `sum_entries` (B by labels, already as text) follows
 /// the line of the Poincaré sum.
 pub fn orbit_text(r: &StructureReport, sum_entries: &str) -> String {
-    let mut t = format!(
-        "theory {} at genus {}: dimension {} over Q(ζ_{}), {} generators\n",
-        r.theory,
+    let mut t = header(
+        &r.theory,
         r.genus,
         r.dimension,
         r.conductor,
-        r.generators.len()
+        r.generators.len(),
     );
     t.push_str(&format!(
         "orbit (counted through the monomial structure): {} lines = {} supports × {} phase patterns\n",
@@ -240,13 +252,12 @@ pub fn imprimitive_orbit_text(r: &ImprimitiveReport) -> String {
         .iter()
         .map(|(d, n)| format!("{n} of dimension {d}"))
         .collect();
-    let mut t = format!(
-        "theory {} at genus {}: dimension {} over Q(ζ_{}), {} generators\n",
-        r.theory,
+    let mut t = header(
+        &r.theory,
         r.genus,
         r.dimension,
         r.conductor,
-        r.generators.len()
+        r.generators.len(),
     );
     t.push_str(&format!(
         "sectors (joint eigenspaces of the {}-th twist powers): {} ({}); {} component lines\n",
