@@ -227,7 +227,7 @@ impl ImageRun<'_> {
         self.value["orbit_size"] = json!(r.orbit_size);
         self.value["sectors"] = json!(r.sectors);
         let line = format!(
-            "projective image: finite, order {} = |block permutations| {} × |block kernel| {} (imprimitive structure: {} sectors, {} component lines; certificate re-checked)\n",
+            "projective image: finite, order {} = |block permutations| {} × |block kernel| {} (imprimitive structure: {} sectors, {} component lines; exact claims of the certificate re-checked)\n",
             r.image_order, r.block_permutation_order, r.block_kernel_order, r.sectors, r.component_lines
         );
         Some(self.done("structure", r.image_order.clone(), line))

@@ -150,8 +150,9 @@ pub fn orbit_text(r: &StructureReport, sum_entries: &str) -> String {
     t
 }
 
-/// The imprimitive route (cyclorb-structure's `analyse_imprimitive`) and its re-check, for a
-/// theory without a monomial structure (see [`rechecked`]).
+/// The imprimitive route (cyclorb-structure's `analyse_imprimitive`) and the re-check of
+/// its exact claims (the derived data, re-derived by the producer's own steps, are left to
+/// `cyclorb check`), for a theory without a monomial structure (see [`rechecked`]).
 pub fn counted_imprimitive(
     space: &BlockSpace,
     set: GeneratingSet,
@@ -161,7 +162,7 @@ pub fn counted_imprimitive(
         ..ImprimitiveOptions::default()
     };
     rechecked(analyse_imprimitive(space, &options), |r| {
-        recheck_imprimitive(space, &r.certificate, options.stabiliser_limit)
+        recheck_imprimitive(space, &r.certificate, None)
     })
 }
 
@@ -240,6 +241,7 @@ pub fn imprimitive_orbit_json(
             "kernel_scalars": r.kernel_scalars,
         },
         "certificate_rechecked": true,
+        "recheck": "the exact claims (vacuum components, line monomials, spanning, sectors, block permutations); `cyclorb check` re-derives the rest",
         "elapsed_seconds": started.elapsed().as_secs_f64(),
         "peak_memory_bytes": cyclorb_orbit::peak_memory_bytes(),
     }))
@@ -294,7 +296,7 @@ pub fn imprimitive_orbit_text(r: &ImprimitiveReport) -> String {
         ));
     }
     t.push_str(&format!(
-        "projective image order {} = |block permutations| {} × |block kernel| {} (= |P_L| {} × |K| {} / |K ∩ scalars| {})\ncertificate re-checked\n",
+        "projective image order {} = |block permutations| {} × |block kernel| {} (= |P_L| {} × |K| {} / |K ∩ scalars| {})\ncertificate re-checked (exact claims; `cyclorb check` re-derives the rest)\n",
         r.image_order,
         r.block_permutation_order,
         r.block_kernel_order,

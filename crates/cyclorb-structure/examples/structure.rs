@@ -40,7 +40,7 @@ fn main() {
         analyse_imprimitive(&space, &options).and_then(|report| {
             print(&report, with_certificate);
             let again = Instant::now();
-            recheck_imprimitive(&space, &report.certificate, options.stabiliser_limit)
+            recheck_imprimitive(&space, &report.certificate, Some(options.stabiliser_limit))
                 .map(|()| again)
         })
     } else {

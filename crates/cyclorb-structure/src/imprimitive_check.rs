@@ -279,11 +279,14 @@ impl<'a> ImprimitiveCheck<'a> {
     }
 }
 
-/// Re-check a certificate of the imprimitive route against the block space (every claim).
+/// Re-check a certificate of the imprimitive route against the block space: every claim,
+/// or (`derived` false) the exact claims only, leaving the re-derivation of the chain, the
+/// counts and the commutants (the producer's own steps, as long as the analysis) to
+/// `cyclorb check`.
 pub fn recheck_imprimitive(
     space: &BlockSpace,
     certificate: &ImprimitiveCertificate,
-    stabiliser_limit: usize,
+    derived: Option<usize>,
 ) -> Result<(), StructureError> {
     let (mut check, _) = ImprimitiveCheck::new(space, certificate)?;
     check.components()?;
@@ -291,6 +294,8 @@ pub fn recheck_imprimitive(
     check.spanning()?;
     check.sectors()?;
     check.block_permutations()?;
-    check.derived(stabiliser_limit, 2)?;
+    if let Some(stabiliser_limit) = derived {
+        check.derived(stabiliser_limit, 2)?;
+    }
     Ok(())
 }
