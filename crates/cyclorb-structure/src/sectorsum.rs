@@ -177,24 +177,20 @@ pub(crate) fn sector_orbits(
                 }
             }
         }
+        // the generators map sectors onto sectors invertibly: one dimension per orbit
         let first = members[0] as usize;
+        let total = sectors.dimensions[first] * members.len();
+        let size = field.big_rational(&BigInt::from(orbit_size.clone()), &BigInt::from(1))?;
+        let beta = field.div(&field.mul(&size, &weight)?, &field.int(total as i64))?;
         out.push(SectorOrbit {
             sector_dimension: sectors.dimensions[first],
             lines_per_sector: sectors.lines[first].len(),
             sectors: members,
             commutant_dimension,
             vacuum_weight: weight.to_string(),
-            coefficient: None,
+            coefficient: Some(beta.to_string()),
             vacuum_entry: field.div(&entry, &form[vacuum])?.to_string(),
         });
-        let total = out
-            .last()
-            .map_or(0, |o| o.sector_dimension * o.sectors.len());
-        let size = field.big_rational(&BigInt::from(orbit_size.clone()), &BigInt::from(1))?;
-        let beta = field.div(&field.mul(&size, &weight)?, &field.int(total as i64))?;
-        if let Some(o) = out.last_mut() {
-            o.coefficient = Some(beta.to_string());
-        }
     }
     // the projectors span the commutant only when every sector's commutant is the scalars
     if out.iter().any(|o| o.commutant_dimension != 1) {
