@@ -316,11 +316,6 @@ impl MonomialChain {
         self.levels[k].transversal[point as usize].as_ref()
     }
 
-    /// The strong generators fixing the first k base points (those of levels ≥ k).
-    pub(crate) fn level_generators(&self, k: usize) -> &[Monomial] {
-        self.levels.get(k).map_or(&[], |l| &l.generators)
-    }
-
     /// |M| = |P|·|K|.
     pub fn group_order(&self) -> BigUint {
         self.permutation_order() * self.kernel.order()

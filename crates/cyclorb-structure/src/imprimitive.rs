@@ -218,7 +218,13 @@ pub(crate) fn count(
     )?;
     let stabiliser = crate::setstab::set_stabiliser(&chain, s, m, stabiliser_limit)?;
     let mut local = stabiliser.elements.clone();
-    for g in chain.level_generators(s) {
+    // the pointwise stabiliser of S₀ is K times the products of transversal elements of
+    // the levels ≥ s, each a product of strong generators fixing S₀ pointwise
+    let fixing = chain
+        .strong_generators()
+        .iter()
+        .filter(|g| g.perm[..s].iter().enumerate().all(|(i, &p)| p == i as u32));
+    for g in fixing {
         local.push(Monomial {
             perm: g.perm[..s].to_vec(),
             phases: g.phases[..s].to_vec(),
