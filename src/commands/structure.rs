@@ -227,10 +227,11 @@ pub fn imprimitive_orbit_json(
         "poincare_sum": {
             "is_scalar": if decided { json!(r.sector_orbits.len() == 1) } else { Value::Null },
             "prefactor": prefactor,
+            "invariants": if prefactor.is_some() { json!([]) } else { Value::Null },
             "commutant_dimension": r.commutant_dimension,
             "sector_terms": r.sector_orbits,
             "vacuum_column": vacuum_column(space, r)?,
-            "note": "B = Σ_O β_O·P_O·G⁻¹ over the orbits O of sectors (P_O the G-orthogonal projector onto them), β_O = |orbit|·‖P_O v₀‖²_G / dim, when every sector's commutant is 1-dimensional (certified); vacuum_column lists B_{j,vac}",
+            "note": "B = Σ_O β_O·P_O·G⁻¹ over the orbits O of sectors (P_O the G-orthogonal projector onto them), β_O = |orbit|·‖P_O v₀‖²_G / dim, when every sector's commutant is 1-dimensional (certified); vacuum_column lists B_{j,vac}; `invariants` is null (the terms are `sector_terms`) unless B is scalar",
         },
         "image_order": r.image_order,
         "image": {
