@@ -25,7 +25,7 @@ fn rechecked<R>(
                 .map_err(|e| format!("the structure certificate does not re-check: {e}"))?;
             Ok(Ok(report))
         }
-        Err(e) if e.is_absent() => Ok(Err(e.to_string())),
+        Err(StructureError::Absent(reason)) => Ok(Err(reason)),
         Err(e) => Err(e.to_string()),
     }
 }
