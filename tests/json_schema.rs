@@ -139,6 +139,7 @@ fn orbit_follows_its_schema_by_every_method() {
     conforms(&["orbit", "ising", "--genus", "2", "--words", "2"]);
     conforms(&["orbit", "zn:3:2", "--genus", "2"]);
     conforms(&["orbit", "ising", "--genus", "2", "--method", "structure"]);
+    conforms(&["orbit", "su2:4", "--genus", "2", "--method", "structure"]);
     conforms(&[
         "orbit",
         "ising*zn:2:1",
@@ -157,6 +158,7 @@ fn certificate_commands_follow_their_schemas() {
     conforms(&["commutant", "ising", "--genus", "1"]);
     conforms(&["commutant", "zn:3:2", "--genus", "2"]);
     conforms(&["image", "fibonacci", "--genus", "1"]);
+    conforms(&["image", "su2:4", "--genus", "2"]);
     conforms(&["image", "fibonacci", "--genus", "2"]);
     conforms(&["image", "dw:Z2", "--genus", "2"]);
     conforms(&["witness", "fibonacci", "--genus", "2"]);

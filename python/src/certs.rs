@@ -3,9 +3,7 @@
 //! returned (as the program does).
 
 use cyclorb_cert::{commutant as commutant_cert, CommutantOptions, WitnessOptions};
-use cyclorb_pipeline::image::{
-    decide_image, ImageBounds, ImageEvidence, ImageRequest, ImageStrategy,
-};
+use cyclorb_pipeline::image::{decide_image, ImageBounds, ImageRequest, ImageStrategy};
 use cyclorb_pipeline::space::{build_space, cert_generators, parse_set};
 use cyclorb_pipeline::witness::{search, WitnessSearch};
 use pyo3::prelude::*;
@@ -134,21 +132,20 @@ pub fn image<'py>(
             let space = build_space(spec, genus)?;
             let gens = cert_generators(&space, set)?;
             let d = decide_image(&space, set, &gens, &request)?;
-            let certificate = match &d.evidence {
-                None => Ok(serde_json::Value::Null),
-                Some(ImageEvidence::Structure(r)) => serde_json::to_value(&r.certificate),
-                Some(ImageEvidence::Enumeration(c)) => serde_json::to_value(c),
-                Some(ImageEvidence::Orbit { certificate, .. }) => serde_json::to_value(certificate),
-                Some(ImageEvidence::Witness(w)) => serde_json::to_value(w),
-                Some(ImageEvidence::LiftedWitness(l)) => serde_json::to_value(l),
-            }
-            .map_err(|e| e.to_string())?;
+            let (kind, certificate) = match &d.evidence {
+                Some(evidence) => {
+                    let (kind, body) = evidence.certificate()?;
+                    (serde_json::json!(kind), body)
+                }
+                None => (serde_json::Value::Null, serde_json::Value::Null),
+            };
             Ok::<_, String>(serde_json::json!({
                 "finite": d.finite,
                 "order": d.order,
                 "route": d.route.name(),
                 "steps": d.steps,
                 "reason": d.reason,
+                "certificate_kind": kind,
                 "certificate": certificate,
             }))
         })

@@ -11,7 +11,7 @@ use std::sync::Arc;
 use std::time::{Duration, Instant};
 
 use cyclorb_orbit::{CheckpointPlan, OrbitOptions, Progress, ProgressObserver};
-use cyclorb_pipeline::counting::{counted, counted_answer};
+use cyclorb_pipeline::counting::counted_any;
 use cyclorb_pipeline::listing::{check_writable, default_checkpoint, Listing, Origin};
 use cyclorb_pipeline::product::product_orbit;
 use cyclorb_pipeline::runtime::{budget_bytes, peak_memory_bytes};
@@ -225,8 +225,8 @@ pub fn orbit<'py>(
     Ok((value, stopped_by, observer.error))
 }
 
-/// The counting route: the orbit counted through the monomial structure, its certificate
-/// re-checked (`cyclorb_pipeline::counting`).
+/// The counting route: the orbit counted through the monomial structure, else the
+/// imprimitive one, its certificate re-checked (`cyclorb_pipeline::counting`).
 fn counted_orbit(spec: &str, genus: usize, set: &str, started: Instant) -> PyResult<OrbitAnswer> {
     if cyclorb_pipeline::dw_space::is_dw(spec) {
         return Err(error(format!(
@@ -235,10 +235,10 @@ fn counted_orbit(spec: &str, genus: usize, set: &str, started: Instant) -> PyRes
     }
     let set = parse_set(set).map_err(error)?;
     let space = build_space(spec, genus).map_err(error)?;
-    match counted(&space, set).map_err(error)? {
-        Ok(report) => counted_answer(&space, &report, started.elapsed()).map_err(error),
+    match counted_any(&space, set).map_err(error)? {
+        Ok(counted) => counted.answer(&space, started.elapsed()).map_err(error),
         Err(absent) => Err(error(format!(
-            "{spec} at genus {genus} has no monomial structure ({absent}); use method='enumerate'"
+            "{spec} at genus {genus} has {absent}; use method='enumerate'"
         ))),
     }
 }

@@ -122,10 +122,11 @@ fn render_evidence(
     out: Option<&Path>,
     space: &SpaceArgs,
 ) -> Result<(), String> {
+    let (kind, body) = evidence.certificate()?;
+    write_certificate(out, kind, space, &body)?;
     let order = order.unwrap_or_default();
     match evidence {
         ImageEvidence::Structure(r) => {
-            write_certificate(out, "structure", space, &r.certificate)?;
             value["permutation_order"] = json!(r.image.permutation_order);
             value["kernel_order"] = json!(r.image.kernel_order);
             value["kernel_invariants"] = json!(r.image.kernel_invariants);
@@ -136,14 +137,24 @@ fn render_evidence(
                 r.image.permutation_order, r.image.kernel_order, r.image.kernel_scalars
             ));
         }
-        ImageEvidence::Enumeration(cert) => {
-            write_certificate(out, "image-enumeration", space, cert)?;
+        ImageEvidence::Imprimitive(r) => {
+            value["block_permutation_order"] = json!(r.block_permutation_order);
+            value["block_kernel_order"] = json!(r.block_kernel_order);
+            value["line_permutation_order"] = json!(r.line_permutation_order);
+            value["kernel_order"] = json!(r.kernel_order);
+            value["orbit_size"] = json!(r.orbit_size);
+            value["sectors"] = json!(r.sectors);
+            text.push_str(&format!(
+                "projective image: finite, order {order} = |block permutations| {} × |block kernel| {} (imprimitive structure: {} sectors, {} component lines; exact claims of the certificate re-checked)\n",
+                r.block_permutation_order, r.block_kernel_order, r.sectors, r.component_lines
+            ));
+        }
+        ImageEvidence::Enumeration(_) => {
             text.push_str(&format!(
                 "projective image: finite, order {order} (enumeration modulo scalars, re-checked)\n"
             ));
         }
         ImageEvidence::LiftedWitness(lifted) => {
-            write_certificate(out, "witness-lifted", space, lifted)?;
             let (w, f) = (&lifted.certificate, &lifted.lifted_from_factor);
             text.push_str(&format!(
                 "projective image: infinite; word {} has eigenvalue ratios that are not roots of unity on the {} factor {} (factor {}), so on the product too\n",
@@ -156,7 +167,6 @@ fn render_evidence(
             value["lifted_from_factor"] = json!(f);
         }
         ImageEvidence::Witness(w) => {
-            write_certificate(out, "witness", space, w)?;
             text.push_str(&format!(
                 "projective image: infinite; word {} has eigenvalue ratios that are not roots of unity (factor {})\n",
                 w.word.join(" "),
@@ -169,10 +179,6 @@ fn render_evidence(
             added_seeds,
             vacuum_orbit,
         } => {
-            // the file also names the line set: the vacuum orbit, then the orbits of these seeds
-            let mut file = serde_json::to_value(certificate).expect("certificates serialise");
-            file["added_orbits"] = json!(added_seeds);
-            write_certificate(out, "image-orbit", space, &file)?;
             let g = &certificate.group;
             let seeds = if added_seeds.is_empty() {
                 String::new()

@@ -26,6 +26,7 @@ mod dw_count;
 mod dw_monomial;
 mod dw_pairs;
 mod image;
+mod imprimitive;
 mod linear;
 mod poly;
 mod structure;
@@ -47,7 +48,7 @@ pub(crate) struct Envelope {
 
 /// The kinds `cyclorb check` reads.
 const KINDS: &str =
-    "commutant, image-enumeration, image-orbit, structure, witness, witness-lifted, \
+    "commutant, image-enumeration, image-orbit, structure, structure-imprimitive, witness, witness-lifted, \
                      dw-permutation-image, dw-orbitals, dw-monomial-image, dw-monomial-commutant, \
                      dw-vacuum-set-stabiliser";
 
@@ -146,7 +147,12 @@ fn check_kind(
     }
     if !matches!(
         kind,
-        "commutant" | "image-enumeration" | "image-orbit" | "structure" | "witness"
+        "commutant"
+            | "image-enumeration"
+            | "image-orbit"
+            | "structure"
+            | "structure-imprimitive"
+            | "witness"
     ) {
         return Err(Stop::Invalid(format!(
             "{file}: key `kind`: unknown kind {kind:?} (known: {KINDS})"
@@ -179,6 +185,7 @@ fn check_kind(
         "commutant" => commutant::check(&gens, &body_as(body, file, kind)?, claims),
         "image-enumeration" => image::enumeration(&gens, &body_as(body, file, kind)?, claims),
         "image-orbit" => image::orbit(&space, envelope, &gens, body, file, claims),
+        "structure-imprimitive" => imprimitive::check(&space, &body_as(body, file, kind)?, claims),
         _ => structure::check(&space, &gens, &body_as(body, file, kind)?, claims),
     }
 }

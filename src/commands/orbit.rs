@@ -16,10 +16,10 @@ use super::envelope::{self, Source};
 use super::output::{shell_word, Outcome, Report};
 use super::product::run_product;
 use super::progress::OrbitProgress;
-use super::structure::orbit_text;
+use super::structure::{imprimitive_orbit_text, orbit_text};
 use crate::cli::OrbitArgs;
 use crate::runtime::{install_stop_handler, peak_memory_bytes};
-use cyclorb_pipeline::counting::{counted, counted_answer};
+use cyclorb_pipeline::counting::{counted_any, Counted};
 
 /// The engine's options from the command line (limit, memory, threads, checkpoints, stop).
 pub(super) fn options(args: &OrbitArgs, stop: Arc<AtomicBool>) -> OrbitOptions {
@@ -363,27 +363,30 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
         Ok(x) => x,
         Err(e) => return Outcome::Invalid(e),
     };
-    match counted(&space.1, space.0) {
-        Ok(Ok(report)) => {
-            let source = Source {
-                spec,
-                genus,
-                set: &args.set,
-            };
-            let written = envelope::write(
-                args.out.as_deref(),
-                "structure",
-                &source,
-                &report.certificate,
-            );
-            if let Err(e) = written {
-                return Outcome::Invalid(e);
-            }
-            let mut answer = match counted_answer(&space.1, &report, started.elapsed()) {
-                Ok(a) => a,
-                Err(e) => return Outcome::Invalid(e),
-            };
-            answer.peak_memory_bytes = peak_memory_bytes();
+    let (set, space) = space;
+    let counted = match counted_any(&space, set) {
+        Ok(Ok(c)) => c,
+        Ok(Err(absent)) => {
+            return Outcome::Invalid(format!(
+                "{spec} at genus {genus} has {absent}; use --method enumerate"
+            ))
+        }
+        Err(e) => return Outcome::Invalid(e),
+    };
+    let written = match &counted {
+        Counted::Monomial(r) => write_structure(args, "structure", &r.certificate),
+        Counted::Imprimitive(r) => write_structure(args, "structure-imprimitive", &r.certificate),
+    };
+    if let Err(e) = written {
+        return Outcome::Invalid(e);
+    }
+    let mut answer = match counted.answer(&space, started.elapsed()) {
+        Ok(a) => a,
+        Err(e) => return Outcome::Invalid(e),
+    };
+    answer.peak_memory_bytes = peak_memory_bytes();
+    let text = match &counted {
+        Counted::Monomial(r) => {
             let entries_text = match &answer.poincare_sum.entries {
                 Some(entries) => format!(
                     "  B by comb-basis labels (row | column: value, non-zero entries):\n{}",
@@ -391,13 +394,24 @@ fn run_structure(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
                 ),
                 None => String::new(),
             };
-            let value = serde_json::to_value(&answer).expect("answers serialise");
-            let text = orbit_text(&report, &entries_text);
-            Outcome::Done(Report::new(value, text, as_json))
+            orbit_text(r, &entries_text)
         }
-        Ok(Err(absent)) => Outcome::Invalid(format!(
-            "{spec} at genus {genus} has no monomial structure ({absent}); use --method enumerate"
-        )),
-        Err(e) => Outcome::Invalid(e),
-    }
+        Counted::Imprimitive(r) => imprimitive_orbit_text(r),
+    };
+    let value = serde_json::to_value(&answer).expect("answers serialise");
+    Outcome::Done(Report::new(value, text, as_json))
+}
+
+/// Write a certificate of the structural route with its envelope (`--out`, when given).
+fn write_structure<T: serde::Serialize>(
+    args: &OrbitArgs,
+    kind: &str,
+    certificate: &T,
+) -> Result<(), String> {
+    let source = Source {
+        spec: args.spec.as_deref().unwrap_or_default(),
+        genus: args.genus.unwrap_or_default(),
+        set: &args.set,
+    };
+    envelope::write(args.out.as_deref(), kind, &source, certificate)
 }

@@ -71,6 +71,14 @@ pub struct PoincareReport {
     pub modular_invariant: Option<ModularInvariantReport>,
     /// Why the sum is missing or incomplete, when it is.
     pub note: Option<String>,
+    /// Counted through an imprimitive structure: one term per orbit O of sectors, with
+    /// B = Σ_O β_O·P_O·G⁻¹ (the producer's records; absent for every other route).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub sector_terms: Option<Vec<serde_json::Value>>,
+    /// Counted through an imprimitive structure: B's non-zero entries B_{j,vac} in the
+    /// vacuum's column (absent for every other route).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub vacuum_column: Option<Vec<LabelledEntry>>,
 }
 
 fn matrix_text(m: &Matrix) -> Vec<Vec<String>> {

@@ -94,8 +94,63 @@ pub struct CountFigures {
     /// Whether the certificate of the count was re-checked by an independent computation
     /// before the answer was given.
     pub certificate_rechecked: bool,
-    /// The route's own record (its certificate or its figures).
-    pub details: serde_json::Value,
+    /// The monomial route's own record (its image, orbit and power); absent for the
+    /// imprimitive route, whose figures are `imprimitive`.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub details: Option<serde_json::Value>,
+    /// The imprimitive route's figures.
+    #[serde(flatten, default, skip_serializing_if = "Option::is_none")]
+    pub imprimitive: Option<ImprimitiveFigures>,
+}
+
+/// The figures of an orbit counted through an imprimitive structure: the sectors (joint
+/// eigenspaces of commuting twist powers) that the generators permute.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ImprimitiveFigures {
+    /// Always `imprimitive` (the monomial route has no such key).
+    pub structure: String,
+    /// |orbit| = sector supports × component-line tuples × phase patterns, and the sectors.
+    pub decomposition: SectorDecomposition,
+    /// The image order, factored two ways.
+    pub image: ImageFactors,
+    /// Which claims of the certificate were re-checked before the answer was given.
+    pub recheck: String,
+}
+
+/// The factors of an imprimitive count.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct SectorDecomposition {
+    /// Images of the vacuum's set of sectors under the block permutations.
+    pub sector_supports: Count,
+    /// Tuples of component lines per sector support.
+    pub line_tuples_per_sector_support: Count,
+    /// Relative phase patterns per tuple.
+    pub patterns_per_support: Count,
+    /// Sectors the vacuum has a component in.
+    pub support_sectors: usize,
+    /// Sectors in all.
+    pub sectors: usize,
+    /// (dimension, number of sectors of that dimension), increasing.
+    pub sector_dimensions: Vec<(usize, usize)>,
+    /// Component lines in all (the degree of the monomial action on them).
+    pub component_lines: usize,
+    /// The power k of the twists whose joint eigenspaces are the sectors.
+    pub power: u32,
+}
+
+/// |image| = |block permutations| × |block kernel| = |P_L| × |K| / |K ∩ scalars|.
+#[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
+pub struct ImageFactors {
+    /// The group induced on the sectors (decimal).
+    pub block_permutation_order: String,
+    /// The elements fixing every sector, modulo scalars (decimal).
+    pub block_kernel_order: String,
+    /// The permutation group on the component lines (decimal).
+    pub line_permutation_order: String,
+    /// The elements scalar on every component line (decimal).
+    pub kernel_order: String,
+    /// Those among them that are scalar.
+    pub kernel_scalars: u32,
 }
 
 /// One factor of a Deligne product (`--method product`).

@@ -1,8 +1,8 @@
 //! The order of the projective image of the twists: which routes decide it, in which order,
 //! and within which bounds. One decision serves `cyclorb image`, the sweeps and scripts.
 //!
-//! Routes, in the order of [`ImageStrategy::Auto`]: the monomial structure (counted and
-//! certified, see [`crate::counting`]); the vacuum orbit, with a witness search once it passes
+//! Routes, in the order of [`ImageStrategy::Auto`]: the monomial structure, else the
+//! imprimitive one (counted and certified, see [`crate::counting`]); the vacuum orbit, with a witness search once it passes
 //! a first bound unclosed (a certified word of infinite projective order decides
 //! "infinite"); Schreier–Sims on the saturated orbit, extended by further orbits until the
 //! faithfulness lemma applies (see [`crate::lines`]); enumeration of the image modulo
@@ -16,10 +16,10 @@ use cyclorb_cert::{
 };
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use cyclorb_orbit::{Orbit, OrbitOptions, OrbitProblem, Silent};
-use cyclorb_structure::StructureReport;
+use cyclorb_structure::{ImprimitiveReport, StructureReport};
 use serde::{Deserialize, Serialize};
 
-use crate::counting::counted;
+use crate::counting::{counted_any, Counted};
 use crate::lifted::LiftedWitness;
 use crate::lines::faithful_lines;
 use crate::witness::{search, WitnessSearch};
@@ -28,7 +28,7 @@ use crate::witness::{search, WitnessSearch};
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, Serialize, Deserialize)]
 #[serde(rename_all = "kebab-case")]
 pub enum ImageRoute {
-    /// Counted through the monomial structure.
+    /// Counted through the monomial or the imprimitive structure.
     Structure,
     /// Enumerated modulo scalars.
     Enumeration,
@@ -124,6 +124,8 @@ pub struct ImageRequest {
 pub enum ImageEvidence {
     /// The structure's report (its certificate re-checked).
     Structure(Box<StructureReport>),
+    /// The imprimitive structure's report (its exact claims re-checked).
+    Imprimitive(Box<ImprimitiveReport>),
     /// The enumeration certificate (verified).
     Enumeration(EnumerationCertificate),
     /// Schreier–Sims on the lines: the certificate, the seeds whose orbits were added to
@@ -140,6 +142,36 @@ pub enum ImageEvidence {
     Witness(WitnessCertificate),
     /// A witness on a factor of a product (re-checked there).
     LiftedWitness(LiftedWitness),
+}
+
+impl ImageEvidence {
+    /// The certificate's kind (the `kind` of a `--out` file, which `cyclorb check` reads)
+    /// and its body. The orbit route's body also names its line set: the vacuum orbit,
+    /// then the orbits of `added_orbits`.
+    pub fn certificate(&self) -> Result<(&'static str, serde_json::Value), String> {
+        let body = |v: Result<serde_json::Value, serde_json::Error>| v.map_err(|e| e.to_string());
+        Ok(match self {
+            ImageEvidence::Structure(r) => {
+                ("structure", body(serde_json::to_value(&r.certificate))?)
+            }
+            ImageEvidence::Imprimitive(r) => (
+                "structure-imprimitive",
+                body(serde_json::to_value(&r.certificate))?,
+            ),
+            ImageEvidence::Enumeration(c) => ("image-enumeration", body(serde_json::to_value(c))?),
+            ImageEvidence::Orbit {
+                certificate,
+                added_seeds,
+                ..
+            } => {
+                let mut file = body(serde_json::to_value(certificate))?;
+                file["added_orbits"] = serde_json::json!(added_seeds);
+                ("image-orbit", file)
+            }
+            ImageEvidence::Witness(w) => ("witness", body(serde_json::to_value(w))?),
+            ImageEvidence::LiftedWitness(l) => ("witness-lifted", body(serde_json::to_value(l))?),
+        })
+    }
 }
 
 /// The decision.
@@ -273,21 +305,31 @@ pub fn decide_image(
     let mut steps = Vec::new();
     match request.strategy {
         ImageStrategy::Enumeration => return enumerate_image(gens, bounds),
-        ImageStrategy::Structure | ImageStrategy::Auto => match counted(space, set)? {
-            Ok(report) => {
+        ImageStrategy::Structure | ImageStrategy::Auto => match counted_any(space, set)? {
+            Ok(Counted::Monomial(report)) => {
                 let order = report.image_order.to_string();
                 return Ok(ImageDecision::decided(
                     ImageRoute::Structure,
                     true,
                     Some(order),
-                    ImageEvidence::Structure(Box::new(report)),
+                    ImageEvidence::Structure(report),
+                ));
+            }
+            Ok(Counted::Imprimitive(report)) => {
+                let order = report.image_order.clone();
+                return Ok(ImageDecision::decided(
+                    ImageRoute::Structure,
+                    true,
+                    Some(order),
+                    ImageEvidence::Imprimitive(report),
                 ));
             }
             Err(absent) => {
-                steps.push(format!("no monomial structure ({absent})"));
+                steps.push(absent);
                 if !auto {
                     return Ok(ImageDecision::undecided(
-                        "the representation has no monomial structure".into(),
+                        "the representation has neither a monomial nor an imprimitive structure"
+                            .into(),
                     )
                     .after(steps));
                 }

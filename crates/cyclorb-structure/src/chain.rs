@@ -26,6 +26,7 @@
 
 use num_bigint::BigUint;
 
+use crate::error::StructureError;
 use crate::lattice::ModLattice;
 use crate::monomial::Monomial;
 
@@ -33,6 +34,8 @@ struct Level {
     base_point: u32,
     generators: Vec<Monomial>,
     transversal: Vec<Option<Monomial>>,
+    /// The inverses of the transversal elements (sifting multiplies by them).
+    inverses: Vec<Option<Monomial>>,
     orbit: Vec<u32>,
 }
 
@@ -40,13 +43,39 @@ impl Level {
     fn new(base_point: u32, degree: usize) -> Level {
         let mut transversal = vec![None; degree];
         transversal[base_point as usize] = Some(Monomial::identity(degree));
+        let inverses = transversal.clone();
         Level {
             base_point,
             generators: Vec::new(),
             transversal,
+            inverses,
             orbit: vec![base_point],
         }
     }
+}
+
+/// The permutation a permutation of points induces on classes of points (`class_of[i] <
+/// classes`), when it maps every class onto a class.
+pub(crate) fn induced_permutation(
+    perm: &[u32],
+    class_of: &[u32],
+    classes: usize,
+) -> Option<Vec<u32>> {
+    let mut induced = vec![u32::MAX; classes];
+    for (i, &p) in perm.iter().enumerate() {
+        let (from, to) = (class_of[i] as usize, class_of[p as usize]);
+        if induced[from] != u32::MAX && induced[from] != to {
+            return None;
+        }
+        induced[from] = to;
+    }
+    let mut seen = vec![false; classes];
+    for &p in &induced {
+        if p == u32::MAX || std::mem::replace(&mut seen[p as usize], true) {
+            return None;
+        }
+    }
+    Some(induced)
 }
 
 struct Test {
@@ -62,35 +91,105 @@ pub struct MonomialChain {
     levels: Vec<Level>,
     strong: Vec<Monomial>,
     kernel: ModLattice,
+    /// The class of every point (the identity for a plain monomial group).
+    class_of: Vec<u32>,
+    /// A diagonal residue that was not constant on a class (its point).
+    inconsistent: Option<u32>,
 }
 
 impl MonomialChain {
     /// The chain of ⟨generators⟩ (checked monomials of one degree, phases modulo m).
     pub fn new(degree: usize, modulus: u32, generators: &[Monomial]) -> MonomialChain {
+        let identity = (0..degree as u32).collect();
+        let chain = MonomialChain::build(degree, modulus, generators, &[0], identity, degree);
+        debug_assert!(
+            chain.inconsistent.is_none(),
+            "singleton classes are always consistent"
+        );
+        chain
+    }
+
+    /// The chain with the base starting at `base` (distinct points) and the kernel held on
+    /// classes (`class_of[i] < classes`, permuted by every generator); an error when a
+    /// diagonal element of the group is not constant on some class, or the classes are not
+    /// permuted by the generators.
+    pub(crate) fn with_classes(
+        degree: usize,
+        modulus: u32,
+        generators: &[Monomial],
+        base: &[u32],
+        class_of: Vec<u32>,
+        classes: usize,
+    ) -> Result<MonomialChain, StructureError> {
+        let chain = MonomialChain::build(degree, modulus, generators, base, class_of, classes);
+        match chain.inconsistent {
+            Some(point) => Err(StructureError::Absent(format!(
+                "a diagonal element of the group is not constant on the class of point {point}"
+            ))),
+            None => Ok(chain),
+        }
+    }
+
+    fn build(
+        degree: usize,
+        modulus: u32,
+        generators: &[Monomial],
+        base: &[u32],
+        class_of: Vec<u32>,
+        classes: usize,
+    ) -> MonomialChain {
         let mut chain = MonomialChain {
             degree,
             modulus,
             levels: Vec::new(),
             strong: Vec::new(),
-            kernel: ModLattice::new(degree, modulus),
+            kernel: ModLattice::new(classes, modulus),
+            class_of,
+            inconsistent: None,
         };
         if degree == 0 {
             return chain;
         }
-        chain.levels.push(Level::new(0, degree));
+        chain.levels = base.iter().map(|&b| Level::new(b, degree)).collect();
         let mut queue = Vec::new();
         for g in generators {
             let (level, residue) = chain.sift(0, g.clone());
             if level == chain.levels.len() && residue.is_diagonal() {
-                chain.kernel.insert(&residue.phases);
+                chain.insert_diagonal(&residue.phases);
             } else {
                 chain.strong.push(g.clone());
                 chain.push_generator(0, g.clone(), &mut queue);
                 chain.run(&mut queue);
             }
         }
-        chain.kernel.close_under(generators);
+        let on_classes: Vec<Monomial> = generators
+            .iter()
+            .filter_map(|g| induced_permutation(&g.perm, &chain.class_of, classes))
+            .map(|perm| Monomial {
+                phases: vec![0; perm.len()],
+                perm,
+            })
+            .collect();
+        if on_classes.len() < generators.len() {
+            chain.inconsistent.get_or_insert(0);
+        }
+        chain.kernel.close_under(&on_classes);
         chain
+    }
+
+    /// Insert a diagonal residue into K, on classes.
+    fn insert_diagonal(&mut self, phases: &[u32]) {
+        let mut on_classes = vec![u32::MAX; self.kernel.dim()];
+        for (i, &x) in phases.iter().enumerate() {
+            let slot = &mut on_classes[self.class_of[i] as usize];
+            if *slot == u32::MAX {
+                *slot = x;
+            } else if *slot != x {
+                self.inconsistent.get_or_insert(i as u32);
+                return;
+            }
+        }
+        self.kernel.insert(&on_classes);
     }
 
     fn push_generator(&mut self, level: usize, g: Monomial, queue: &mut Vec<Test>) {
@@ -109,8 +208,11 @@ impl MonomialChain {
     fn sift(&self, from: usize, mut g: Monomial) -> (usize, Monomial) {
         for (k, level) in self.levels.iter().enumerate().skip(from) {
             let beta = g.perm[level.base_point as usize];
-            match &level.transversal[beta as usize] {
-                Some(rep) => g = g.then_inverse(rep, self.modulus),
+            if beta == level.base_point {
+                continue;
+            }
+            match &level.inverses[beta as usize] {
+                Some(inverse) => g.then_in_place(inverse, self.modulus),
                 None => return (k, g),
             }
         }
@@ -130,13 +232,14 @@ impl MonomialChain {
                 .expect("queued points lie in the basic orbit");
             let tau = rep.then(&l.generators[generator], self.modulus);
             let gamma = tau.perm[l.base_point as usize];
-            match &l.transversal[gamma as usize] {
+            match &l.inverses[gamma as usize] {
                 Some(existing) => {
-                    let schreier = tau.then_inverse(existing, self.modulus);
+                    let schreier = tau.then(existing, self.modulus);
                     self.add_schreier_generator(level, schreier, queue);
                 }
                 None => {
                     let l = &mut self.levels[level];
+                    l.inverses[gamma as usize] = Some(tau.inverse(self.modulus));
                     l.transversal[gamma as usize] = Some(tau);
                     l.orbit.push(gamma);
                     queue.extend((0..l.generators.len()).map(|generator| Test {
@@ -158,7 +261,7 @@ impl MonomialChain {
                 .enumerate()
                 .position(|(x, &y)| x as u32 != y)
             else {
-                self.kernel.insert(&residue.phases);
+                self.insert_diagonal(&residue.phases);
                 return;
             };
             self.levels.push(Level::new(moved as u32, self.degree));
@@ -192,9 +295,25 @@ impl MonomialChain {
         &self.strong
     }
 
-    /// K, the diagonal part of the group, as a subgroup of (Z/m)^d.
+    /// K, the diagonal part of the group, as a subgroup of (Z/m)^d (of (Z/m)^{classes}
+    /// for a chain built with classes).
     pub fn kernel(&self) -> &ModLattice {
         &self.kernel
+    }
+
+    /// The class of every point.
+    pub(crate) fn classes(&self) -> &[u32] {
+        &self.class_of
+    }
+
+    /// The basic orbit of level k.
+    pub(crate) fn basic_orbit(&self, k: usize) -> &[u32] {
+        &self.levels[k].orbit
+    }
+
+    /// The transversal element of level k for a point of its basic orbit.
+    pub(crate) fn transversal(&self, k: usize, point: u32) -> Option<&Monomial> {
+        self.levels[k].transversal[point as usize].as_ref()
     }
 
     /// |M| = |P|·|K|.

@@ -71,9 +71,13 @@
 mod analyse;
 mod chain;
 mod commutant;
+mod components;
 mod error;
+mod imprimitive;
+mod imprimitive_check;
 mod irreducible;
 mod lattice;
+mod lineorbit;
 mod monomial;
 mod orbit;
 mod power;
@@ -82,6 +86,9 @@ mod refine;
 mod report;
 mod roots;
 mod search;
+mod sectors;
+mod sectorsum;
+mod setstab;
 mod smith;
 mod sparse;
 mod vacuum;
@@ -89,6 +96,10 @@ mod vacuum;
 pub use analyse::{analyse, analyse_spec, StructureOptions};
 pub use chain::MonomialChain;
 pub use error::StructureError;
+pub use imprimitive::{
+    analyse_imprimitive, ImprimitiveCertificate, ImprimitiveOptions, ImprimitiveReport,
+};
+pub use imprimitive_check::{recheck_imprimitive, ImprimitiveCheck};
 pub use lattice::ModLattice;
 pub use monomial::{Monomial, MonomialForm};
 pub use orbit::OrbitCount;
@@ -98,4 +109,5 @@ pub use report::{
     StructureCertificate, StructureReport,
 };
 pub use roots::RootsOfUnity;
+pub use sectorsum::SectorOrbit;
 pub use sparse::{ColumnMap, SparseVec};

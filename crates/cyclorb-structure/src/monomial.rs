@@ -60,6 +60,17 @@ impl Monomial {
         Monomial { perm, phases }
     }
 
+    /// self := "self first, then next", in place (phases reduced below m by one
+    /// subtraction: both summands are already below m).
+    pub fn then_in_place(&mut self, next: &Monomial, modulus: u32) {
+        for (p, phi) in self.perm.iter_mut().zip(self.phases.iter_mut()) {
+            let q = *p as usize;
+            let x = *phi + next.phases[q];
+            *phi = if x >= modulus { x - modulus } else { x };
+            *p = next.perm[q];
+        }
+    }
+
     /// The inverse: e_{π(i)} ↦ ζ^{−φ_i} e_i.
     pub fn inverse(&self, modulus: u32) -> Monomial {
         let mut perm = vec![0; self.degree()];

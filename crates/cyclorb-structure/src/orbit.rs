@@ -142,25 +142,55 @@ pub(crate) fn count_orbit(
         }
         next += 1;
     }
-    let mut local: Vec<Monomial> = stabiliser.into_iter().collect();
+    let local: Vec<Monomial> = stabiliser.into_iter().collect();
+    let patterns = count_patterns(s, m, local);
+    Ok(OrbitCount {
+        support: support.to_vec(),
+        supports: placements.len(),
+        orbit_size: &patterns.patterns_per_support * BigUint::from(placements.len()),
+        pattern_classes: patterns.pattern_classes,
+        lines_per_class: patterns.lines_per_class,
+        patterns_per_support: patterns.patterns_per_support,
+        support_action_order: patterns.support_action_order,
+        support_diagonal_invariants: patterns.support_diagonal_invariants,
+        stabiliser_generators: patterns.generators,
+    })
+}
+
+/// The phase patterns of the line [Σ_{i∈S₀} f_i] under a support's stabiliser H', given
+/// by generators restricted to S₀ (rescaled so that the vector is the zero pattern).
+pub(crate) struct Patterns {
+    /// |orbit of 0 in A|.
+    pub(crate) pattern_classes: usize,
+    /// |D + Z𝟙| / m.
+    pub(crate) lines_per_class: BigUint,
+    /// pattern_classes × lines_per_class.
+    pub(crate) patterns_per_support: BigUint,
+    /// The order of the permutation group H' induces on S₀.
+    pub(crate) support_action_order: BigUint,
+    /// The invariants of D.
+    pub(crate) support_diagonal_invariants: Vec<u64>,
+    /// The number of distinct generators used.
+    pub(crate) generators: usize,
+}
+
+/// Count the patterns (see the module documentation) from generators of H' on S₀.
+pub(crate) fn count_patterns(s: usize, m: u32, mut local: Vec<Monomial>) -> Patterns {
     local.sort_by(|a, b| (&a.perm, &a.phases).cmp(&(&b.perm, &b.phases)));
+    local.dedup();
     let chain = MonomialChain::new(s, m, &local);
     let mut classes = chain.kernel().clone();
     classes.insert(&vec![1; s]);
     let pattern_classes = orbit_in_quotient(&classes, chain.strong_generators(), m);
     let lines_per_class = classes.order() / BigUint::from(m);
-    let patterns_per_support = &lines_per_class * BigUint::from(pattern_classes);
-    Ok(OrbitCount {
-        support: support.to_vec(),
-        supports: placements.len(),
+    Patterns {
         pattern_classes,
-        orbit_size: &patterns_per_support * BigUint::from(placements.len()),
+        patterns_per_support: &lines_per_class * BigUint::from(pattern_classes),
         lines_per_class,
-        patterns_per_support,
         support_action_order: chain.permutation_order(),
         support_diagonal_invariants: chain.kernel().invariants(),
-        stabiliser_generators: local.len(),
-    })
+        generators: local.len(),
+    }
 }
 
 /// The orbit of the class of 0 in (Z/m)^s / L under x ↦ y, y_{π(i)} = x_i + φ_i.

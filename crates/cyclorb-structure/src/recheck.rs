@@ -1,37 +1,17 @@
 //! Re-checking a certificate of the structural route from the block space it describes.
 
 use cyclorb_cert::permutation_group_summary;
-use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
 
 use crate::analyse::{chain_certificate, derive, kernel_certificate};
 use crate::commutant::check_commutant;
 use crate::error::{require, StructureError};
+use crate::imprimitive_check::sparse_parse;
 use crate::monomial::MonomialForm;
 use crate::report::StructureCertificate;
 use crate::roots::RootsOfUnity;
 use crate::search::generators_of;
-use crate::sparse::SparseVec;
 use crate::vacuum::check_expansion;
-
-fn sparse_parse(
-    field: &CyclotomicField,
-    entries: &[(u32, String)],
-    dim: usize,
-) -> Result<SparseVec, StructureError> {
-    let mut out: Vec<(u32, Cyc)> = Vec::with_capacity(entries.len());
-    for (i, text) in entries {
-        let x = field.parse(text)?;
-        let increasing = out.last().map_or(true, |(j, _)| j < i);
-        if (*i as usize) >= dim || !increasing || x.is_zero() {
-            return Err(StructureError::Input(
-                "a sparse vector needs increasing in-range indices and non-zero values".into(),
-            ));
-        }
-        out.push((*i, x));
-    }
-    Ok(SparseVec(out))
-}
 
 /// Re-check a certificate against the block space it claims to describe.
 ///

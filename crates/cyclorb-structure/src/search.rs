@@ -49,12 +49,12 @@ pub(crate) fn find_monomial_form(
     let order = twist_order(theory, roots)?;
     // every twist of the Lickorish set lies in the group: their powers generate N, and
     // they and their inverses drive the refinement
-    let mut twists = Vec::new();
-    let mut names = Vec::new();
+    let Generators {
+        names,
+        maps: twists,
+    } = generators_of(space, GeneratingSet::Lickorish)?;
     let mut refiners = Vec::new();
-    for (curve, op) in space.generators(GeneratingSet::Lickorish)? {
-        names.push(curve.to_string());
-        twists.push(ColumnMap::from_operator(field, &op)?);
+    for (_, op) in space.generators(GeneratingSet::Lickorish)? {
         refiners.push(ColumnMap::from_operator(field, &op.inverse(field)?)?);
     }
     refiners.extend(twists.iter().cloned());

@@ -4,4 +4,5 @@ mod absent;
 mod certificate;
 mod common;
 mod groups;
+mod imprimitive;
 mod ising;
