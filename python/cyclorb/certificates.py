@@ -32,6 +32,7 @@ class WitnessResult:
         self.found: bool = raw["found"]
         self.word: List[str] = raw["word"]
         self.certificate: Optional[dict] = raw["certificate"]
+        self.certificate_kind: Optional[str] = raw["certificate_kind"]
         self.lifted_from_factor: Optional[dict] = raw["lifted_from_factor"]
         self.words_tried: Optional[int] = raw["words_tried"]
 
@@ -61,7 +62,8 @@ class ImageResult:
     """The order of the projective image: ``finite`` (None when undecided), ``order`` (an
     int when finite), the ``route`` that decided it (the program's route names), the
     ``steps`` passed over, the ``reason`` when undecided, and the re-checked
-    ``certificate``."""
+    ``certificate`` with its ``certificate_kind`` (the ``kind`` of the program's ``--out``
+    file: ``structure``, ``structure-imprimitive``, ``image-orbit``, ...)."""
 
     def __init__(self, raw: dict):
         self.raw = raw
@@ -71,6 +73,7 @@ class ImageResult:
         self.steps: List[str] = raw["steps"]
         self.reason: Optional[str] = raw["reason"]
         self.certificate: Optional[dict] = raw["certificate"]
+        self.certificate_kind: Optional[str] = raw["certificate_kind"]
 
     def __repr__(self) -> str:
         if self.finite:

@@ -112,3 +112,18 @@ def test_image_routes_agree():
     # Fibonacci at genus 2: infinite image (Freedman, Larsen and Wang 2002)
     fib = cyclorb.image("fibonacci", 2)
     assert fib.finite is False and fib.route == "witness"
+
+
+def test_imprimitive_count_agrees_with_listing():
+    # SU(2)_4 has no monomial structure; powers of its twists commute and their joint
+    # eigenspaces are permuted (imprimitive): the count must equal the listed orbit, and the
+    # image order that of Schreier–Sims on the listed lines (two independent routes)
+    counted = cyclorb.orbit("su2:4", genus=1, method="structure", progress=False)
+    listed = cyclorb.orbit("su2:4", genus=1, progress=False)
+    assert counted.raw["structure"] == "imprimitive"
+    assert counted.size == listed.size == 48
+    by_structure = cyclorb.image("su2:4", 1)
+    by_orbit = cyclorb.image("su2:4", 1, route="orbit")
+    assert by_structure.certificate_kind == "structure-imprimitive"
+    assert by_orbit.certificate_kind == "image-orbit"
+    assert by_structure.order == by_orbit.order
