@@ -32,7 +32,6 @@ class WitnessResult:
         self.found: bool = raw["found"]
         self.word: List[str] = raw["word"]
         self.certificate: Optional[dict] = raw["certificate"]
-        self.certificate_kind: Optional[str] = raw["certificate_kind"]
         self.lifted_from_factor: Optional[dict] = raw["lifted_from_factor"]
         self.words_tried: Optional[int] = raw["words_tried"]
 
