@@ -83,51 +83,162 @@ fn braided_minimal_models_reach_genus_two() {
     );
 }
 
+/// The braided route (`minimal:P:Q`) and the S,T-only route (`kac:P:Q`, S and T from Kac's
+/// formulas, Di Francesco–Mathieu–Sénéchal ch. 10) must agree at genus 1 for every coprime pair
+/// 2 ≤ P < Q ≤ 13 (issue 13). The pairs, written as the specs take them, are split by the
+/// release time of the two runs together (docs/minimal-models.md, "Genus-1 cross-check of the
+/// two routes", has every pair's figures). These run in every build.
+const ROUTE_PAIRS_FAST: [&str; 8] = ["5:4", "6:5", "5:2", "7:2", "5:3", "7:3", "7:4", "8:3"];
+
+/// Both runs together under about 3 s in release (M(12,5), 3.5 s, for its E6 invariant):
+/// release builds only.
+const ROUTE_PAIRS_RELEASE: [&str; 17] = [
+    "3:2", "4:3", "7:5", "7:6", "8:5", "8:7", "9:2", "9:4", "9:5", "10:3", "11:2", "11:3", "11:4",
+    "12:5", "13:2", "13:3", "13:4",
+];
+
+/// From about 4 s to 7 minutes for the two runs, cheapest first: ignored by default.
+const ROUTE_PAIRS_COSTLY: [&str; 19] = [
+    "9:8", "11:6", "10:7", "13:6", "10:9", "9:7", "12:7", "11:5", "11:8", "13:5", "13:8", "11:10",
+    "12:11", "11:7", "11:9", "13:10", "13:12", "13:7", "13:9",
+];
+
+/// M(13,11) on its own: one run passed 17 GB of address space after 9 minutes and was not
+/// completed (docs/minimal-models.md).
+const ROUTE_PAIR_LARGEST: &str = "13:11";
+
+#[test]
+fn route_pair_lists_hold_every_coprime_pair_up_to_13_once() {
+    use num_integer::Integer;
+    let mut listed: Vec<(u32, u32)> = ROUTE_PAIRS_FAST
+        .iter()
+        .chain(&ROUTE_PAIRS_RELEASE)
+        .chain(&ROUTE_PAIRS_COSTLY)
+        .chain(&[ROUTE_PAIR_LARGEST])
+        .map(|pq| {
+            let (q, p) = pq.split_once(':').unwrap();
+            (p.parse().unwrap(), q.parse().unwrap())
+        })
+        .collect();
+    listed.sort();
+    let every: Vec<(u32, u32)> = (2..=13u32)
+        .flat_map(|p| (p + 1..=13).map(move |q| (p, q)))
+        .filter(|(p, q)| p.gcd(q) == 1)
+        .collect();
+    assert_eq!(listed, every);
+}
+
 #[test]
 fn genus_one_sums_agree_between_braided_and_kac_routes() {
-    // Two constructions of the same modular data must give the same genus-1 orbit and the
-    // same decomposition of B over the invariants.
-    for pq in ["5:4", "6:5", "5:2", "7:2", "5:3", "7:3", "7:4", "8:3"] {
+    routes_agree_at_genus_one(&ROUTE_PAIRS_FAST);
+}
+
+/// Release builds only (the README's test command and CI build in release); far longer
+/// unoptimised.
+#[cfg(not(debug_assertions))]
+#[test]
+fn genus_one_sums_agree_between_the_routes_for_the_cheap_pairs_up_to_13() {
+    routes_agree_at_genus_one(&ROUTE_PAIRS_RELEASE);
+}
+
+/// About 33 minutes in release on two shared cores, up to 13 GB of memory for one run (M(13,9));
+/// run with
+/// `cargo test --release --test cli_orbit -- --ignored genus_one_sums_agree_between_the_routes_for_the_costly_pairs`
+#[test]
+#[ignore = "about 33 minutes in release and up to 13 GB; run with --ignored"]
+fn genus_one_sums_agree_between_the_routes_for_the_costly_pairs() {
+    routes_agree_at_genus_one(&ROUTE_PAIRS_COSTLY);
+}
+
+/// Needs more than 17 GB of memory (not completed so far); run with
+/// `cargo test --release --test cli_orbit -- --ignored genus_one_sums_agree_between_the_routes_for_m_13_11`
+#[test]
+#[ignore = "needs more than 17 GB; run with --ignored"]
+fn genus_one_sums_agree_between_the_routes_for_m_13_11() {
+    routes_agree_at_genus_one(&[ROUTE_PAIR_LARGEST]);
+}
+
+/// Two constructions of the same modular data must give the same genus-1 orbit, the same B
+/// and the same decomposition of B over the invariants. The two routes order the Kac classes
+/// differently, so B and the invariants are compared by label.
+fn routes_agree_at_genus_one(pairs: &[&str]) {
+    for pq in pairs {
         let (code_a, a) = cyclorb_json(&["orbit", &format!("minimal:{pq}"), "--genus", "1"]);
         let (code_b, b) = cyclorb_json(&["orbit", &format!("kac:{pq}"), "--genus", "1"]);
         assert_eq!((code_a, code_b), (0, 0), "M({pq})");
         assert_eq!(a["saturated"], true, "M({pq})");
         assert_eq!(a["orbit_size"], b["orbit_size"], "M({pq})");
+        for v in [&a, &b] {
+            assert_eq!(v["poincare_sum"]["trace_check"], true, "M({pq})");
+        }
         for key in ["is_scalar", "prefactor"] {
             assert_eq!(
                 a["poincare_sum"][key], b["poincare_sum"][key],
                 "M({pq}) {key}"
             );
         }
-        // the two routes order the Kac classes differently: compare by label
+        assert_eq!(
+            entries_by_label(&a["poincare_sum"]),
+            entries_by_label(&b["poincare_sum"]),
+            "M({pq}) B"
+        );
         assert_eq!(
             invariants_by_label(&a),
             invariants_by_label(&b),
             "M({pq}) invariants"
         );
+        let terms = match a["poincare_sum"]["is_scalar"].as_bool().unwrap() {
+            true => 1,
+            false => a["poincare_sum"]["invariants"].as_array().unwrap().len(),
+        };
+        assert_eq!(terms, ade_invariant_count(pq), "M({pq}) terms of B");
+    }
+}
+
+/// How many modular invariants M(P,Q) has, P, Q ≤ 13: the minimal-model invariants pair the
+/// su(2) invariants at levels P − 2 and Q − 2, and an odd level has the diagonal one (A)
+/// alone, so the count is that of the even one of P, Q at level k = even − 2: A for k < 4,
+/// A and D for even k ≥ 4, and E6 besides at k = 10 (E7 and E8 come at k = 16, 28)
+/// (Cappelli–Itzykson–Zuber, Commun. Math. Phys. 113 (1987) 1, from memory). B has a non-zero
+/// term on each (measured for every pair; docs/minimal-models.md).
+fn ade_invariant_count(pq: &str) -> usize {
+    let even = pq
+        .split(':')
+        .map(|x| x.parse::<u32>().unwrap())
+        .find(|x| x % 2 == 0);
+    match even.map(|e| e - 2) {
+        Some(10) => 3,
+        Some(k) if k >= 4 => 2,
+        _ => 1,
     }
 }
 
 /// A non-zero entry keyed by labels: (row, column, value).
 type Entry = (String, String, String);
 
+fn text(x: &serde_json::Value) -> String {
+    x.as_str().unwrap().to_string()
+}
+
+/// The sorted label-keyed non-zero entries (`entries`) of B or of one of its invariants.
+fn entries_by_label(v: &serde_json::Value) -> Vec<Entry> {
+    let mut entries: Vec<_> = v["entries"]
+        .as_array()
+        .unwrap_or_else(|| panic!("entries are printed: {v}"))
+        .iter()
+        .map(|e| (text(&e["row"]), text(&e["column"]), text(&e["value"])))
+        .collect();
+    entries.sort();
+    entries
+}
+
 /// The invariants of an orbit's B as (coefficient, sorted label-keyed non-zero entries).
 fn invariants_by_label(v: &serde_json::Value) -> Vec<(String, Vec<Entry>)> {
-    let text = |x: &serde_json::Value| x.as_str().unwrap().to_string();
     let mut terms: Vec<_> = v["poincare_sum"]["invariants"]
         .as_array()
         .unwrap()
         .iter()
-        .map(|t| {
-            let mut entries: Vec<_> = t["entries"]
-                .as_array()
-                .unwrap()
-                .iter()
-                .map(|e| (text(&e["row"]), text(&e["column"]), text(&e["value"])))
-                .collect();
-            entries.sort();
-            (text(&t["coefficient"]), entries)
-        })
+        .map(|t| (text(&t["coefficient"]), entries_by_label(t)))
         .collect();
     terms.sort();
     terms
