@@ -15,6 +15,12 @@
 //!   denominators are products of small primes), w_i is 𝔭-integral exactly when
 //!   S_i(ζ̂) ≡ 0 (mod p^e), e = v_p(D), where ζ̂ ∈ Z_p is the p-adic n-th root of unity
 //!   lifting r (Hensel); then red(w_i) = (S_i(ζ̂)/p^e)·(D/p^e)⁻¹ mod p.
+//!
+//! [`LineFingerprints`] joins two such values, for the first two primes p ≡ 1 (mod n) above
+//! 2^30 with independent weights, into 62 bits: the compact store keeps only these bits of a
+//! line, so that lines which are not equal rarely share them (a shared value costs a
+//! recomputation of the stored line, never a wrong answer: equality is still decided
+//! exactly).
 
 use cyclorb_field::{CyclotomicField, PrimeReduction};
 use num_bigint::BigInt;
@@ -60,9 +66,14 @@ fn inverse_mod(a: u64, p: u64) -> u64 {
 }
 
 impl Fingerprinter {
-    /// Tables for Q(ζ_n)^dim with the first prime p ≡ 1 (mod n) above 2^30.
-    pub(crate) fn new(field: &CyclotomicField, dim: usize) -> Result<Fingerprinter, String> {
-        let reduction = PrimeReduction::nth(field, 0).map_err(|e| e.to_string())?;
+    /// Tables for Q(ζ_n)^dim with the `which`-th prime p ≡ 1 (mod n) above 2^30 (0 is the
+    /// first), with weights of their own for each `which`.
+    pub(crate) fn new(
+        field: &CyclotomicField,
+        dim: usize,
+        which: usize,
+    ) -> Result<Fingerprinter, String> {
+        let reduction = PrimeReduction::nth(field, which).map_err(|e| e.to_string())?;
         let (p, root) = (reduction.prime(), reduction.root());
         let phi = field.degree();
         let mut powers = Vec::with_capacity(phi);
@@ -71,7 +82,7 @@ impl Fingerprinter {
             powers.push(x);
             x = x * root % p;
         }
-        let mut state = 0x6379_636C_6F72_6221u64;
+        let mut state = 0x6379_636C_6F72_6221u64 ^ (which as u64).wrapping_mul(0x9E37_79B9);
         let block_weights: Vec<u64> = (0..dim).map(|_| splitmix(&mut state) % p).collect();
         let weights = block_weights
             .iter()
@@ -181,9 +192,46 @@ impl Fingerprinter {
     }
 }
 
+/// Two fingerprints of a line modulo different primes: the low 32 bits are the first (the
+/// memory store's bucket fingerprint), the high bits the second when `wide` is asked for.
+#[derive(Debug, Clone)]
+pub(crate) struct LineFingerprints {
+    first: Fingerprinter,
+    second: Fingerprinter,
+}
+
+impl LineFingerprints {
+    /// Tables for Q(ζ_n)^dim.
+    pub(crate) fn new(field: &CyclotomicField, dim: usize) -> Result<LineFingerprints, String> {
+        Ok(LineFingerprints {
+            first: Fingerprinter::new(field, dim, 0)?,
+            second: Fingerprinter::new(field, dim, 1)?,
+        })
+    }
+
+    /// From an integer representative with first non-zero block k (see
+    /// [`Fingerprinter::of_representative`]); `None` when either reduction of u_k vanishes.
+    pub(crate) fn of_representative(&self, u: &Numerators, k: usize, wide: bool) -> Option<u64> {
+        let low = self.first.of_representative(u, k)? as u64;
+        if !wide {
+            return Some(low);
+        }
+        Some(low | (self.second.of_representative(u, k)? as u64) << 32)
+    }
+
+    /// From the key (first non-zero block k).
+    pub(crate) fn of_key(&self, key: &KeyNumbers, k: usize, wide: bool) -> u64 {
+        let low = self.first.of_key(key, k) as u64;
+        if !wide {
+            return low;
+        }
+        low | (self.second.of_key(key, k) as u64) << 32
+    }
+}
+
 /// The hash-table hash of a fingerprint (spreads the bits hashbrown reads).
-pub(crate) fn bucket_hash(fingerprint: u32) -> u64 {
-    let x = (fingerprint as u64 | 1 << 40).wrapping_mul(0x9E37_79B9_7F4A_7C15);
+pub(crate) fn bucket_hash(fingerprint: u64) -> u64 {
+    let x = (fingerprint | 1 << 40).wrapping_mul(0x9E37_79B9_7F4A_7C15);
     x ^ (x >> 29)
 }
 
@@ -209,7 +257,7 @@ mod tests {
         for n in [8u32, 12, 16] {
             let f = CyclotomicField::new(n).unwrap();
             let kernel = PolyKernel::new(&f);
-            let fp = Fingerprinter::new(&f, 3).unwrap();
+            let fp = Fingerprinter::new(&f, 3, 0).unwrap();
             let texts = ["0", "3 + z", "1 - 2*z^2"];
             let v: Vec<Cyc> = texts.iter().map(|t| f.parse(t).unwrap()).collect();
             let u = numerators(&f, &texts);
@@ -233,7 +281,7 @@ mod tests {
         // (ζ − r)(ζ − r³) = ζ² − pζ + rp − r² = p(−ζ + r − (r² + 1)/p) since ζ² = −1. The two
         // routes must give the same fingerprint.
         let f = CyclotomicField::new(4).unwrap();
-        let fp = Fingerprinter::new(&f, 2).unwrap();
+        let fp = Fingerprinter::new(&f, 2, 0).unwrap();
         let (p, r) = (fp.p as i64, fp.root as i64);
         assert_eq!((r * r + 1) % p, 0);
         let key = KeyNumbers::Small(vec![p, 0, -r, 1]);

@@ -116,7 +116,7 @@ impl KeyArena {
     }
 
     /// Number of keys.
-    fn len(&self) -> usize {
+    pub(crate) fn len(&self) -> usize {
         self.offsets.len()
     }
 
@@ -406,8 +406,8 @@ impl OrbitSet {
                 index: i as u32,
                 fingerprint,
             };
-            table.insert_unique(bucket_hash(fingerprint), slot, |s| {
-                bucket_hash(s.fingerprint)
+            table.insert_unique(bucket_hash(fingerprint as u64), slot, |s| {
+                bucket_hash(s.fingerprint as u64)
             });
         }
         OrbitSet {
@@ -430,7 +430,7 @@ impl OrbitSet {
         mut same: impl FnMut(usize) -> bool,
     ) -> Option<u32> {
         self.table
-            .find(bucket_hash(fingerprint), |s| {
+            .find(bucket_hash(fingerprint as u64), |s| {
                 s.fingerprint == fingerprint && same(s.index as usize)
             })
             .map(|s| s.index)
@@ -452,8 +452,8 @@ impl OrbitSet {
         self.generators.push(generator);
         let slot = Slot { index, fingerprint };
         self.table
-            .insert_unique(bucket_hash(fingerprint), slot, |s| {
-                bucket_hash(s.fingerprint)
+            .insert_unique(bucket_hash(fingerprint as u64), slot, |s| {
+                bucket_hash(s.fingerprint as u64)
             });
     }
 
