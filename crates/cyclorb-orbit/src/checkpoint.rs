@@ -392,7 +392,12 @@ impl OrbitProblem {
             .map(|i| self.key_fingerprint(&keys.key(i), false) as u32)
             .collect();
         Ok(Orbit {
-            set: LineStore::Memory(OrbitSet::from_parts(keys, parents, generators, fingerprints)),
+            set: LineStore::Memory(OrbitSet::from_parts(
+                keys,
+                parents,
+                generators,
+                fingerprints,
+            )),
             processed,
             layer_ends,
             stop: None,

@@ -19,6 +19,7 @@
 //! lines), and those are recomputed.
 
 use std::collections::VecDeque;
+use std::path::{Path, PathBuf};
 
 use crate::key::KeyNumbers;
 use crate::numerators::Numerators;
@@ -49,6 +50,8 @@ pub(crate) struct CompactSet {
     /// Open addressing with linear probing: element index + 1, 0 for an empty slot.
     table: Vec<u32>,
     window: VecDeque<LayerKeys>,
+    /// Where finished layers' keys go (`None`: they stay in memory).
+    spill: Option<PathBuf>,
 }
 
 /// The slot a fingerprint's probe starts at (its high bits, scaled to the table).
@@ -74,7 +77,19 @@ impl CompactSet {
             fingerprints: Vec::new(),
             table: vec![0; 64],
             window: VecDeque::new(),
+            spill: None,
         }
+    }
+
+    /// Keep the keys of finished layers in files in `dir` from now on (the layer being built
+    /// stays in memory until it is finished).
+    pub(crate) fn spill_to(&mut self, dir: &Path) -> std::io::Result<()> {
+        self.spill = Some(dir.to_path_buf());
+        let building = self.window.len().saturating_sub(1);
+        for layer in self.window.iter_mut().take(building) {
+            layer.keys.spill(dir)?;
+        }
+        Ok(())
     }
 
     /// Number of elements.
@@ -83,10 +98,14 @@ impl CompactSet {
     }
 
     /// Start a new layer of keys at element `start` (the next one inserted), dropping the
-    /// keys of the layer that leaves the window.
-    pub(crate) fn open_layer(&mut self, start: usize) {
+    /// keys of the layer that leaves the window; the finished layer goes to disk when the
+    /// store spills.
+    pub(crate) fn open_layer(&mut self, start: usize) -> std::io::Result<()> {
         if self.window.back().is_some_and(|l| l.start == start) {
-            return;
+            return Ok(());
+        }
+        if let (Some(dir), Some(finished)) = (&self.spill, self.window.back_mut()) {
+            finished.keys.spill(dir)?;
         }
         self.window.push_back(LayerKeys {
             start,
@@ -95,6 +114,7 @@ impl CompactSet {
         while self.window.len() > WINDOW_LAYERS {
             self.window.pop_front();
         }
+        Ok(())
     }
 
     /// First element whose key is kept.
@@ -103,15 +123,23 @@ impl CompactSet {
         self.window.front().map_or(self.len(), |l| l.start)
     }
 
-    /// Key i when it is in the window (machine words into `out`, or big); `None` when it
-    /// must be recomputed from its word.
-    pub(crate) fn get<'a>(&'a self, i: usize, out: &mut Numerators) -> Option<StoredKey<'a>> {
+    /// Key i when it is in the window (machine words into `out`, or big; an error when a
+    /// spilled key cannot be read); `None` when it must be recomputed from its word.
+    pub(crate) fn get<'a>(
+        &'a self,
+        i: usize,
+        out: &mut Numerators,
+    ) -> Option<Result<StoredKey<'a>, String>> {
         let layer = self.window.iter().rev().find(|l| l.start <= i)?;
-        Some(layer.keys.get(i - layer.start, out))
+        Some(layer.keys.get_spilled(i - layer.start, out))
     }
 
     /// The element with this fingerprint for which `same(index)` holds.
-    pub(crate) fn find(&self, fingerprint: u64, mut same: impl FnMut(usize) -> bool) -> Option<u32> {
+    pub(crate) fn find(
+        &self,
+        fingerprint: u64,
+        mut same: impl FnMut(usize) -> bool,
+    ) -> Option<u32> {
         let slots = self.table.len();
         let mut at = home(fingerprint, slots);
         loop {
@@ -138,7 +166,13 @@ impl CompactSet {
 
     /// Append a new element (the caller has checked it is new); its key goes to the newest
     /// layer of the window.
-    pub(crate) fn insert(&mut self, key: &KeyNumbers, fingerprint: u64, parent: u32, generator: u8) {
+    pub(crate) fn insert(
+        &mut self,
+        key: &KeyNumbers,
+        fingerprint: u64,
+        parent: u32,
+        generator: u8,
+    ) {
         let index = self.len();
         if (index + 1) * MAX_LOAD.1 > self.table.len() * MAX_LOAD.0 {
             let mut table = vec![0u32; self.table.len() + self.table.len() / 2];
@@ -155,7 +189,10 @@ impl CompactSet {
         self.generators.push(generator);
         self.fingerprints.push(fingerprint);
         if self.window.is_empty() {
-            self.open_layer(index);
+            self.window.push_back(LayerKeys {
+                start: index,
+                keys: KeyArena::new(self.blocks, self.phi),
+            });
         }
         if let Some(layer) = self.window.back_mut() {
             layer.keys.push(key);
@@ -199,7 +236,6 @@ mod tests {
     fn lookups_find_exactly_the_inserted_elements_across_growth() {
         // fingerprints chosen to collide in pairs: the `same` test decides
         let mut set = CompactSet::new(1, 1);
-        set.open_layer(0);
         for i in 0..1000u64 {
             set.insert(&KeyNumbers::Small(vec![i as i64]), i / 2, 0, 0);
         }
@@ -216,14 +252,44 @@ mod tests {
         let mut set = CompactSet::new(1, 1);
         let mut out = Numerators::new(1);
         for layer in 0..8usize {
-            set.open_layer(layer * 10);
+            set.open_layer(layer * 10).unwrap();
             for j in 0..10 {
-                set.insert(&KeyNumbers::Small(vec![(layer * 10 + j) as i64 + 1]), 0, 0, 0);
+                set.insert(
+                    &KeyNumbers::Small(vec![(layer * 10 + j) as i64 + 1]),
+                    0,
+                    0,
+                    0,
+                );
             }
         }
         assert_eq!(set.window_start(), 30);
         assert!(set.get(29, &mut out).is_none());
-        assert!(matches!(set.get(42, &mut out), Some(StoredKey::Small)));
+        assert!(matches!(set.get(42, &mut out), Some(Ok(StoredKey::Small))));
         assert_eq!(out.dense, vec![43]);
+    }
+
+    #[test]
+    fn spilled_layers_read_back_the_same_keys() {
+        let dir = std::env::temp_dir();
+        let mut set = CompactSet::new(2, 2);
+        let mut out = Numerators::new(4);
+        set.spill_to(&dir).unwrap();
+        let key = |i: usize| KeyNumbers::Small(vec![1, 0, (i % 7) as i64 - 3, 300 * i as i64]);
+        for layer in 0..3usize {
+            set.open_layer(layer * 50).unwrap();
+            for j in 0..50 {
+                set.insert(&key(layer * 50 + j), 0, 0, 0);
+            }
+        }
+        set.open_layer(150).unwrap();
+        assert!(set
+            .window
+            .iter()
+            .take(3)
+            .all(|l| l.keys.bytes_used() < 50 * 8));
+        for i in 0..150 {
+            assert!(matches!(set.get(i, &mut out), Some(Ok(StoredKey::Small))));
+            assert_eq!(KeyNumbers::Small(out.dense.clone()), key(i));
+        }
     }
 }

@@ -55,6 +55,9 @@ pub struct OrbitOptions {
     /// The store of a new enumeration ([`OrbitProblem::enumerate`]); a continued orbit keeps
     /// the store it has.
     pub store: StoreKind,
+    /// With the compact store: keep the keys of finished layers in files in this directory,
+    /// so that only the layer being built is held in memory (an error with the memory store).
+    pub spill: Option<PathBuf>,
 }
 
 impl Default for OrbitOptions {
@@ -67,6 +70,7 @@ impl Default for OrbitOptions {
             checkpoint: None,
             stop: None,
             store: StoreKind::Memory,
+            spill: None,
         }
     }
 }
@@ -255,9 +259,9 @@ impl OrbitProblem {
     pub fn start_in(&self, kind: StoreKind) -> Orbit {
         let mut set = LineStore::new(kind, self.dimension(), self.kernel.degree());
         let fp = self.key_fingerprint(&self.seed_key, set.wide());
-        set.open_layer(0);
         set.insert(&self.seed_key, fp, u32::MAX, u16::MAX);
-        set.open_layer(1);
+        // a new layer of the memory store or of an empty window cannot fail
+        let _ = set.open_layer(1);
         Orbit {
             set,
             processed: 0,
@@ -296,6 +300,9 @@ impl OrbitProblem {
         let found_before = orbit.len();
         let mut last_checkpoint = Instant::now();
         orbit.stop = None;
+        if let Some(dir) = &options.spill {
+            orbit.set.spill_to(dir)?;
+        }
         let threads = options.threads.max(1);
         let mut workspaces: Vec<Workspace> = (0..threads).map(|_| Workspace::new(self)).collect();
         let chunk_size = options.chunk_size.max(1);
@@ -306,7 +313,7 @@ impl OrbitProblem {
                     break;
                 }
                 orbit.layer_ends.push(orbit.set.len());
-                orbit.set.open_layer(orbit.set.len());
+                orbit.set.open_layer(orbit.set.len())?;
                 continue;
             }
             if let Some(reason) = self.should_stop(&orbit, options) {

@@ -57,8 +57,8 @@ impl OrbitProblem {
             .iter()
             .map(|op| CompiledOperator::compile(&field, &kernel, op))
             .collect();
-        let fingerprints = LineFingerprints::new(&field, generators.dimension)
-            .map_err(OrbitError::Arithmetic)?;
+        let fingerprints =
+            LineFingerprints::new(&field, generators.dimension).map_err(OrbitError::Arithmetic)?;
         let content_hash = content_hash(&generators, &seed);
         let phi = kernel.degree();
         let positions = generators.dimension * phi;

@@ -11,10 +11,9 @@
 
 use std::ops::Range;
 
-use crate::engine::{split, Orbit};
 use crate::compact::CompactSet;
+use crate::engine::{split, Orbit};
 use crate::error::{joined, OrbitError};
-use crate::key::KeyNumbers;
 use crate::problem::OrbitProblem;
 use crate::set::LineStore;
 use crate::step::Workspace;
@@ -38,70 +37,72 @@ pub(crate) fn layer_ranges(layer_ends: &[usize], len: usize) -> Vec<Range<usize>
 }
 
 impl OrbitProblem {
-    /// Call `visit(range, keys)` for every layer in order with the keys of its elements,
-    /// recomputed from the records on `threads` threads. An error when a record does not
-    /// point into the previous layer (records of a breadth-first search always do).
+    /// Call `visit(start, keys)` for every layer in order, in parts of consecutive elements
+    /// from `start` on, with their keys recomputed from the records on `threads` threads (one
+    /// part per thread). An error when a record does not point into the previous layer
+    /// (records of a breadth-first search always do).
     pub(crate) fn regenerate(
         &self,
         records: Records<'_>,
         ranges: &[Range<usize>],
         threads: usize,
-        mut visit: impl FnMut(Range<usize>, &KeyArena) -> Result<(), OrbitError>,
+        mut visit: impl FnMut(usize, &KeyArena) -> Result<(), OrbitError>,
     ) -> Result<(), OrbitError> {
         let (blocks, phi) = (self.dimension(), self.kernel.degree());
-        let mut previous = KeyArena::new(blocks, phi);
-        let mut previous_range = 0..0;
+        let mut previous: Vec<(usize, KeyArena)> = Vec::new();
         for range in ranges {
-            let mut keys = KeyArena::new(blocks, phi);
-            if range.start == 0 {
-                keys.push(&self.seed_key);
+            let layer = if range.start == 0 {
                 if range.end != 1 {
                     return Err(bad_record(1));
                 }
+                let mut keys = KeyArena::new(blocks, phi);
+                keys.push(&self.seed_key);
+                vec![(0, keys)]
             } else {
-                let parts = split(range.clone(), threads);
-                let (prev, prev_range) = (&previous, &previous_range);
-                let computed: Vec<Result<Vec<KeyNumbers>, OrbitError>> =
+                let prev = &previous;
+                let computed: Vec<Result<(usize, KeyArena), OrbitError>> =
                     std::thread::scope(|scope| {
-                        let handles: Vec<_> = parts
+                        let handles: Vec<_> = split(range.clone(), threads)
                             .into_iter()
-                            .map(|part| {
-                                scope.spawn(move || self.layer_part(records, part, prev, prev_range))
-                            })
+                            .map(|part| scope.spawn(move || self.layer_part(records, part, prev)))
                             .collect();
                         handles.into_iter().map(joined).collect()
                     });
-                for part in computed {
-                    for key in part? {
-                        keys.push(&key);
-                    }
-                }
+                computed.into_iter().collect::<Result<_, _>>()?
+            };
+            for (start, keys) in &layer {
+                visit(*start, keys)?;
             }
-            visit(range.clone(), &keys)?;
-            previous = keys;
-            previous_range = range.clone();
+            previous = layer;
         }
         Ok(())
     }
 
+    /// The keys of elements `part`, whose parents are in the parts of `previous`.
     fn layer_part(
         &self,
         records: Records<'_>,
         part: Range<usize>,
-        previous: &KeyArena,
-        previous_range: &Range<usize>,
-    ) -> Result<Vec<KeyNumbers>, OrbitError> {
+        previous: &[(usize, KeyArena)],
+    ) -> Result<(usize, KeyArena), OrbitError> {
         let mut ws = Workspace::new(self);
-        let mut out = Vec::with_capacity(part.len());
-        for i in part {
+        let mut keys = KeyArena::new(self.dimension(), self.kernel.degree());
+        for i in part.clone() {
             let (parent, generator) = records(i);
-            if !previous_range.contains(&parent) || generator >= self.generators.operators.len() {
+            let holder = previous
+                .iter()
+                .rev()
+                .find(|(start, keys)| *start <= parent && parent < start + keys.len());
+            let Some((start, parent_keys)) = holder else {
+                return Err(bad_record(i));
+            };
+            if generator >= self.generators.operators.len() {
                 return Err(bad_record(i));
             }
-            ws.load_key(&previous.key(parent - previous_range.start));
-            out.push(self.image_key(&mut ws, generator)?);
+            ws.load_key(&parent_keys.key(parent - start));
+            keys.push(&self.image_key(&mut ws, generator)?);
         }
-        Ok(out)
+        Ok((part.start, keys))
     }
 
     /// The same orbit with every key in memory (for what reads every line at random).
@@ -110,16 +111,21 @@ impl OrbitProblem {
         let store = &orbit.set;
         let records = |i: usize| store.record(i);
         let ranges = layer_ranges(&orbit.layer_ends, orbit.len());
-        self.regenerate(&records, &ranges, threads, |range, keys| {
-            for (j, i) in range.enumerate() {
-                let key = keys.key(j);
+        self.regenerate(&records, &ranges, threads, |start, keys| {
+            for j in 0..keys.len() {
+                let (i, key) = (start + j, keys.key(j));
                 let (parent, generator) = if i == 0 {
                     (u32::MAX, u16::MAX)
                 } else {
                     let (p, g) = store.record(i);
                     (p as u32, g as u16)
                 };
-                set.insert(&key, self.key_fingerprint(&key, false) as u32, parent, generator);
+                set.insert(
+                    &key,
+                    self.key_fingerprint(&key, false) as u32,
+                    parent,
+                    generator,
+                );
             }
             Ok(())
         })?;
@@ -147,17 +153,22 @@ impl OrbitProblem {
         let records = |i: usize| (parents[i] as usize, generators[i] as usize);
         let ranges = layer_ranges(layer_ends, len);
         let threads = std::thread::available_parallelism().map_or(1, |n| n.get());
-        self.regenerate(&records, &ranges, threads, |range, keys| {
-            set.open_layer(range.start);
-            for (j, i) in range.enumerate() {
-                let key = keys.key(j);
+        let layer_starts: Vec<usize> = ranges.iter().map(|r| r.start).collect();
+        self.regenerate(&records, &ranges, threads, |start, keys| {
+            if layer_starts.binary_search(&start).is_ok() {
+                set.open_layer(start)
+                    .map_err(|e| OrbitError::Invalid(e.to_string()))?;
+            }
+            for j in 0..keys.len() {
+                let (i, key) = (start + j, keys.key(j));
                 let fingerprint = self.key_fingerprint(&key, true);
                 set.insert(&key, fingerprint, parents[i], generators[i] as u8);
             }
             Ok(())
         })?;
         if layer_ends.last() == Some(&len) {
-            set.open_layer(len);
+            set.open_layer(len)
+                .map_err(|e| OrbitError::Invalid(e.to_string()))?;
         }
         Ok(LineStore::Compact(set))
     }

@@ -8,6 +8,7 @@
 //! to the seed).
 
 use std::borrow::Cow;
+use std::path::Path;
 
 use num_bigint::BigInt;
 use serde::{Deserialize, Serialize};
@@ -93,11 +94,20 @@ impl LineStore {
         }
     }
 
-    /// Key i when the store holds it.
-    pub(crate) fn get<'a>(&'a self, i: usize, out: &mut Numerators) -> Option<StoredKey<'a>> {
+    /// Key i when the store holds it (an error when a spilled key cannot be read).
+    pub(crate) fn get<'a>(
+        &'a self,
+        i: usize,
+        out: &mut Numerators,
+    ) -> Option<Result<StoredKey<'a>, OrbitError>> {
         match self {
-            LineStore::Memory(s) => Some(s.keys.get(i, out)),
-            LineStore::Compact(s) => s.get(i, out),
+            LineStore::Memory(s) => Some(Ok(s.keys.get(i, out))),
+            LineStore::Compact(s) => s.get(i, out).map(|r| {
+                r.map_err(|reason| OrbitError::Io {
+                    path: "spilled keys".into(),
+                    reason,
+                })
+            }),
         }
     }
 
@@ -110,7 +120,13 @@ impl LineStore {
     }
 
     /// Append a new element (the caller has checked it is new).
-    pub(crate) fn insert(&mut self, key: &KeyNumbers, fingerprint: u64, parent: u32, generator: u16) {
+    pub(crate) fn insert(
+        &mut self,
+        key: &KeyNumbers,
+        fingerprint: u64,
+        parent: u32,
+        generator: u16,
+    ) {
         match self {
             LineStore::Memory(s) => s.insert(key, fingerprint as u32, parent, generator),
             LineStore::Compact(s) => s.insert(key, fingerprint, parent, generator as u8),
@@ -118,9 +134,21 @@ impl LineStore {
     }
 
     /// A new breadth-first layer starts at element `start`.
-    pub(crate) fn open_layer(&mut self, start: usize) {
-        if let LineStore::Compact(s) = self {
-            s.open_layer(start);
+    pub(crate) fn open_layer(&mut self, start: usize) -> Result<(), OrbitError> {
+        match self {
+            LineStore::Compact(s) => s.open_layer(start).map_err(spill_error),
+            LineStore::Memory(_) => Ok(()),
+        }
+    }
+
+    /// Keep finished layers' keys in files in `dir` (the compact store; an error for the
+    /// memory store, which keeps every key in memory by design).
+    pub(crate) fn spill_to(&mut self, dir: &Path) -> Result<(), OrbitError> {
+        match self {
+            LineStore::Compact(s) => s.spill_to(dir).map_err(spill_error),
+            LineStore::Memory(_) => Err(OrbitError::Invalid(
+                "only the compact store spills keys to disk".into(),
+            )),
         }
     }
 
@@ -156,6 +184,13 @@ impl LineStore {
     }
 }
 
+fn spill_error(e: std::io::Error) -> OrbitError {
+    OrbitError::Io {
+        path: "spilled keys".into(),
+        reason: e.to_string(),
+    }
+}
+
 impl OrbitProblem {
     /// Stored key i: from the store, or recomputed from its word when the compact store no
     /// longer holds it (then machine words go to `out` as well).
@@ -166,7 +201,7 @@ impl OrbitProblem {
         out: &mut Numerators,
     ) -> Result<Fetched<'a>, OrbitError> {
         if let Some(stored) = set.get(i, out) {
-            return Ok(match stored {
+            return Ok(match stored? {
                 StoredKey::Small => Fetched::Small,
                 StoredKey::Big(b) => Fetched::Big(Cow::Borrowed(b)),
             });

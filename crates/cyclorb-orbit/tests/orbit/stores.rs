@@ -104,3 +104,60 @@ fn a_compact_checkpoint_holds_records_only_and_is_checked() {
         std::fs::remove_file(p).unwrap();
     }
 }
+
+#[test]
+fn a_spilling_compact_store_completes_under_a_ceiling_that_stops_the_memory_store() {
+    // four qubits: 2^4·3·5·9·17 = 36 720 stabilizer states (Aaronson–Gottesman 2004)
+    let g = clifford(4);
+    let problem = OrbitProblem::new(g.clone(), &vacuum(&g)).unwrap();
+    let memory = run(&problem, 2, 256);
+    assert_eq!(memory.len(), 36_720);
+    let reference = fingerprint_of_run(&problem, &memory);
+    let ceiling = memory.store_bytes() / 2;
+    let capped = |store, spill: Option<std::path::PathBuf>| OrbitOptions {
+        memory_ceiling: Some(ceiling),
+        store,
+        spill,
+        ..options(2, 256)
+    };
+    let stopped = problem
+        .enumerate(&capped(StoreKind::Memory, None), &mut Silent)
+        .unwrap();
+    assert_eq!(stopped.stop_reason(), Some(StopReason::Memory));
+    let dir = temp_path("spill");
+    std::fs::create_dir_all(&dir).unwrap();
+    let mut peak = 0;
+    let mut observer = |p: &cyclorb_orbit::Progress| peak = peak.max(p.store_bytes);
+    let spilled = problem
+        .enumerate(
+            &capped(StoreKind::Compact, Some(dir.clone())),
+            &mut observer,
+        )
+        .unwrap();
+    assert!(
+        spilled.is_saturated(),
+        "peak {peak} bytes, ceiling {ceiling}"
+    );
+    assert!(fingerprint_of_run(&problem, &spilled) == reference);
+    assert_eq!(
+        problem.poincare_sum(&spilled, 2).unwrap(),
+        problem.poincare_sum(&memory, 1).unwrap()
+    );
+    drop(spilled);
+    // the files of the layers go with the store
+    assert_eq!(std::fs::read_dir(&dir).unwrap().count(), 0);
+    // the memory store keeps every key by design: it does not spill
+    let refused = problem.enumerate(&capped(StoreKind::Memory, Some(dir.clone())), &mut Silent);
+    assert!(refused
+        .unwrap_err()
+        .to_string()
+        .contains("only the compact store"));
+    // a directory that does not exist is named in the error
+    let missing = dir.join("absent");
+    let error = problem
+        .enumerate(&capped(StoreKind::Compact, Some(missing)), &mut Silent)
+        .unwrap_err()
+        .to_string();
+    assert!(error.contains("absent"), "{error}");
+    std::fs::remove_dir(&dir).unwrap();
+}
