@@ -571,3 +571,64 @@ fn higher_genus_sums_are_keyed_by_label_tuples() {
             .any(|e| e["row"] == "a=(sigma,sigma) b=(psi,psi) x=()"));
     }
 }
+
+#[test]
+fn the_compact_store_and_its_spill_give_the_same_answer() {
+    // Ising genus 2: 3840 lines, B = 384·I (Castro et al., as above), in each store; a
+    // compact run stopped by its limit resumes from its checkpoint (records only) to the
+    // same answer, and a spilling run removes its files.
+    let (_, memory) = cyclorb_json(&["orbit", "ising", "--genus", "2", "--store", "memory"]);
+    assert_eq!(memory["store_kind"], "memory");
+    assert_eq!(memory["window_bytes"], 0);
+    let spill = temp_path("spill-dir");
+    std::fs::create_dir_all(&spill).unwrap();
+    let spill_arg = spill.to_str().unwrap();
+    for extra in [&["--store", "compact"][..], &["--spill", spill_arg][..]] {
+        let mut args = vec!["orbit", "ising", "--genus", "2"];
+        args.extend_from_slice(extra);
+        let (code, v) = cyclorb_json(&args);
+        assert_eq!(code, 0, "{v}");
+        assert_eq!(v["store_kind"], "compact", "{extra:?}");
+        for key in ["orbit_size", "layer_sizes", "saturated", "poincare_sum"] {
+            assert_eq!(v[key], memory[key], "{extra:?}: {key}");
+        }
+        assert_eq!(v["orbit_size"], 3840);
+        assert_eq!(v["poincare_sum"]["prefactor"], "384");
+        assert!(v["store_bytes"].as_u64() < memory["store_bytes"].as_u64());
+    }
+    assert_eq!(std::fs::read_dir(&spill).unwrap().count(), 0);
+    let ckpt = temp_path("compact-ising2.ckpt");
+    let (code, partial) = cyclorb_json(&[
+        "orbit",
+        "ising",
+        "--genus",
+        "2",
+        "--spill",
+        spill_arg,
+        "--limit",
+        "1000",
+        "--checkpoint",
+        ckpt.to_str().unwrap(),
+    ]);
+    assert_eq!(code, 3, "{partial}");
+    assert_eq!(
+        partial["resume_command"],
+        format!(
+            "cyclorb orbit --resume {} --spill {spill_arg}",
+            ckpt.display()
+        )
+    );
+    let (code, resumed) = cyclorb_json(&["orbit", "--resume", ckpt.to_str().unwrap()]);
+    assert_eq!(code, 0, "{resumed}");
+    assert_eq!(resumed["store_kind"], "compact");
+    for key in ["orbit_size", "layer_sizes", "poincare_sum"] {
+        assert_eq!(resumed[key], memory[key], "{key}");
+    }
+    let _ = std::fs::remove_file(ckpt);
+    // the memory store does not spill: a clear refusal
+    let (code, v) = cyclorb_json(&[
+        "orbit", "ising", "--genus", "2", "--store", "memory", "--spill", spill_arg,
+    ]);
+    assert_eq!(code, 1, "{v}");
+    let _ = std::fs::remove_dir_all(&spill);
+}

@@ -66,7 +66,10 @@
 //! and coefficients, then the coefficients at 1, 2, 4 or 8 bytes) in one flat arena. The
 //! frontier is split over threads; insertion is sequential in a fixed order, so results do
 //! not depend on the thread count. Ising at genus 3 (8 847 360 lines of Q(ζ16)^36) stores
-//! about 90 bytes per line.
+//! about 90 bytes per line in the memory store and about 19 in the compact store
+//! ([`StoreKind`]: Schreier records, 62-bit fingerprints and the keys of the last five
+//! layers, older lines recomputed from their words on a fingerprint match; finished layers'
+//! keys can spill to files, [`OrbitOptions::spill`]); docs/orbits.md §5.
 //!
 //! ## Untrusted input
 //! Generator-set and seed files are read with errors naming the file, the JSON path and the
