@@ -7,7 +7,8 @@
 //! the store's bytes per line at the end and at its peak (the peak includes the compact
 //! store's window of recent layers), and the time of the Poincaré sum (which the compact
 //! store computes by regenerating the lines layer by layer). Figures for the README come
-//! from `cargo bench --bench orbit_store ising 3`.
+//! from `cargo bench --bench orbit_store ising 3`. `CYCLORB_BENCH_STORES` (a comma-separated
+//! list of `memory`, `compact`, `compact+spill`) runs only those.
 
 use std::time::Instant;
 
@@ -41,6 +42,11 @@ fn main() {
         ("compact", StoreKind::Compact, false),
         ("compact+spill", StoreKind::Compact, true),
     ] {
+        let chosen = std::env::var("CYCLORB_BENCH_STORES")
+            .map_or(true, |list| list.split(',').any(|s| s.trim() == name));
+        if !chosen {
+            continue;
+        }
         if spill {
             std::fs::create_dir_all(&spill_dir).expect("a temporary directory");
         }

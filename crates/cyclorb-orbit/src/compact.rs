@@ -2,7 +2,8 @@
 //! window of recent layers.
 //!
 //! A line costs its parent (4 bytes), its generator (1 byte), its fingerprint (8 bytes, two
-//! reductions modulo primes, [`crate::fingerprint::LineFingerprints`]) and a slot of an
+//! random linear forms of the line reduced modulo a prime, [`crate::fingerprint`]) and a
+//! slot of an
 //! open-addressing table of element indices (4 bytes at a load between 0.53 and 0.8, so
 //! 5 to 7.5 bytes per line): 18 to 21 bytes, plus an eighth of slack while the record
 //! vectors grow. The keys (the exact lines) are kept only for the last [`WINDOW_LAYERS`]

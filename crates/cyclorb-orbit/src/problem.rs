@@ -4,7 +4,7 @@ use cyclorb_field::{Cyc, CyclotomicField};
 
 use crate::compiled::CompiledOperator;
 use crate::error::OrbitError;
-use crate::fingerprint::LineFingerprints;
+use crate::fingerprint::Fingerprinter;
 use crate::format::operator_json;
 use crate::generators::{GeneratorSet, Seed};
 use crate::key::KeyNumbers;
@@ -22,7 +22,7 @@ pub struct OrbitProblem {
     pub(crate) kernel: PolyKernel,
     /// Each generator as an integer matrix on numerators (`None`: exact `Cyc` arithmetic).
     pub(crate) compiled: Vec<Option<CompiledOperator>>,
-    pub(crate) fingerprints: LineFingerprints,
+    pub(crate) fingerprints: Fingerprinter,
     pub(crate) seed_key: KeyNumbers,
     /// For each numerator position i·φ + t: its block i and its slot t (no division in the
     /// hot loops).
@@ -58,7 +58,7 @@ impl OrbitProblem {
             .map(|op| CompiledOperator::compile(&field, &kernel, op))
             .collect();
         let fingerprints =
-            LineFingerprints::new(&field, generators.dimension).map_err(OrbitError::Arithmetic)?;
+            Fingerprinter::new(&field, generators.dimension).map_err(OrbitError::Arithmetic)?;
         let content_hash = content_hash(&generators, &seed);
         let phi = kernel.degree();
         let positions = generators.dimension * phi;
