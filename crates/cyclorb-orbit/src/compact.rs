@@ -98,6 +98,11 @@ impl CompactSet {
         self.parents.len()
     }
 
+    /// Where finished layers' keys go, when the store spills.
+    pub(crate) fn spill_dir(&self) -> Option<&Path> {
+        self.spill.as_deref()
+    }
+
     /// Start a new layer of keys at element `start` (the next one inserted), dropping the
     /// keys of the layer that leaves the window; the finished layer goes to disk when the
     /// store spills.

@@ -82,7 +82,11 @@ impl OrbitProblem {
                 let store = &orbit.set;
                 let records = |i: usize| store.record(i);
                 let ranges = layer_ranges(&orbit.layer_ends, orbit.len());
-                self.regenerate(&records, &ranges, threads, |_, keys| {
+                let spill = match store {
+                    LineStore::Compact(set) => set.spill_dir(),
+                    LineStore::Memory(_) => None,
+                };
+                self.regenerate(&records, &ranges, threads, spill, |_, keys| {
                     let part = sum_matrix(self, keys, threads, &g, &norm, None)?;
                     b = b.add(field, &part)?;
                     Ok(())

@@ -10,6 +10,7 @@
 //! kept every key.
 
 use std::ops::Range;
+use std::path::Path;
 
 use crate::compact::CompactSet;
 use crate::engine::{split, Orbit};
@@ -39,13 +40,15 @@ pub(crate) fn layer_ranges(layer_ends: &[usize], len: usize) -> Vec<Range<usize>
 impl OrbitProblem {
     /// Call `visit(start, keys)` for every layer in order, in parts of consecutive elements
     /// from `start` on, with their keys recomputed from the records on `threads` threads (one
-    /// part per thread). An error when a record does not point into the previous layer
-    /// (records of a breadth-first search always do).
+    /// part per thread). With `spill`, a visited layer's keys go to files there while the
+    /// next layer is computed from them. An error when a record does not point into the
+    /// previous layer (records of a breadth-first search always do).
     pub(crate) fn regenerate(
         &self,
         records: Records<'_>,
         ranges: &[Range<usize>],
         threads: usize,
+        spill: Option<&Path>,
         mut visit: impl FnMut(usize, &KeyArena) -> Result<(), OrbitError>,
     ) -> Result<(), OrbitError> {
         let (blocks, phi) = (self.dimension(), self.kernel.degree());
@@ -70,8 +73,15 @@ impl OrbitProblem {
                     });
                 computed.into_iter().collect::<Result<_, _>>()?
             };
-            for (start, keys) in &layer {
+            let mut layer = layer;
+            for (start, keys) in &mut layer {
                 visit(*start, keys)?;
+                if let Some(dir) = spill {
+                    keys.spill(dir).map_err(|e| OrbitError::Io {
+                        path: "spilled keys".into(),
+                        reason: e.to_string(),
+                    })?;
+                }
             }
             previous = layer;
         }
@@ -99,7 +109,11 @@ impl OrbitProblem {
             if generator >= self.generators.operators.len() {
                 return Err(bad_record(i));
             }
-            ws.load_key(&parent_keys.key(parent - start));
+            ws.load_stored(parent_keys, parent - start)
+                .map_err(|reason| OrbitError::Io {
+                    path: "spilled keys".into(),
+                    reason,
+                })?;
             keys.push(&self.image_key(&mut ws, generator)?);
         }
         Ok((part.start, keys))
@@ -111,7 +125,7 @@ impl OrbitProblem {
         let store = &orbit.set;
         let records = |i: usize| store.record(i);
         let ranges = layer_ranges(&orbit.layer_ends, orbit.len());
-        self.regenerate(&records, &ranges, threads, |start, keys| {
+        self.regenerate(&records, &ranges, threads, None, |start, keys| {
             for j in 0..keys.len() {
                 let (i, key) = (start + j, keys.key(j));
                 let (parent, generator) = if i == 0 {
@@ -154,7 +168,7 @@ impl OrbitProblem {
         let ranges = layer_ranges(layer_ends, len);
         let threads = std::thread::available_parallelism().map_or(1, |n| n.get());
         let layer_starts: Vec<usize> = ranges.iter().map(|r| r.start).collect();
-        self.regenerate(&records, &ranges, threads, |start, keys| {
+        self.regenerate(&records, &ranges, threads, None, |start, keys| {
             if layer_starts.binary_search(&start).is_ok() {
                 set.open_layer(start)
                     .map_err(|e| OrbitError::Invalid(e.to_string()))?;

@@ -27,6 +27,7 @@ use crate::key::{first_nonzero_block, key_of_integer_vector, KeyNumbers, Normali
 use crate::numerators::Numerators;
 use crate::problem::OrbitProblem;
 use crate::set::{Fetched, LineStore};
+use crate::store::{KeyArena, StoredKey};
 
 /// What an image turned out to be.
 pub(crate) enum Outcome {
@@ -169,6 +170,22 @@ impl Workspace {
             Fetched::Big(b) => {
                 self.source_is_small = false;
                 self.source_key = Some(KeyNumbers::Big(b.into_owned()));
+            }
+        }
+        Ok(())
+    }
+
+    /// Make key j of `keys` (in memory or spilled) the source of the next images.
+    pub(crate) fn load_stored(&mut self, keys: &KeyArena, j: usize) -> Result<(), String> {
+        self.source_line = None;
+        match keys.get_spilled(j, &mut self.source)? {
+            StoredKey::Small => {
+                self.source_is_small = true;
+                self.source_key = None;
+            }
+            StoredKey::Big(b) => {
+                self.source_is_small = false;
+                self.source_key = Some(KeyNumbers::Big(b.to_vec()));
             }
         }
         Ok(())
