@@ -277,13 +277,6 @@ impl OrbitProblem {
         options: &OrbitOptions,
         observer: &mut dyn ProgressObserver,
     ) -> Result<Orbit, OrbitError> {
-        if options.store == StoreKind::Compact && self.generators.operators.len() > 255 {
-            return Err(OrbitError::Invalid(format!(
-                "the compact store records a generator in one byte; {} generators need \
-                 the memory store",
-                self.generators.operators.len()
-            )));
-        }
         self.extend(self.start_in(options.store), options, observer)
     }
 
@@ -300,6 +293,13 @@ impl OrbitProblem {
         let found_before = orbit.len();
         let mut last_checkpoint = Instant::now();
         orbit.stop = None;
+        if orbit.set.kind() == StoreKind::Compact && self.generators.operators.len() > 255 {
+            return Err(OrbitError::Invalid(format!(
+                "the compact store records a generator in one byte; {} generators need \
+                 the memory store",
+                self.generators.operators.len()
+            )));
+        }
         if let Some(dir) = &options.spill {
             orbit.set.spill_to(dir)?;
         }

@@ -15,6 +15,8 @@
 //! Lines are looked up in the store and then among the new lines already found by the same
 //! worker ([`Pending`]), so a worker normalises each new line once.
 
+use std::borrow::Cow;
+
 use cyclorb_field::Cyc;
 use cyclorb_matrix::LinearMap;
 use hashbrown::HashTable;
@@ -161,34 +163,29 @@ impl Workspace {
         set: &LineStore,
         index: usize,
     ) -> Result<(), OrbitError> {
-        self.source_line = None;
-        match problem.fetch(set, index, &mut self.source)? {
-            Fetched::Small => {
-                self.source_is_small = true;
-                self.source_key = None;
-            }
-            Fetched::Big(b) => {
-                self.source_is_small = false;
-                self.source_key = Some(KeyNumbers::Big(b.into_owned()));
-            }
-        }
+        let fetched = problem.fetch(set, index, &mut self.source)?;
+        self.take_source(fetched);
         Ok(())
     }
 
     /// Make key j of `keys` (in memory or spilled) the source of the next images.
     pub(crate) fn load_stored(&mut self, keys: &KeyArena, j: usize) -> Result<(), String> {
-        self.source_line = None;
-        match keys.get_spilled(j, &mut self.source)? {
-            StoredKey::Small => {
-                self.source_is_small = true;
-                self.source_key = None;
-            }
-            StoredKey::Big(b) => {
-                self.source_is_small = false;
-                self.source_key = Some(KeyNumbers::Big(b.to_vec()));
-            }
-        }
+        let fetched = match keys.get_spilled(j, &mut self.source)? {
+            StoredKey::Small => Fetched::Small,
+            StoredKey::Big(b) => Fetched::Big(Cow::Borrowed(b)),
+        };
+        self.take_source(fetched);
         Ok(())
+    }
+
+    /// The source is now the key just read: in `source` when small, else these numbers.
+    fn take_source(&mut self, fetched: Fetched<'_>) {
+        self.source_line = None;
+        self.source_is_small = matches!(fetched, Fetched::Small);
+        self.source_key = match fetched {
+            Fetched::Small => None,
+            Fetched::Big(b) => Some(KeyNumbers::Big(b.into_owned())),
+        };
     }
 
     /// Make a key the source of the next images.
