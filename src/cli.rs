@@ -186,6 +186,18 @@ pub struct OrbitArgs {
     /// set (or the raw files).
     #[arg(long)]
     pub resume: Option<PathBuf>,
+    /// Where the lines are kept: `compact` (a Schreier record and a 62-bit fingerprint per
+    /// line, about 20 bytes, exact keys only for the last layers; older lines are recomputed
+    /// from their words) or `memory` (every exact key, about 90 bytes per line on Ising at
+    /// genus 3, no recomputation). The answer is the same. A resumed run keeps the store of
+    /// its checkpoint. Default: memory.
+    #[arg(long, value_parser = ["memory", "compact"])]
+    pub store: Option<String>,
+    /// With the compact store (implied): keep the keys of finished layers in files in this
+    /// directory (removed as the run moves on), so that an orbit larger than
+    /// --memory-limit can complete; only the layer being built stays in memory.
+    #[arg(long, value_name = "DIR")]
+    pub spill: Option<PathBuf>,
     /// Print the word (in generator names) of this many orbit elements, farthest first.
     #[arg(long, default_value_t = 0)]
     pub words: usize,

@@ -5,7 +5,7 @@ use std::sync::atomic::AtomicBool;
 use std::sync::Arc;
 use std::time::{Duration, Instant};
 
-use cyclorb_orbit::{CheckpointPlan, LabelledEntry, OrbitOptions, PoincareReport};
+use cyclorb_orbit::{CheckpointPlan, LabelledEntry, OrbitOptions, PoincareReport, StoreKind};
 use cyclorb_pipeline::dw_space::is_dw;
 use cyclorb_pipeline::listing::{check_writable, default_checkpoint, Listing, Origin};
 use cyclorb_pipeline::space::{build_space, parse_set};
@@ -36,6 +36,11 @@ pub(super) fn options(args: &OrbitArgs, stop: Arc<AtomicBool>) -> OrbitOptions {
             every: Duration::from_secs(args.checkpoint_every.max(1)),
         }),
         stop: Some(stop),
+        store: match (args.store.as_deref(), &args.spill) {
+            (Some("compact"), _) | (None, Some(_)) => StoreKind::Compact,
+            _ => StoreKind::Memory,
+        },
+        spill: args.spill.clone(),
         ..OrbitOptions::default()
     }
 }
@@ -202,8 +207,8 @@ fn text_report(report: &OrbitAnswer) -> String {
     t.push_str(&format!("time {:.2} s", report.elapsed_seconds));
     if let Some(store) = &report.store {
         t.push_str(&format!(
-            ", store {} bytes ({:.1} bytes per line)",
-            store.store_bytes, store.bytes_per_element
+            ", store {} bytes ({:.1} bytes per line, {} store)",
+            store.store_bytes, store.bytes_per_element, store.store_kind
         ));
     }
     if let Some(m) = report.peak_memory_bytes {
@@ -281,10 +286,16 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
                 std::fs::remove_file(&plan.path).ok();
             }
         } else if plan.path.exists() {
-            let command = format!(
+            let mut command = format!(
                 "cyclorb orbit --resume {}",
                 shell_word(&plan.path.display().to_string())
             );
+            if let Some(dir) = &args.spill {
+                command.push_str(&format!(
+                    " --spill {}",
+                    shell_word(&dir.display().to_string())
+                ));
+            }
             text.push_str(&format!(
                 "checkpoint written to {}\ncontinue with: {command}\n",
                 plan.path.display()

@@ -5,21 +5,27 @@
 //! | field | bytes |
 //! | --- | --- |
 //! | magic `CYCORBCK` | 8 |
-//! | format version (2; version 1 had no origin) | u32 |
+//! | format version (2 for the memory store, 3 for the compact store; version 1 had no origin) | u32 |
 //! | length of the origin text (0: none), then its UTF-8 bytes: how the problem was built, so that `--resume FILE` alone can rebuild it (a hint only: the content hash below decides) | u32 + bytes |
 //! | conductor n, dimension d, degree φ(n), number of generators | 4 × u32 |
 //! | content hash of generators and seed ([`OrbitProblem::content_hash`]) | u128 |
 //! | elements N, processed, number of layer ends L | 3 × u64 |
 //! | layer ends | L × u64 |
 //! | compute seconds so far | f64 bits as u64 |
+//! | *versions 1 and 2 (memory store) only:* | |
 //! | numerator width w (1, 2, 4, 8) | u8 |
 //! | length A of the packed keys, then the keys (sparse encoding of the `store` module) | u64 + A |
 //! | parents (u32::MAX for the seed) | N × u32 |
 //! | generators (u16::MAX for the seed) | N × u16 |
 //! | number of big keys B, then per key: index (u32) and d·φ numerators, each as a byte length (u32) and signed little-endian bytes | … |
+//! | *version 3 (compact store) only:* | |
+//! | parents (u32::MAX for the seed) | N × u32 |
+//! | generators (u16::MAX for the seed) | N × u16 |
 //! | FNV-1a 128 of every byte above | u128 |
 //!
-//! Fingerprints and the hash table are rebuilt when the file is read. A file is refused when
+//! Fingerprints and the hash table are rebuilt when the file is read. A compact checkpoint
+//! holds no keys (6 bytes per line): they are recomputed from the records layer by layer
+//! (the `regenerate` module), which costs about what the enumeration spent on new lines. A file is refused when
 //! its header does not match the problem (another field, dimension or generator set), when
 //! the checksum fails, or when a record is out of range.
 
@@ -32,11 +38,14 @@ use num_bigint::BigInt;
 use crate::engine::Orbit;
 use crate::error::OrbitError;
 use crate::problem::OrbitProblem;
+use crate::set::LineStore;
 use crate::store::{KeyArena, OrbitSet, Width};
 use cyclorb_field::Fnv128;
 
 const MAGIC: &[u8; 8] = b"CYCORBCK";
 const VERSION: u32 = 2;
+/// The version of a checkpoint of the compact store.
+const COMPACT_VERSION: u32 = 3;
 
 /// Longest origin text read from a file.
 const MAX_ORIGIN: usize = 1 << 20;
@@ -148,15 +157,15 @@ fn verify_checksum(path: &Path) -> Result<u64, OrbitError> {
     Ok(size)
 }
 
-/// Read the magic, the version and the origin text (versions 1 and 2).
-fn read_origin<R: Read>(r: &mut BoundedReader<R>) -> Result<Option<String>, String> {
+/// Read the magic, the version and the origin text (versions 1 to 3).
+fn read_origin<R: Read>(r: &mut BoundedReader<R>) -> Result<(u32, Option<String>), String> {
     if r.take(8)? != MAGIC {
         return Err("not a cyclorb orbit checkpoint".into());
     }
     let version = r.u32()?;
-    match version {
+    let origin = match version {
         1 => Ok(None),
-        VERSION => {
+        VERSION | COMPACT_VERSION => {
             let len = r.u32()? as usize;
             if len > MAX_ORIGIN {
                 return Err(format!("origin of {len} bytes is out of range"));
@@ -166,9 +175,10 @@ fn read_origin<R: Read>(r: &mut BoundedReader<R>) -> Result<Option<String>, Stri
             Ok((!text.is_empty()).then_some(text))
         }
         _ => Err(format!(
-            "checkpoint version {version}; this program reads 1 and {VERSION}"
+            "checkpoint version {version}; this program reads 1 to {COMPACT_VERSION}"
         )),
-    }
+    }?;
+    Ok((version, origin))
 }
 
 /// The origin text recorded in a checkpoint (see [`OrbitProblem::with_origin`]); `None`
@@ -182,7 +192,9 @@ pub fn checkpoint_origin(path: &Path) -> Result<Option<String>, OrbitError> {
         inner: BufReader::new(file),
         remaining: size.saturating_sub(16),
     };
-    read_origin(&mut r).map_err(|e| io_error(path, e))
+    read_origin(&mut r)
+        .map(|(_, origin)| origin)
+        .map_err(|e| io_error(path, e))
 }
 
 fn io_error(path: &Path, e: impl std::fmt::Display) -> OrbitError {
@@ -220,9 +232,12 @@ impl OrbitProblem {
         orbit: &Orbit,
         w: &mut HashingWriter<W>,
     ) -> std::io::Result<()> {
-        let set = &orbit.set;
+        let version = match orbit.set {
+            LineStore::Memory(_) => VERSION,
+            LineStore::Compact(_) => COMPACT_VERSION,
+        };
         w.put(MAGIC)?;
-        w.put(&VERSION.to_le_bytes())?;
+        w.put(&version.to_le_bytes())?;
         let origin = self.origin.as_deref().unwrap_or("").as_bytes();
         w.put(&(origin.len() as u32).to_le_bytes())?;
         w.put(origin)?;
@@ -235,13 +250,26 @@ impl OrbitProblem {
             w.put(&x.to_le_bytes())?;
         }
         w.put(&self.content_hash().to_le_bytes())?;
-        for x in [set.len(), orbit.processed, orbit.layer_ends.len()] {
+        for x in [orbit.set.len(), orbit.processed, orbit.layer_ends.len()] {
             w.put(&(x as u64).to_le_bytes())?;
         }
         for &e in &orbit.layer_ends {
             w.put(&(e as u64).to_le_bytes())?;
         }
         w.put(&orbit.compute_seconds.to_bits().to_le_bytes())?;
+        let set = match &orbit.set {
+            LineStore::Memory(set) => set,
+            LineStore::Compact(set) => {
+                for &p in &set.parents {
+                    w.put(&p.to_le_bytes())?;
+                }
+                for &g in &set.generators {
+                    let g = if g == u8::MAX { u16::MAX } else { g as u16 };
+                    w.put(&g.to_le_bytes())?;
+                }
+                return Ok(());
+            }
+        };
         w.put(&[set.keys.width() as u8])?;
         w.put(&(set.keys.raw_bytes().len() as u64).to_le_bytes())?;
         w.put(set.keys.raw_bytes())?;
@@ -282,7 +310,7 @@ impl OrbitProblem {
     }
 
     fn read_state<R: Read>(&self, r: &mut BoundedReader<R>) -> Result<Orbit, String> {
-        read_origin(r)?;
+        let (version, _) = read_origin(r)?;
         let header = [r.u32()?, r.u32()?, r.u32()?, r.u32()?];
         let ours = [
             self.generators.conductor,
@@ -319,27 +347,24 @@ impl OrbitProblem {
             return Err("inconsistent layers".into());
         }
         let compute_seconds = f64::from_bits(r.u64()?);
+        if version == COMPACT_VERSION {
+            let (parents, generators) = self.read_records(r, count)?;
+            let set = self
+                .compact_from_records(&parents, &generators, &layer_ends)
+                .map_err(|e| e.to_string())?;
+            return Ok(Orbit {
+                set,
+                processed,
+                layer_ends,
+                stop: None,
+                compute_seconds,
+            });
+        }
         let width = Width::from_bytes(r.u8()?).ok_or("bad numerator width")?;
         let len = self.key_len();
         let arena_len = r.count(u64::MAX, "key arena length")?;
         let bytes = r.take(arena_len)?;
-        let mut parents = Vec::new();
-        for i in 0..count {
-            let p = r.u32()?;
-            if (i == 0) != (p == u32::MAX) || (i > 0 && p as usize >= i) {
-                return Err(format!("element {i}: bad parent {p}"));
-            }
-            parents.push(p);
-        }
-        let gens = self.generators.operators.len();
-        let mut generators = Vec::new();
-        for i in 0..count {
-            let g = r.u16()?;
-            if (i == 0) != (g == u16::MAX) || (i > 0 && g as usize >= gens) {
-                return Err(format!("element {i}: bad generator {g}"));
-            }
-            generators.push(g);
-        }
+        let (parents, generators) = self.read_records(r, count)?;
         let big_count = r.count(count as u64, "big key count")?;
         let mut big = Vec::new();
         for _ in 0..big_count {
@@ -364,15 +389,47 @@ impl OrbitProblem {
         )
         .ok_or("the packed keys do not parse")?;
         let fingerprints = (0..count)
-            .map(|i| self.key_fingerprint(&keys.key(i)))
+            .map(|i| self.key_fingerprint(&keys.key(i), false) as u32)
             .collect();
         Ok(Orbit {
-            set: OrbitSet::from_parts(keys, parents, generators, fingerprints),
+            set: LineStore::Memory(OrbitSet::from_parts(
+                keys,
+                parents,
+                generators,
+                fingerprints,
+            )),
             processed,
             layer_ends,
             stop: None,
             compute_seconds,
         })
+    }
+
+    /// The parents and generators of `count` elements, each checked: the seed has none, every
+    /// other element a parent found before it and a generator of the set.
+    fn read_records<R: Read>(
+        &self,
+        r: &mut BoundedReader<R>,
+        count: usize,
+    ) -> Result<(Vec<u32>, Vec<u16>), String> {
+        let mut parents = Vec::new();
+        for i in 0..count {
+            let p = r.u32()?;
+            if (i == 0) != (p == u32::MAX) || (i > 0 && p as usize >= i) {
+                return Err(format!("element {i}: bad parent {p}"));
+            }
+            parents.push(p);
+        }
+        let gens = self.generators.operators.len();
+        let mut generators = Vec::new();
+        for i in 0..count {
+            let g = r.u16()?;
+            if (i == 0) != (g == u16::MAX) || (i > 0 && g as usize >= gens) {
+                return Err(format!("element {i}: bad generator {g}"));
+            }
+            generators.push(g);
+        }
+        Ok((parents, generators))
     }
 
     /// Read a checkpoint and continue the enumeration it holds.

@@ -22,10 +22,11 @@ use cyclorb_field::Cyc;
 use serde::{Deserialize, Serialize};
 
 use crate::error::{joined, OrbitError};
+use crate::key::KeyNumbers;
 use crate::numerators::Numerators;
 use crate::problem::OrbitProblem;
-use crate::step::{same_key, Candidate, Outcome, Pending, Workspace};
-use crate::store::OrbitSet;
+use crate::set::{Fetched, LineStore, StoreKind};
+use crate::step::{Candidate, Outcome, Pending, Workspace};
 
 /// Where and how often to write checkpoints.
 #[derive(Debug, Clone, PartialEq, Eq)]
@@ -51,6 +52,12 @@ pub struct OrbitOptions {
     pub checkpoint: Option<CheckpointPlan>,
     /// Set (for example by a signal handler) to stop after the current chunk.
     pub stop: Option<Arc<AtomicBool>>,
+    /// The store of a new enumeration ([`OrbitProblem::enumerate`]); a continued orbit keeps
+    /// the store it has.
+    pub store: StoreKind,
+    /// With the compact store: keep the keys of finished layers in files in this directory,
+    /// so that only the layer being built is held in memory (an error with the memory store).
+    pub spill: Option<PathBuf>,
 }
 
 impl Default for OrbitOptions {
@@ -62,6 +69,8 @@ impl Default for OrbitOptions {
             chunk_size: 2048,
             checkpoint: None,
             stop: None,
+            store: StoreKind::Memory,
+            spill: None,
         }
     }
 }
@@ -120,7 +129,7 @@ impl ProgressObserver for Silent {
 /// The lines found, in order, with their Schreier records and layers.
 #[derive(Debug, Clone)]
 pub struct Orbit {
-    pub(crate) set: OrbitSet,
+    pub(crate) set: LineStore,
     pub(crate) processed: usize,
     /// End index of every layer whose extent is known (layer 0 = the seed).
     pub(crate) layer_ends: Vec<usize>,
@@ -181,8 +190,9 @@ impl Orbit {
         let mut word = Vec::new();
         let mut at = index;
         while at < self.set.len() && at != 0 {
-            word.push(self.set.generators[at] as usize);
-            at = self.set.parents[at] as usize;
+            let (parent, generator) = self.set.record(at);
+            word.push(generator);
+            at = parent;
         }
         word.reverse();
         word
@@ -190,10 +200,12 @@ impl Orbit {
 
     /// The Schreier record of element `index`: (parent, generator), `None` for the seed.
     pub fn schreier(&self, index: usize) -> Option<(usize, usize)> {
-        match (self.set.parents.get(index), self.set.generators.get(index)) {
-            (Some(&p), Some(&g)) if index != 0 => Some((p as usize, g as usize)),
-            _ => None,
-        }
+        (index != 0 && index < self.set.len()).then(|| self.set.record(index))
+    }
+
+    /// Which store holds the lines.
+    pub fn store_kind(&self) -> StoreKind {
+        self.set.kind()
     }
 
     /// Bytes held by the store (keys, records, fingerprints, hash table).
@@ -201,19 +213,26 @@ impl Orbit {
         self.set.bytes_used()
     }
 
+    /// Of [`Self::store_bytes`], the bytes of the keys the compact store holds for its window
+    /// of recent layers (0 for the memory store): the rest is what every line costs.
+    pub fn window_bytes(&self) -> usize {
+        self.set.window_bytes()
+    }
+
     /// Store bytes per line.
     pub fn bytes_per_element(&self) -> f64 {
         self.store_bytes() as f64 / self.len().max(1) as f64
     }
 
-    /// Bytes per stored key numerator (1, 2, 4 or 8; big keys are kept apart).
+    /// Bytes per stored key numerator (1, 2, 4 or 8; big keys are kept apart); for the
+    /// compact store, of the keys it still holds.
     pub fn numerator_width(&self) -> usize {
-        self.set.keys.width() as usize
+        self.set.numerator_width()
     }
 
-    /// Number of keys with a numerator beyond `i64` (kept as big integers).
+    /// Number of held keys with a numerator beyond `i64` (kept as big integers).
     pub fn big_keys(&self) -> usize {
-        self.set.keys.big_keys().count()
+        self.set.big_keys()
     }
 
     /// Seconds spent enumerating, over every run that led here (resumed runs included).
@@ -222,7 +241,7 @@ impl Orbit {
     }
 }
 
-fn split(range: Range<usize>, parts: usize) -> Vec<Range<usize>> {
+pub(crate) fn split(range: Range<usize>, parts: usize) -> Vec<Range<usize>> {
     let len = range.len();
     let parts = parts.clamp(1, len.max(1));
     (0..parts)
@@ -231,11 +250,18 @@ fn split(range: Range<usize>, parts: usize) -> Vec<Range<usize>> {
 }
 
 impl OrbitProblem {
-    /// The orbit with only the seed's line, nothing processed.
+    /// The orbit with only the seed's line, nothing processed, in the memory store.
     pub fn start(&self) -> Orbit {
-        let mut set = OrbitSet::new(self.dimension(), self.kernel.degree());
-        let fp = self.key_fingerprint(&self.seed_key);
+        self.start_in(StoreKind::Memory)
+    }
+
+    /// The orbit with only the seed's line, nothing processed, in the given store.
+    pub fn start_in(&self, kind: StoreKind) -> Orbit {
+        let mut set = LineStore::new(kind, self.dimension(), self.kernel.degree());
+        let fp = self.key_fingerprint(&self.seed_key, set.wide());
         set.insert(&self.seed_key, fp, u32::MAX, u16::MAX);
+        // a new layer of the memory store or of an empty window cannot fail
+        let _ = set.open_layer(1);
         Orbit {
             set,
             processed: 0,
@@ -251,7 +277,7 @@ impl OrbitProblem {
         options: &OrbitOptions,
         observer: &mut dyn ProgressObserver,
     ) -> Result<Orbit, OrbitError> {
-        self.extend(self.start(), options, observer)
+        self.extend(self.start_in(options.store), options, observer)
     }
 
     /// Continue a partial orbit (from a run that stopped, or from [`Self::resume`]) until it
@@ -267,6 +293,16 @@ impl OrbitProblem {
         let found_before = orbit.len();
         let mut last_checkpoint = Instant::now();
         orbit.stop = None;
+        if orbit.set.kind() == StoreKind::Compact && self.generators.operators.len() > 255 {
+            return Err(OrbitError::Invalid(format!(
+                "the compact store records a generator in one byte; {} generators need \
+                 the memory store",
+                self.generators.operators.len()
+            )));
+        }
+        if let Some(dir) = &options.spill {
+            orbit.set.spill_to(dir)?;
+        }
         let threads = options.threads.max(1);
         let mut workspaces: Vec<Workspace> = (0..threads).map(|_| Workspace::new(self)).collect();
         let chunk_size = options.chunk_size.max(1);
@@ -277,6 +313,7 @@ impl OrbitProblem {
                     break;
                 }
                 orbit.layer_ends.push(orbit.set.len());
+                orbit.set.open_layer(orbit.set.len())?;
                 continue;
             }
             if let Some(reason) = self.should_stop(&orbit, options) {
@@ -285,7 +322,7 @@ impl OrbitProblem {
             }
             let chunk = orbit.processed..end.min(orbit.processed + chunk_size);
             let candidates = self.expand_chunk(&orbit.set, chunk.clone(), &mut workspaces)?;
-            if !self.insert_candidates(&mut orbit.set, candidates, options.limit) {
+            if !self.insert_candidates(&mut orbit.set, candidates, options.limit)? {
                 orbit.stop = Some(StopReason::Limit);
                 break;
             }
@@ -339,7 +376,7 @@ impl OrbitProblem {
     /// order, computed on as many threads as there are workspaces.
     fn expand_chunk(
         &self,
-        set: &OrbitSet,
+        set: &LineStore,
         chunk: Range<usize>,
         workspaces: &mut [Workspace],
     ) -> Result<Vec<Candidate>, OrbitError> {
@@ -374,13 +411,13 @@ impl OrbitProblem {
 
     fn expand_range(
         &self,
-        set: &OrbitSet,
+        set: &LineStore,
         range: Range<usize>,
         ws: &mut Workspace,
     ) -> Result<Vec<Candidate>, OrbitError> {
         let mut pending = Pending::default();
         for element in range {
-            ws.load(set, element);
+            ws.load(self, set, element)?;
             for generator in 0..self.generators.operators.len() {
                 if let Outcome::New { key, fingerprint } =
                     self.classify(set, &pending, ws, generator)?
@@ -411,6 +448,14 @@ impl OrbitProblem {
                 "induced permutations need a saturated orbit".into(),
             ));
         }
+        let materialised;
+        let orbit = match orbit.set.kind() {
+            StoreKind::Memory => orbit,
+            StoreKind::Compact => {
+                materialised = self.materialise(orbit, threads)?;
+                &materialised
+            }
+        };
         let generators = self.generators.operators.len();
         let parts = split(0..orbit.len(), threads.max(1));
         let images_of = |range: Range<usize>| -> Result<Vec<u32>, OrbitError> {
@@ -418,7 +463,7 @@ impl OrbitProblem {
             let pending = Pending::default();
             let mut images = Vec::with_capacity(range.len() * generators);
             for element in range {
-                ws.load(&orbit.set, element);
+                ws.load(self, &orbit.set, element)?;
                 for generator in 0..generators {
                     match self.classify(&orbit.set, &pending, &mut ws, generator)? {
                         Outcome::Known(Some(index)) => images.push(index),
@@ -458,24 +503,24 @@ impl OrbitProblem {
     /// Insert the candidates that are still new, in order; `false` when the limit stopped it.
     fn insert_candidates(
         &self,
-        set: &mut OrbitSet,
+        set: &mut LineStore,
         candidates: Vec<Candidate>,
         limit: Option<usize>,
-    ) -> bool {
+    ) -> Result<bool, OrbitError> {
         let mut buf = Numerators::new(self.key_len());
         for c in candidates {
-            let present = set
-                .find(c.fingerprint, |i| same_key(set, &mut buf, i, &c.key))
-                .is_some();
-            if present {
+            if self
+                .find_key(set, &mut buf, c.fingerprint, &c.key)?
+                .is_some()
+            {
                 continue;
             }
             if limit.is_some_and(|l| set.len() >= l) {
-                return false;
+                return Ok(false);
             }
             set.insert(&c.key, c.fingerprint, c.parent, c.generator);
         }
-        true
+        Ok(true)
     }
 
     /// The key of element `index` as a vector of field elements (first non-zero entry 1).
@@ -486,11 +531,12 @@ impl OrbitProblem {
                 orbit.len()
             )));
         }
-        Ok(orbit
-            .set
-            .keys
-            .key(index)
-            .to_line(&self.field, self.kernel.degree())?)
+        let mut buf = Numerators::new(self.key_len());
+        let key = match self.fetch(&orbit.set, index, &mut buf)? {
+            Fetched::Small => KeyNumbers::Small(buf.dense),
+            Fetched::Big(b) => KeyNumbers::Big(b.into_owned()),
+        };
+        Ok(key.to_line(&self.field, self.kernel.degree())?)
     }
 
     /// The word of element `index` as generator names, in the order they are applied.

@@ -15,6 +15,12 @@
 //!   denominators are products of small primes), w_i is 𝔭-integral exactly when
 //!   S_i(ζ̂) ≡ 0 (mod p^e), e = v_p(D), where ζ̂ ∈ Z_p is the p-adic n-th root of unity
 //!   lifting r (Hensel); then red(w_i) = (S_i(ζ̂)/p^e)·(D/p^e)⁻¹ mod p.
+//!
+//! A second value F′ = Σ_i g_i red(w_i) with independent weights g_i shares the one
+//! inversion of red(U_k) (or of D); the pair (F, F′), 62 bits, is the wide fingerprint the
+//! compact store keeps. Two lines whose reductions mod 𝔭 differ share it with probability
+//! about p⁻² over the weights; a shared value costs a recomputation of the stored line, never
+//! a wrong answer: equality is still decided exactly.
 
 use cyclorb_field::{CyclotomicField, PrimeReduction};
 use num_bigint::BigInt;
@@ -31,10 +37,10 @@ pub(crate) struct Fingerprinter {
     n: u64,
     p: u64,
     root: u64,
-    /// h_i r^t mod p for all d·φ numerators.
-    weights: Vec<u64>,
-    /// h_i mod p.
-    block_weights: Vec<u64>,
+    /// (h_i r^t, g_i r^t) mod p for all d·φ numerators.
+    weights: Vec<[u64; 2]>,
+    /// (h_i, g_i) mod p.
+    block_weights: Vec<[u64; 2]>,
     /// r^t mod p for t < φ.
     powers: Vec<u64>,
 }
@@ -72,10 +78,14 @@ impl Fingerprinter {
             x = x * root % p;
         }
         let mut state = 0x6379_636C_6F72_6221u64;
-        let block_weights: Vec<u64> = (0..dim).map(|_| splitmix(&mut state) % p).collect();
-        let weights = block_weights
+        let mut draw = |_| splitmix(&mut state) % p;
+        let first: Vec<u64> = (0..dim).map(&mut draw).collect();
+        let second: Vec<u64> = (0..dim).map(&mut draw).collect();
+        // both forms' weights of numerator (i, t), side by side
+        let weights = first
             .iter()
-            .flat_map(|&h| powers.iter().map(move |&r| h * r % p))
+            .zip(&second)
+            .flat_map(|(&h, &g)| powers.iter().map(move |&r| [h * r % p, g * r % p]))
             .collect();
         Ok(Fingerprinter {
             phi,
@@ -83,14 +93,25 @@ impl Fingerprinter {
             p,
             root,
             weights,
-            block_weights,
+            block_weights: first.into_iter().zip(second).map(|(h, g)| [h, g]).collect(),
             powers,
         })
     }
 
+    /// The two values (F, F') as one number: F in the low 32 bits, F' above it when `wide`.
+    fn join(&self, s: [u64; 2], inverse: u64, wide: bool) -> u64 {
+        let p = self.p;
+        let low = s[0] * inverse % p;
+        if wide {
+            low | (s[1] * inverse % p) << 32
+        } else {
+            low
+        }
+    }
+
     /// The fingerprint of the line through `u` (first non-zero block k), or `None` when
-    /// red(u_k) = 0 (then use [`Self::of_key`]).
-    pub(crate) fn of_representative(&self, u: &Numerators, k: usize) -> Option<u32> {
+    /// red(u_k) = 0 (then use [`Self::of_key`]); the second form only when `wide`.
+    pub(crate) fn of_representative(&self, u: &Numerators, k: usize, wide: bool) -> Option<u64> {
         let p = self.p as i128;
         let lead = &u.dense[k * self.phi..(k + 1) * self.phi];
         let mut a = 0i128;
@@ -101,33 +122,55 @@ impl Fingerprinter {
         if a == 0 {
             return None;
         }
-        let mut s = 0i128;
-        for &i in &u.nonzero {
-            s += self.weights[i as usize] as i128 * u.dense[i as usize] as i128;
+        let (mut s, mut t) = (0i128, 0i128);
+        if wide {
+            for &i in &u.nonzero {
+                let [h, g] = self.weights[i as usize];
+                let x = u.dense[i as usize] as i128;
+                s += h as i128 * x;
+                t += g as i128 * x;
+            }
+        } else {
+            for &i in &u.nonzero {
+                s += self.weights[i as usize][0] as i128 * u.dense[i as usize] as i128;
+            }
         }
-        let s = s.rem_euclid(p) as u64;
-        Some((s * inverse_mod(a, self.p) % self.p) as u32)
+        let sums = [s.rem_euclid(p) as u64, t.rem_euclid(p) as u64];
+        Some(self.join(sums, inverse_mod(a, self.p), wide))
     }
 
     /// The fingerprint of a line from its key (first non-zero block k).
-    pub(crate) fn of_key(&self, key: &KeyNumbers, k: usize) -> u32 {
+    pub(crate) fn of_key(&self, key: &KeyNumbers, k: usize, wide: bool) -> u64 {
         let p = self.p;
         match key {
             KeyNumbers::Small(v) if v[k * self.phi] % p as i64 != 0 => {
-                let mut s = 0i128;
-                for (&w, &x) in self.weights.iter().zip(v) {
-                    s += w as i128 * x as i128;
+                let (mut s, mut t) = (0i128, 0i128);
+                for (&[h, g], &x) in self.weights.iter().zip(v) {
+                    s += h as i128 * x as i128;
+                    t += g as i128 * x as i128;
                 }
-                let s = s.rem_euclid(p as i128) as u64;
+                let sums = [
+                    s.rem_euclid(p as i128) as u64,
+                    t.rem_euclid(p as i128) as u64,
+                ];
                 let d = v[k * self.phi].rem_euclid(p as i64) as u64;
-                (s * inverse_mod(d, p) % p) as u32
+                self.join(sums, inverse_mod(d, p), wide)
             }
-            _ => self.of_big_key(&key.to_big(), k),
+            _ => {
+                // already normalised; the sentinel p (not 𝔭-integral) is kept as it is
+                let [f, g] = self.of_big_key(&key.to_big(), k);
+                if wide {
+                    f | g << 32
+                } else {
+                    f
+                }
+            }
         }
     }
 
-    /// The general formula, with the p-adic route when p divides the denominator.
-    fn of_big_key(&self, v: &[BigInt], k: usize) -> u32 {
+    /// The general formula, with the p-adic route when p divides the denominator: both
+    /// forms, already normalised.
+    fn of_big_key(&self, v: &[BigInt], k: usize) -> [u64; 2] {
         let p = BigInt::from(self.p);
         let mut rest = v[k * self.phi].clone();
         let mut e = 0u32;
@@ -139,8 +182,8 @@ impl Fingerprinter {
         let lift = self.teichmuller_lift(&modulus);
         let scale = p.pow(e);
         let rest_inverse = inverse_mod(rest.mod_floor(&p).to_u64().unwrap_or(0), self.p);
-        let mut f = 0u128;
-        for (block, &h) in v.chunks(self.phi).zip(&self.block_weights) {
+        let mut f = [0u128; 2];
+        for (block, weights) in v.chunks(self.phi).zip(&self.block_weights) {
             // S_i(ζ̂) mod p^{e+1}
             let mut value = BigInt::zero();
             let mut power = BigInt::one();
@@ -149,13 +192,15 @@ impl Fingerprinter {
                 power = (power * &lift).mod_floor(&modulus);
             }
             if !(&value % &scale).is_zero() {
-                return self.p as u32;
+                return [self.p; 2];
             }
             let reduced = (value / &scale).mod_floor(&p).to_u64().unwrap_or(0);
             let wi = reduced as u128 * rest_inverse as u128 % self.p as u128;
-            f = (f + h as u128 * wi) % self.p as u128;
+            for (acc, &h) in f.iter_mut().zip(weights) {
+                *acc = (*acc + h as u128 * wi) % self.p as u128;
+            }
         }
-        f as u32
+        f.map(|x| x as u64)
     }
 
     /// The n-th root of unity of Z_p congruent to r, modulo `modulus` (a power of p), by
@@ -182,8 +227,8 @@ impl Fingerprinter {
 }
 
 /// The hash-table hash of a fingerprint (spreads the bits hashbrown reads).
-pub(crate) fn bucket_hash(fingerprint: u32) -> u64 {
-    let x = (fingerprint as u64 | 1 << 40).wrapping_mul(0x9E37_79B9_7F4A_7C15);
+pub(crate) fn bucket_hash(fingerprint: u64) -> u64 {
+    let x = (fingerprint | 1 << 40).wrapping_mul(0x9E37_79B9_7F4A_7C15);
     x ^ (x >> 29)
 }
 
@@ -216,12 +261,16 @@ mod tests {
             let key =
                 key_of_integer_vector(&f, &kernel, &mut Normaliser::default(), &u, 1).unwrap();
             assert_eq!(key, KeyNumbers::of_line(&f, &v).unwrap().unwrap());
-            let from_rep = fp.of_representative(&u, 1).unwrap();
-            assert_eq!(from_rep, fp.of_key(&key, 1), "n={n}");
-            // the p-adic route gives the same value as the plain one when p ∤ D
-            assert_eq!(fp.of_big_key(&key.to_big(), 1), from_rep, "n={n}");
+            let from_rep = fp.of_representative(&u, 1, true).unwrap();
+            assert_eq!(from_rep, fp.of_key(&key, 1, true), "n={n}");
+            let narrow = fp.of_representative(&u, 1, false).unwrap();
+            assert_eq!(narrow, from_rep & 0xFFFF_FFFF);
+            assert_eq!(narrow, fp.of_key(&key, 1, false));
+            // the p-adic route gives the same values as the plain one when p ∤ D
+            let [a, b] = fp.of_big_key(&key.to_big(), 1);
+            assert_eq!(a | b << 32, from_rep, "n={n}");
             let other = numerators(&f, &["0", "3 + z", "1 + 2*z^2"]);
-            assert_ne!(fp.of_representative(&other, 1).unwrap(), from_rep);
+            assert_ne!(fp.of_representative(&other, 1, true).unwrap(), from_rep);
         }
     }
 
@@ -248,10 +297,10 @@ mod tests {
             .flat_map(|x| x.small_parts().unwrap().0.to_vec())
             .collect();
         assert_eq!(u.dense, expect);
-        let via_representative = fp.of_representative(&u, 0).unwrap();
-        assert_eq!(fp.of_key(&key, 0), via_representative);
+        let via_representative = fp.of_representative(&u, 0, true).unwrap();
+        assert_eq!(fp.of_key(&key, 0, true), via_representative);
         // a key that is not 𝔭-integral gets the sentinel: w = (1, 1/p)
         let key = KeyNumbers::Small(vec![p, 0, 1, 0]);
-        assert_eq!(fp.of_key(&key, 0), fp.p as u32);
+        assert_eq!(fp.of_key(&key, 0, false), fp.p);
     }
 }

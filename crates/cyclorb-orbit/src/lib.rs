@@ -66,7 +66,10 @@
 //! and coefficients, then the coefficients at 1, 2, 4 or 8 bytes) in one flat arena. The
 //! frontier is split over threads; insertion is sequential in a fixed order, so results do
 //! not depend on the thread count. Ising at genus 3 (8 847 360 lines of Q(ζ16)^36) stores
-//! about 90 bytes per line.
+//! about 90 bytes per line in the memory store and about 19 in the compact store
+//! ([`StoreKind`]: Schreier records, 62-bit fingerprints and the keys of the last five
+//! layers, older lines recomputed from their words on a fingerprint match; finished layers'
+//! keys can spill to files, [`OrbitOptions::spill`]); docs/orbits.md §6.
 //!
 //! ## Untrusted input
 //! Generator-set and seed files are read with errors naming the file, the JSON path and the
@@ -78,6 +81,7 @@
 mod checkpoint;
 pub use checkpoint::checkpoint_origin;
 mod commutant;
+mod compact;
 mod compiled;
 mod engine;
 mod error;
@@ -91,8 +95,11 @@ mod pairs;
 mod poincare;
 mod poly;
 mod problem;
+mod regenerate;
 mod report;
+mod set;
 mod sparse;
+mod spill;
 mod step;
 mod store;
 mod sum;
@@ -109,3 +116,4 @@ pub use pairs::{pair_orbit, PairOrbit};
 pub use poincare::PoincareSum;
 pub use problem::OrbitProblem;
 pub use report::{InvariantReport, LabelledEntry, ModularInvariantReport, PoincareReport};
+pub use set::StoreKind;

@@ -21,6 +21,8 @@ use crate::commutant::{decompose, Decomposition};
 use crate::engine::Orbit;
 use crate::error::OrbitError;
 use crate::problem::OrbitProblem;
+use crate::regenerate::layer_ranges;
+use crate::set::LineStore;
 use crate::sum::sum_matrix;
 
 /// The Poincaré sum of a saturated orbit and what it says.
@@ -72,7 +74,26 @@ impl OrbitProblem {
         let field = &self.field;
         let g = self.generators.form_diagonal(field);
         let norm = self.form_norm(&self.seed, &g)?;
-        let b = sum_matrix(self, orbit, threads, &g, &norm, None)?;
+        let b = match &orbit.set {
+            LineStore::Memory(set) => sum_matrix(self, &set.keys, threads, &g, &norm, None)?,
+            LineStore::Compact(_) => {
+                // the lines again, layer by layer, each layer's part of B added exactly
+                let mut b = Matrix::zeros(field, self.dimension(), self.dimension());
+                let store = &orbit.set;
+                let records = |i: usize| store.record(i);
+                let ranges = layer_ranges(&orbit.layer_ends, orbit.len());
+                let spill = match store {
+                    LineStore::Compact(set) => set.spill_dir(),
+                    LineStore::Memory(_) => None,
+                };
+                self.regenerate(&records, &ranges, threads, spill, |_, keys| {
+                    let part = sum_matrix(self, keys, threads, &g, &norm, None)?;
+                    b = b.add(field, &part)?;
+                    Ok(())
+                })?;
+                b
+            }
+        };
         let d = self.dimension();
         let size = orbit.len();
         let trace = field.dot((0..d).map(|i| (b.get(i, i), &g[i])))?;
@@ -163,8 +184,11 @@ mod tests {
             .unwrap();
         let g = vec![f.one(); 3];
         let norm = f.one();
-        let roomy = sum_matrix(&problem, &orbit, 1, &g, &norm, None).unwrap();
-        let tight = sum_matrix(&problem, &orbit, 2, &g, &norm, Some(1)).unwrap();
+        let LineStore::Memory(set) = &orbit.set else {
+            panic!("a memory orbit")
+        };
+        let roomy = sum_matrix(&problem, &set.keys, 1, &g, &norm, None).unwrap();
+        let tight = sum_matrix(&problem, &set.keys, 2, &g, &norm, Some(1)).unwrap();
         assert_eq!(tight, roomy);
         assert_eq!(roomy, Matrix::identity(&f, 3).scale(&f, &f.int(8)).unwrap());
     }

@@ -22,7 +22,7 @@ pub struct OrbitProblem {
     pub(crate) kernel: PolyKernel,
     /// Each generator as an integer matrix on numerators (`None`: exact `Cyc` arithmetic).
     pub(crate) compiled: Vec<Option<CompiledOperator>>,
-    pub(crate) fingerprinter: Fingerprinter,
+    pub(crate) fingerprints: Fingerprinter,
     pub(crate) seed_key: KeyNumbers,
     /// For each numerator position i·φ + t: its block i and its slot t (no division in the
     /// hot loops).
@@ -57,7 +57,7 @@ impl OrbitProblem {
             .iter()
             .map(|op| CompiledOperator::compile(&field, &kernel, op))
             .collect();
-        let fingerprinter =
+        let fingerprints =
             Fingerprinter::new(&field, generators.dimension).map_err(OrbitError::Arithmetic)?;
         let content_hash = content_hash(&generators, &seed);
         let phi = kernel.degree();
@@ -70,7 +70,7 @@ impl OrbitProblem {
             seed,
             kernel,
             compiled,
-            fingerprinter,
+            fingerprints,
             seed_key,
             block_of,
             slot_of,

@@ -15,6 +15,8 @@
 //! Lines are looked up in the store and then among the new lines already found by the same
 //! worker ([`Pending`]), so a worker normalises each new line once.
 
+use std::borrow::Cow;
+
 use cyclorb_field::Cyc;
 use cyclorb_matrix::LinearMap;
 use hashbrown::HashTable;
@@ -26,14 +28,15 @@ use crate::fingerprint::bucket_hash;
 use crate::key::{first_nonzero_block, key_of_integer_vector, KeyNumbers, Normaliser};
 use crate::numerators::Numerators;
 use crate::problem::OrbitProblem;
-use crate::store::{OrbitSet, StoredKey};
+use crate::set::{Fetched, LineStore};
+use crate::store::{KeyArena, StoredKey};
 
 /// What an image turned out to be.
 pub(crate) enum Outcome {
     /// Already stored (with its index), or already found by this worker (`None`).
     Known(Option<u32>),
     /// New: its key and fingerprint.
-    New { key: KeyNumbers, fingerprint: u32 },
+    New { key: KeyNumbers, fingerprint: u64 },
 }
 
 /// A new line found while processing a chunk.
@@ -42,7 +45,7 @@ pub(crate) struct Candidate {
     pub(crate) parent: u32,
     pub(crate) generator: u16,
     pub(crate) key: KeyNumbers,
-    pub(crate) fingerprint: u32,
+    pub(crate) fingerprint: u64,
 }
 
 /// The non-zero positions and largest |numerator| of a pending machine-word key.
@@ -90,7 +93,7 @@ impl Pending {
         self.list.push(candidate);
     }
 
-    fn find(&self, fingerprint: u32, mut same: impl FnMut(&KeyNumbers, &Support) -> bool) -> bool {
+    fn find(&self, fingerprint: u64, mut same: impl FnMut(&KeyNumbers, &Support) -> bool) -> bool {
         self.table
             .find(bucket_hash(fingerprint), |&i| {
                 let c = &self.list[i as usize];
@@ -154,16 +157,54 @@ impl Workspace {
     }
 
     /// Make element `index` of `set` the source of the next images.
-    pub(crate) fn load(&mut self, set: &OrbitSet, index: usize) {
+    pub(crate) fn load(
+        &mut self,
+        problem: &OrbitProblem,
+        set: &LineStore,
+        index: usize,
+    ) -> Result<(), OrbitError> {
+        let fetched = problem.fetch(set, index, &mut self.source)?;
+        self.take_source(fetched);
+        Ok(())
+    }
+
+    /// Make key j of `keys` (in memory or spilled) the source of the next images.
+    pub(crate) fn load_stored(&mut self, keys: &KeyArena, j: usize) -> Result<(), String> {
+        let fetched = match keys.get_spilled(j, &mut self.source)? {
+            StoredKey::Small => Fetched::Small,
+            StoredKey::Big(b) => Fetched::Big(Cow::Borrowed(b)),
+        };
+        self.take_source(fetched);
+        Ok(())
+    }
+
+    /// The source is now the key just read: in `source` when small, else these numbers.
+    fn take_source(&mut self, fetched: Fetched<'_>) {
         self.source_line = None;
-        match set.keys.get(index, &mut self.source) {
-            StoredKey::Small => {
+        self.source_is_small = matches!(fetched, Fetched::Small);
+        self.source_key = match fetched {
+            Fetched::Small => None,
+            Fetched::Big(b) => Some(KeyNumbers::Big(b.into_owned())),
+        };
+    }
+
+    /// Make a key the source of the next images.
+    pub(crate) fn load_key(&mut self, key: &KeyNumbers) {
+        self.source_line = None;
+        match key {
+            KeyNumbers::Small(v) => {
+                self.source.clear();
+                for (at, &x) in v.iter().enumerate() {
+                    if x != 0 {
+                        self.source.push(at, x);
+                    }
+                }
                 self.source_is_small = true;
                 self.source_key = None;
             }
-            StoredKey::Big(b) => {
+            KeyNumbers::Big(_) => {
                 self.source_is_small = false;
-                self.source_key = Some(KeyNumbers::Big(b.to_vec()));
+                self.source_key = Some(key.clone());
             }
         }
     }
@@ -251,7 +292,7 @@ impl OrbitProblem {
     /// worker's `pending` new lines.
     pub(crate) fn classify(
         &self,
-        set: &OrbitSet,
+        set: &LineStore,
         pending: &Pending,
         ws: &mut Workspace,
         generator: usize,
@@ -268,7 +309,8 @@ impl OrbitProblem {
             .first_block(ws.phi)
             .ok_or_else(|| singular(self, generator))?;
         ws.lead_state = 0;
-        let Some(fingerprint) = self.fingerprinter.of_representative(&ws.image, k) else {
+        let wide = set.wide();
+        let Some(fingerprint) = self.fingerprints.of_representative(&ws.image, k, wide) else {
             let key =
                 key_of_integer_vector(&self.field, &self.kernel, &mut ws.normaliser, &ws.image, k)?;
             return self.lookup_key(set, pending, ws, key);
@@ -299,7 +341,7 @@ impl OrbitProblem {
     /// Exact path: apply in `Cyc` arithmetic, normalise, look up by key.
     fn classify_exact(
         &self,
-        set: &OrbitSet,
+        set: &LineStore,
         pending: &Pending,
         ws: &mut Workspace,
         generator: usize,
@@ -314,14 +356,13 @@ impl OrbitProblem {
     /// Look a key up in the store and among the pending lines.
     fn lookup_key(
         &self,
-        set: &OrbitSet,
+        set: &LineStore,
         pending: &Pending,
         ws: &mut Workspace,
         key: KeyNumbers,
     ) -> Result<Outcome, OrbitError> {
-        let fingerprint = self.key_fingerprint(&key);
-        let buf = &mut ws.stored;
-        let stored = set.find(fingerprint, |i| same_key(set, buf, i, &key));
+        let fingerprint = self.key_fingerprint(&key, set.wide());
+        let stored = self.find_key(set, &mut ws.stored, fingerprint, &key)?;
         let known = stored.is_some() || pending.find(fingerprint, |other, _| *other == key);
         Ok(if known {
             Outcome::Known(stored)
@@ -330,26 +371,83 @@ impl OrbitProblem {
         })
     }
 
-    /// The fingerprint of a key.
-    pub(crate) fn key_fingerprint(&self, key: &KeyNumbers) -> u32 {
+    /// The fingerprint of a key (62 bits when `wide`, else 31).
+    pub(crate) fn key_fingerprint(&self, key: &KeyNumbers, wide: bool) -> u64 {
         let k = match key {
             KeyNumbers::Small(s) => first_nonzero_block(s, self.kernel.degree()),
             KeyNumbers::Big(b) => first_nonzero_block(b, self.kernel.degree()),
         };
-        self.fingerprinter.of_key(key, k.unwrap_or(0))
+        self.fingerprints.of_key(key, k.unwrap_or(0), wide)
+    }
+
+    /// The stored element with exactly this key.
+    pub(crate) fn find_key(
+        &self,
+        set: &LineStore,
+        buf: &mut Numerators,
+        fingerprint: u64,
+        key: &KeyNumbers,
+    ) -> Result<Option<u32>, OrbitError> {
+        let mut failure = None;
+        let found = set.find(fingerprint, |i| {
+            let same = match (self.fetch(set, i, buf), key) {
+                (Ok(Fetched::Small), KeyNumbers::Small(k)) => Ok(buf.dense == *k),
+                (Ok(Fetched::Big(b)), KeyNumbers::Big(k)) => Ok(*b == *k.as_slice()),
+                // canonical keys are small exactly when every numerator fits an i64
+                (Ok(_), _) => Ok(false),
+                (Err(e), _) => Err(e),
+            };
+            same.unwrap_or_else(|e| {
+                failure = Some(e);
+                false
+            })
+        });
+        match failure {
+            Some(e) => Err(e),
+            None => Ok(found),
+        }
+    }
+
+    /// The key of the image of the workspace's source under `generator`.
+    pub(crate) fn image_key(
+        &self,
+        ws: &mut Workspace,
+        generator: usize,
+    ) -> Result<KeyNumbers, OrbitError> {
+        let applied = match (&self.compiled[generator], ws.source_is_small) {
+            (Some(op), true) => op.apply(&ws.source, &mut ws.wide, &mut ws.touched),
+            _ => false,
+        };
+        if applied && ws.take_image() {
+            let k = ws
+                .image
+                .first_block(ws.phi)
+                .ok_or_else(|| singular(self, generator))?;
+            return Ok(key_of_integer_vector(
+                &self.field,
+                &self.kernel,
+                &mut ws.normaliser,
+                &ws.image,
+                k,
+            )?);
+        }
+        let line = ws.source_line(self)?;
+        let image = self.generators.operators[generator].apply(&self.field, line)?;
+        KeyNumbers::of_line(&self.field, &image)?.ok_or_else(|| singular(self, generator))
     }
 
     /// Whether stored element i is the line of the workspace image (first block k).
     fn same_as_stored(
         &self,
-        set: &OrbitSet,
+        set: &LineStore,
         ws: &mut Workspace,
         i: usize,
         k: usize,
     ) -> Result<bool, OrbitError> {
         let mut stored = std::mem::replace(&mut ws.stored, Numerators::new(0));
-        let result = match set.keys.get(i, &mut stored) {
-            StoredKey::Small => {
+        let result = match self.fetch(set, i, &mut stored) {
+            Err(e) => Err(e),
+            Ok(Fetched::Small) => {
                 match self.image_matches(ws, &stored.dense, &stored.nonzero, stored.max, k) {
                     Some(same) => Ok(same),
                     None => {
@@ -357,7 +455,9 @@ impl OrbitProblem {
                     }
                 }
             }
-            StoredKey::Big(b) => self.same_line_exact(&ws.image, &KeyNumbers::Big(b.to_vec())),
+            Ok(Fetched::Big(b)) => {
+                self.same_line_exact(&ws.image, &KeyNumbers::Big(b.into_owned()))
+            }
         };
         ws.stored = stored;
         result
@@ -466,16 +566,6 @@ impl OrbitProblem {
             }
         }
         Ok(true)
-    }
-}
-
-/// Whether stored element i has exactly these key numbers.
-pub(crate) fn same_key(set: &OrbitSet, buf: &mut Numerators, i: usize, key: &KeyNumbers) -> bool {
-    match (set.keys.get(i, buf), key) {
-        (StoredKey::Small, KeyNumbers::Small(k)) => buf.dense == *k,
-        (StoredKey::Big(b), KeyNumbers::Big(k)) => b == k.as_slice(),
-        // canonical keys are small exactly when every numerator fits an i64
-        _ => false,
     }
 }
 

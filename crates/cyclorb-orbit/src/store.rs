@@ -13,12 +13,16 @@
 //! store stays close to its payload. A table slot holds an element index and its 32-bit
 //! fingerprint, so a probe compares fingerprints before it touches a key.
 
+use std::path::Path;
+use std::sync::Arc;
+
 use hashbrown::{HashMap, HashTable};
 use num_bigint::BigInt;
 
 use crate::fingerprint::bucket_hash;
 use crate::key::KeyNumbers;
 use crate::numerators::Numerators;
+use crate::spill::SpillFile;
 
 /// Bytes per stored numerator.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord)]
@@ -90,6 +94,8 @@ pub(crate) struct KeyArena {
     /// Estimated heap bytes of `big`, kept as keys are added so that the size is known in
     /// constant time (it is read after every chunk).
     big_bytes: usize,
+    /// The encoded keys when they were moved to a file (`bytes` is then empty).
+    spilled: Option<Arc<SpillFile>>,
 }
 
 /// Estimated heap bytes of one big key.
@@ -112,11 +118,46 @@ impl KeyArena {
             shift,
             big: HashMap::new(),
             big_bytes: 0,
+            spilled: None,
         }
     }
 
+    /// Move the encoded keys to a file in `dir` (the arena is finished: keys are no longer
+    /// added); they are read back one key at a time.
+    pub(crate) fn spill(&mut self, dir: &Path) -> std::io::Result<()> {
+        if self.spilled.is_none() {
+            self.spilled = Some(Arc::new(SpillFile::write(dir, &self.bytes)?));
+            self.bytes = Vec::new();
+        }
+        Ok(())
+    }
+
+    /// Key i, reading it from the file when the keys were spilled.
+    pub(crate) fn get_spilled<'a>(
+        &'a self,
+        i: usize,
+        out: &mut Numerators,
+    ) -> Result<StoredKey<'a>, String> {
+        let Some(file) = &self.spilled else {
+            return Ok(self.get(i, out));
+        };
+        if let Some(k) = self.big.get(&(i as u32)) {
+            return Ok(StoredKey::Big(k));
+        }
+        let end = if i + 1 < self.len() {
+            self.start(i + 1)
+        } else {
+            file.len()
+        };
+        let mut bytes = Vec::new();
+        file.read(self.start(i), end, &mut bytes)
+            .map_err(|e| format!("{}: {e}", file.path().display()))?;
+        self.decode_bytes(&bytes, out);
+        Ok(StoredKey::Small)
+    }
+
     /// Number of keys.
-    fn len(&self) -> usize {
+    pub(crate) fn len(&self) -> usize {
         self.offsets.len()
     }
 
@@ -255,6 +296,7 @@ impl KeyArena {
             offsets: Vec::with_capacity(self.offsets.len()),
             bases: Vec::new(),
             big: HashMap::new(),
+            spilled: None,
             ..*self
         };
         for i in 0..self.len() {
@@ -277,8 +319,12 @@ impl KeyArena {
 
     /// Key i into `out` (which must be the zero vector or hold a previous key).
     fn decode_small(&self, i: usize, out: &mut Numerators) {
+        self.decode_bytes(&self.bytes[self.start(i)..], out);
+    }
+
+    /// The key encoded at the start of `bytes` into `out`.
+    fn decode_bytes(&self, bytes: &[u8], out: &mut Numerators) {
         out.clear();
-        let bytes = &self.bytes[self.start(i)..];
         let mask_len = self.blocks.div_ceil(8);
         let coefficient_mask = self.phi.div_ceil(8);
         let w = self.width as usize;
@@ -406,8 +452,8 @@ impl OrbitSet {
                 index: i as u32,
                 fingerprint,
             };
-            table.insert_unique(bucket_hash(fingerprint), slot, |s| {
-                bucket_hash(s.fingerprint)
+            table.insert_unique(bucket_hash(fingerprint as u64), slot, |s| {
+                bucket_hash(s.fingerprint as u64)
             });
         }
         OrbitSet {
@@ -430,7 +476,7 @@ impl OrbitSet {
         mut same: impl FnMut(usize) -> bool,
     ) -> Option<u32> {
         self.table
-            .find(bucket_hash(fingerprint), |s| {
+            .find(bucket_hash(fingerprint as u64), |s| {
                 s.fingerprint == fingerprint && same(s.index as usize)
             })
             .map(|s| s.index)
@@ -452,8 +498,8 @@ impl OrbitSet {
         self.generators.push(generator);
         let slot = Slot { index, fingerprint };
         self.table
-            .insert_unique(bucket_hash(fingerprint), slot, |s| {
-                bucket_hash(s.fingerprint)
+            .insert_unique(bucket_hash(fingerprint as u64), slot, |s| {
+                bucket_hash(s.fingerprint as u64)
             });
     }
 

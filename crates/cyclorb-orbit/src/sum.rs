@@ -16,12 +16,11 @@ use num_bigint::BigInt;
 use num_integer::Integer;
 use num_traits::{One, ToPrimitive};
 
-use crate::engine::Orbit;
 use crate::error::{joined, OrbitError};
 use crate::numerators::Numerators;
 use crate::poly::PolyKernel;
 use crate::problem::OrbitProblem;
-use crate::store::StoredKey;
+use crate::store::{KeyArena, StoredKey};
 
 /// The integer form of G: G = G'/E with G' integral.
 struct IntegerForm {
@@ -122,14 +121,14 @@ impl<'a> LineReader<'a> {
     /// product S_i·conj(S_j), or `None` when the line must take the `Cyc` route.
     fn load(
         &mut self,
-        orbit: &Orbit,
+        keys: &KeyArena,
         index: usize,
         with_q: bool,
     ) -> Result<Option<u128>, OrbitError> {
         if matches!(self.form.entries, FormEntries::TooLarge) {
             return Ok(None);
         }
-        if let StoredKey::Big(_) = orbit.set.keys.get(index, &mut self.key) {
+        if let StoredKey::Big(_) = keys.get(index, &mut self.key) {
             return Ok(None);
         }
         let kernel = &self.problem.kernel;
@@ -323,10 +322,10 @@ impl<'a> Accumulator<'a> {
     }
 
     /// The `Cyc` route: c = N/⟨w, w⟩_G and B += c·w w† (upper triangle).
-    fn add_exact(&mut self, orbit: &Orbit, index: usize) -> Result<(), OrbitError> {
+    fn add_exact(&mut self, keys: &KeyArena, index: usize) -> Result<(), OrbitError> {
         let problem = self.problem;
         let field = &problem.field;
-        let w = problem.line(orbit, index)?;
+        let w = keys.key(index).to_line(field, problem.kernel.degree())?;
         let g = problem.generators.form_diagonal(field);
         let wnorm = problem.form_norm(&w, &g)?;
         if wnorm.is_zero() {
@@ -376,10 +375,10 @@ const EXACT_LINE: u32 = u32::MAX;
 fn group_lines(
     problem: &OrbitProblem,
     form: &IntegerForm,
-    orbit: &Orbit,
+    keys: &KeyArena,
     threads: usize,
 ) -> Result<Groups, OrbitError> {
-    let parts = split_range(orbit.len(), threads);
+    let parts = split_range(keys.len(), threads);
     type Local = (Vec<Vec<i128>>, Vec<u32>);
     let locals: Vec<Result<Local, OrbitError>> = std::thread::scope(|scope| {
         let handles: Vec<_> = parts
@@ -392,7 +391,7 @@ fn group_lines(
                     let mut values = Vec::new();
                     let mut line_ids = Vec::with_capacity(range.len());
                     for index in range {
-                        if reader.load(orbit, index, true)?.is_none() {
+                        if reader.load(keys, index, true)?.is_none() {
                             line_ids.push(EXACT_LINE);
                             continue;
                         }
@@ -415,7 +414,7 @@ fn group_lines(
     });
     let mut global: HashMap<Vec<i128>, u32> = HashMap::new();
     let mut values: Vec<Vec<i128>> = Vec::new();
-    let mut line_ids: Vec<u32> = Vec::with_capacity(orbit.len());
+    let mut line_ids: Vec<u32> = Vec::with_capacity(keys.len());
     for local in locals {
         let (local_values, local_ids) = local?;
         let map: Vec<u32> = local_values
@@ -463,11 +462,12 @@ fn group_lines(
     })
 }
 
-/// B = Σ v v† over the orbit, for the form diagonal `g` and seed norm `norm`, on `threads`
-/// threads; `flush_every` forces a flush of the integer sums after that many lines (tests).
+/// B = Σ v v† over the lines of `keys`, for the form diagonal `g` and seed norm `norm`, on
+/// `threads` threads; `flush_every` forces a flush of the integer sums after that many lines
+/// (tests).
 pub(crate) fn sum_matrix(
     problem: &OrbitProblem,
-    orbit: &Orbit,
+    keys: &KeyArena,
     threads: usize,
     g: &[Cyc],
     norm: &Cyc,
@@ -477,7 +477,7 @@ pub(crate) fn sum_matrix(
     let form = integer_form(field, &problem.kernel, g)?;
     let factor_numerator = field.mul(norm, &form.scale)?;
     let threads = threads.max(1);
-    let groups = group_lines(problem, &form, orbit, threads)?;
+    let groups = group_lines(problem, &form, keys, threads)?;
     let d = problem.dimension();
     let results: Vec<Result<Vec<Cyc>, OrbitError>> = std::thread::scope(|scope| {
         let handles: Vec<_> = (0..threads)
@@ -494,7 +494,7 @@ pub(crate) fn sum_matrix(
                             .map_or(&lines[..0], |r| &lines[r.clone()]);
                         for (count, &index) in part.iter().enumerate() {
                             let term_bound =
-                                reader.load(orbit, index as usize, false)?.ok_or_else(|| {
+                                reader.load(keys, index as usize, false)?.ok_or_else(|| {
                                     OrbitError::Arithmetic(
                                         "a line changed route between passes".into(),
                                     )
@@ -508,7 +508,7 @@ pub(crate) fn sum_matrix(
                     }
                     if let Some(r) = split_range(groups.exact.len(), threads).get(t) {
                         for &index in &groups.exact[r.clone()] {
-                            acc.add_exact(orbit, index as usize)?;
+                            acc.add_exact(keys, index as usize)?;
                         }
                     }
                     Ok(acc.exact)

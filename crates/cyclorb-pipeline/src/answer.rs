@@ -80,6 +80,13 @@ pub struct StoreFigures {
     pub bytes_per_element: f64,
     /// Bytes per stored key numerator.
     pub numerator_width: usize,
+    /// The store that held the lines: `memory` or `compact`.
+    #[serde(default)]
+    pub store_kind: String,
+    /// Of `store_bytes`, the keys the compact store held for its last layers (0 for the
+    /// memory store).
+    #[serde(default)]
+    pub window_bytes: usize,
 }
 
 /// The figures of a counted orbit (`--method structure`).
@@ -282,6 +289,8 @@ impl OrbitAnswer {
                 store_bytes: orbit.store_bytes(),
                 bytes_per_element: orbit.bytes_per_element(),
                 numerator_width: orbit.numerator_width(),
+                store_kind: orbit.store_kind().name().into(),
+                window_bytes: orbit.window_bytes(),
             }),
             count: None,
             product: None,

@@ -11,4 +11,5 @@ mod outside;
 mod poincare;
 mod products;
 mod runs;
+mod stores;
 mod su2;

@@ -1,0 +1,241 @@
+//! The two stores behind one interface: every key in memory ([`OrbitSet`]) or records and
+//! fingerprints with a window of recent keys ([`CompactSet`]).
+//!
+//! Both decide equality exactly; they differ in what a line costs and in how a stored line
+//! is read back. The engine asks [`OrbitProblem::fetch`] for a stored key: the memory store
+//! always has it, the compact store has it when the line is in its window and otherwise
+//! the line is recomputed from its word (the generators along its Schreier records, applied
+//! to the seed).
+
+use std::borrow::Cow;
+use std::path::Path;
+
+use num_bigint::BigInt;
+use serde::{Deserialize, Serialize};
+
+use crate::compact::CompactSet;
+use crate::error::OrbitError;
+use crate::key::KeyNumbers;
+use crate::numerators::Numerators;
+use crate::problem::OrbitProblem;
+use crate::step::Workspace;
+use crate::store::{OrbitSet, StoredKey};
+
+/// Which store holds the lines of an enumeration (the answer never depends on it).
+#[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum StoreKind {
+    /// Every line's exact key in memory (about 90 bytes per line on Ising at genus 3):
+    /// lookups never recompute anything.
+    #[default]
+    Memory,
+    /// Per line a Schreier record and a 62-bit fingerprint (about 20 bytes), exact keys for
+    /// a window of recent layers only; an older line is recomputed from its word when its
+    /// fingerprint matches.
+    Compact,
+}
+
+impl StoreKind {
+    /// The name used on the command line and in reports.
+    pub fn name(self) -> &'static str {
+        match self {
+            StoreKind::Memory => "memory",
+            StoreKind::Compact => "compact",
+        }
+    }
+}
+
+/// The lines found so far, in one of the two stores.
+#[derive(Debug, Clone)]
+pub(crate) enum LineStore {
+    Memory(OrbitSet),
+    Compact(CompactSet),
+}
+
+/// A stored key as read back: machine words in the caller's buffer, or big numbers.
+pub(crate) enum Fetched<'a> {
+    Small,
+    Big(Cow<'a, [BigInt]>),
+}
+
+impl LineStore {
+    pub(crate) fn new(kind: StoreKind, blocks: usize, phi: usize) -> LineStore {
+        match kind {
+            StoreKind::Memory => LineStore::Memory(OrbitSet::new(blocks, phi)),
+            StoreKind::Compact => LineStore::Compact(CompactSet::new(blocks, phi)),
+        }
+    }
+
+    pub(crate) fn kind(&self) -> StoreKind {
+        match self {
+            LineStore::Memory(_) => StoreKind::Memory,
+            LineStore::Compact(_) => StoreKind::Compact,
+        }
+    }
+
+    /// Whether fingerprints are the wide (62-bit) ones: the compact store compares nothing
+    /// else before it recomputes a line.
+    pub(crate) fn wide(&self) -> bool {
+        matches!(self, LineStore::Compact(_))
+    }
+
+    pub(crate) fn len(&self) -> usize {
+        match self {
+            LineStore::Memory(s) => s.len(),
+            LineStore::Compact(s) => s.len(),
+        }
+    }
+
+    /// The Schreier record of element i > 0: (parent, generator).
+    pub(crate) fn record(&self, i: usize) -> (usize, usize) {
+        match self {
+            LineStore::Memory(s) => (s.parents[i] as usize, s.generators[i] as usize),
+            LineStore::Compact(s) => (s.parents[i] as usize, s.generators[i] as usize),
+        }
+    }
+
+    /// Key i when the store holds it (an error when a spilled key cannot be read).
+    pub(crate) fn get<'a>(
+        &'a self,
+        i: usize,
+        out: &mut Numerators,
+    ) -> Option<Result<StoredKey<'a>, OrbitError>> {
+        match self {
+            LineStore::Memory(s) => Some(Ok(s.keys.get(i, out))),
+            LineStore::Compact(s) => s.get(i, out).map(|r| {
+                r.map_err(|reason| OrbitError::Io {
+                    path: "spilled keys".into(),
+                    reason,
+                })
+            }),
+        }
+    }
+
+    /// The element with this fingerprint for which `same(index)` holds.
+    pub(crate) fn find(&self, fingerprint: u64, same: impl FnMut(usize) -> bool) -> Option<u32> {
+        match self {
+            LineStore::Memory(s) => s.find(fingerprint as u32, same),
+            LineStore::Compact(s) => s.find(fingerprint, same),
+        }
+    }
+
+    /// Append a new element (the caller has checked it is new).
+    pub(crate) fn insert(
+        &mut self,
+        key: &KeyNumbers,
+        fingerprint: u64,
+        parent: u32,
+        generator: u16,
+    ) {
+        match self {
+            LineStore::Memory(s) => s.insert(key, fingerprint as u32, parent, generator),
+            LineStore::Compact(s) => s.insert(key, fingerprint, parent, generator as u8),
+        }
+    }
+
+    /// A new breadth-first layer starts at element `start`.
+    pub(crate) fn open_layer(&mut self, start: usize) -> Result<(), OrbitError> {
+        match self {
+            LineStore::Compact(s) => s.open_layer(start).map_err(spill_error),
+            LineStore::Memory(_) => Ok(()),
+        }
+    }
+
+    /// Keep finished layers' keys in files in `dir` (the compact store; an error for the
+    /// memory store, which keeps every key in memory by design).
+    pub(crate) fn spill_to(&mut self, dir: &Path) -> Result<(), OrbitError> {
+        match self {
+            LineStore::Compact(s) => s.spill_to(dir).map_err(spill_error),
+            LineStore::Memory(_) => Err(OrbitError::Invalid(
+                "only the compact store spills keys to disk".into(),
+            )),
+        }
+    }
+
+    /// Bytes per numerator of the keys held (the widest, for the compact store's window).
+    pub(crate) fn numerator_width(&self) -> usize {
+        match self {
+            LineStore::Memory(s) => s.keys.width() as usize,
+            LineStore::Compact(s) => s.numerator_width(),
+        }
+    }
+
+    /// Keys held with a numerator beyond `i64`.
+    pub(crate) fn big_keys(&self) -> usize {
+        match self {
+            LineStore::Memory(s) => s.keys.big_keys().count(),
+            LineStore::Compact(s) => s.big_keys(),
+        }
+    }
+
+    /// Bytes held by the compact store's window of keys (0 for the memory store).
+    pub(crate) fn window_bytes(&self) -> usize {
+        match self {
+            LineStore::Memory(_) => 0,
+            LineStore::Compact(s) => s.window_bytes(),
+        }
+    }
+
+    pub(crate) fn bytes_used(&self) -> usize {
+        match self {
+            LineStore::Memory(s) => s.bytes_used(),
+            LineStore::Compact(s) => s.bytes_used(),
+        }
+    }
+}
+
+fn spill_error(e: std::io::Error) -> OrbitError {
+    OrbitError::Io {
+        path: "spilled keys".into(),
+        reason: e.to_string(),
+    }
+}
+
+impl OrbitProblem {
+    /// Stored key i: from the store, or recomputed from its word when the compact store no
+    /// longer holds it (then machine words go to `out` as well).
+    pub(crate) fn fetch<'a>(
+        &self,
+        set: &'a LineStore,
+        i: usize,
+        out: &mut Numerators,
+    ) -> Result<Fetched<'a>, OrbitError> {
+        if let Some(stored) = set.get(i, out) {
+            return Ok(match stored? {
+                StoredKey::Small => Fetched::Small,
+                StoredKey::Big(b) => Fetched::Big(Cow::Borrowed(b)),
+            });
+        }
+        Ok(match self.recompute(set, i)? {
+            KeyNumbers::Small(v) => {
+                out.clear();
+                for (at, &x) in v.iter().enumerate() {
+                    if x != 0 {
+                        out.push(at, x);
+                    }
+                }
+                Fetched::Small
+            }
+            KeyNumbers::Big(b) => Fetched::Big(Cow::Owned(b)),
+        })
+    }
+
+    /// The key of element i from its word: the generators of its Schreier records applied
+    /// to the seed's key in turn, each image normalised to its key.
+    pub(crate) fn recompute(&self, set: &LineStore, i: usize) -> Result<KeyNumbers, OrbitError> {
+        let mut word = Vec::new();
+        let mut at = i;
+        while at != 0 {
+            let (parent, generator) = set.record(at);
+            word.push(generator);
+            at = parent;
+        }
+        let mut ws = Workspace::new(self);
+        let mut key = self.seed_key.clone();
+        for &generator in word.iter().rev() {
+            ws.load_key(&key);
+            key = self.image_key(&mut ws, generator)?;
+        }
+        Ok(key)
+    }
+}
