@@ -13,7 +13,7 @@
 
 use cyclorb_cert::permutation_group_summary;
 use cyclorb_field::{Cyc, CyclotomicField};
-use cyclorb_mcg::{BlockSpace, GeneratingSet};
+use cyclorb_mcg::BlockSpace;
 
 use crate::analyse::kernel_certificate;
 use crate::error::{require, StructureError};
@@ -21,7 +21,7 @@ use crate::imprimitive::{count, lickorish_candidate, sector_supports, Imprimitiv
 use crate::lineorbit::{replay, spans, LineOrbit};
 use crate::power::PowerCandidate;
 use crate::roots::RootsOfUnity;
-use crate::search::{generators_of, Generators};
+use crate::search::{generators_named, Generators};
 use crate::sectors::{sectors, Sectors};
 use crate::sectorsum::sector_orbits;
 use crate::sparse::SparseVec;
@@ -68,11 +68,7 @@ impl<'a> ImprimitiveCheck<'a> {
         let theory = space.theory();
         let field = theory.field();
         let roots = RootsOfUnity::new(field)?;
-        let set: GeneratingSet = certificate
-            .generating_set
-            .parse()
-            .map_err(StructureError::Input)?;
-        let generators = generators_of(space, set)?;
+        let generators = generators_named(space, &certificate.generating_set)?;
         require(
             certificate.theory == theory.name()
                 && certificate.genus == space.genus()

@@ -1,7 +1,7 @@
 //! Re-checking a certificate of the structural route from the block space it describes.
 
 use cyclorb_cert::permutation_group_summary;
-use cyclorb_mcg::{BlockSpace, GeneratingSet};
+use cyclorb_mcg::BlockSpace;
 
 use crate::analyse::{chain_certificate, derive, kernel_certificate};
 use crate::commutant::check_commutant;
@@ -10,7 +10,7 @@ use crate::imprimitive_check::sparse_parse;
 use crate::monomial::MonomialForm;
 use crate::report::StructureCertificate;
 use crate::roots::RootsOfUnity;
-use crate::search::generators_of;
+use crate::search::generators_named;
 use crate::vacuum::check_expansion;
 
 /// Re-check a certificate against the block space it claims to describe.
@@ -30,11 +30,7 @@ pub fn recheck(
     let theory = space.theory();
     let field = theory.field();
     let roots = RootsOfUnity::new(field)?;
-    let set: GeneratingSet = certificate
-        .generating_set
-        .parse()
-        .map_err(StructureError::Input)?;
-    let generators = generators_of(space, set)?;
+    let generators = generators_named(space, &certificate.generating_set)?;
     let dim = space.dimension();
     require(
         certificate.theory == theory.name()

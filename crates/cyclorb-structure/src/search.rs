@@ -22,6 +22,16 @@ pub(crate) struct Generators {
     pub(crate) maps: Vec<ColumnMap>,
 }
 
+/// The twists of the generating set a certificate names (`humphries`, `lickorish`), so
+/// that every re-check reads the name the same way.
+pub(crate) fn generators_named(
+    space: &BlockSpace,
+    name: &str,
+) -> Result<Generators, StructureError> {
+    let set: GeneratingSet = name.parse().map_err(StructureError::Input)?;
+    generators_of(space, set)
+}
+
 /// The twists of a generating set, by columns, with their curve names.
 pub(crate) fn generators_of(
     space: &BlockSpace,
