@@ -3,7 +3,10 @@
 //! returned (as the program does).
 
 use cyclorb_cert::{commutant as commutant_cert, CommutantOptions, WitnessOptions};
-use cyclorb_pipeline::image::{decide_image, ImageBounds, ImageRequest, ImageStrategy};
+use cyclorb_pipeline::image::{
+    decide_image, ImageBounds, ImageRequest, ImageStrategy, DEFAULT_ENUMERATION_CAP,
+    DEFAULT_ORBIT_LIMIT, DEFAULT_WITNESS_AFTER,
+};
 use cyclorb_pipeline::space::{build_space, cert_generators, parse_set};
 use cyclorb_pipeline::witness::{search, WitnessSearch};
 use pyo3::prelude::*;
@@ -98,7 +101,7 @@ pub fn witness<'py>(
 /// `{"finite", "order", "route", "steps", "reason", "certificate"}`; `route` is one of
 /// the program's route names, `certificate` the re-checked proof (None when undecided).
 #[pyfunction]
-#[pyo3(signature = (spec, genus, set = "humphries", route = "auto", orbit_limit = 2_000_000, enumeration_cap = 20_000, witness_after = 100_000, threads = None))]
+#[pyo3(signature = (spec, genus, set = "humphries", route = "auto", orbit_limit = DEFAULT_ORBIT_LIMIT, enumeration_cap = DEFAULT_ENUMERATION_CAP, witness_after = DEFAULT_WITNESS_AFTER, threads = None))]
 #[allow(clippy::too_many_arguments)]
 pub fn image<'py>(
     py: Python<'py>,

@@ -20,7 +20,6 @@
 //! - [`witness`]: the search for a witness of infinite image (factors first).
 //! - [`lines`]: the faithful set of orbit lines the image route needs.
 //! - [`lifted`]: witnesses of infinite image found on a Deligne factor.
-
 //!
 //! ```
 //! use cyclorb_orbit::{OrbitOptions, Silent};
@@ -41,6 +40,13 @@
 //! let gens = cert_generators(&space, parse_set("humphries").unwrap()).unwrap();
 //! let commutant = cyclorb_cert::commutant(&gens, Default::default()).unwrap();
 //! assert_eq!(commutant.dimension, 1);
+//!
+//! // the projective image, decided by the structural route with its certificate re-checked
+//! use cyclorb_pipeline::image::{decide_image, ImageRequest, ImageStrategy};
+//! let request = ImageRequest::with_strategy(ImageStrategy::Structure);
+//! let set = parse_set("humphries").unwrap();
+//! let image = decide_image(&space, set, &gens, &request).unwrap();
+//! assert_eq!(image.finite, Some(true));
 //! ```
 
 #![deny(missing_docs)]
