@@ -12,6 +12,7 @@
 //! - [`answer`]: the one answer of the orbit routes ([`OrbitAnswer`]), with its JSON keys.
 //! - [`method`]: the routes to the vacuum orbit ([`OrbitMethod`]).
 //! - [`dw_space`]: the same for Dijkgraaf–Witten theories `dw:GROUP`, as permutations.
+//! - [`dw_count`]: the counting route of untwisted `dw:` theories (|P| / |Stab_P(S)|).
 //! - [`listing`]: the enumerating route (origin, checkpoints, the run, its answer).
 //! - [`product`]: the orbit of a Deligne product from its factors' orbits.
 //! - [`runtime`]: resident memory of the process and the default memory budget.
@@ -47,6 +48,7 @@
 
 pub mod answer;
 pub mod counting;
+pub mod dw_count;
 pub mod dw_space;
 pub mod image;
 pub mod lifted;

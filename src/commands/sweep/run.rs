@@ -17,7 +17,6 @@ use std::time::{Duration, Instant};
 use cyclorb_mcg::BlockSpace;
 use cyclorb_orbit::PoincareReport;
 
-use super::super::dw_count::{certificate, count, counted_poincare};
 use super::answers::{
     certificate_generators, commutant_answer, image_answer, lifted_witness_answer, witness_answer,
     witness_failed, witness_not_needed,
@@ -29,6 +28,7 @@ use super::result::CommutantAnswer;
 use super::result::{Citation, ImageAnswer, RunResult};
 use super::schedule::{PlannedRun, RunSpace};
 use cyclorb_dw::VacuumOrbit;
+use cyclorb_pipeline::dw_count::{certificate, count, counted_poincare};
 use cyclorb_pipeline::dw_space::DwSpace;
 
 /// Settings shared by every run of a sweep.
