@@ -21,6 +21,7 @@
 //! - [`witness`]: the search for a witness of infinite image (factors first).
 //! - [`lines`]: the faithful set of orbit lines the image route needs.
 //! - [`lifted`]: witnesses of infinite image found on a Deligne factor.
+//! - [`sweep`]: a plan of runs over theories × genera, scheduled and computed run by run.
 
 //!
 //! ```
@@ -60,6 +61,7 @@ pub mod proof;
 mod proof_cache;
 pub mod runtime;
 pub mod space;
+pub mod sweep;
 pub mod witness;
 
 pub use answer::{Count, OrbitAnswer};
