@@ -32,13 +32,9 @@ pub struct CountArgs<'a> {
 /// the certificate of an exact count (kind `dw-vacuum-set-stabiliser`).
 pub fn run(args: &CountArgs, as_json: bool, started: Instant) -> Outcome {
     let (spec, genus) = (args.spec, args.genus);
-    let space = match DwSpace::new(spec, genus, args.set) {
-        Ok(s) => s,
+    let (space, result) = match dw_count::counted_orbit(spec, genus, args.set, args.limit) {
+        Ok(x) => x,
         Err(e) => return Outcome::Invalid(e),
-    };
-    let result = match dw_count::count(&space, args.limit) {
-        Ok(r) => r,
-        Err(e) => return Outcome::Invalid(format!("{spec} at genus {genus}: {e}")),
     };
     let mut text = format!(
         "theory {spec} at genus {genus}: dimension |X_g| = {} over Q, {} generators\n",

@@ -46,6 +46,19 @@ pub fn count(space: &DwSpace, limit: Option<usize>) -> Result<VacuumOrbit, Strin
     count_vacuum_orbit(space.bundles(), space.twists(), limits).map_err(|e| e.to_string())
 }
 
+/// Build X_g of `spec` with the twists of the set named `set` and count the vacuum orbit
+/// under `limit` (see [`count`]); errors name the theory and the genus.
+pub fn counted_orbit(
+    spec: &str,
+    genus: usize,
+    set: &str,
+    limit: Option<usize>,
+) -> Result<(DwSpace, VacuumOrbit), String> {
+    let space = DwSpace::new(spec, genus, set)?;
+    let orbit = count(&space, limit).map_err(|e| format!("{spec} at genus {genus}: {e}"))?;
+    Ok((space, orbit))
+}
+
 /// The orbit answer of a count: the size, B over orbitals and |P| with the certificate's
 /// figures (`details`: the route and the certificate) when counted; when the caps stopped
 /// it, no size, `stop_reason` `limit` and the proved bounds in `details`. `elapsed` is the
