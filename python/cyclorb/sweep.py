@@ -114,6 +114,8 @@ def sweep(
     orbit is listed, ``layer``, ``lines``, ``lines_per_second``, ``elapsed``). Ctrl-C
     raises :class:`SweepInterrupted` with the finished runs.
     """
+    if progress is not None and not callable(progress):
+        raise TypeError("progress must be None or a callable receiving dicts")
     path, text = (None, plan) if isinstance(plan, str) and "\n" in plan else (os.fspath(plan), None)
     raw, error = _native.sweep(
         path,
