@@ -6,9 +6,7 @@ use clap::{Args, Parser, Subcommand};
 use cyclorb_pipeline::image::{self, ImageStrategy};
 use cyclorb_pipeline::OrbitMethod;
 
-/// Most worker threads accepted: more gain nothing on any machine this program targets, and
-/// a thread the system cannot start would end the process.
-pub const MAX_THREADS: usize = 256;
+use cyclorb_pipeline::runtime::MAX_THREADS;
 
 /// A `--threads` value: 1 to [`MAX_THREADS`].
 fn thread_count(text: &str) -> Result<usize, String> {

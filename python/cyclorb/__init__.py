@@ -6,6 +6,8 @@ The same library as the ``cyclorb`` program, as Python objects::
     r = cyclorb.orbit("ising", genus=2)
     r.size, r.prefactor          # 3840, 384
     cyclorb.Theory("fibonacci").S
+    cyclorb.orbit("dw:S3", genus=2, method="structure").size   # 38400, counted
+    cyclorb.sweep("plan.toml").runs                              # a sweep plan's results
 
 Every decision is exact; numbers come back exactly (int, ``fractions.Fraction``,
 :class:`Cyclotomic`). Errors raise :class:`CyclorbError` with the program's messages.
@@ -23,6 +25,7 @@ from .certificates import (
 from .matrix import Matrix
 from .numbers import Cyclotomic
 from .orbit import Invariant, OrbitInterrupted, OrbitResult, orbit
+from .sweep import SweepInterrupted, SweepResult, SweepRun, sweep
 from .theory import BlockSpace, Theory, Verification
 
 __all__ = [
@@ -35,6 +38,9 @@ __all__ = [
     "Matrix",
     "OrbitInterrupted",
     "OrbitResult",
+    "SweepInterrupted",
+    "SweepResult",
+    "SweepRun",
     "Theory",
     "Verification",
     "WitnessResult",
@@ -42,5 +48,6 @@ __all__ = [
     "commutant",
     "image",
     "orbit",
+    "sweep",
     "witness",
 ]

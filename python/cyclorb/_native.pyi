@@ -31,6 +31,17 @@ def orbit(
     words: int = ...,
     progress: Optional[Callable[[dict], Any]] = ...,
 ) -> Tuple[dict, Optional[str], Optional[BaseException]]: ...
+def sweep(
+    path: Optional[str] = ...,
+    text: Optional[str] = ...,
+    *,
+    lines: Optional[int] = ...,
+    memory_mib: Optional[int] = ...,
+    seconds: Optional[int] = ...,
+    threads: Optional[int] = ...,
+    out: Optional[str] = ...,
+    progress: Optional[Callable[[dict], Any]] = ...,
+) -> Tuple[dict, Optional[BaseException]]: ...
 def commutant(spec: str, genus: int, set: str = ...) -> dict: ...
 def witness(
     spec: str, genus: int, set: str = ..., depth: Optional[int] = ..., tries: Optional[int] = ...

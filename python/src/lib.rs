@@ -10,6 +10,7 @@ use pyo3::prelude::*;
 mod certs;
 mod numbers;
 mod orbit;
+mod sweep;
 mod theory;
 mod values;
 
@@ -38,6 +39,7 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add_function(wrap_pyfunction!(theory::verify, m)?)?;
     m.add_function(wrap_pyfunction!(theory::block_space, m)?)?;
     m.add_function(wrap_pyfunction!(orbit::orbit, m)?)?;
+    m.add_function(wrap_pyfunction!(sweep::sweep, m)?)?;
     m.add_function(wrap_pyfunction!(certs::commutant, m)?)?;
     m.add_function(wrap_pyfunction!(certs::witness, m)?)?;
     m.add_function(wrap_pyfunction!(certs::image, m)?)?;

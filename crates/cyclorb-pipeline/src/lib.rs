@@ -12,6 +12,7 @@
 //! - [`answer`]: the one answer of the orbit routes ([`OrbitAnswer`]), with its JSON keys.
 //! - [`method`]: the routes to the vacuum orbit ([`OrbitMethod`]).
 //! - [`dw_space`]: the same for Dijkgraaf–Witten theories `dw:GROUP`, as permutations.
+//! - [`dw_count`]: the counting route of untwisted `dw:` theories (|P| / |Stab_P(S)|).
 //! - [`listing`]: the enumerating route (origin, checkpoints, the run, its answer).
 //! - [`product`]: the orbit of a Deligne product from its factors' orbits.
 //! - [`runtime`]: resident memory of the process and the default memory budget.
@@ -20,6 +21,7 @@
 //! - [`witness`]: the search for a witness of infinite image (factors first).
 //! - [`lines`]: the faithful set of orbit lines the image route needs.
 //! - [`lifted`]: witnesses of infinite image found on a Deligne factor.
+//! - [`sweep`]: a plan of runs over theories × genera, scheduled and computed run by run.
 //!
 //! ```
 //! use cyclorb_orbit::{OrbitOptions, Silent};
@@ -53,6 +55,7 @@
 
 pub mod answer;
 pub mod counting;
+pub mod dw_count;
 pub mod dw_space;
 pub mod image;
 pub mod lifted;
@@ -64,6 +67,7 @@ pub mod proof;
 mod proof_cache;
 pub mod runtime;
 pub mod space;
+pub mod sweep;
 pub mod witness;
 
 pub use answer::{Count, OrbitAnswer};
