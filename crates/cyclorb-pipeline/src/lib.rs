@@ -20,6 +20,7 @@
 //! - [`witness`]: the search for a witness of infinite image (factors first).
 //! - [`lines`]: the faithful set of orbit lines the image route needs.
 //! - [`lifted`]: witnesses of infinite image found on a Deligne factor.
+//! - [`check`]: the re-check of a certificate file, claim by claim (`cyclorb check`).
 
 //!
 //! ```
@@ -46,6 +47,7 @@
 #![deny(missing_docs)]
 
 pub mod answer;
+pub mod check;
 pub mod counting;
 pub mod dw_space;
 pub mod image;

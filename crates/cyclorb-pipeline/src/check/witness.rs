@@ -245,19 +245,19 @@ pub fn check(gens: &GeneratorSet, w: &WitnessCertificate, claims: &mut Claims) -
 /// ratio on the product (docs/minimal-models.md, "Witnesses lifted from a factor").
 pub fn lifted(
     envelope: &super::Envelope,
-    w: &cyclorb_pipeline::lifted::LiftedWitness,
+    w: &crate::lifted::LiftedWitness,
     file: &str,
     claims: &mut Claims,
 ) -> Result<(), Stop> {
     let space = &envelope.space;
     let invalid = |e: String| Stop::Invalid(format!("{file}: rebuilding the input: {e}"));
-    let set = cyclorb_pipeline::space::parse_set(&space.set).map_err(invalid)?;
-    let theory = cyclorb_pipeline::proof::theory(&space.spec).map_err(invalid)?;
-    super::check_theory_files(envelope, claims)?;
+    let set = crate::space::parse_set(&space.set).map_err(invalid)?;
+    let (theory, files) = crate::proof::theory_traced(&space.spec).map_err(invalid)?;
+    super::check_theory_files(envelope, &files, claims)?;
     let named = &w.lifted_from_factor;
     let mut built = None;
     claims.claim("factor", || {
-        let gens = cyclorb_pipeline::lifted::named_factor(&theory, space.genus, set, named)?;
+        let gens = crate::lifted::named_factor(&theory, space.genus, set, named)?;
         if gens.field().conductor() != named.conductor {
             return Err(format!(
                 "the factor's field is Q(ζ_{}), not Q(ζ_{})",
