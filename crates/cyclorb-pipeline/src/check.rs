@@ -32,7 +32,7 @@ use serde::de::DeserializeOwned;
 use serde::{Deserialize, Serialize};
 use serde_json::Value;
 
-use crate::space::{cert_generators, parse_set};
+use crate::space::{build_space_traced, cert_generators, parse_set};
 use cyclorb_cert::GeneratorSet as CertSet;
 
 mod claims;
@@ -243,8 +243,7 @@ type Input = (BlockSpace, CertSet, Vec<(String, String)>);
 /// Rebuild the block space and its generators from the envelope.
 fn load(source: &Source) -> Result<Input, String> {
     let set = parse_set(&source.set)?;
-    let (theory, files) = crate::proof::theory_traced(&source.spec)?;
-    let space = BlockSpace::new(theory, source.genus).map_err(|e| e.to_string())?;
+    let (space, files) = build_space_traced(&source.spec, source.genus)?;
     let gens = cert_generators(&space, set)?;
     Ok((space, gens, files))
 }

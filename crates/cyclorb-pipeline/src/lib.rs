@@ -20,6 +20,7 @@
 //! - [`witness`]: the search for a witness of infinite image (factors first).
 //! - [`lines`]: the faithful set of orbit lines the image route needs.
 //! - [`lifted`]: witnesses of infinite image found on a Deligne factor.
+//! - [`envelope`]: the keys every certificate file carries (kind, program, spec, files).
 //! - [`check`]: the re-check of a certificate file, claim by claim (`cyclorb check`).
 
 //!
@@ -50,6 +51,7 @@ pub mod answer;
 pub mod check;
 pub mod counting;
 pub mod dw_space;
+pub mod envelope;
 pub mod image;
 pub mod lifted;
 pub mod lines;
