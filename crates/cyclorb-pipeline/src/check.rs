@@ -306,8 +306,7 @@ pub fn check(certificate: &Certificate) -> Result<CheckReport, String> {
     let file = certificate.name.as_str();
     let envelope = envelope_of(&certificate.body, file)?;
     let mut claims = Claims::default();
-    if let Err(Stop::Invalid(message)) =
-        check_kind(&envelope, &certificate.body, file, &mut claims)
+    if let Err(Stop::Invalid(message)) = check_kind(&envelope, &certificate.body, file, &mut claims)
     {
         return Err(message);
     }

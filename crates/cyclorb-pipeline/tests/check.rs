@@ -53,5 +53,8 @@ fn what_is_not_a_certificate_is_an_error_naming_it() {
     let missing = check(&bare).unwrap_err();
     assert!(missing.starts_with("x.json: key `"), "{missing}");
     let missing_file = Certificate::read(std::path::Path::new("no/such/file.json")).unwrap_err();
-    assert!(missing_file.starts_with("no/such/file.json: "), "{missing_file}");
+    assert!(
+        missing_file.starts_with("no/such/file.json: "),
+        "{missing_file}"
+    );
 }

@@ -107,8 +107,7 @@ pub fn cyclotomic(m: u64) -> IntPoly {
     p[0] = -BigInt::one();
     p[m as usize] = BigInt::one();
     for d in (1..m).filter(|d| m % d == 0) {
-        p = int_poly::div_exact_monic(&p, &cyclotomic(d))
-            .expect("Φ_d divides x^m − 1 for d | m");
+        p = int_poly::div_exact_monic(&p, &cyclotomic(d)).expect("Φ_d divides x^m − 1 for d | m");
     }
     p
 }

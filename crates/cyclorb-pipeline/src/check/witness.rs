@@ -17,8 +17,8 @@ use cyclorb_matrix::Matrix;
 use super::claims::same_conductor;
 use super::linear::determinant;
 use super::poly::{cyclotomic, divide_by_x_minus_one, euler_phi, interpolate, norm_to_z};
-use cyclorb_field::int_poly::{degree, div_exact_monic, from_strings, mul};
 use super::{Claims, Stop};
+use cyclorb_field::int_poly::{degree, div_exact_monic, from_strings, mul};
 
 fn err(e: impl ToString) -> String {
     e.to_string()
