@@ -15,9 +15,12 @@ Every decision is exact; numbers come back exactly (int, ``fractions.Fraction``,
 
 from ._native import CyclorbError, __version__
 from .certificates import (
+    CheckResult,
+    Claim,
     CommutantResult,
     ImageResult,
     WitnessResult,
+    check,
     commutant,
     image,
     witness,
@@ -30,6 +33,8 @@ from .theory import BlockSpace, Theory, Verification
 
 __all__ = [
     "BlockSpace",
+    "CheckResult",
+    "Claim",
     "CommutantResult",
     "Cyclotomic",
     "CyclorbError",
@@ -45,6 +50,7 @@ __all__ = [
     "Verification",
     "WitnessResult",
     "__version__",
+    "check",
     "commutant",
     "image",
     "orbit",

@@ -8,6 +8,7 @@
 use pyo3::prelude::*;
 
 mod certs;
+mod check;
 mod numbers;
 mod orbit;
 mod sweep;
@@ -43,5 +44,7 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add_function(wrap_pyfunction!(certs::commutant, m)?)?;
     m.add_function(wrap_pyfunction!(certs::witness, m)?)?;
     m.add_function(wrap_pyfunction!(certs::image, m)?)?;
+    m.add_function(wrap_pyfunction!(check::check_file, m)?)?;
+    m.add_function(wrap_pyfunction!(check::check_text, m)?)?;
     Ok(())
 }

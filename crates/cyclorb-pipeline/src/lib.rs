@@ -22,6 +22,8 @@
 //! - [`lines`]: the faithful set of orbit lines the image route needs.
 //! - [`lifted`]: witnesses of infinite image found on a Deligne factor.
 //! - [`sweep`]: a plan of runs over theories × genera, scheduled and computed run by run.
+//! - [`envelope`]: the keys every certificate file carries (kind, program, spec, files).
+//! - [`check`]: the re-check of a certificate file, claim by claim (`cyclorb check`).
 //!
 //! ```
 //! use cyclorb_orbit::{OrbitOptions, Silent};
@@ -54,9 +56,11 @@
 #![deny(missing_docs)]
 
 pub mod answer;
+pub mod check;
 pub mod counting;
 pub mod dw_count;
 pub mod dw_space;
+pub mod envelope;
 pub mod image;
 pub mod lifted;
 pub mod lines;
