@@ -52,8 +52,8 @@ impl OrbitProblem {
         let seed_key = KeyNumbers::of_line(&field, &seed)?
             .ok_or_else(|| OrbitError::Invalid("the seed vector is zero".into()))?;
         let kernel = PolyKernel::new(&field);
-        // half of the memory budget for the compiled forms, shared by the generators; one
-        // past it is applied in exact arithmetic instead (slower, never wrong)
+        // half of the memory budget for the compiled matrix forms, shared by the generators;
+        // one past it is compiled as polynomials instead (φ words per entry, not φ²)
         let share = usize::try_from(cyclorb_field::memory_budget() / 2).unwrap_or(usize::MAX);
         let max_cells = share / BYTES_PER_CELL / generators.operators.len().max(1);
         let compiled = generators
