@@ -79,10 +79,12 @@
 #![deny(missing_docs)]
 
 mod checkpoint;
+mod collective;
 pub use checkpoint::checkpoint_origin;
 mod commutant;
 mod compact;
 mod compiled;
+mod distributed;
 mod engine;
 mod error;
 mod fingerprint;
@@ -103,8 +105,11 @@ mod spill;
 mod step;
 mod store;
 mod sum;
+mod wire;
 
+pub use collective::{gather_numbers, Collective};
 pub use commutant::{Decomposition, InvariantTerm};
+pub use distributed::DistributedOrbit;
 pub use engine::{
     CheckpointPlan, Orbit, OrbitOptions, Progress, ProgressObserver, Silent, StopReason,
 };

@@ -1,0 +1,496 @@
+//! Breadth-first saturation spread over ranks (docs/orbits.md §6, "Distributed saturation").
+//!
+//! Rank r owns the lines whose fingerprint maps to r ([`crate::collective`]'s `owner`); the
+//! fingerprint is a function of the line alone, so every rank names the same owner. A rank
+//! keeps only the lines it owns (memory store), each with its global index and its
+//! Schreier record (global index of the parent, generator). Each layer:
+//!
+//! 1. every rank expands its part of the frontier in rounds of `chunk_size` elements (all
+//!    ranks run the same number of rounds) and sends each image it does not already know
+//!    to the image's owner, with the exact key and the order key (parent's global index,
+//!    generator);
+//! 2. the owner decides membership exactly (the key compared with the stored lines and
+//!    with the layer's new lines, never the fingerprint alone) and keeps, for a line reached
+//!    several times, the least order key;
+//! 3. at the end of the layer the ranks share their new lines' order keys; a line's global
+//!    index is the number of the layer's new lines with a smaller order key, plus the lines
+//!    of the earlier layers.
+//!
+//! The one-process engine inserts a layer's lines in (parent, generator) order and keeps the
+//! first record of each, so the global indices, records, words and layer sizes are the ones
+//! it finds, for any number of ranks; a line limit keeps the first lines in that order, as
+//! it does. B is a sum over the lines, exact, so its grouping by rank does not matter: each
+//! rank sums its own lines and rank 0 adds the parts.
+//!
+//! Stops (the stop flag, the memory ceiling on a rank's store) are agreed between rounds:
+//! every rank reports its state and all stop together, at the last finished layer. An error
+//! on one rank stops every rank with an error.
+
+use std::time::Instant;
+
+use cyclorb_matrix::Matrix;
+
+use crate::collective::{gather_numbers, owner, Collective};
+use crate::engine::{Orbit, OrbitOptions, Progress, ProgressObserver, StopReason};
+use crate::error::OrbitError;
+use crate::key::KeyNumbers;
+use crate::numerators::Numerators;
+use crate::poincare::PoincareSum;
+use crate::problem::OrbitProblem;
+use crate::set::{LineStore, StoreKind};
+use crate::step::Workspace;
+use crate::wire::{encode, Reader, WireCandidate};
+
+/// This rank's share of an orbit enumerated over several ranks, with the figures every
+/// rank agrees on (global size, layers, saturation).
+#[derive(Debug, Clone)]
+pub struct DistributedOrbit {
+    /// The lines this rank owns (records hold global parent indices).
+    local: Orbit,
+    /// The global index of each local line.
+    global: Vec<u32>,
+    /// Global end index of every finished layer.
+    layer_ends: Vec<usize>,
+    total: usize,
+    ranks: usize,
+    saturated: bool,
+    stop: Option<StopReason>,
+}
+
+impl DistributedOrbit {
+    /// Number of distinct lines found by all ranks.
+    pub fn len(&self) -> usize {
+        self.total
+    }
+
+    /// Never true: the seed's line is always there.
+    pub fn is_empty(&self) -> bool {
+        self.total == 0
+    }
+
+    /// True when the orbit is proved closed under every generator.
+    pub fn is_saturated(&self) -> bool {
+        self.saturated
+    }
+
+    /// Why the run ended before saturation (`None` when saturated).
+    pub fn stop_reason(&self) -> Option<StopReason> {
+        if self.saturated {
+            None
+        } else {
+            self.stop
+        }
+    }
+
+    /// New lines at each breadth-first depth, as the one-process run reports them (the last
+    /// entry may be a layer cut by the line limit).
+    pub fn layer_sizes(&self) -> Vec<usize> {
+        let mut sizes = Vec::with_capacity(self.layer_ends.len() + 1);
+        let mut start = 0;
+        for &end in &self.layer_ends {
+            sizes.push(end - start);
+            start = end;
+        }
+        if self.total > start {
+            sizes.push(self.total - start);
+        }
+        sizes
+    }
+
+    /// Number of ranks.
+    pub fn ranks(&self) -> usize {
+        self.ranks
+    }
+
+    /// Lines this rank owns.
+    pub fn local_len(&self) -> usize {
+        self.local.len()
+    }
+
+    /// Bytes held by this rank's store (keys, records, table, global indices).
+    pub fn local_store_bytes(&self) -> usize {
+        self.local.store_bytes() + self.global.capacity() * 4
+    }
+
+    /// Bytes per numerator of this rank's keys (1, 2, 4 or 8).
+    pub fn numerator_width(&self) -> usize {
+        self.local.numerator_width()
+    }
+
+    /// Seconds this rank spent enumerating.
+    pub fn compute_seconds(&self) -> f64 {
+        self.local.compute_seconds()
+    }
+
+    /// The Schreier records of this rank's lines: (global index, global parent, generator);
+    /// the seed's parent and generator are `u32::MAX` and `u16::MAX`.
+    pub fn local_records(&self) -> impl Iterator<Item = (u32, u32, u16)> + '_ {
+        self.global.iter().enumerate().map(|(i, &g)| {
+            let (parent, generator) = match &self.local.set {
+                LineStore::Memory(s) => (s.parents[i], s.generators[i]),
+                LineStore::Compact(s) => (s.parents[i], s.generators[i] as u16),
+            };
+            (g, parent, generator)
+        })
+    }
+}
+
+/// A layer's new lines on their owner before their global indices are known: exact keys in
+/// a store of their own, with the least order key seen for each.
+struct NewLayer {
+    lines: LineStore,
+    orders: Vec<u64>,
+    fingerprints: Vec<u64>,
+}
+
+/// Status codes of the agreement between rounds.
+const GOING: u8 = 0;
+const MEMORY: u8 = 1;
+const INTERRUPTED: u8 = 2;
+const FAILED: u8 = 3;
+
+impl OrbitProblem {
+    /// Enumerate the orbit of the seed's line over the ranks of `comm` (every rank calls
+    /// this with the same problem and options). Only the memory store is used; the options'
+    /// limit, memory ceiling, threads, chunk size and stop flag apply (the ceiling to each
+    /// rank's store); checkpoints and spilling are refused. `observer` hears the whole job
+    /// after every layer.
+    pub fn enumerate_distributed(
+        &self,
+        comm: &dyn Collective,
+        options: &OrbitOptions,
+        observer: &mut dyn ProgressObserver,
+    ) -> Result<DistributedOrbit, OrbitError> {
+        if options.store != StoreKind::Memory
+            || options.spill.is_some()
+            || options.checkpoint.is_some()
+        {
+            return Err(OrbitError::Invalid(
+                "a distributed enumeration keeps every rank's lines in the memory store and \
+                 writes no checkpoints (no --store compact, --spill, --checkpoint or --resume)"
+                    .into(),
+            ));
+        }
+        let started = Instant::now();
+        let ranks = comm.size();
+        let me = comm.rank();
+        let mut local = Orbit {
+            set: LineStore::new(StoreKind::Memory, self.dimension(), self.kernel.degree()),
+            processed: 0,
+            layer_ends: Vec::new(),
+            stop: None,
+            compute_seconds: 0.0,
+        };
+        let mut global = Vec::new();
+        let seed_fingerprint = self.key_fingerprint(&self.seed_key, false);
+        if owner(seed_fingerprint, ranks) == me {
+            local
+                .set
+                .insert(&self.seed_key, seed_fingerprint, u32::MAX, u16::MAX);
+            global.push(0);
+        }
+        local.layer_ends.push(local.set.len());
+        let mut orbit = DistributedOrbit {
+            local,
+            global,
+            layer_ends: vec![1],
+            total: 1,
+            ranks,
+            saturated: false,
+            stop: None,
+        };
+        let threads = options.threads.max(1);
+        let mut workspaces: Vec<Workspace> = (0..threads).map(|_| Workspace::new(self)).collect();
+        let chunk = options.chunk_size.max(1);
+        loop {
+            let start = orbit.local.processed;
+            let end = orbit.local.set.len();
+            let rounds = gather_numbers(comm, &[(end - start).div_ceil(chunk) as u64])
+                .iter()
+                .map(|v| v[0])
+                .max()
+                .unwrap_or(0) as usize;
+            let mut layer = NewLayer {
+                lines: LineStore::new(StoreKind::Memory, self.dimension(), self.kernel.degree()),
+                orders: Vec::new(),
+                fingerprints: Vec::new(),
+            };
+            let mut failure = None;
+            for round in 0..=rounds {
+                let status = match &failure {
+                    Some(_) => FAILED,
+                    None => match self.should_stop(&orbit.local, options).or_else(|| {
+                        options
+                            .memory_ceiling
+                            .filter(|&c| orbit.local.store_bytes() + layer.lines.bytes_used() > c)
+                            .map(|_| StopReason::Memory)
+                    }) {
+                        Some(StopReason::Interrupted) => INTERRUPTED,
+                        Some(_) => MEMORY,
+                        None => GOING,
+                    },
+                };
+                let statuses = comm.all_gather(vec![status]);
+                if statuses.iter().any(|s| s.first() == Some(&FAILED)) {
+                    return Err(failure.unwrap_or_else(|| {
+                        OrbitError::Invalid("another rank failed (its message is above)".into())
+                    }));
+                }
+                if let Some(s) = statuses
+                    .iter()
+                    .find_map(|s| s.first().filter(|&&s| s != GOING))
+                {
+                    orbit.stop = Some(match *s {
+                        INTERRUPTED => StopReason::Interrupted,
+                        _ => StopReason::Memory,
+                    });
+                    orbit.local.compute_seconds = started.elapsed().as_secs_f64();
+                    return Ok(orbit);
+                }
+                if round == rounds {
+                    break;
+                }
+                let part = (start + round * chunk).min(end)..(start + (round + 1) * chunk).min(end);
+                let outgoing = match self.send_images(&orbit, part, &mut workspaces, ranks) {
+                    Ok(o) => o,
+                    Err(e) => {
+                        failure = Some(e);
+                        vec![Vec::new(); ranks]
+                    }
+                };
+                let incoming = comm.exchange(outgoing);
+                if failure.is_none() {
+                    if let Err(e) = self.receive(&orbit.local.set, &mut layer, &incoming) {
+                        failure = Some(e);
+                    }
+                }
+            }
+            orbit.local.processed = end;
+            let found = self.settle_layer(comm, &mut orbit, layer, options.limit)?;
+            orbit.local.compute_seconds = started.elapsed().as_secs_f64();
+            let elapsed = started.elapsed();
+            observer.progress(&Progress {
+                layer: orbit.layer_ends.len(),
+                lines: orbit.total,
+                processed: orbit.layer_ends.last().copied().unwrap_or(0),
+                layer_end: orbit.total,
+                lines_per_second: orbit.total as f64 / elapsed.as_secs_f64().max(1e-9),
+                store_bytes: orbit.local_store_bytes(),
+                elapsed,
+            });
+            match found {
+                LayerEnd::Closed => {
+                    orbit.saturated = true;
+                    return Ok(orbit);
+                }
+                LayerEnd::Cut => {
+                    orbit.stop = Some(StopReason::Limit);
+                    return Ok(orbit);
+                }
+                LayerEnd::Grown => {}
+            }
+        }
+    }
+
+    /// The images of the local elements `part` that this rank does not already know, as
+    /// byte buffers for their owners.
+    fn send_images(
+        &self,
+        orbit: &DistributedOrbit,
+        part: std::ops::Range<usize>,
+        workspaces: &mut [Workspace],
+        ranks: usize,
+    ) -> Result<Vec<Vec<u8>>, OrbitError> {
+        let mut outgoing = vec![Vec::new(); ranks];
+        if part.is_empty() {
+            return Ok(outgoing);
+        }
+        for c in self.expand_chunk(&orbit.local.set, part, workspaces)? {
+            let order = u64::from(orbit.global[c.parent as usize]) << 16 | u64::from(c.generator);
+            encode(
+                &mut outgoing[owner(c.fingerprint, ranks)],
+                order,
+                c.fingerprint,
+                &c.key,
+            );
+        }
+        Ok(outgoing)
+    }
+
+    /// Decide the received candidates exactly: known lines are dropped, a line already in
+    /// the layer keeps the least order key, a new line joins the layer.
+    fn receive(
+        &self,
+        known: &LineStore,
+        layer: &mut NewLayer,
+        incoming: &[Vec<u8>],
+    ) -> Result<(), OrbitError> {
+        let mut buf = Numerators::new(self.key_len());
+        for (from, bytes) in incoming.iter().enumerate() {
+            let mut reader = Reader::new(bytes, self.key_len(), from);
+            while let Some(WireCandidate {
+                order,
+                fingerprint,
+                key,
+            }) = reader.next_candidate()?
+            {
+                if self.find_key(known, &mut buf, fingerprint, &key)?.is_some() {
+                    continue;
+                }
+                match self.find_key(&layer.lines, &mut buf, fingerprint, &key)? {
+                    Some(i) => {
+                        let o = &mut layer.orders[i as usize];
+                        *o = (*o).min(order);
+                    }
+                    None => {
+                        layer.lines.insert(&key, fingerprint, 0, 0);
+                        layer.orders.push(order);
+                        layer.fingerprints.push(fingerprint);
+                    }
+                }
+            }
+        }
+        Ok(())
+    }
+
+    /// Give the layer's new lines their global indices (their rank among all ranks' new
+    /// lines by order key), keep those within the line limit and store them in that order.
+    fn settle_layer(
+        &self,
+        comm: &dyn Collective,
+        orbit: &mut DistributedOrbit,
+        layer: NewLayer,
+        limit: Option<usize>,
+    ) -> Result<LayerEnd, OrbitError> {
+        let mut order: Vec<usize> = (0..layer.orders.len()).collect();
+        order.sort_unstable_by_key(|&i| layer.orders[i]);
+        let mine: Vec<u64> = order.iter().map(|&i| layer.orders[i]).collect();
+        let all = gather_numbers(comm, &mine);
+        let new_lines: usize = all.iter().map(Vec::len).sum();
+        if new_lines == 0 {
+            return Ok(LayerEnd::Closed);
+        }
+        let room = limit.map_or(usize::MAX, |l| l.saturating_sub(orbit.total));
+        if orbit.total + new_lines.min(room) > u32::MAX as usize {
+            return Err(OrbitError::Invalid(format!(
+                "{} lines: a Schreier record holds a line's index in 32 bits",
+                orbit.total + new_lines.min(room)
+            )));
+        }
+        let lines = layer.lines.memory_keys().ok_or_else(held_in_memory)?;
+        for (&i, &key_order) in order.iter().zip(&mine) {
+            let position: usize = all
+                .iter()
+                .map(|list| list.partition_point(|&o| o < key_order))
+                .sum();
+            if position >= room {
+                continue;
+            }
+            let key: KeyNumbers = lines.key(i);
+            orbit.local.set.insert(
+                &key,
+                layer.fingerprints[i],
+                (key_order >> 16) as u32,
+                (key_order & 0xffff) as u16,
+            );
+            orbit.global.push((orbit.total + position) as u32);
+        }
+        let kept = new_lines.min(room);
+        orbit.total += kept;
+        if kept < new_lines {
+            return Ok(LayerEnd::Cut);
+        }
+        orbit.layer_ends.push(orbit.total);
+        orbit.local.layer_ends.push(orbit.local.set.len());
+        Ok(LayerEnd::Grown)
+    }
+
+    /// B = Σ v v† over a saturated distributed orbit: each rank sums its lines, rank 0 adds
+    /// the parts and checks and reads the sum as [`Self::poincare_sum`] does. Every rank
+    /// calls this; rank 0 gets `Some`, the others `None`.
+    pub fn poincare_sum_distributed(
+        &self,
+        orbit: &DistributedOrbit,
+        comm: &dyn Collective,
+        threads: usize,
+    ) -> Result<Option<PoincareSum>, OrbitError> {
+        let g = self.generators.form_diagonal(&self.field);
+        let part = self.sum_part(orbit, threads, &g);
+        let text = match &part {
+            Ok((_, b)) => serde_json::to_string(&matrix_text(b)).expect("text serialises"),
+            Err(_) => String::new(),
+        };
+        let parts = comm.all_gather(text.into_bytes());
+        let (norm, mut b) = part?;
+        if comm.rank() != 0 {
+            return Ok(None);
+        }
+        for (rank, bytes) in parts.iter().enumerate().skip(1) {
+            let entries: Vec<String> = serde_json::from_slice(bytes).map_err(|e| {
+                OrbitError::Invalid(format!(
+                    "rank {rank} sent no part of B (its error is above): {e}"
+                ))
+            })?;
+            let other = self.matrix_from_text(&entries, rank)?;
+            b = b.add(&self.field, &other)?;
+        }
+        self.conclude_sum(b, &g, norm, orbit.len()).map(Some)
+    }
+
+    /// This rank's part of B and the seed's norm; an error when the orbit is not saturated.
+    fn sum_part(
+        &self,
+        orbit: &DistributedOrbit,
+        threads: usize,
+        g: &[cyclorb_field::Cyc],
+    ) -> Result<(cyclorb_field::Cyc, Matrix), OrbitError> {
+        if !orbit.is_saturated() {
+            return Err(OrbitError::Invalid(
+                "the Poincaré sum needs a saturated orbit".into(),
+            ));
+        }
+        self.check_unitary()?;
+        let norm = self.form_norm(&self.seed, g)?;
+        let keys = orbit.local.set.memory_keys().ok_or_else(held_in_memory)?;
+        let b = crate::sum::sum_matrix(self, keys, threads, g, &norm, None)?;
+        Ok((norm, b))
+    }
+
+    /// A d × d matrix from its entries in the field's text syntax, row by row.
+    fn matrix_from_text(&self, entries: &[String], rank: usize) -> Result<Matrix, OrbitError> {
+        let d = self.dimension();
+        if entries.len() != d * d {
+            return Err(OrbitError::Invalid(format!(
+                "rank {rank} sent {} entries of B, not {}",
+                entries.len(),
+                d * d
+            )));
+        }
+        let mut m = Matrix::zeros(&self.field, d, d);
+        for (at, text) in entries.iter().enumerate() {
+            m.set(at / d, at % d, self.field.parse(text)?);
+        }
+        Ok(m)
+    }
+}
+
+/// A square matrix's entries in the field's text syntax (exact), row by row.
+fn matrix_text(m: &Matrix) -> Vec<String> {
+    (0..m.rows())
+        .flat_map(|i| (0..m.rows()).map(move |j| m.get(i, j).to_string()))
+        .collect()
+}
+
+fn held_in_memory() -> OrbitError {
+    OrbitError::Invalid("a distributed orbit is held in the memory store".into())
+}
+
+/// How a layer ended.
+enum LayerEnd {
+    /// No new line anywhere: the orbit is closed.
+    Closed,
+    /// New lines, all kept.
+    Grown,
+    /// The line limit kept only the first of them.
+    Cut,
+}
