@@ -152,7 +152,7 @@ fn poincare_text(p: &PoincareReport) -> String {
     t
 }
 
-fn text_report(report: &OrbitAnswer) -> String {
+pub(super) fn text_report(report: &OrbitAnswer) -> String {
     let mut t = String::new();
     if let Some(theory) = &report.theory {
         t.push_str(&format!("theory {theory}"));
@@ -239,6 +239,10 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         }
         _ => args,
     };
+    #[cfg(feature = "mpi")]
+    if super::orbit_mpi::launched() {
+        return super::orbit_mpi::run(args, as_json, started);
+    }
     if args.method == OrbitMethod::Structure {
         return run_structure(args, as_json, started);
     }
@@ -316,7 +320,7 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
 }
 
 /// The origin of the problem the arguments name (a theory with its genus, or raw files).
-fn origin_of(args: &OrbitArgs) -> Result<Origin, String> {
+pub(super) fn origin_of(args: &OrbitArgs) -> Result<Origin, String> {
     match (&args.matrices, &args.seed, &args.spec) {
         (Some(m), Some(s), _) => Ok(Origin::Files {
             matrices: m.clone(),

@@ -17,6 +17,10 @@ pub enum Outcome {
     Stopped(Report),
     /// The input was invalid: message on stderr (exit 1).
     Invalid(String),
+    /// Another process reports (a rank other than 0 of a distributed run): print nothing,
+    /// exit with this code.
+    #[cfg(feature = "mpi")]
+    Quiet(u8),
 }
 
 /// What a subcommand prints: a JSON object and its human-readable text.
@@ -92,6 +96,8 @@ impl Outcome {
                 eprintln!("cyclorb: {msg}");
                 ExitCode::from(1)
             }
+            #[cfg(feature = "mpi")]
+            Outcome::Quiet(code) => ExitCode::from(code),
         }
     }
 }
