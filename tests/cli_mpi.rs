@@ -1,0 +1,124 @@
+//! `cyclorb orbit` under `mpirun` (cargo feature `mpi`; CI runs these with
+//! `cargo test --release --features mpi --test cli_mpi`): with 1 and 2 ranks the answer is
+//! the one-process run's, stdout is one JSON object, and a line limit stops every rank with
+//! the one-process run's partial answer and exit code.
+#![cfg(feature = "mpi")]
+
+mod common;
+mod outside;
+
+use std::process::Command;
+
+use common::{cyclorb_json, test_cache};
+use serde_json::Value;
+
+/// `mpirun -n RANKS cyclorb ARGS --json`: the exit code and the one JSON object on stdout.
+fn mpirun_json(ranks: usize, args: &[&str]) -> (i32, Value) {
+    let out = Command::new("mpirun")
+        .args(["-n", &ranks.to_string(), "--oversubscribe"])
+        .arg(env!("CARGO_BIN_EXE_cyclorb"))
+        .args(args)
+        .arg("--json")
+        .env("XDG_CACHE_HOME", test_cache())
+        // Open MPI refuses root without these (CI runs as root)
+        .env("OMPI_ALLOW_RUN_AS_ROOT", "1")
+        .env("OMPI_ALLOW_RUN_AS_ROOT_CONFIRM", "1")
+        .output()
+        .expect("mpirun runs (Debian: openmpi-bin)");
+    let value = serde_json::from_slice(&out.stdout).unwrap_or_else(|e| {
+        panic!(
+            "stdout of {ranks} ranks of {args:?} is not one JSON object ({e}):\n{}\nstderr:\n{}",
+            String::from_utf8_lossy(&out.stdout),
+            String::from_utf8_lossy(&out.stderr)
+        )
+    });
+    (out.status.code().unwrap_or(-1), value)
+}
+
+/// The keys that must agree between one process and any number of ranks.
+const ANSWER_KEYS: &[&str] = &[
+    "theory",
+    "genus",
+    "dimension",
+    "conductor",
+    "generator_names",
+    "orbit_size",
+    "saturated",
+    "stop_reason",
+    "layer_sizes",
+    "poincare_sum",
+    "numerator_width",
+    "store_kind",
+    "verified",
+];
+
+/// Run ARGS in one process and on 1 and 2 ranks; every answer key agrees and the ranks'
+/// lines add up to the orbit. Returns the one-process exit code and JSON.
+fn same_on_ranks(args: &[&str]) -> (i32, Value) {
+    let (code, single) = cyclorb_json(args);
+    for ranks in [1, 2] {
+        let (rank_code, v) = mpirun_json(ranks, args);
+        assert_eq!(rank_code, code, "{ranks} ranks of {args:?}: {v}");
+        for key in ANSWER_KEYS {
+            assert_eq!(v[key], single[key], "{key} of {args:?} on {ranks} ranks");
+        }
+        assert_eq!(v["ranks"]["count"], ranks);
+        let lines: u64 = v["ranks"]["lines"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .map(|x| x.as_u64().unwrap())
+            .sum();
+        assert_eq!(lines, v["orbit_size"].as_u64().unwrap(), "one owner per line");
+    }
+    (code, single)
+}
+
+#[test]
+fn ranks_give_the_one_process_answer() {
+    // fixtures/outside.toml: Castro, Gaberdiel, Hartman, Maloney, Volpato (2012) and their
+    // all-genus follow-up (2019): Ising at genus 2 has 3840 terms and B = 384·I.
+    let published = outside::orbit("ising", 2);
+    let (code, v) = same_on_ranks(&["orbit", "ising", "--genus", "2"]);
+    assert_eq!(code, 0);
+    assert_eq!(v["orbit_size"].as_u64(), Some(published.lines));
+    assert_eq!(v["poincare_sum"]["prefactor"], published.prefactor.as_str());
+    // SU(2)_4 at genus 1: B is not scalar; the commutant has dimension 2, the two physical
+    // invariants A_5 and D_4 of the ADE classification (Cappelli, Itzykson, Zuber, Commun.
+    // Math. Phys. 113 (1987) 1)
+    let (code, v) = same_on_ranks(&["orbit", "su2:4", "--genus", "1"]);
+    assert_eq!(code, 0);
+    assert_eq!(v["poincare_sum"]["is_scalar"], false);
+    assert_eq!(v["poincare_sum"]["commutant_dimension"], 2);
+    // D(S3) at genus 1: B read over the orbitals of the permutation action; its 8 labels
+    // (Dijkgraaf, Pasquier, Roche 1990: the simple objects of D(S3)) give a 8-dimensional
+    // block space at genus 1
+    let (code, v) = same_on_ranks(&["orbit", "dw:S3", "--genus", "1"]);
+    assert_eq!(code, 0);
+    assert_eq!(v["dimension"], 8);
+}
+
+#[test]
+fn a_line_limit_stops_every_rank_with_the_one_process_answer() {
+    let (code, v) = same_on_ranks(&["orbit", "ising", "--genus", "2", "--limit", "1000"]);
+    assert_eq!(code, 3, "a stopped run exits 3 (README, Commands)");
+    assert_eq!(v["orbit_size"], 1000);
+    assert_eq!(v["saturated"], false);
+    assert_eq!(v["stop_reason"], "limit");
+}
+
+#[test]
+fn what_a_distributed_run_cannot_do_is_refused_once() {
+    let out = Command::new("mpirun")
+        .args(["-n", "2", "--oversubscribe"])
+        .arg(env!("CARGO_BIN_EXE_cyclorb"))
+        .args(["orbit", "ising", "--genus", "1", "--store", "compact"])
+        .env("OMPI_ALLOW_RUN_AS_ROOT", "1")
+        .env("OMPI_ALLOW_RUN_AS_ROOT_CONFIRM", "1")
+        .output()
+        .unwrap();
+    assert_eq!(out.status.code(), Some(1));
+    assert!(out.stdout.is_empty());
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(stderr.matches("memory store").count(), 1, "{stderr}");
+}
