@@ -69,7 +69,11 @@ fn same_on_ranks(args: &[&str]) -> (i32, Value) {
             .iter()
             .map(|x| x.as_u64().unwrap())
             .sum();
-        assert_eq!(lines, v["orbit_size"].as_u64().unwrap(), "one owner per line");
+        assert_eq!(
+            lines,
+            v["orbit_size"].as_u64().unwrap(),
+            "one owner per line"
+        );
     }
     (code, single)
 }

@@ -145,9 +145,7 @@ pub fn run(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
     let RankOutcome { outcome, shared } = run_rank(&world, args, as_json, started);
     match outcome {
         _ if rank == 0 => outcome,
-        Outcome::Invalid(message) if !shared => {
-            Outcome::Invalid(format!("rank {rank}: {message}"))
-        }
+        Outcome::Invalid(message) if !shared => Outcome::Invalid(format!("rank {rank}: {message}")),
         Outcome::Invalid(_) => Outcome::Quiet(1),
         other => other,
     }
@@ -164,7 +162,9 @@ fn refusal(args: &OrbitArgs) -> Option<&'static str> {
         );
     }
     if args.store.is_some() || args.spill.is_some() {
-        return Some("a distributed run keeps each rank's lines in the memory store (drop --store/--spill)");
+        return Some(
+            "a distributed run keeps each rank's lines in the memory store (drop --store/--spill)",
+        );
     }
     if args.words > 0 {
         return Some("a distributed run does not print words (drop --words)");

@@ -26,6 +26,7 @@
 //! every rank reports its state and all stop together, at the last finished layer. An error
 //! on one rank stops every rank with an error.
 
+use std::path::Path;
 use std::time::Instant;
 
 use cyclorb_matrix::Matrix;
@@ -37,6 +38,7 @@ use crate::key::KeyNumbers;
 use crate::numerators::Numerators;
 use crate::poincare::PoincareSum;
 use crate::problem::OrbitProblem;
+use crate::rank_checkpoint::rank_checkpoint_path;
 use crate::set::{LineStore, StoreKind};
 use crate::step::Workspace;
 use crate::wire::{encode, Reader, WireCandidate};
@@ -45,16 +47,17 @@ use crate::wire::{encode, Reader, WireCandidate};
 /// rank agrees on (global size, layers, saturation).
 #[derive(Debug, Clone)]
 pub struct DistributedOrbit {
-    /// The lines this rank owns (records hold global parent indices).
-    local: Orbit,
+    /// The lines this rank owns (records hold global parent indices); its layer ends are
+    /// the local ends of the finished layers, `processed` the start of the frontier.
+    pub(crate) local: Orbit,
     /// The global index of each local line.
-    global: Vec<u32>,
+    pub(crate) global: Vec<u32>,
     /// Global end index of every finished layer.
-    layer_ends: Vec<usize>,
-    total: usize,
-    ranks: usize,
-    saturated: bool,
-    stop: Option<StopReason>,
+    pub(crate) layer_ends: Vec<usize>,
+    pub(crate) total: usize,
+    pub(crate) ranks: usize,
+    pub(crate) saturated: bool,
+    pub(crate) stop: Option<StopReason>,
 }
 
 impl DistributedOrbit {
@@ -153,27 +156,15 @@ impl OrbitProblem {
     /// Enumerate the orbit of the seed's line over the ranks of `comm` (every rank calls
     /// this with the same problem and options). Only the memory store is used; the options'
     /// limit, memory ceiling, threads, chunk size and stop flag apply (the ceiling to each
-    /// rank's store); checkpoints and spilling are refused. `observer` hears the whole job
-    /// after every layer.
+    /// rank's store); a checkpoint plan writes one file per rank ([`rank_checkpoint_path`])
+    /// at finished layers and at a stop. `observer` hears the whole job after every layer.
     pub fn enumerate_distributed(
         &self,
         comm: &dyn Collective,
         options: &OrbitOptions,
         observer: &mut dyn ProgressObserver,
     ) -> Result<DistributedOrbit, OrbitError> {
-        if options.store != StoreKind::Memory
-            || options.spill.is_some()
-            || options.checkpoint.is_some()
-        {
-            return Err(OrbitError::Invalid(
-                "a distributed enumeration keeps every rank's lines in the memory store and \
-                 writes no checkpoints (no --store compact, --spill, --checkpoint or --resume)"
-                    .into(),
-            ));
-        }
-        let started = Instant::now();
         let ranks = comm.size();
-        let me = comm.rank();
         let mut local = Orbit {
             set: LineStore::new(StoreKind::Memory, self.dimension(), self.kernel.degree()),
             processed: 0,
@@ -183,14 +174,14 @@ impl OrbitProblem {
         };
         let mut global = Vec::new();
         let seed_fingerprint = self.key_fingerprint(&self.seed_key, false);
-        if owner(seed_fingerprint, ranks) == me {
+        if owner(seed_fingerprint, ranks) == comm.rank() {
             local
                 .set
                 .insert(&self.seed_key, seed_fingerprint, u32::MAX, u16::MAX);
             global.push(0);
         }
         local.layer_ends.push(local.set.len());
-        let mut orbit = DistributedOrbit {
+        let orbit = DistributedOrbit {
             local,
             global,
             layer_ends: vec![1],
@@ -199,12 +190,68 @@ impl OrbitProblem {
             saturated: false,
             stop: None,
         };
+        self.extend_distributed(orbit, comm, options, observer)
+    }
+
+    /// Continue the distributed enumeration whose rank checkpoints are `base.rankR` (written
+    /// with the same number of ranks) to the identical answer.
+    pub fn resume_distributed(
+        &self,
+        base: &Path,
+        comm: &dyn Collective,
+        options: &OrbitOptions,
+        observer: &mut dyn ProgressObserver,
+    ) -> Result<DistributedOrbit, OrbitError> {
+        let path = rank_checkpoint_path(base, comm.rank());
+        let read = self.read_rank_checkpoint(&path, comm.size(), comm.rank());
+        let mine = match &read {
+            Ok(o) => [1, o.total as u64, o.layer_ends.len() as u64],
+            Err(_) => [0, 0, 0],
+        };
+        let all = gather_numbers(comm, &mine);
+        let orbit = read?;
+        if let Some(rank) = all.iter().position(|v| v[0] == 0) {
+            return Err(OrbitError::Checkpoint {
+                path: rank_checkpoint_path(base, rank).display().to_string(),
+                reason: "rank could not read its checkpoint (its message is above)".into(),
+            });
+        }
+        if all.iter().any(|v| v[1..] != all[0][1..]) {
+            return Err(OrbitError::Checkpoint {
+                path: base.display().to_string(),
+                reason: "the ranks' checkpoints were written at different layers (a job \
+                         killed while writing them); no common state to resume from"
+                    .into(),
+            });
+        }
+        self.extend_distributed(orbit, comm, options, observer)
+    }
+
+    fn extend_distributed(
+        &self,
+        mut orbit: DistributedOrbit,
+        comm: &dyn Collective,
+        options: &OrbitOptions,
+        observer: &mut dyn ProgressObserver,
+    ) -> Result<DistributedOrbit, OrbitError> {
+        if options.store != StoreKind::Memory || options.spill.is_some() {
+            return Err(OrbitError::Invalid(
+                "a distributed enumeration keeps every rank's lines in the memory store \
+                 (no --store compact or --spill)"
+                    .into(),
+            ));
+        }
+        let started = Instant::now();
+        let base_seconds = orbit.local.compute_seconds;
+        let mut last_checkpoint = Instant::now();
+        let ranks = comm.size();
+        orbit.stop = None;
         let threads = options.threads.max(1);
         let mut workspaces: Vec<Workspace> = (0..threads).map(|_| Workspace::new(self)).collect();
         let chunk = options.chunk_size.max(1);
         loop {
             let start = orbit.local.processed;
-            let end = orbit.local.set.len();
+            let end = *orbit.local.layer_ends.last().unwrap_or(&0);
             let rounds = gather_numbers(comm, &[(end - start).div_ceil(chunk) as u64])
                 .iter()
                 .map(|v| v[0])
@@ -244,7 +291,8 @@ impl OrbitProblem {
                         INTERRUPTED => StopReason::Interrupted,
                         _ => StopReason::Memory,
                     });
-                    orbit.local.compute_seconds = started.elapsed().as_secs_f64();
+                    orbit.local.compute_seconds = base_seconds + started.elapsed().as_secs_f64();
+                    self.checkpoint_ranks(comm, &orbit, options)?;
                     return Ok(orbit);
                 }
                 if round == rounds {
@@ -265,9 +313,8 @@ impl OrbitProblem {
                     }
                 }
             }
-            orbit.local.processed = end;
             let found = self.settle_layer(comm, &mut orbit, layer, options.limit)?;
-            orbit.local.compute_seconds = started.elapsed().as_secs_f64();
+            orbit.local.compute_seconds = base_seconds + started.elapsed().as_secs_f64();
             let elapsed = started.elapsed();
             observer.progress(&Progress {
                 layer: orbit.layer_ends.len(),
@@ -285,10 +332,44 @@ impl OrbitProblem {
                 }
                 LayerEnd::Cut => {
                     orbit.stop = Some(StopReason::Limit);
+                    self.checkpoint_ranks(comm, &orbit, options)?;
                     return Ok(orbit);
                 }
                 LayerEnd::Grown => {}
             }
+            // rank 0's clock decides, so that every rank writes at the same layer
+            let due = options
+                .checkpoint
+                .as_ref()
+                .is_some_and(|plan| last_checkpoint.elapsed() >= plan.every);
+            if gather_numbers(comm, &[u64::from(due)])[0][0] == 1 {
+                self.checkpoint_ranks(comm, &orbit, options)?;
+                last_checkpoint = Instant::now();
+            }
+        }
+    }
+
+    /// Every rank writes its checkpoint (when the options ask for them); an error on any
+    /// rank is an error on all.
+    fn checkpoint_ranks(
+        &self,
+        comm: &dyn Collective,
+        orbit: &DistributedOrbit,
+        options: &OrbitOptions,
+    ) -> Result<(), OrbitError> {
+        let Some(plan) = &options.checkpoint else {
+            return Ok(());
+        };
+        let path = rank_checkpoint_path(&plan.path, comm.rank());
+        let written = self.write_rank_checkpoint(orbit, comm.rank(), &path);
+        let all = gather_numbers(comm, &[u64::from(written.is_ok())]);
+        written?;
+        match all.iter().position(|v| v[0] == 0) {
+            Some(rank) => Err(OrbitError::Checkpoint {
+                path: rank_checkpoint_path(&plan.path, rank).display().to_string(),
+                reason: "rank could not write its checkpoint (its message is above)".into(),
+            }),
+            None => Ok(()),
         }
     }
 
@@ -327,7 +408,7 @@ impl OrbitProblem {
     ) -> Result<(), OrbitError> {
         let mut buf = Numerators::new(self.key_len());
         for (from, bytes) in incoming.iter().enumerate() {
-            let mut reader = Reader::new(bytes, self.key_len(), from);
+            let mut reader = Reader::new(bytes, self.key_len(), format!("rank {from}"));
             while let Some(WireCandidate {
                 order,
                 fingerprint,
@@ -398,8 +479,11 @@ impl OrbitProblem {
         let kept = new_lines.min(room);
         orbit.total += kept;
         if kept < new_lines {
+            // the frontier stays unprocessed: a resumed run expands it again, finds the
+            // kept lines known and gives the others the indices after them
             return Ok(LayerEnd::Cut);
         }
+        orbit.local.processed = *orbit.local.layer_ends.last().unwrap_or(&0);
         orbit.layer_ends.push(orbit.total);
         orbit.local.layer_ends.push(orbit.local.set.len());
         Ok(LayerEnd::Grown)

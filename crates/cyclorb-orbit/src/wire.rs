@@ -22,7 +22,8 @@ pub(crate) struct WireCandidate {
 const SMALL: u8 = 0;
 const BIG: u8 = 1;
 
-fn put_varint(out: &mut Vec<u8>, mut x: u64) {
+/// Append a number as a LEB128 varint.
+pub(crate) fn put_varint(out: &mut Vec<u8>, mut x: u64) {
     while x >= 0x80 {
         out.push((x as u8) | 0x80);
         x >>= 7;
@@ -57,17 +58,18 @@ pub(crate) fn encode(out: &mut Vec<u8>, order: u64, fingerprint: u64, key: &KeyN
     }
 }
 
-/// Reads candidates back from one rank's buffer.
+/// Reads candidates back from one rank's buffer (or a rank's checkpoint).
 pub(crate) struct Reader<'a> {
     bytes: &'a [u8],
     at: usize,
     key_len: usize,
-    from: usize,
+    from: String,
 }
 
 impl<'a> Reader<'a> {
-    /// The candidates in `bytes`, sent by rank `from`, keys of `key_len` numerators.
-    pub(crate) fn new(bytes: &'a [u8], key_len: usize, from: usize) -> Reader<'a> {
+    /// The candidates in `bytes`, keys of `key_len` numerators; `from` names the sender
+    /// (a rank, a file) in errors.
+    pub(crate) fn new(bytes: &'a [u8], key_len: usize, from: String) -> Reader<'a> {
         Reader {
             bytes,
             at: 0,
@@ -78,12 +80,13 @@ impl<'a> Reader<'a> {
 
     fn malformed(&self, what: &str) -> OrbitError {
         OrbitError::Invalid(format!(
-            "malformed candidate from rank {} at byte {}: {what}",
+            "malformed candidate from {} at byte {}: {what}",
             self.from, self.at
         ))
     }
 
-    fn varint(&mut self) -> Result<u64, OrbitError> {
+    /// The next LEB128 number.
+    pub(crate) fn varint(&mut self) -> Result<u64, OrbitError> {
         let mut x = 0u64;
         for shift in (0..64).step_by(7) {
             let &b = self
@@ -107,9 +110,14 @@ impl<'a> Reader<'a> {
             .ok_or_else(|| self.malformed("index out of range"))
     }
 
+    /// Whether every byte has been read.
+    pub(crate) fn at_end(&self) -> bool {
+        self.at == self.bytes.len()
+    }
+
     /// The next candidate, `None` at the end of the buffer.
     pub(crate) fn next_candidate(&mut self) -> Result<Option<WireCandidate>, OrbitError> {
-        if self.at == self.bytes.len() {
+        if self.at_end() {
             return Ok(None);
         }
         let order = self.varint()?;
@@ -180,7 +188,7 @@ mod tests {
         let mut bytes = Vec::new();
         encode(&mut bytes, 3 << 16 | 2, 0x7fff_ffff, &small);
         encode(&mut bytes, u64::MAX, 0, &big);
-        let mut reader = Reader::new(&bytes, 8, 1);
+        let mut reader = Reader::new(&bytes, 8, "rank 1".into());
         let a = reader.next_candidate().unwrap().unwrap();
         assert_eq!(
             (a.order, a.fingerprint, &a.key),
@@ -196,10 +204,10 @@ mod tests {
         let mut bytes = Vec::new();
         encode(&mut bytes, 9, 4, &KeyNumbers::Small(vec![1, 2, 3]));
         for cut in 0..bytes.len() {
-            let mut reader = Reader::new(&bytes[..cut], 3, 0);
+            let mut reader = Reader::new(&bytes[..cut], 3, "rank 0".into());
             assert!(matches!(reader.next_candidate(), Err(_) | Ok(None)));
         }
-        let mut reader = Reader::new(&bytes[..bytes.len() - 1], 3, 2);
+        let mut reader = Reader::new(&bytes[..bytes.len() - 1], 3, "rank 2".into());
         let e = reader.next_candidate().unwrap_err().to_string();
         assert!(e.contains("rank 2"), "{e}");
     }

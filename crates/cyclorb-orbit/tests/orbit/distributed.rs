@@ -3,11 +3,14 @@
 //! chunk size the orbit size, the layer sizes, every Schreier record and B are the ones the
 //! one-process run finds, and a line limit or a stop ends every rank at the same place.
 
+use std::path::Path;
 use std::sync::atomic::AtomicBool;
 use std::sync::{Arc, Barrier, Mutex};
+use std::time::Duration;
 
 use cyclorb_orbit::{
-    Collective, DistributedOrbit, OrbitOptions, OrbitProblem, PoincareSum, Silent, StopReason,
+    rank_checkpoint_path, CheckpointPlan, Collective, DistributedOrbit, OrbitOptions, OrbitProblem,
+    PoincareSum, Silent, StopReason,
 };
 
 use crate::common::*;
@@ -53,10 +56,11 @@ impl Collective for ThreadRank {
 /// What every rank returns: its share of the orbit and (rank 0) the sum.
 type RankResult = (DistributedOrbit, Option<PoincareSum>);
 
-/// Run the distributed enumeration (and the sum when it closes) on `ranks` threads.
-fn distributed(problem: &OrbitProblem, ranks: usize, options: &OrbitOptions) -> Vec<RankResult> {
+/// Run `work` on `ranks` threads, each with its rank; the results by rank.
+fn on_ranks<T: Send>(ranks: usize, work: impl Fn(&ThreadRank) -> T + Sync) -> Vec<T> {
     let barrier = Arc::new(Barrier::new(ranks));
     let mail = Arc::new(Mutex::new(vec![vec![Vec::new(); ranks]; ranks]));
+    let work = &work;
     std::thread::scope(|scope| {
         let handles: Vec<_> = (0..ranks)
             .map(|rank| {
@@ -66,21 +70,30 @@ fn distributed(problem: &OrbitProblem, ranks: usize, options: &OrbitOptions) -> 
                     barrier: barrier.clone(),
                     mail: mail.clone(),
                 };
-                scope.spawn(move || {
-                    let orbit = problem
-                        .enumerate_distributed(&comm, options, &mut Silent)
-                        .unwrap();
-                    let sum = if orbit.is_saturated() {
-                        problem.poincare_sum_distributed(&orbit, &comm, 1).unwrap()
-                    } else {
-                        None
-                    };
-                    (orbit, sum)
-                })
+                scope.spawn(move || work(&comm))
             })
             .collect();
         handles.into_iter().map(|h| h.join().unwrap()).collect()
     })
+}
+
+/// Run the distributed enumeration (and the sum when it closes) on `ranks` threads.
+fn distributed(problem: &OrbitProblem, ranks: usize, options: &OrbitOptions) -> Vec<RankResult> {
+    on_ranks(ranks, |comm| {
+        let orbit = problem
+            .enumerate_distributed(comm, options, &mut Silent)
+            .unwrap();
+        with_sum(problem, orbit, comm)
+    })
+}
+
+/// The rank's orbit and, when it closed, the sum (rank 0 only).
+fn with_sum(problem: &OrbitProblem, orbit: DistributedOrbit, comm: &ThreadRank) -> RankResult {
+    let sum = orbit
+        .is_saturated()
+        .then(|| problem.poincare_sum_distributed(&orbit, comm, 1).unwrap())
+        .flatten();
+    (orbit, sum)
 }
 
 /// Every rank's records put together by global index.
@@ -190,15 +203,92 @@ fn a_stop_or_a_memory_ceiling_ends_every_rank_together() {
         spill: Some(temp_path("distributed-spill")),
         ..options(1, 16)
     };
-    let comm = ThreadRank {
-        rank: 0,
-        size: 1,
-        barrier: Arc::new(Barrier::new(1)),
-        mail: Arc::new(Mutex::new(vec![vec![Vec::new()]])),
-    };
-    let e = problem
-        .enumerate_distributed(&comm, &refused, &mut Silent)
-        .unwrap_err()
-        .to_string();
+    let e = on_ranks(1, |comm| {
+        problem
+            .enumerate_distributed(comm, &refused, &mut Silent)
+            .unwrap_err()
+            .to_string()
+    })
+    .remove(0);
     assert!(e.contains("memory store"), "{e}");
+}
+
+/// Resume on `ranks` threads from the rank checkpoints at `base`.
+fn resumed(
+    problem: &OrbitProblem,
+    base: &Path,
+    ranks: usize,
+    options: &OrbitOptions,
+) -> Vec<RankResult> {
+    on_ranks(ranks, |comm| {
+        let orbit = problem
+            .resume_distributed(base, comm, options, &mut Silent)
+            .unwrap();
+        with_sum(problem, orbit, comm)
+    })
+}
+
+#[test]
+fn rank_checkpoints_resume_to_the_identical_answer() {
+    let g = clifford(3);
+    let problem = OrbitProblem::new(g.clone(), &vacuum(&g)).unwrap();
+    let single = run(&problem, 1, 64);
+    let expected: Vec<_> = (0..single.len()).map(|i| single.schreier(i)).collect();
+    let reference = problem.poincare_sum(&single, 1).unwrap();
+    let base = temp_path("distributed-ckpt");
+    let with_checkpoints = |limit, stop: bool| OrbitOptions {
+        limit,
+        stop: stop.then(|| Arc::new(AtomicBool::new(true))),
+        checkpoint: Some(CheckpointPlan {
+            path: base.clone(),
+            every: Duration::from_secs(3600),
+        }),
+        ..options(1, 16)
+    };
+    // cut by a limit inside a layer, then by a stop, then to the end
+    for limit in [200, 701] {
+        let first = distributed(&problem, 3, &with_checkpoints(Some(limit), false));
+        assert_eq!(first[0].0.len(), limit);
+        let again = resumed(&problem, &base, 3, &with_checkpoints(None, true));
+        assert_eq!(again[0].0.stop_reason(), Some(StopReason::Interrupted));
+        assert_eq!(again[0].0.len(), limit, "a stop at once keeps the state");
+        let done = resumed(&problem, &base, 3, &options(2, 5));
+        for (orbit, _) in &done {
+            assert!(orbit.is_saturated());
+            assert_eq!(orbit.layer_sizes(), single.layer_sizes());
+        }
+        assert!(records(&done) == expected, "resumed after {limit} lines");
+        assert_eq!(done[0].1.as_ref().unwrap(), &reference);
+    }
+    // another number of ranks, or a damaged file, is refused with the file named
+    let e = on_ranks(1, |comm| {
+        problem
+            .resume_distributed(&base, comm, &options(1, 16), &mut Silent)
+            .unwrap_err()
+            .to_string()
+    });
+    assert!(
+        e[0].contains("rank 0 of 3") && e[0].contains("mpirun -n 3"),
+        "{e:?}"
+    );
+    let file = rank_checkpoint_path(&base, 1);
+    let mut bytes = std::fs::read(&file).unwrap();
+    let middle = bytes.len() / 2;
+    bytes[middle] ^= 1;
+    std::fs::write(&file, bytes).unwrap();
+    let errors = on_ranks(3, |comm| {
+        problem
+            .resume_distributed(&base, comm, &options(1, 16), &mut Silent)
+            .unwrap_err()
+            .to_string()
+    });
+    assert!(errors[1].contains("checksum"), "{errors:?}");
+    let named = file.display().to_string();
+    assert!(
+        errors[0].contains(&named) && errors[2].contains(&named),
+        "{errors:?}"
+    );
+    for r in 0..3 {
+        std::fs::remove_file(rank_checkpoint_path(&base, r)).ok();
+    }
 }
