@@ -1,7 +1,8 @@
 //! `cyclorb orbit` under `mpirun` (cargo feature `mpi`; CI runs these with
 //! `cargo test --release --features mpi --test cli_mpi`): with 1 and 2 ranks the answer is
 //! the one-process run's, stdout is one JSON object, and a line limit stops every rank with
-//! the one-process run's partial answer and exit code.
+//! the one-process run's partial answer and exit code, and rank checkpoints resume to the
+//! one-process answer.
 #![cfg(feature = "mpi")]
 
 mod common;
@@ -14,17 +15,9 @@ use serde_json::Value;
 
 /// `mpirun -n RANKS cyclorb ARGS --json`: the exit code and the one JSON object on stdout.
 fn mpirun_json(ranks: usize, args: &[&str]) -> (i32, Value) {
-    let out = Command::new("mpirun")
-        .args(["-n", &ranks.to_string(), "--oversubscribe"])
-        .arg(env!("CARGO_BIN_EXE_cyclorb"))
-        .args(args)
-        .arg("--json")
-        .env("XDG_CACHE_HOME", test_cache())
-        // Open MPI refuses root without these (CI runs as root)
-        .env("OMPI_ALLOW_RUN_AS_ROOT", "1")
-        .env("OMPI_ALLOW_RUN_AS_ROOT_CONFIRM", "1")
-        .output()
-        .expect("mpirun runs (Debian: openmpi-bin)");
+    let mut all = args.to_vec();
+    all.push("--json");
+    let out = mpirun(ranks, &all);
     let value = serde_json::from_slice(&out.stdout).unwrap_or_else(|e| {
         panic!(
             "stdout of {ranks} ranks of {args:?} is not one JSON object ({e}):\n{}\nstderr:\n{}",
@@ -111,16 +104,61 @@ fn a_line_limit_stops_every_rank_with_the_one_process_answer() {
     assert_eq!(v["stop_reason"], "limit");
 }
 
-#[test]
-fn what_a_distributed_run_cannot_do_is_refused_once() {
-    let out = Command::new("mpirun")
-        .args(["-n", "2", "--oversubscribe"])
+/// `mpirun -n RANKS cyclorb ARGS` (text), for exit codes and messages.
+fn mpirun(ranks: usize, args: &[&str]) -> std::process::Output {
+    Command::new("mpirun")
+        .args(["-n", &ranks.to_string(), "--oversubscribe"])
         .arg(env!("CARGO_BIN_EXE_cyclorb"))
-        .args(["orbit", "ising", "--genus", "1", "--store", "compact"])
+        .args(args)
+        .env("XDG_CACHE_HOME", test_cache())
+        // Open MPI refuses root without these (CI runs as root)
         .env("OMPI_ALLOW_RUN_AS_ROOT", "1")
         .env("OMPI_ALLOW_RUN_AS_ROOT_CONFIRM", "1")
         .output()
-        .unwrap();
+        .expect("mpirun runs (Debian: openmpi-bin)")
+}
+
+#[test]
+fn rank_checkpoints_resume_to_the_one_process_answer() {
+    let base = common::temp_path("mpi-ckpt");
+    let base_text = base.display().to_string();
+    let (_, single) = cyclorb_json(&["orbit", "ising", "--genus", "2"]);
+    let (code, stopped) = mpirun_json(
+        2,
+        &[
+            "orbit",
+            "ising",
+            "--genus",
+            "2",
+            "--limit",
+            "1000",
+            "--checkpoint",
+            &base_text,
+        ],
+    );
+    assert_eq!(code, 3, "{stopped}");
+    assert_eq!(stopped["checkpoint"], base_text.as_str());
+    let command = stopped["resume_command"].as_str().unwrap();
+    assert!(command.starts_with("mpirun -n 2 "), "{command}");
+    // three ranks cannot continue two ranks' files: refused, the missing file named once
+    let out = mpirun(3, &["orbit", "--resume", &base_text]);
+    assert_eq!(out.status.code(), Some(1));
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert_eq!(stderr.matches(".rank2").count(), 1, "{stderr}");
+    // `--resume BASE` alone: the problem is the one the checkpoints record
+    let (code, resumed) = mpirun_json(2, &["orbit", "--resume", &base_text]);
+    assert_eq!(code, 0, "{resumed}");
+    for key in ANSWER_KEYS {
+        assert_eq!(resumed[key], single[key], "{key} after resuming");
+    }
+    for rank in 0..2 {
+        std::fs::remove_file(format!("{base_text}.rank{rank}")).ok();
+    }
+}
+
+#[test]
+fn what_a_distributed_run_cannot_do_is_refused_once() {
+    let out = mpirun(2, &["orbit", "ising", "--genus", "1", "--store", "compact"]);
     assert_eq!(out.status.code(), Some(1));
     assert!(out.stdout.is_empty());
     let stderr = String::from_utf8_lossy(&out.stderr);

@@ -228,6 +228,10 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
                 .into(),
         );
     }
+    #[cfg(feature = "mpi")]
+    if super::orbit_mpi::launched() {
+        return super::orbit_mpi::run(args, as_json, started);
+    }
     let completed;
     let args = match &args.resume {
         Some(path) if args.spec.is_none() && args.matrices.is_none() => {
@@ -239,10 +243,6 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
         }
         _ => args,
     };
-    #[cfg(feature = "mpi")]
-    if super::orbit_mpi::launched() {
-        return super::orbit_mpi::run(args, as_json, started);
-    }
     if args.method == OrbitMethod::Structure {
         return run_structure(args, as_json, started);
     }
@@ -336,7 +336,7 @@ pub(super) fn origin_of(args: &OrbitArgs) -> Result<Origin, String> {
 }
 
 /// `--resume FILE` alone: the arguments completed with the origin the checkpoint records.
-fn with_origin(args: &OrbitArgs, origin: Origin) -> OrbitArgs {
+pub(super) fn with_origin(args: &OrbitArgs, origin: Origin) -> OrbitArgs {
     let mut out = args.clone();
     match origin {
         Origin::Files { matrices, seed } => {

@@ -5,14 +5,16 @@
 //! lines whose fingerprint maps to it; rank 0 alone prints the report (one JSON object with
 //! `--json`), with every rank's lines, store and peak memory under `ranks`. The other ranks
 //! print nothing on stdout and exit with the same code; an error found on one rank alone is
-//! printed on stderr with its rank.
+//! printed on stderr with its rank, before MPI is finished.
 
 use std::sync::atomic::AtomicBool;
 use std::sync::Arc;
 use std::time::Instant;
 
-use cyclorb_orbit::{gather_numbers, Collective, Silent};
-use cyclorb_pipeline::listing::Listing;
+use cyclorb_orbit::{
+    gather_numbers, rank_checkpoint_origin, rank_checkpoint_path, Collective, OrbitOptions, Silent,
+};
+use cyclorb_pipeline::listing::{Listing, Origin};
 use cyclorb_pipeline::OrbitMethod;
 use mpi::datatype::{Partition, PartitionMut};
 use mpi::topology::SimpleCommunicator;
@@ -20,8 +22,8 @@ use mpi::traits::*;
 use mpi::{Count, Threading};
 use serde_json::json;
 
-use super::orbit::{options, origin_of, text_report};
-use super::output::{Outcome, Report};
+use super::orbit::{options, origin_of, text_report, with_origin};
+use super::output::{shell_word, Outcome, Report};
 use super::progress::OrbitProgress;
 use crate::cli::OrbitArgs;
 use crate::runtime::{install_stop_handler, peak_memory_bytes};
@@ -145,8 +147,13 @@ pub fn run(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
     let RankOutcome { outcome, shared } = run_rank(&world, args, as_json, started);
     match outcome {
         _ if rank == 0 => outcome,
-        Outcome::Invalid(message) if !shared => Outcome::Invalid(format!("rank {rank}: {message}")),
-        Outcome::Invalid(_) => Outcome::Quiet(1),
+        Outcome::Invalid(message) => {
+            // now, before MPI is finished: the launcher may end this rank once rank 0 exits
+            if !shared {
+                eprintln!("cyclorb: rank {rank}: {message}");
+            }
+            Outcome::Quiet(1)
+        }
         other => other,
     }
 }
@@ -154,12 +161,6 @@ pub fn run(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
 fn refusal(args: &OrbitArgs) -> Option<&'static str> {
     if args.method != OrbitMethod::Enumerate {
         return Some("under MPI only the enumerating route runs (drop --method)");
-    }
-    if args.checkpoint.is_some() || args.resume.is_some() {
-        return Some(
-            "a distributed run writes no checkpoints yet (drop --checkpoint/--resume; \
-             docs/orbits.md §6)",
-        );
     }
     if args.store.is_some() || args.spill.is_some() {
         return Some(
@@ -172,31 +173,64 @@ fn refusal(args: &OrbitArgs) -> Option<&'static str> {
     None
 }
 
-fn run_rank(world: &World, args: &OrbitArgs, as_json: bool, started: Instant) -> RankOutcome {
-    let shared = |message: String| RankOutcome {
-        outcome: Outcome::Invalid(message),
-        shared: true,
-    };
+/// This rank's problem and options; with `--resume BASE` alone the problem is the one this
+/// rank's checkpoint `BASE.rankR` records.
+fn set_up(
+    args: &OrbitArgs,
+    rank: usize,
+    stop: Arc<AtomicBool>,
+) -> Result<(Listing, OrbitOptions), String> {
     if let Some(reason) = refusal(args) {
-        return shared(reason.into());
+        return Err(reason.into());
     }
-    let listing = match origin_of(args).and_then(|origin| Listing::new(&origin)) {
-        Ok(l) => l,
-        Err(e) => return shared(e),
+    let completed;
+    let args = match &args.resume {
+        Some(base) if args.spec.is_none() && args.matrices.is_none() => {
+            let path = rank_checkpoint_path(base, rank);
+            let place = path.display().to_string();
+            let origin = rank_checkpoint_origin(&path)
+                .map_err(|e| e.to_string())?
+                .ok_or_else(|| format!("{place} records no problem; give SPEC --genus G"))?;
+            completed = with_origin(args, Origin::from_recorded(&place, &origin)?);
+            &completed
+        }
+        _ => args,
     };
-    let stop = Arc::new(AtomicBool::new(false));
-    if let Err(e) = install_stop_handler(&stop) {
-        return shared(format!("cannot install the interrupt handler: {e}"));
-    }
-    let mut opts = options(args, stop);
-    opts.checkpoint = None;
-    let result = if world.rank() == 0 {
+    let listing = origin_of(args).and_then(|origin| Listing::new(&origin))?;
+    install_stop_handler(&stop)
+        .map_err(|e| format!("cannot install the interrupt handler: {e}"))?;
+    Ok((listing, options(args, stop)))
+}
+
+fn run_rank(world: &World, args: &OrbitArgs, as_json: bool, started: Instant) -> RankOutcome {
+    let rank = world.rank();
+    let set_up = set_up(args, rank, Arc::new(AtomicBool::new(false)));
+    // no rank goes on alone: the first collective call would wait for the others forever
+    let ready = gather_numbers(world, &[u64::from(set_up.is_ok())]);
+    let (listing, opts) = match set_up {
+        Ok(x) if ready.iter().all(|r| r[0] == 1) => x,
+        Ok(_) => {
+            return RankOutcome {
+                outcome: Outcome::Invalid(
+                    "another rank could not start (its message is on stderr)".into(),
+                ),
+                shared: true,
+            }
+        }
+        Err(e) => {
+            return RankOutcome {
+                outcome: Outcome::Invalid(e),
+                shared: ready[0][0] == 0,
+            }
+        }
+    };
+    let result = if rank == 0 {
         let mut progress = OrbitProgress::new(as_json);
-        let result = listing.run_distributed(world, &opts, &mut progress);
+        let result = listing.run_distributed(world, &opts, args.resume.as_deref(), &mut progress);
         progress.finish();
         result
     } else {
-        listing.run_distributed(world, &opts, &mut Silent)
+        listing.run_distributed(world, &opts, args.resume.as_deref(), &mut Silent)
     };
     let orbit = match result {
         Ok(o) => o,
@@ -250,7 +284,24 @@ fn run_rank(world: &World, args: &OrbitArgs, as_json: bool, started: Instant) ->
         mib.join(", ")
     ));
     if !orbit.is_saturated() {
-        text.push_str("no checkpoint: a distributed run does not write one yet\n");
+        match &opts.checkpoint {
+            Some(plan) => {
+                let base = plan.path.display().to_string();
+                let command = format!(
+                    "mpirun -n {} cyclorb orbit --resume {}",
+                    orbit.ranks(),
+                    shell_word(&base)
+                );
+                text.push_str(&format!(
+                    "checkpoint written to {base}.rank0 … {base}.rank{}\ncontinue with: {command}\n",
+                    orbit.ranks() - 1
+                ));
+                value["checkpoint"] = json!(base);
+                value["resume_command"] = json!(command);
+            }
+            None => text
+                .push_str("no checkpoint written: give --checkpoint BASE for one file per rank\n"),
+        }
     }
     let out = Report::new(value, text, as_json);
     let outcome = match code {

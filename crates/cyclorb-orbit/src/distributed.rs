@@ -213,7 +213,7 @@ impl OrbitProblem {
         if let Some(rank) = all.iter().position(|v| v[0] == 0) {
             return Err(OrbitError::Checkpoint {
                 path: rank_checkpoint_path(base, rank).display().to_string(),
-                reason: "rank could not read its checkpoint (its message is above)".into(),
+                reason: "rank could not read its checkpoint (its message is on stderr)".into(),
             });
         }
         if all.iter().any(|v| v[1..] != all[0][1..]) {
@@ -280,7 +280,7 @@ impl OrbitProblem {
                 let statuses = comm.all_gather(vec![status]);
                 if statuses.iter().any(|s| s.first() == Some(&FAILED)) {
                     return Err(failure.unwrap_or_else(|| {
-                        OrbitError::Invalid("another rank failed (its message is above)".into())
+                        OrbitError::Invalid("another rank failed (its message is on stderr)".into())
                     }));
                 }
                 if let Some(s) = statuses
@@ -367,7 +367,7 @@ impl OrbitProblem {
         match all.iter().position(|v| v[0] == 0) {
             Some(rank) => Err(OrbitError::Checkpoint {
                 path: rank_checkpoint_path(&plan.path, rank).display().to_string(),
-                reason: "rank could not write its checkpoint (its message is above)".into(),
+                reason: "rank could not write its checkpoint (its message is on stderr)".into(),
             }),
             None => Ok(()),
         }

@@ -73,7 +73,13 @@ impl Origin {
                      --genus G (and --set) as when it was written"
                 )
             })?;
-        let v: serde_json::Value = serde_json::from_str(&origin)
+        Origin::from_recorded(&place.to_string(), &origin)
+    }
+
+    /// The origin from the text a checkpoint recorded ([`Origin::to_json`]); `place` names
+    /// the checkpoint in errors.
+    pub fn from_recorded(place: &str, origin: &str) -> Result<Origin, String> {
+        let v: serde_json::Value = serde_json::from_str(origin)
             .map_err(|e| format!("{place}: the recorded origin is not JSON: {e}"))?;
         match (
             v["matrices"].as_str(),
@@ -175,16 +181,22 @@ impl Listing {
         answer
     }
 
-    /// List the orbit over the ranks of `comm` (every rank calls this; docs/orbits.md §6).
+    /// List the orbit over the ranks of `comm` (every rank calls this; docs/orbits.md §6):
+    /// from the start, or continuing the rank checkpoints `resume.rankR`.
     pub fn run_distributed(
         &self,
         comm: &dyn Collective,
         options: &OrbitOptions,
+        resume: Option<&Path>,
         progress: &mut dyn ProgressObserver,
     ) -> Result<DistributedOrbit, String> {
-        self.problem
-            .enumerate_distributed(comm, options, progress)
-            .map_err(|e| e.to_string())
+        match resume {
+            Some(base) => self
+                .problem
+                .resume_distributed(base, comm, options, progress),
+            None => self.problem.enumerate_distributed(comm, options, progress),
+        }
+        .map_err(|e| e.to_string())
     }
 
     /// The answer of an orbit listed over ranks, as [`Self::answer`] gives it for one
