@@ -45,6 +45,23 @@ const ANSWER_KEYS: &[&str] = &[
     "verified",
 ];
 
+/// Every key of a distributed report, and of its `ranks`, is in docs/schema/orbit.schema.json
+/// (tests/json_schema.rs checks the one-process reports in full).
+fn documented(v: &Value) {
+    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/docs/schema/orbit.schema.json");
+    let schema: Value = serde_json::from_str(&std::fs::read_to_string(path).unwrap()).unwrap();
+    let properties = &schema["properties"];
+    for key in v.as_object().unwrap().keys() {
+        assert!(properties.get(key).is_some(), "key {key} is not in the schema");
+    }
+    for key in v["ranks"].as_object().unwrap().keys() {
+        assert!(
+            properties["ranks"]["properties"].get(key).is_some(),
+            "key ranks.{key} is not in the schema"
+        );
+    }
+}
+
 /// Run ARGS in one process and on 1 and 2 ranks; every answer key agrees and the ranks'
 /// lines add up to the orbit. Returns the one-process exit code and JSON.
 fn same_on_ranks(args: &[&str]) -> (i32, Value) {
@@ -56,6 +73,7 @@ fn same_on_ranks(args: &[&str]) -> (i32, Value) {
             assert_eq!(v[key], single[key], "{key} of {args:?} on {ranks} ranks");
         }
         assert_eq!(v["ranks"]["count"], ranks);
+        documented(&v);
         let lines: u64 = v["ranks"]["lines"]
             .as_array()
             .unwrap()
