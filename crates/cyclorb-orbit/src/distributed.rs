@@ -39,6 +39,7 @@ use crate::numerators::Numerators;
 use crate::poincare::PoincareSum;
 use crate::problem::OrbitProblem;
 use crate::rank_checkpoint::rank_checkpoint_path;
+use crate::regenerate::layer_ranges;
 use crate::set::{LineStore, StoreKind};
 use crate::step::Workspace;
 use crate::wire::{encode, Reader, WireCandidate};
@@ -88,16 +89,10 @@ impl DistributedOrbit {
     /// New lines at each breadth-first depth, as the one-process run reports them (the last
     /// entry may be a layer cut by the line limit).
     pub fn layer_sizes(&self) -> Vec<usize> {
-        let mut sizes = Vec::with_capacity(self.layer_ends.len() + 1);
-        let mut start = 0;
-        for &end in &self.layer_ends {
-            sizes.push(end - start);
-            start = end;
-        }
-        if self.total > start {
-            sizes.push(self.total - start);
-        }
-        sizes
+        layer_ranges(&self.layer_ends, self.total)
+            .iter()
+            .map(|r| r.len())
+            .collect()
     }
 
     /// Number of ranks.

@@ -242,13 +242,9 @@ pub struct OrbitAnswer {
     pub words: Option<Vec<LineWord>>,
 }
 
-/// What the answer reads from a listed orbit, on one rank or many.
-struct Listed {
-    size: usize,
-    saturated: bool,
-    stop_reason: Option<StopReason>,
-    layer_sizes: Vec<usize>,
-}
+/// What an answer reads from a listed orbit (one process or many ranks): size, saturation,
+/// stop reason, layer sizes.
+type Listed = (usize, bool, Option<StopReason>, Vec<usize>);
 
 /// A listed line and the word of generators that reaches it from the seed (the first
 /// generator applied first: the line is X_k ⋯ X_1 · v₀ for the word X_1 … X_k).
@@ -278,12 +274,12 @@ impl OrbitAnswer {
             store_kind: orbit.store_kind().name().into(),
             window_bytes: orbit.window_bytes(),
         };
-        let listed = Listed {
-            size: orbit.len(),
-            saturated: orbit.is_saturated(),
-            stop_reason: orbit.stop_reason(),
-            layer_sizes: orbit.layer_sizes(),
-        };
+        let listed = (
+            orbit.len(),
+            orbit.is_saturated(),
+            orbit.stop_reason(),
+            orbit.layer_sizes(),
+        );
         Self::listed(problem, listed, poincare, store, elapsed)
     }
 
@@ -296,24 +292,25 @@ impl OrbitAnswer {
         store: StoreFigures,
         elapsed: Duration,
     ) -> OrbitAnswer {
-        let listed = Listed {
-            size: orbit.len(),
-            saturated: orbit.is_saturated(),
-            stop_reason: orbit.stop_reason(),
-            layer_sizes: orbit.layer_sizes(),
-        };
+        let listed = (
+            orbit.len(),
+            orbit.is_saturated(),
+            orbit.stop_reason(),
+            orbit.layer_sizes(),
+        );
         Self::listed(problem, listed, poincare, store, elapsed)
     }
 
+    /// The answer from a listing's size, saturation, stop reason and layer sizes.
     fn listed(
         problem: &OrbitProblem,
-        orbit: Listed,
+        (size, saturated, stop_reason, layer_sizes): Listed,
         poincare: Result<&PoincareSum, String>,
         store: StoreFigures,
         elapsed: Duration,
     ) -> OrbitAnswer {
         let g = problem.generators();
-        let poincare_sum = if !orbit.saturated {
+        let poincare_sum = if !saturated {
             PoincareReport::missing("the orbit is not saturated")
         } else {
             match poincare {
@@ -329,10 +326,10 @@ impl OrbitAnswer {
             generators: g.operators.len(),
             generator_names: g.names.clone(),
             method: OrbitMethod::Enumerate,
-            orbit_size: Some(Count::from(orbit.size)),
-            saturated: orbit.saturated,
-            stop_reason: orbit.stop_reason,
-            layer_sizes: Some(orbit.layer_sizes),
+            orbit_size: Some(Count::from(size)),
+            saturated,
+            stop_reason,
+            layer_sizes: Some(layer_sizes),
             poincare_sum,
             elapsed_seconds: elapsed.as_secs_f64(),
             peak_memory_bytes: None,
