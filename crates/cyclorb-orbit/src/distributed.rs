@@ -12,9 +12,9 @@
 //! 2. the owner decides membership exactly (the key compared with the stored lines and
 //!    with the layer's new lines, never the fingerprint alone) and keeps, for a line reached
 //!    several times, the least order key;
-//! 3. at the end of the layer the ranks share their new lines' order keys; a line's global
-//!    index is the number of the layer's new lines with a smaller order key, plus the lines
-//!    of the earlier layers.
+//! 3. at the end of the layer a line's global index is the number of the layer's new lines
+//!    with a smaller order key, plus the lines of the earlier layers: the order keys are
+//!    ranked by slices of the parents' indices, one slice per rank (`rank_order_keys`).
 //!
 //! The one-process engine inserts a layer's lines in (parent, generator) order and keeps the
 //! first record of each, so the global indices, records, words and layer sizes are the ones
@@ -441,8 +441,7 @@ impl OrbitProblem {
         let mut order: Vec<usize> = (0..layer.orders.len()).collect();
         order.sort_unstable_by_key(|&i| layer.orders[i]);
         let mine: Vec<u64> = order.iter().map(|&i| layer.orders[i]).collect();
-        let all = gather_numbers(comm, &mine);
-        let new_lines: usize = all.iter().map(Vec::len).sum();
+        let (positions, new_lines) = self.rank_order_keys(comm, orbit, &mine);
         if new_lines == 0 {
             return Ok(LayerEnd::Closed);
         }
@@ -454,11 +453,7 @@ impl OrbitProblem {
             )));
         }
         let lines = layer.lines.memory_keys().ok_or_else(held_in_memory)?;
-        for (&i, &key_order) in order.iter().zip(&mine) {
-            let position: usize = all
-                .iter()
-                .map(|list| list.partition_point(|&o| o < key_order))
-                .sum();
+        for ((&i, &key_order), &position) in order.iter().zip(&mine).zip(&positions) {
             if position >= room {
                 continue;
             }
@@ -482,6 +477,64 @@ impl OrbitProblem {
         orbit.layer_ends.push(orbit.total);
         orbit.local.layer_ends.push(orbit.local.set.len());
         Ok(LayerEnd::Grown)
+    }
+
+    /// The position of each of this rank's new order keys (`mine`, increasing) among all
+    /// ranks' new order keys of the layer, and their number. The frontier's global indices
+    /// are cut into R slices; the keys whose parent lies in slice s go to rank s, which
+    /// sorts them and, knowing how many keys the slices before it hold, sends each key's
+    /// position back. Memory and traffic per rank are about the layer's size / R.
+    fn rank_order_keys(
+        &self,
+        comm: &dyn Collective,
+        orbit: &DistributedOrbit,
+        mine: &[u64],
+    ) -> (Vec<usize>, usize) {
+        let ranks = comm.size();
+        let (lo, hi) = match orbit.layer_ends.as_slice() {
+            [.., before, last] => (*before as u64, *last as u64),
+            [last] => (0, *last as u64),
+            [] => (0, 0),
+        };
+        let slice = |key: u64| {
+            let parent = (key >> 16).saturating_sub(lo);
+            ((parent * ranks as u64) / (hi - lo).max(1)).min(ranks as u64 - 1) as usize
+        };
+        let mut outgoing = vec![Vec::new(); ranks];
+        for &key in mine {
+            outgoing[slice(key)].extend_from_slice(&key.to_le_bytes());
+        }
+        let numbers = |bytes: &[u8]| -> Vec<u64> {
+            bytes
+                .chunks_exact(8)
+                .map(|c| u64::from_le_bytes(c.try_into().expect("8-byte chunks")))
+                .collect()
+        };
+        let lists: Vec<Vec<u64>> = comm.exchange(outgoing).iter().map(|b| numbers(b)).collect();
+        let mut merged: Vec<u64> = lists.concat();
+        merged.sort_unstable();
+        let counts = gather_numbers(comm, &[merged.len() as u64]);
+        let before: u64 = counts[..comm.rank()].iter().map(|c| c[0]).sum();
+        let total: u64 = counts.iter().map(|c| c[0]).sum();
+        let replies = lists
+            .iter()
+            .map(|list| {
+                list.iter()
+                    .flat_map(|&key| {
+                        (before + merged.partition_point(|&k| k < key) as u64).to_le_bytes()
+                    })
+                    .collect()
+            })
+            .collect();
+        // my keys went out slice by slice in increasing order: the replies, in rank order,
+        // are their positions in the order of `mine`
+        let positions = comm
+            .exchange(replies)
+            .iter()
+            .flat_map(|b| numbers(b))
+            .map(|p| p as usize)
+            .collect();
+        (positions, total as usize)
     }
 
     /// B = Σ v v† over a saturated distributed orbit: each rank sums its lines, rank 0 adds
