@@ -51,13 +51,13 @@ const COMPACT_VERSION: u32 = 3;
 const MAX_ORIGIN: usize = 1 << 20;
 
 /// A writer that hashes what it writes.
-struct HashingWriter<W: Write> {
-    inner: W,
-    hash: Fnv128,
+pub(crate) struct HashingWriter<W: Write> {
+    pub(crate) inner: W,
+    pub(crate) hash: Fnv128,
 }
 
 impl<W: Write> HashingWriter<W> {
-    fn put(&mut self, bytes: &[u8]) -> std::io::Result<()> {
+    pub(crate) fn put(&mut self, bytes: &[u8]) -> std::io::Result<()> {
         self.hash.write(bytes);
         self.inner.write_all(bytes)
     }

@@ -22,16 +22,20 @@
 //! recomputed from the key), that its index grows and its record points to an earlier line
 //! with a generator of the set.
 
+use std::fs::File;
+use std::io::{BufWriter, Write};
 use std::path::{Path, PathBuf};
 
 use cyclorb_field::Fnv128;
 
+use crate::checkpoint::HashingWriter;
 use crate::collective::owner;
 use crate::distributed::DistributedOrbit;
 use crate::engine::Orbit;
 use crate::error::OrbitError;
 use crate::problem::OrbitProblem;
 use crate::set::{LineStore, StoreKind};
+use crate::store::KeyArena;
 use crate::wire::{encode, put_varint, Reader};
 
 const MAGIC: &[u8; 8] = b"CYCORBRK";
@@ -153,6 +157,34 @@ impl OrbitProblem {
         let keys = orbit.local.set.memory_keys().ok_or_else(|| {
             OrbitError::Invalid("a distributed orbit is held in the memory store".into())
         })?;
+        let mut tmp = path.as_os_str().to_owned();
+        tmp.push(".tmp");
+        let tmp = PathBuf::from(tmp);
+        let file = File::create(&tmp).map_err(|e| error(&tmp, e))?;
+        let mut w = HashingWriter {
+            inner: BufWriter::new(file),
+            hash: Fnv128::new(),
+        };
+        self.write_rank_state(orbit, rank, keys, &mut w)
+            .and_then(|()| {
+                let checksum = w.hash.finish().to_le_bytes();
+                w.inner.write_all(&checksum)?;
+                w.inner.flush()
+            })
+            .map_err(|e| error(&tmp, e))?;
+        drop(w);
+        std::fs::rename(&tmp, path).map_err(|e| error(path, e))
+    }
+
+    /// The header, then the lines one by one (nothing of the size of the state is built in
+    /// memory).
+    fn write_rank_state<W: Write>(
+        &self,
+        orbit: &DistributedOrbit,
+        rank: usize,
+        keys: &KeyArena,
+        w: &mut HashingWriter<W>,
+    ) -> std::io::Result<()> {
         let mut b = Vec::new();
         b.extend_from_slice(MAGIC);
         b.extend_from_slice(&VERSION.to_le_bytes());
@@ -177,19 +209,15 @@ impl OrbitProblem {
         b.extend_from_slice(&(orbit.local.processed as u64).to_le_bytes());
         put_ends(&mut b, &orbit.local.layer_ends);
         b.extend_from_slice(&orbit.local.compute_seconds.to_bits().to_le_bytes());
+        w.put(&b)?;
         for (i, (index, parent, generator)) in orbit.local_records().enumerate() {
+            b.clear();
             put_varint(&mut b, u64::from(index));
             let order = u64::from(parent) << 16 | u64::from(generator);
             encode(&mut b, order, 0, &keys.key(i));
+            w.put(&b)?;
         }
-        let mut hash = Fnv128::new();
-        hash.write(&b);
-        b.extend_from_slice(&hash.finish().to_le_bytes());
-        let mut tmp = path.as_os_str().to_owned();
-        tmp.push(".tmp");
-        let tmp = PathBuf::from(tmp);
-        std::fs::write(&tmp, &b).map_err(|e| error(&tmp, e))?;
-        std::fs::rename(&tmp, path).map_err(|e| error(path, e))
+        Ok(())
     }
 
     /// Read rank `rank`'s checkpoint of a job of `ranks` ranks.
