@@ -136,8 +136,8 @@ struct RankOutcome {
     shared: bool,
 }
 
-/// Run `cyclorb orbit` on this rank: MPI is started here and finished before the report is
-/// printed.
+/// Run `cyclorb orbit` on this rank: MPI is started here, the report printed, then MPI
+/// finished.
 pub fn run(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
     let Some((universe, _)) = mpi::initialize_with_threading(Threading::Funneled) else {
         return Outcome::Invalid("MPI could not be initialised".into());
@@ -145,8 +145,10 @@ pub fn run(args: &OrbitArgs, as_json: bool, started: Instant) -> Outcome {
     let world = World(universe.world());
     let rank = world.rank();
     let RankOutcome { outcome, shared } = run_rank(&world, args, as_json, started);
+    // printed while MPI runs: MPI_Finalize waits for every rank, so no rank exits (and
+    // makes the launcher end the others) before rank 0 has said its part
     match outcome {
-        _ if rank == 0 => outcome,
+        _ if rank == 0 => outcome.printed(),
         Outcome::Invalid(message) => {
             // now, before MPI is finished: the launcher may end this rank once rank 0 exits
             if !shared {

@@ -77,6 +77,20 @@ impl Report {
 }
 
 impl Outcome {
+    /// Print now and keep only the exit code: a distributed run prints before MPI ends,
+    /// since the launcher may end a rank once another has exited.
+    #[cfg(feature = "mpi")]
+    pub fn printed(self) -> Outcome {
+        let code = match &self {
+            Outcome::Done(_) => 0,
+            Outcome::CheckFailed(_) | Outcome::Invalid(_) => 1,
+            Outcome::Stopped(_) => 3,
+            Outcome::Quiet(code) => *code,
+        };
+        let _printed = self.finish();
+        Outcome::Quiet(code)
+    }
+
     /// Print and map to the exit code of the contract.
     pub fn finish(self) -> ExitCode {
         match self {
