@@ -3,12 +3,10 @@
 use std::path::PathBuf;
 
 use clap::{Args, Parser, Subcommand};
-use cyclorb_pipeline::image::ImageStrategy;
+use cyclorb_pipeline::image::{self, ImageStrategy};
 use cyclorb_pipeline::OrbitMethod;
 
-/// Most worker threads accepted: more gain nothing on any machine this program targets, and
-/// a thread the system cannot start would end the process.
-pub const MAX_THREADS: usize = 256;
+use cyclorb_pipeline::runtime::MAX_THREADS;
 
 /// A `--threads` value: 1 to [`MAX_THREADS`].
 fn thread_count(text: &str) -> Result<usize, String> {
@@ -237,12 +235,12 @@ pub struct ImageArgs {
     pub common: CertArgs,
     /// Largest image enumerated element by element (route `enumeration`, and the fallback of
     /// `auto` when no set of lines proves faithfulness within the orbit limit).
-    #[arg(long, default_value_t = 20_000)]
+    #[arg(long, default_value_t = image::DEFAULT_ENUMERATION_CAP)]
     pub enumeration_cap: usize,
     /// Most lines stored for the Schreier–Sims route (the vacuum orbit and any orbits added
     /// to prove faithfulness); about 370 bytes per line at the peak (SU(2)_4 at genus 2:
     /// 1 228 800 lines, 450 MB).
-    #[arg(long, default_value_t = 2_000_000)]
+    #[arg(long, default_value_t = image::DEFAULT_ORBIT_LIMIT)]
     pub orbit_limit: usize,
     /// Which route to take (`auto` tries them in turn, once the vacuum orbit passes 100 000
     /// lines unclosed with a witness search; the others take only the route named).

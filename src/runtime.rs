@@ -4,5 +4,5 @@
 
 mod signal;
 
-pub use cyclorb_pipeline::runtime::{peak_memory_bytes, reset_peak_memory, resident_memory_bytes};
+pub use cyclorb_pipeline::runtime::{peak_memory_bytes, resident_memory_bytes};
 pub use signal::install_stop_handler;

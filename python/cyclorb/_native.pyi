@@ -31,6 +31,17 @@ def orbit(
     words: int = ...,
     progress: Optional[Callable[[dict], Any]] = ...,
 ) -> Tuple[dict, Optional[str], Optional[BaseException]]: ...
+def sweep(
+    path: Optional[str] = ...,
+    text: Optional[str] = ...,
+    *,
+    lines: Optional[int] = ...,
+    memory_mib: Optional[int] = ...,
+    seconds: Optional[int] = ...,
+    threads: Optional[int] = ...,
+    out: Optional[str] = ...,
+    progress: Optional[Callable[[dict], Any]] = ...,
+) -> Tuple[dict, Optional[BaseException]]: ...
 def commutant(spec: str, genus: int, set: str = ...) -> dict: ...
 def witness(
     spec: str, genus: int, set: str = ..., depth: Optional[int] = ..., tries: Optional[int] = ...
@@ -45,3 +56,5 @@ def image(
     witness_after: int = ...,
     threads: Optional[int] = ...,
 ) -> dict: ...
+def check_file(path: str) -> dict: ...
+def check_text(text: str, name: str) -> dict: ...

@@ -2,7 +2,9 @@
 
 from __future__ import annotations
 
-from typing import List, Optional
+import json
+import os
+from typing import List, Optional, Union
 
 from . import _native
 
@@ -10,7 +12,8 @@ from . import _native
 class CommutantResult:
     """The certified dimension of the commutant (matrices commuting with every twist):
     ``dimension``, ``irreducible``, the ``primes`` of the modular bounds, the
-    ``certificate`` (re-checked before it is returned)."""
+    ``certificate`` (re-checked before it is returned) and ``certificate_file`` (the same
+    in its envelope, as ``cyclorb commutant --out`` writes it; :func:`check` reads it)."""
 
     def __init__(self, raw: dict):
         self.raw = raw
@@ -18,20 +21,23 @@ class CommutantResult:
         self.irreducible: bool = raw["irreducible"]
         self.primes: List[int] = raw["primes"]
         self.certificate: dict = raw["certificate"]
+        self.certificate_file: dict = raw["certificate_file"]
 
     def __repr__(self) -> str:
         return f"<CommutantResult dimension {self.dimension}>"
 
 
 class WitnessResult:
-    """A word of infinite projective order (``found``, ``word``, ``certificate``), or the
-    number of words tried when none was found (which proves nothing)."""
+    """A word of infinite projective order (``found``, ``word``, ``certificate``, and
+    ``certificate_file`` as ``cyclorb witness --out`` writes it), or the number of words
+    tried when none was found (which proves nothing)."""
 
     def __init__(self, raw: dict):
         self.raw = raw
         self.found: bool = raw["found"]
         self.word: List[str] = raw["word"]
         self.certificate: Optional[dict] = raw["certificate"]
+        self.certificate_file: Optional[dict] = raw["certificate_file"]
         self.lifted_from_factor: Optional[dict] = raw["lifted_from_factor"]
         self.words_tried: Optional[int] = raw["words_tried"]
 
@@ -62,7 +68,8 @@ class ImageResult:
     int when finite), the ``route`` that decided it (the program's route names), the
     ``steps`` passed over, the ``reason`` when undecided, and the re-checked
     ``certificate`` with its ``certificate_kind`` (the ``kind`` of the program's ``--out``
-    file: ``structure``, ``structure-imprimitive``, ``image-orbit``, ...)."""
+    file: ``structure``, ``structure-imprimitive``, ``image-orbit``, ...) and
+    ``certificate_file``, the certificate in that file's envelope (:func:`check` reads it)."""
 
     def __init__(self, raw: dict):
         self.raw = raw
@@ -73,6 +80,7 @@ class ImageResult:
         self.reason: Optional[str] = raw["reason"]
         self.certificate: Optional[dict] = raw["certificate"]
         self.certificate_kind: Optional[str] = raw["certificate_kind"]
+        self.certificate_file: Optional[dict] = raw["certificate_file"]
 
     def __repr__(self) -> str:
         if self.finite:
@@ -98,4 +106,66 @@ def image(
         _native.image(
             spec, genus, set, route, orbit_limit, enumeration_cap, witness_after, threads
         )
+    )
+
+
+class Claim:
+    """One claim of a re-check: its ``name``, whether it held (``ok``) and ``detail``: how
+    it was re-derived, or why it failed."""
+
+    def __init__(self, raw: dict):
+        self.name: str = raw["name"]
+        self.ok: bool = raw["ok"]
+        self.detail: str = raw["detail"]
+
+    def __repr__(self) -> str:
+        return f"<Claim {self.name}: {'ok' if self.ok else 'FAILED'}>"
+
+
+class CheckResult:
+    """The re-check of a certificate, as ``cyclorb check --json``: ``ok`` (every claim held),
+    ``failed`` (the name of the claim that did not, or None), ``claims`` in the order they
+    were checked (up to the first that failed), and the envelope as recorded: ``kind``,
+    ``program``, ``spec``, ``genus``, ``generating_set``, ``file``. True in a boolean
+    context exactly when ``ok``."""
+
+    def __init__(self, raw: dict):
+        self.raw = raw
+        self.ok: bool = raw["ok"]
+        self.failed: Optional[str] = raw["failed"]
+        self.claims: List[Claim] = [Claim(c) for c in raw["claims"]]
+        self.kind: str = raw["kind"]
+        self.program: str = raw["program"]
+        self.spec: str = raw["spec"]
+        self.genus: int = raw["genus"]
+        self.generating_set: str = raw["generating_set"]
+        self.file: str = raw["file"]
+
+    def __bool__(self) -> bool:
+        return self.ok
+
+    def __repr__(self) -> str:
+        if self.ok:
+            return f"<CheckResult {self.kind}: all {len(self.claims)} claims hold>"
+        return f"<CheckResult {self.kind}: claim {self.failed} FAILS>"
+
+
+def check(
+    certificate: Union[str, "os.PathLike[str]", dict], name: str = "<certificate>"
+) -> CheckResult:
+    """Re-check a certificate, as ``cyclorb check FILE`` does: every claim is re-derived from
+    the theory, genus and generating set its envelope names. ``certificate`` is a path (str
+    or ``os.PathLike``), the certificate as a dict (e.g. ``cyclorb.image(...).certificate_file``)
+    or its JSON text (a str starting with ``{`` or ``[``); ``name`` is what messages call a dict or a
+    text. A claim that fails gives ``ok`` False; a certificate that cannot be read, is not
+    one of a known kind, or whose input cannot be rebuilt raises :class:`CyclorbError` with
+    the program's message (file, place, reason)."""
+    if isinstance(certificate, dict):
+        return CheckResult(_native.check_text(json.dumps(certificate), name))
+    if isinstance(certificate, str) and certificate.lstrip().startswith(("{", "[")):
+        return CheckResult(_native.check_text(certificate, name))
+    if isinstance(certificate, (str, os.PathLike)):
+        return CheckResult(_native.check_file(os.fspath(certificate)))
+    raise TypeError(
+        f"check: expected a path, a dict or JSON text, not {type(certificate).__name__}"
     )

@@ -108,8 +108,10 @@ def orbit(
     """The orbit of the vacuum line of ``spec`` at ``genus`` and its Poincaré sum.
 
     ``method``: ``"enumerate"`` (list every line), ``"structure"`` (count the lines through
-    the monomial structure, with a re-checked certificate; Ising at any genus) or
-    ``"product"`` (a Deligne product A*B from its factors). Limits: ``limit`` lines, ``memory_limit`` MiB (the budget of every
+    the monomial structure, with a re-checked certificate, Ising at any genus; for an
+    untwisted ``dw:GROUP`` as |P| / |Stab_P(S)|, with ``limit`` capping the listed orbits
+    of the parts, a stopped count giving ``saturated=False`` and its proved bounds in
+    ``raw["details"]``) or ``"product"`` (a Deligne product A*B from its factors). Limits: ``limit`` lines, ``memory_limit`` MiB (the budget of every
     allocation; default a quarter of the machine), ``time_limit`` seconds; a stopped run
     returns ``saturated=False`` with its ``checkpoint``, which ``resume=`` continues to the
     identical answer (``orbit(resume=path)`` alone is enough). Ctrl-C raises

@@ -1,18 +1,34 @@
 //! Certified answers about the group the twists generate, for Python: the commutant
-//! dimension and a witness of infinite projective image, each re-checked before it is
-//! returned (as the program does).
+//! dimension, a witness of infinite projective image and the image order, each re-checked
+//! before it is returned (as the program does), with `certificate_file`: the certificate in
+//! its envelope, as the program's `--out` writes it (what `cyclorb.check` reads).
 
 use cyclorb_cert::{commutant as commutant_cert, CommutantOptions, WitnessOptions};
-use cyclorb_pipeline::image::{decide_image, ImageBounds, ImageRequest, ImageStrategy};
-use cyclorb_pipeline::space::{build_space, cert_generators, parse_set};
+use cyclorb_pipeline::envelope::{wrap, Source};
+use cyclorb_pipeline::image::{
+    decide_image, ImageBounds, ImageRequest, ImageStrategy, DEFAULT_ENUMERATION_CAP,
+    DEFAULT_ORBIT_LIMIT, DEFAULT_WITNESS_AFTER,
+};
+use cyclorb_pipeline::space::{build_space_traced, cert_generators, parse_set};
 use cyclorb_pipeline::witness::{search, WitnessSearch};
 use pyo3::prelude::*;
 
 use crate::error;
 use crate::values::to_python;
 
+/// The certificate of `kind` in its envelope (spec, genus, set, program, theory files).
+fn certificate_file<T: serde::Serialize>(
+    kind: &str,
+    (spec, genus, set): (&str, usize, &str),
+    certificate: &T,
+    files: &[(String, String)],
+) -> serde_json::Value {
+    wrap(kind, &Source { spec, genus, set }, certificate, files)
+}
+
 /// The certified dimension of the commutant of the twists of a genus-g block space:
-/// `{"commutant_dimension", "irreducible", "route", "primes", "certificate"}`.
+/// `{"commutant_dimension", "irreducible", "route", "primes", "certificate",
+/// "certificate_file"}`.
 #[pyfunction]
 #[pyo3(signature = (spec, genus, set = "humphries"))]
 pub fn commutant<'py>(
@@ -21,10 +37,11 @@ pub fn commutant<'py>(
     genus: usize,
     set: &str,
 ) -> PyResult<Bound<'py, PyAny>> {
+    let source = (spec, genus, set);
     let set = parse_set(set).map_err(error)?;
     let value = py
         .detach(|| {
-            let space = build_space(spec, genus)?;
+            let (space, files) = build_space_traced(spec, genus)?;
             let gens = cert_generators(&space, set)?;
             let cert =
                 commutant_cert(&gens, CommutantOptions::default()).map_err(|e| e.to_string())?;
@@ -35,6 +52,7 @@ pub fn commutant<'py>(
                 "irreducible": cert.is_irreducible(),
                 "route": cert.route,
                 "primes": cert.bounds.iter().map(|b| b.prime).collect::<Vec<_>>(),
+                "certificate_file": certificate_file("commutant", source, &cert, &files),
                 "certificate": cert,
             }))
         })
@@ -44,7 +62,7 @@ pub fn commutant<'py>(
 
 /// A certified word of infinite projective order, searched on the factors of a Deligne
 /// product first (a witness there lifts), then on the generators: `{"found", "word",
-/// "certificate", "lifted_from_factor", "words_tried"}`.
+/// "certificate", "certificate_file", "lifted_from_factor", "words_tried"}`.
 #[pyfunction]
 #[pyo3(signature = (spec, genus, set = "humphries", depth = None, tries = None))]
 pub fn witness<'py>(
@@ -55,6 +73,7 @@ pub fn witness<'py>(
     depth: Option<usize>,
     tries: Option<usize>,
 ) -> PyResult<Bound<'py, PyAny>> {
+    let source = (spec, genus, set);
     let set = parse_set(set).map_err(error)?;
     let mut options = WitnessOptions::default();
     if let Some(d) = depth {
@@ -65,11 +84,12 @@ pub fn witness<'py>(
     }
     let value = py
         .detach(|| {
-            let space = build_space(spec, genus)?;
+            let (space, files) = build_space_traced(spec, genus)?;
             Ok::<_, String>(match search(&space, set, &options)? {
                 WitnessSearch::Lifted(lifted) => serde_json::json!({
                     "found": true,
                     "word": lifted.certificate.word,
+                    "certificate_file": certificate_file("witness-lifted", source, &lifted, &files),
                     "certificate": lifted.certificate,
                     "lifted_from_factor": lifted.lifted_from_factor,
                     "words_tried": null,
@@ -77,6 +97,7 @@ pub fn witness<'py>(
                 WitnessSearch::Found(cert) => serde_json::json!({
                     "found": true,
                     "word": cert.word,
+                    "certificate_file": certificate_file("witness", source, &cert, &files),
                     "certificate": cert,
                     "lifted_from_factor": null,
                     "words_tried": null,
@@ -85,6 +106,7 @@ pub fn witness<'py>(
                     "found": false,
                     "word": [],
                     "certificate": null,
+                    "certificate_file": null,
                     "lifted_from_factor": null,
                     "words_tried": words_tried,
                 }),
@@ -95,10 +117,11 @@ pub fn witness<'py>(
 }
 
 /// The order of the projective image (`cyclorb_pipeline::image::decide_image`):
-/// `{"finite", "order", "route", "steps", "reason", "certificate"}`; `route` is one of
-/// the program's route names, `certificate` the re-checked proof (None when undecided).
+/// `{"finite", "order", "route", "steps", "reason", "certificate_kind", "certificate",
+/// "certificate_file"}`; `route` is one of the program's route names, `certificate` the
+/// re-checked proof (None when undecided).
 #[pyfunction]
-#[pyo3(signature = (spec, genus, set = "humphries", route = "auto", orbit_limit = 2_000_000, enumeration_cap = 20_000, witness_after = 100_000, threads = None))]
+#[pyo3(signature = (spec, genus, set = "humphries", route = "auto", orbit_limit = DEFAULT_ORBIT_LIMIT, enumeration_cap = DEFAULT_ENUMERATION_CAP, witness_after = DEFAULT_WITNESS_AFTER, threads = None))]
 #[allow(clippy::too_many_arguments)]
 pub fn image<'py>(
     py: Python<'py>,
@@ -111,6 +134,7 @@ pub fn image<'py>(
     witness_after: usize,
     threads: Option<usize>,
 ) -> PyResult<Bound<'py, PyAny>> {
+    let source = (spec, genus, set);
     let set = parse_set(set).map_err(error)?;
     let strategy: ImageStrategy = route.parse().map_err(error)?;
     let request = ImageRequest {
@@ -129,15 +153,20 @@ pub fn image<'py>(
     };
     let value = py
         .detach(|| {
-            let space = build_space(spec, genus)?;
+            let (space, files) = build_space_traced(spec, genus)?;
             let gens = cert_generators(&space, set)?;
             let d = decide_image(&space, set, &gens, &request)?;
-            let (kind, certificate) = match &d.evidence {
+            let (kind, certificate, file) = match &d.evidence {
                 Some(evidence) => {
                     let (kind, body) = evidence.certificate()?;
-                    (serde_json::json!(kind), body)
+                    let file = certificate_file(kind, source, &body, &files);
+                    (serde_json::json!(kind), body, file)
                 }
-                None => (serde_json::Value::Null, serde_json::Value::Null),
+                None => (
+                    serde_json::Value::Null,
+                    serde_json::Value::Null,
+                    serde_json::Value::Null,
+                ),
             };
             Ok::<_, String>(serde_json::json!({
                 "finite": d.finite,
@@ -147,6 +176,7 @@ pub fn image<'py>(
                 "reason": d.reason,
                 "certificate_kind": kind,
                 "certificate": certificate,
+                "certificate_file": file,
             }))
         })
         .map_err(error)?;

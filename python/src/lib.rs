@@ -8,8 +8,10 @@
 use pyo3::prelude::*;
 
 mod certs;
+mod check;
 mod numbers;
 mod orbit;
+mod sweep;
 mod theory;
 mod values;
 
@@ -38,8 +40,11 @@ fn _native(m: &Bound<'_, PyModule>) -> PyResult<()> {
     m.add_function(wrap_pyfunction!(theory::verify, m)?)?;
     m.add_function(wrap_pyfunction!(theory::block_space, m)?)?;
     m.add_function(wrap_pyfunction!(orbit::orbit, m)?)?;
+    m.add_function(wrap_pyfunction!(sweep::sweep, m)?)?;
     m.add_function(wrap_pyfunction!(certs::commutant, m)?)?;
     m.add_function(wrap_pyfunction!(certs::witness, m)?)?;
     m.add_function(wrap_pyfunction!(certs::image, m)?)?;
+    m.add_function(wrap_pyfunction!(check::check_file, m)?)?;
+    m.add_function(wrap_pyfunction!(check::check_text, m)?)?;
     Ok(())
 }

@@ -12,6 +12,7 @@ use std::time::{Duration, Instant};
 
 use cyclorb_orbit::{CheckpointPlan, OrbitOptions, Progress, ProgressObserver};
 use cyclorb_pipeline::counting::counted_any;
+use cyclorb_pipeline::dw_count::{self, counted_orbit as counted_dw};
 use cyclorb_pipeline::listing::{check_writable, default_checkpoint, Listing, Origin};
 use cyclorb_pipeline::product::product_orbit;
 use cyclorb_pipeline::runtime::{budget_bytes, peak_memory_bytes};
@@ -168,7 +169,7 @@ pub fn orbit<'py>(
         }
         OrbitMethod::Structure => {
             let started = Instant::now();
-            let mut answer = py.detach(|| counted_orbit(spec, *genus, set, started))?;
+            let mut answer = py.detach(|| counted_orbit(spec, *genus, set, limit, started))?;
             answer.peak_memory_bytes = peak_memory_bytes();
             return Ok((answer_value(py, &answer)?, None, None));
         }
@@ -225,13 +226,20 @@ pub fn orbit<'py>(
     Ok((value, stopped_by, observer.error))
 }
 
-/// The counting route: the orbit counted through the monomial structure, else the
-/// imprimitive one, its certificate re-checked (`cyclorb_pipeline::counting`).
-fn counted_orbit(spec: &str, genus: usize, set: &str, started: Instant) -> PyResult<OrbitAnswer> {
+/// The counting route: for a `dw:` theory |P| / |Stab_P(S)| with `limit` capping the
+/// listed orbits of the parts (`cyclorb_pipeline::dw_count`); otherwise the orbit counted
+/// through the monomial structure, else the imprimitive one, its certificate re-checked
+/// (`cyclorb_pipeline::counting`).
+fn counted_orbit(
+    spec: &str,
+    genus: usize,
+    set: &str,
+    limit: Option<usize>,
+    started: Instant,
+) -> PyResult<OrbitAnswer> {
     if cyclorb_pipeline::dw_space::is_dw(spec) {
-        return Err(error(format!(
-            "{spec}: the counting route of dw: theories is reached through the program for now (cyclorb orbit {spec} --genus {genus} --method structure)"
-        )));
+        let (space, orbit) = counted_dw(spec, genus, set, limit).map_err(error)?;
+        return Ok(dw_count::answer(&space, &orbit, started.elapsed()));
     }
     let set = parse_set(set).map_err(error)?;
     let space = build_space(spec, genus).map_err(error)?;

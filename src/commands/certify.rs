@@ -109,10 +109,6 @@ pub fn commutant(args: &CertArgs, as_json: bool) -> Outcome {
     Outcome::Done(Report::new(value, text, as_json))
 }
 
-/// Lines stored before the automatic route looks for a witness of infinite image (the
-/// orbit then goes on up to `--orbit-limit` when none is found).
-const QUICK_LINES: usize = 100_000;
-
 /// The JSON keys, the text line and the certificate file of a decided image.
 fn render_evidence(
     evidence: &ImageEvidence,
@@ -228,7 +224,7 @@ pub fn image(args: &ImageArgs, as_json: bool) -> Outcome {
             orbit_limit_name: "--orbit-limit",
             enumeration_cap_name: "--enumeration-cap",
         },
-        witness_after: QUICK_LINES,
+        witness_after: cyclorb_pipeline::image::DEFAULT_WITNESS_AFTER,
         witness: WitnessOptions::default(),
         threads: std::thread::available_parallelism().map_or(1, |n| n.get()),
     };

@@ -82,6 +82,8 @@ pub use modp::PrimeReduction;
 pub use rational::Rational;
 pub use real_sign::real_sign;
 pub use residues::ResidueMap;
-pub use roots::{canonical_conductor, conductor_of_root, root_of_unity, root_of_unity_at};
+pub use roots::{
+    canonical_conductor, conductor_of_root, root_of_unity, root_of_unity_at, RootsOfUnity,
+};
 pub use text::{CycText, MAX_PARSE_DEPTH, MAX_POWER_BITS};
 pub use unique_keys::UniqueKeys;

@@ -27,13 +27,20 @@ pub(crate) struct CompiledOperator {
     row_bound: u128,
 }
 
+/// Bytes a compiled operator holds per non-zero entry (a row index and a value).
+pub(crate) const BYTES_PER_CELL: usize = 12;
+
 impl CompiledOperator {
-    /// Compile X; `None` when E or a numerator of E·X does not fit an `i64` (the engine
-    /// then applies this generator in exact `Cyc` arithmetic).
+    /// Compile X; `None` when E or a numerator of E·X does not fit an `i64`, or when E·X has
+    /// more than `max_cells` non-zero entries (the engine then applies this generator in
+    /// exact `Cyc` arithmetic). Two passes over the entries of X, the first counting the
+    /// entries of each column, the second writing them in place, so that nothing beyond
+    /// the result (12 bytes an entry) is held.
     pub(crate) fn compile(
         field: &CyclotomicField,
         kernel: &PolyKernel,
         op: &Operator,
+        max_cells: usize,
     ) -> Option<CompiledOperator> {
         let phi = kernel.degree();
         let rows = operator_rows(field, op);
@@ -43,35 +50,52 @@ impl CompiledOperator {
             let (_, den) = x.to_big_parts();
             lcd = lcd.lcm(&den);
         }
-        // (column, row, value) of every non-zero integer entry
-        let mut cells: Vec<(u32, u32, i64)> = Vec::new();
+        // the non-zero (t, s, value) of the multiplication matrix of (E·X)_ij
+        let entries_of = |x: &cyclorb_field::Cyc| {
+            let (num, den) = x.to_big_parts();
+            let scale = &lcd / den;
+            let scaled: Option<Vec<i64>> = num.iter().map(|c| (c * &scale).to_i64()).collect();
+            kernel.mult_entries(&scaled?)
+        };
+        let mut col_start = vec![0u32; size + 1];
+        let mut cells = 0usize;
+        for row in &rows {
+            for (j, x) in row {
+                for (_, s, _) in entries_of(x)? {
+                    col_start[j * phi + s + 1] += 1;
+                    cells += 1;
+                }
+                if cells > max_cells {
+                    return None;
+                }
+            }
+        }
+        u32::try_from(cells).ok()?;
+        u32::try_from(size).ok()?;
+        for col in 0..size {
+            col_start[col + 1] += col_start[col];
+        }
+        // rows ascend within a column: i ascends, and t ascends within one entry
+        let mut fill: Vec<u32> = col_start[..size].to_vec();
+        let mut row_index = vec![0u32; cells];
+        let mut vals = vec![0i64; cells];
         let mut row_sums = vec![0u128; size];
         for (i, row) in rows.iter().enumerate() {
             for (j, x) in row {
-                let (num, den) = x.to_big_parts();
-                let scale = &lcd / den;
-                let scaled: Option<Vec<i64>> = num.iter().map(|c| (c * &scale).to_i64()).collect();
-                for (t, s, c) in kernel.mult_entries(&scaled?)? {
+                for (t, s, c) in entries_of(x)? {
                     let (r, col) = (i * phi + t, j * phi + s);
-                    cells.push((u32::try_from(col).ok()?, u32::try_from(r).ok()?, c));
+                    let at = fill[col] as usize;
+                    row_index[at] = r as u32;
+                    vals[at] = c;
+                    fill[col] += 1;
                     row_sums[r] += c.unsigned_abs() as u128;
                 }
             }
         }
-        cells.sort_unstable_by_key(|&(col, r, _)| (col, r));
-        let mut col_start = Vec::with_capacity(size + 1);
-        col_start.push(0u32);
-        let mut cursor = 0;
-        for col in 0..size {
-            while cursor < cells.len() && cells[cursor].0 as usize == col {
-                cursor += 1;
-            }
-            col_start.push(u32::try_from(cursor).ok()?);
-        }
         Some(CompiledOperator {
             col_start,
-            rows: cells.iter().map(|c| c.1).collect(),
-            vals: cells.iter().map(|c| c.2).collect(),
+            rows: row_index,
+            vals,
             row_bound: row_sums.into_iter().max().unwrap_or(0),
         })
     }
@@ -96,5 +120,56 @@ impl CompiledOperator {
             }
         }
         true
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use cyclorb_field::Cyc;
+    use cyclorb_matrix::{LinearMap, Matrix};
+
+    /// The S-matrix of Ising in the basis 1, σ, ψ (common practice).
+    fn ising_s(f: &CyclotomicField) -> Operator {
+        let e = |t: &str| f.parse(t).unwrap();
+        Operator::Dense(
+            Matrix::from_rows(vec![
+                vec![e("1/2"), e("sqrt(2)/2"), e("1/2")],
+                vec![e("sqrt(2)/2"), e("0"), e("-sqrt(2)/2")],
+                vec![e("1/2"), e("-sqrt(2)/2"), e("1/2")],
+            ])
+            .unwrap(),
+        )
+    }
+
+    #[test]
+    fn the_compiled_form_is_e_times_x_and_a_cap_on_its_size_refuses_it() {
+        let f = CyclotomicField::new(16).unwrap();
+        let kernel = PolyKernel::new(&f);
+        let phi = kernel.degree();
+        let op = ising_s(&f);
+        assert!(CompiledOperator::compile(&f, &kernel, &op, 0).is_none());
+        let compiled = CompiledOperator::compile(&f, &kernel, &op, usize::MAX).unwrap();
+        // v = (1 + ζ, 2, −ζ³) in numerators; E = 2 (the least common denominator of S)
+        let mut s = Numerators::new(3 * phi);
+        for (at, x) in [(0, 1), (1, 1), (phi, 2), (2 * phi + 3, -1)] {
+            s.push(at, x);
+        }
+        let mut out = vec![0i128; 3 * phi];
+        let mut touched = vec![0u64; (3 * phi).div_ceil(64)];
+        assert!(compiled.apply(&s, &mut out, &mut touched));
+        let v: Vec<Cyc> = ["1 + z", "2", "-z^3"]
+            .iter()
+            .map(|t| f.parse(t).unwrap())
+            .collect();
+        let exact = op.apply(&f, &v).unwrap();
+        for (i, x) in exact.iter().enumerate() {
+            let num: Vec<BigInt> = out[i * phi..(i + 1) * phi]
+                .iter()
+                .map(|&c| BigInt::from(c))
+                .collect();
+            let got = f.from_parts(&num, &BigInt::one()).unwrap();
+            assert_eq!(got, f.mul(&f.int(2), x).unwrap(), "entry {i}");
+        }
     }
 }

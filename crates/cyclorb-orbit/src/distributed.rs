@@ -243,7 +243,7 @@ impl OrbitProblem {
         orbit.stop = None;
         let threads = options.threads.max(1);
         let mut workspaces: Vec<Workspace> = (0..threads).map(|_| Workspace::new(self)).collect();
-        let chunk = options.chunk_size.max(1);
+        let chunk = self.chunk_len(options);
         loop {
             let start = orbit.local.processed;
             let end = *orbit.local.layer_ends.last().unwrap_or(&0);
@@ -261,7 +261,7 @@ impl OrbitProblem {
             for round in 0..=rounds {
                 let status = match &failure {
                     Some(_) => FAILED,
-                    None => match self.should_stop(&orbit.local, options).or_else(|| {
+                    None => match self.should_stop(&orbit.local, options, chunk).or_else(|| {
                         options
                             .memory_ceiling
                             .filter(|&c| orbit.local.store_bytes() + layer.lines.bytes_used() > c)
@@ -584,7 +584,8 @@ impl OrbitProblem {
         self.check_unitary()?;
         let norm = self.form_norm(&self.seed, g)?;
         let keys = orbit.local.set.memory_keys().ok_or_else(held_in_memory)?;
-        let b = crate::sum::sum_matrix(self, keys, threads, g, &norm, None)?;
+        let b =
+            crate::sum::sum_matrix(self, keys, threads, g, &norm, crate::sum::Tuning::default())?;
         Ok((norm, b))
     }
 

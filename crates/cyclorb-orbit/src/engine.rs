@@ -42,8 +42,14 @@ pub struct CheckpointPlan {
 pub struct OrbitOptions {
     /// Stop (unsaturated) rather than store more than this many lines.
     pub limit: Option<usize>,
-    /// Stop (unsaturated) once the store holds more than this many bytes.
+    /// Stop (unsaturated) before the run would hold more than this many bytes: the store
+    /// together with the largest working set of the next chunk ([`OrbitProblem::chunk_bytes`]),
+    /// or, when [`Self::resident`] is given, the whole process's resident memory. The chunk
+    /// is shortened so that its working set stays within an eighth of the ceiling.
     pub memory_ceiling: Option<usize>,
+    /// The process's resident memory in bytes now, supplied by the host (the library reads
+    /// no operating-system figures itself); `None` from the probe when it is unavailable.
+    pub resident: Option<fn() -> Option<u64>>,
     /// Worker threads (1 or more); the result does not depend on it.
     pub threads: usize,
     /// Frontier elements per chunk (between chunks the run can stop or checkpoint).
@@ -65,6 +71,7 @@ impl Default for OrbitOptions {
         OrbitOptions {
             limit: None,
             memory_ceiling: None,
+            resident: None,
             threads: 1,
             chunk_size: 2048,
             checkpoint: None,
@@ -305,7 +312,7 @@ impl OrbitProblem {
         }
         let threads = options.threads.max(1);
         let mut workspaces: Vec<Workspace> = (0..threads).map(|_| Workspace::new(self)).collect();
-        let chunk_size = options.chunk_size.max(1);
+        let chunk_size = self.chunk_len(options);
         loop {
             let end = *orbit.layer_ends.last().unwrap_or(&0);
             if orbit.processed == end {
@@ -316,11 +323,11 @@ impl OrbitProblem {
                 orbit.set.open_layer(orbit.set.len())?;
                 continue;
             }
-            if let Some(reason) = self.should_stop(&orbit, options) {
+            let chunk = orbit.processed..end.min(orbit.processed + chunk_size);
+            if let Some(reason) = self.should_stop(&orbit, options, chunk.len()) {
                 orbit.stop = Some(reason);
                 break;
             }
-            let chunk = orbit.processed..end.min(orbit.processed + chunk_size);
             let candidates = self.expand_chunk(&orbit.set, chunk.clone(), &mut workspaces)?;
             if !self.insert_candidates(&mut orbit.set, candidates, options.limit)? {
                 orbit.stop = Some(StopReason::Limit);
@@ -355,7 +362,12 @@ impl OrbitProblem {
         Ok(orbit)
     }
 
-    pub(crate) fn should_stop(&self, orbit: &Orbit, options: &OrbitOptions) -> Option<StopReason> {
+    pub(crate) fn should_stop(
+        &self,
+        orbit: &Orbit,
+        options: &OrbitOptions,
+        chunk: usize,
+    ) -> Option<StopReason> {
         if options
             .stop
             .as_ref()
@@ -363,13 +375,36 @@ impl OrbitProblem {
         {
             return Some(StopReason::Interrupted);
         }
-        if options
-            .memory_ceiling
-            .is_some_and(|ceiling| orbit.store_bytes() > ceiling)
-        {
-            return Some(StopReason::Memory);
-        }
-        None
+        let ceiling = options.memory_ceiling?;
+        let needed = orbit.store_bytes().saturating_add(self.chunk_bytes(chunk));
+        let resident = options
+            .resident
+            .and_then(|probe| probe())
+            .map_or(0, |b| usize::try_from(b).unwrap_or(usize::MAX));
+        (needed > ceiling || resident > ceiling).then_some(StopReason::Memory)
+    }
+
+    /// An upper bound on the bytes the candidates of a chunk of `elements` frontier
+    /// elements hold before they are inserted: each image under each generator may be new,
+    /// and a new line is held as a dense key of d·φ words with its list of non-zero
+    /// positions (the worker's lookup table and the record itself add a few words).
+    pub fn chunk_bytes(&self, elements: usize) -> usize {
+        let per_candidate = self.key_len() * (8 + 4) + 64;
+        elements
+            .saturating_mul(self.generators.operators.len())
+            .saturating_mul(per_candidate)
+    }
+
+    /// Frontier elements per chunk: the options' chunk size, shortened so that a chunk's
+    /// candidates ([`Self::chunk_bytes`]) stay within an eighth of the memory ceiling (and
+    /// never below one element). The answer does not depend on the chunk size.
+    pub fn chunk_len(&self, options: &OrbitOptions) -> usize {
+        let wanted = options.chunk_size.max(1);
+        let Some(ceiling) = options.memory_ceiling else {
+            return wanted;
+        };
+        let per_element = self.chunk_bytes(1).max(1);
+        wanted.min((ceiling / 8 / per_element).max(1))
     }
 
     /// Images of the chunk's elements that are not stored yet, in (element, generator)

@@ -99,12 +99,10 @@ pub(crate) fn first_nonzero_block<T: Zero>(numbers: &[T], phi: usize) -> Option<
         .position(|block| block.iter().any(|x| !x.is_zero()))
 }
 
-/// u_k⁻¹ = P/q in the form the key computation uses: the multiplication matrix of P
-/// (φ×φ, row-major), its largest row sum of |entries|, and q > 0.
+/// u_k⁻¹ = P/q with P in machine words (its non-zero coefficients (a, P_a)) and q > 0.
 #[derive(Debug, Clone)]
 struct SmallInverse {
-    mult: Box<[i128]>,
-    bound: u128,
+    p_terms: Box<[(u32, i64)]>,
     q: i64,
 }
 
@@ -113,16 +111,24 @@ struct SmallInverse {
 #[derive(Debug, Default)]
 pub(crate) struct Normaliser {
     inverses: HashMap<Box<[i64]>, Option<SmallInverse>>,
+    product: Vec<i128>,
     values: Vec<i128>,
     blocks: Vec<usize>,
 }
 
-/// Inverses kept before the memory is emptied (it only saves time).
-const INVERSE_CACHE_LIMIT: usize = 1 << 16;
+/// Bytes of remembered inverses per worker before the memory is emptied (it only saves
+/// time): an entry holds the first coordinate and the terms of P, at most 24·φ bytes and
+/// some bookkeeping, so about 4 000 entries at φ = 160.
+const INVERSE_CACHE_BYTES: usize = 16 << 20;
+
+/// Entries the inverse memory keeps at degree φ (at least 16).
+fn inverse_cache_entries(phi: usize) -> usize {
+    let entry = 24 * phi + 128;
+    (INVERSE_CACHE_BYTES / entry).max(16)
+}
 
 fn small_inverse(
     field: &CyclotomicField,
-    kernel: &PolyKernel,
     lead: &[i64],
 ) -> Result<Option<SmallInverse>, FieldError> {
     let num: Vec<BigInt> = lead.iter().map(|&c| BigInt::from(c)).collect();
@@ -130,21 +136,12 @@ fn small_inverse(
     let Some((p, q)) = inverse.small_parts() else {
         return Ok(None);
     };
-    let phi = kernel.degree();
-    let mut mult = vec![0i128; phi * phi];
-    if kernel.mult_matrix(p, &mut mult).is_none() {
-        return Ok(None);
-    }
-    let bound = mult
-        .chunks(phi)
-        .map(|row| row.iter().map(|x| x.unsigned_abs()).sum::<u128>())
-        .max()
-        .unwrap_or(0);
-    Ok(Some(SmallInverse {
-        mult: mult.into_boxed_slice(),
-        bound,
-        q,
-    }))
+    let p_terms = (0u32..)
+        .zip(p)
+        .filter(|(_, &c)| c != 0)
+        .map(|(a, &c)| (a, c))
+        .collect();
+    Ok(Some(SmallInverse { p_terms, q }))
 }
 
 /// The key of the line through the integer vector `u` (first non-zero block k), computed in
@@ -160,19 +157,20 @@ pub(crate) fn key_of_integer_vector(
     let phi = kernel.degree();
     let lead = &u.dense[k * phi..(k + 1) * phi];
     if !normaliser.inverses.contains_key(lead) {
-        let entry = small_inverse(field, kernel, lead)?;
-        if normaliser.inverses.len() >= INVERSE_CACHE_LIMIT {
+        let entry = small_inverse(field, lead)?;
+        if normaliser.inverses.len() >= inverse_cache_entries(phi) {
             normaliser.inverses.clear();
         }
         normaliser.inverses.insert(lead.into(), entry);
     }
     let Normaliser {
         inverses,
+        product,
         values,
         blocks,
     } = normaliser;
     if let Some(Some(inverse)) = inverses.get(lead) {
-        if let Some(key) = small_key(kernel, u, inverse, values, blocks) {
+        if let Some(key) = small_key(kernel, u, inverse, product, values, blocks) {
             return Ok(key);
         }
     }
@@ -202,33 +200,47 @@ fn gcd_with(a: u128, b: u128) -> u128 {
     }
 }
 
+/// The key of the line through `u` from u_k⁻¹ = P/q: each non-zero block u_i is multiplied
+/// by P as polynomials (2φ − 1 coefficients) and folded modulo Φ_n, in checked `i128`;
+/// then everything is divided by the gcd of q and the numerators. `None` on overflow (the
+/// caller then takes the exact route).
 fn small_key(
     kernel: &PolyKernel,
     u: &Numerators,
     inverse: &SmallInverse,
+    product: &mut Vec<i128>,
     values: &mut Vec<i128>,
     blocks: &mut Vec<usize>,
 ) -> Option<KeyNumbers> {
     let phi = kernel.degree();
-    if inverse.bound.checked_mul(u.max as u128)? >= 1 << 126 {
-        return None;
-    }
+    product.resize(2 * phi - 1, 0);
     values.clear();
     blocks.clear();
     let mut cursor = 0;
     while cursor < u.nonzero.len() {
         let block = u.nonzero[cursor] as usize / phi;
-        let at = values.len();
-        values.resize(at + phi, 0);
-        blocks.push(block);
+        product.fill(0);
         while cursor < u.nonzero.len() && u.nonzero[cursor] as usize / phi == block {
             let i = u.nonzero[cursor] as usize;
             let (s, x) = (i % phi, u.dense[i] as i128);
-            for (t, v) in values[at..].iter_mut().enumerate() {
-                *v += inverse.mult[t * phi + s] * x;
+            for &(a, pa) in inverse.p_terms.iter() {
+                let cell = &mut product[a as usize + s];
+                *cell = cell.checked_add((pa as i128).checked_mul(x)?)?;
             }
             cursor += 1;
         }
+        let at = values.len();
+        values.resize(at + phi, 0);
+        for (e, &c) in product.iter().enumerate() {
+            if c == 0 {
+                continue;
+            }
+            for &(t, r) in kernel.residue(e) {
+                let cell = &mut values[at + t];
+                *cell = cell.checked_add(c.checked_mul(r as i128)?)?;
+            }
+        }
+        blocks.push(block);
     }
     let mut g = inverse.q.unsigned_abs() as u128;
     for &x in values.iter() {

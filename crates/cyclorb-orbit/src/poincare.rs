@@ -23,7 +23,7 @@ use crate::error::OrbitError;
 use crate::problem::OrbitProblem;
 use crate::regenerate::layer_ranges;
 use crate::set::LineStore;
-use crate::sum::sum_matrix;
+use crate::sum::{sum_matrix, Tuning};
 
 /// The Poincaré sum of a saturated orbit and what it says.
 #[derive(Debug, Clone, PartialEq, Eq)]
@@ -70,7 +70,9 @@ impl OrbitProblem {
         let g = self.generators.form_diagonal(field);
         let norm = self.form_norm(&self.seed, &g)?;
         let b = match &orbit.set {
-            LineStore::Memory(set) => sum_matrix(self, &set.keys, threads, &g, &norm, None)?,
+            LineStore::Memory(set) => {
+                sum_matrix(self, &set.keys, threads, &g, &norm, Tuning::default())?
+            }
             LineStore::Compact(_) => {
                 // the lines again, layer by layer, each layer's part of B added exactly
                 let mut b = Matrix::zeros(field, self.dimension(), self.dimension());
@@ -82,7 +84,7 @@ impl OrbitProblem {
                     LineStore::Memory(_) => None,
                 };
                 self.regenerate(&records, &ranges, threads, spill, |_, keys| {
-                    let part = sum_matrix(self, keys, threads, &g, &norm, None)?;
+                    let part = sum_matrix(self, keys, threads, &g, &norm, Tuning::default())?;
                     b = b.add(field, &part)?;
                     Ok(())
                 })?;
@@ -206,9 +208,20 @@ mod tests {
         let LineStore::Memory(set) = &orbit.set else {
             panic!("a memory orbit")
         };
-        let roomy = sum_matrix(&problem, &set.keys, 1, &g, &norm, None).unwrap();
-        let tight = sum_matrix(&problem, &set.keys, 2, &g, &norm, Some(1)).unwrap();
+        let roomy = sum_matrix(&problem, &set.keys, 1, &g, &norm, Tuning::default()).unwrap();
+        let tight = Tuning {
+            flush_every: Some(1),
+            lines_per_pass: None,
+        };
+        let tight = sum_matrix(&problem, &set.keys, 2, &g, &norm, tight).unwrap();
         assert_eq!(tight, roomy);
+        // the grouping redone in passes of 5 lines
+        let passes = Tuning {
+            flush_every: None,
+            lines_per_pass: Some(5),
+        };
+        let passes = sum_matrix(&problem, &set.keys, 2, &g, &norm, passes).unwrap();
+        assert_eq!(passes, roomy);
         assert_eq!(roomy, Matrix::identity(&f, 3).scale(&f, &f.int(8)).unwrap());
     }
 }

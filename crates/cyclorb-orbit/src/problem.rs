@@ -2,7 +2,7 @@
 
 use cyclorb_field::{Cyc, CyclotomicField};
 
-use crate::compiled::CompiledOperator;
+use crate::compiled::{CompiledOperator, BYTES_PER_CELL};
 use crate::error::OrbitError;
 use crate::fingerprint::Fingerprinter;
 use crate::format::operator_json;
@@ -52,10 +52,14 @@ impl OrbitProblem {
         let seed_key = KeyNumbers::of_line(&field, &seed)?
             .ok_or_else(|| OrbitError::Invalid("the seed vector is zero".into()))?;
         let kernel = PolyKernel::new(&field);
+        // half of the memory budget for the compiled forms, shared by the generators; one
+        // past it is applied in exact arithmetic instead (slower, never wrong)
+        let share = usize::try_from(cyclorb_field::memory_budget() / 2).unwrap_or(usize::MAX);
+        let max_cells = share / BYTES_PER_CELL / generators.operators.len().max(1);
         let compiled = generators
             .operators
             .iter()
-            .map(|op| CompiledOperator::compile(&field, &kernel, op))
+            .map(|op| CompiledOperator::compile(&field, &kernel, op, max_cells))
             .collect();
         let fingerprints =
             Fingerprinter::new(&field, generators.dimension).map_err(OrbitError::Arithmetic)?;

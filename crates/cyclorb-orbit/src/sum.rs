@@ -6,12 +6,18 @@
 //! each) into one `i64` accumulator per thread, and flushes it, multiplied by N·E/q, into an
 //! exact `Cyc` matrix at the end of the group (or earlier, when its running bound nears
 //! 2^62). Grouping keeps a single accumulator hot in cache. Lines whose numbers defeat the
-//! bounds, and big keys, take the `Cyc` route directly. Addition is exact, so neither the
-//! grouping nor the number of threads changes the result.
+//! bounds, and big keys, take the `Cyc` route directly. The grouping is done over passes of
+//! at most [`lines_per_pass`] lines, so that its table of q values stays a bounded share of
+//! the memory budget however many lines have distinct q. Addition is exact, so neither the
+//! grouping, the passes nor the number of threads changes the result.
 
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_matrix::Matrix;
-use hashbrown::HashMap;
+use std::collections::hash_map::DefaultHasher;
+use std::hash::{Hash, Hasher};
+use std::ops::Range;
+
+use hashbrown::HashTable;
 use num_bigint::BigInt;
 use num_integer::Integer;
 use num_traits::{One, ToPrimitive};
@@ -371,60 +377,47 @@ struct Groups {
 /// Marks a line that takes the `Cyc` route in the first pass.
 const EXACT_LINE: u32 = u32::MAX;
 
-/// Pass 1: the q of every line, interned per thread, merged in line order.
+/// Pass 1: the q of every line of `lines`, interned per thread (each distinct q held
+/// once), merged in line order; line numbers in the groups are indices into `keys`.
 fn group_lines(
     problem: &OrbitProblem,
     form: &IntegerForm,
     keys: &KeyArena,
+    lines: Range<usize>,
     threads: usize,
 ) -> Result<Groups, OrbitError> {
-    let parts = split_range(keys.len(), threads);
+    let parts = split_range(lines.len(), threads);
     type Local = (Vec<Vec<i128>>, Vec<u32>);
     let locals: Vec<Result<Local, OrbitError>> = std::thread::scope(|scope| {
         let handles: Vec<_> = parts
             .iter()
             .map(|range| {
-                let range = range.clone();
+                let range = lines.start + range.start..lines.start + range.end;
                 scope.spawn(move || {
                     let mut reader = LineReader::new(problem, form);
-                    let mut ids: HashMap<Vec<i128>, u32> = HashMap::new();
-                    let mut values = Vec::new();
+                    let mut interned = Interned::default();
                     let mut line_ids = Vec::with_capacity(range.len());
                     for index in range {
                         if reader.load(keys, index, true)?.is_none() {
                             line_ids.push(EXACT_LINE);
                             continue;
                         }
-                        let id = match ids.get(reader.q.as_slice()) {
-                            Some(&id) => id,
-                            None => {
-                                let id = values.len() as u32;
-                                ids.insert(reader.q.clone(), id);
-                                values.push(reader.q.clone());
-                                id
-                            }
-                        };
-                        line_ids.push(id);
+                        let id = interned.find(&reader.q);
+                        line_ids.push(id.unwrap_or_else(|| interned.add(reader.q.clone())));
                     }
-                    Ok((values, line_ids))
+                    Ok((interned.values, line_ids))
                 })
             })
             .collect();
         handles.into_iter().map(joined).collect()
     });
-    let mut global: HashMap<Vec<i128>, u32> = HashMap::new();
-    let mut values: Vec<Vec<i128>> = Vec::new();
-    let mut line_ids: Vec<u32> = Vec::with_capacity(keys.len());
+    let mut global = Interned::default();
+    let mut line_ids: Vec<u32> = Vec::with_capacity(lines.len());
     for local in locals {
         let (local_values, local_ids) = local?;
         let map: Vec<u32> = local_values
             .into_iter()
-            .map(|q| {
-                *global.entry(q.clone()).or_insert_with(|| {
-                    values.push(q);
-                    values.len() as u32 - 1
-                })
-            })
+            .map(|q| global.find(&q).unwrap_or_else(|| global.add(q)))
             .collect();
         line_ids.extend(local_ids.into_iter().map(|id| {
             if id == EXACT_LINE {
@@ -434,6 +427,7 @@ fn group_lines(
             }
         }));
     }
+    let values = global.values;
     let mut start = vec![0usize; values.len() + 1];
     for &id in &line_ids {
         if id != EXACT_LINE {
@@ -446,11 +440,12 @@ fn group_lines(
     let mut fill = start.clone();
     let mut members = vec![0u32; start[values.len()]];
     let mut exact = Vec::new();
-    for (index, &id) in line_ids.iter().enumerate() {
+    for (offset, &id) in line_ids.iter().enumerate() {
+        let index = (lines.start + offset) as u32;
         if id == EXACT_LINE {
-            exact.push(index as u32);
+            exact.push(index);
         } else {
-            members[fill[id as usize]] = index as u32;
+            members[fill[id as usize]] = index;
             fill[id as usize] += 1;
         }
     }
@@ -462,27 +457,130 @@ fn group_lines(
     })
 }
 
+/// Distinct values of q, each held once, with a table from a value to its number.
+#[derive(Default)]
+struct Interned {
+    values: Vec<Vec<i128>>,
+    table: HashTable<u32>,
+}
+
+impl Interned {
+    /// The number of `q`, if it is there.
+    fn find(&self, q: &[i128]) -> Option<u32> {
+        let values = &self.values;
+        self.table
+            .find(hash_of(q), |&i| values[i as usize] == q)
+            .copied()
+    }
+
+    /// Add a value that is not there yet; its number.
+    fn add(&mut self, q: Vec<i128>) -> u32 {
+        let id = self.values.len() as u32;
+        let hash = hash_of(&q);
+        self.values.push(q);
+        let values = &self.values;
+        self.table
+            .insert_unique(hash, id, |&i| hash_of(&values[i as usize]));
+        id
+    }
+}
+
+/// A hash of a value of q (for the interning table only; equality decides).
+fn hash_of(q: &[i128]) -> u64 {
+    let mut h = DefaultHasher::new();
+    q.hash(&mut h);
+    h.finish()
+}
+
+/// Lines per grouping pass: the grouping holds up to one q (φ words of 16 bytes) and two
+/// line numbers per line, so passes are sized to keep it within an eighth of the process's
+/// memory budget (between 16 MiB and 1 GiB). Passes only change the order of exact
+/// additions, never B.
+fn lines_per_pass(problem: &OrbitProblem) -> usize {
+    let share = (cyclorb_field::memory_budget() / 8).clamp(16 << 20, 1 << 30);
+    let per_line = 16 * problem.kernel.degree() as u64 + 48;
+    usize::try_from(share / per_line)
+        .unwrap_or(usize::MAX)
+        .max(1024)
+}
+
+/// How the sum is split up; the default is the automatic choice. Tests force tiny values
+/// to show that the split never changes B.
+#[derive(Debug, Clone, Copy, Default)]
+pub(crate) struct Tuning {
+    /// Flush the integer sums after this many lines of a group.
+    pub(crate) flush_every: Option<usize>,
+    /// Lines per grouping pass (default [`lines_per_pass`]).
+    pub(crate) lines_per_pass: Option<usize>,
+}
+
 /// B = Σ v v† over the lines of `keys`, for the form diagonal `g` and seed norm `norm`, on
-/// `threads` threads; `flush_every` forces a flush of the integer sums after that many lines
-/// (tests).
+/// `threads` threads.
 pub(crate) fn sum_matrix(
     problem: &OrbitProblem,
     keys: &KeyArena,
     threads: usize,
     g: &[Cyc],
     norm: &Cyc,
-    flush_every: Option<usize>,
+    tuning: Tuning,
 ) -> Result<Matrix, OrbitError> {
     let field = &problem.field;
     let form = integer_form(field, &problem.kernel, g)?;
     let factor_numerator = field.mul(norm, &form.scale)?;
     let threads = threads.max(1);
-    let groups = group_lines(problem, &form, keys, threads)?;
+    let d = problem.dimension();
+    let mut upper = vec![field.zero(); d * d];
+    let pass = tuning
+        .lines_per_pass
+        .unwrap_or_else(|| lines_per_pass(problem))
+        .max(1);
+    for start in (0..keys.len()).step_by(pass) {
+        let lines = start..keys.len().min(start + pass);
+        let groups = group_lines(problem, &form, keys, lines, threads)?;
+        let part = sum_groups(
+            problem,
+            &form,
+            keys,
+            &groups,
+            threads,
+            &factor_numerator,
+            tuning.flush_every,
+        )?;
+        for (acc, x) in upper.iter_mut().zip(part) {
+            if !x.is_zero() {
+                *acc = field.add(acc, &x)?;
+            }
+        }
+    }
+    let mut b = Matrix::zeros(field, d, d);
+    for i in 0..d {
+        for j in i..d {
+            let x = &upper[i * d + j];
+            b.set(i, j, x.clone());
+            if i != j {
+                b.set(j, i, field.conj(x));
+            }
+        }
+    }
+    Ok(b)
+}
+
+/// Pass 2 over one grouping: the upper triangle of Σ v v† over its lines, on `threads`
+/// threads, each adding its share of every group.
+fn sum_groups(
+    problem: &OrbitProblem,
+    form: &IntegerForm,
+    keys: &KeyArena,
+    groups: &Groups,
+    threads: usize,
+    factor_numerator: &Cyc,
+    flush_every: Option<usize>,
+) -> Result<Vec<Cyc>, OrbitError> {
+    let field = &problem.field;
     let d = problem.dimension();
     let results: Vec<Result<Vec<Cyc>, OrbitError>> = std::thread::scope(|scope| {
         let handles: Vec<_> = (0..threads)
             .map(|t| {
-                let (form, groups) = (&form, &groups);
                 let factor = factor_numerator.clone();
                 scope.spawn(move || {
                     let mut reader = LineReader::new(problem, form);
@@ -525,15 +623,5 @@ pub(crate) fn sum_matrix(
             }
         }
     }
-    let mut b = Matrix::zeros(field, d, d);
-    for i in 0..d {
-        for j in i..d {
-            let x = &upper[i * d + j];
-            b.set(i, j, x.clone());
-            if i != j {
-                b.set(j, i, field.conj(x));
-            }
-        }
-    }
-    Ok(b)
+    Ok(upper)
 }

@@ -104,6 +104,14 @@ pub struct ImageBounds {
     pub enumeration_cap_name: &'static str,
 }
 
+/// The default of [`ImageBounds::orbit_limit`]: about 370 bytes per line at the peak
+/// (SU(2)_4 at genus 2: 1 228 800 lines, 450 MB).
+pub const DEFAULT_ORBIT_LIMIT: usize = 2_000_000;
+/// The default of [`ImageBounds::enumeration_cap`].
+pub const DEFAULT_ENUMERATION_CAP: usize = 20_000;
+/// The default of [`ImageRequest::witness_after`].
+pub const DEFAULT_WITNESS_AFTER: usize = 100_000;
+
 /// How the decision runs.
 #[derive(Debug, Clone)]
 pub struct ImageRequest {
@@ -118,6 +126,25 @@ pub struct ImageRequest {
     pub witness: WitnessOptions,
     /// Worker threads.
     pub threads: usize,
+}
+
+impl ImageRequest {
+    /// The request of `strategy` with the default bounds (named `orbit_limit` and
+    /// `enumeration_cap` in messages), the default witness search and one thread per core.
+    pub fn with_strategy(strategy: ImageStrategy) -> ImageRequest {
+        ImageRequest {
+            strategy,
+            bounds: ImageBounds {
+                orbit_limit: DEFAULT_ORBIT_LIMIT,
+                enumeration_cap: DEFAULT_ENUMERATION_CAP,
+                orbit_limit_name: "orbit_limit",
+                enumeration_cap_name: "enumeration_cap",
+            },
+            witness_after: DEFAULT_WITNESS_AFTER,
+            witness: WitnessOptions::default(),
+            threads: std::thread::available_parallelism().map_or(1, |n| n.get()),
+        }
+    }
 }
 
 /// The proof behind a decision.

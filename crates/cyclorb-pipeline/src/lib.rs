@@ -12,6 +12,7 @@
 //! - [`answer`]: the one answer of the orbit routes ([`OrbitAnswer`]), with its JSON keys.
 //! - [`method`]: the routes to the vacuum orbit ([`OrbitMethod`]).
 //! - [`dw_space`]: the same for Dijkgraaf–Witten theories `dw:GROUP`, as permutations.
+//! - [`dw_count`]: the counting route of untwisted `dw:` theories (|P| / |Stab_P(S)|).
 //! - [`listing`]: the enumerating route (origin, checkpoints, the run, its answer).
 //! - [`product`]: the orbit of a Deligne product from its factors' orbits.
 //! - [`runtime`]: resident memory of the process and the default memory budget.
@@ -20,7 +21,9 @@
 //! - [`witness`]: the search for a witness of infinite image (factors first).
 //! - [`lines`]: the faithful set of orbit lines the image route needs.
 //! - [`lifted`]: witnesses of infinite image found on a Deligne factor.
-
+//! - [`sweep`]: a plan of runs over theories × genera, scheduled and computed run by run.
+//! - [`envelope`]: the keys every certificate file carries (kind, program, spec, files).
+//! - [`check`]: the re-check of a certificate file, claim by claim (`cyclorb check`).
 //!
 //! ```
 //! use cyclorb_orbit::{OrbitOptions, Silent};
@@ -41,13 +44,23 @@
 //! let gens = cert_generators(&space, parse_set("humphries").unwrap()).unwrap();
 //! let commutant = cyclorb_cert::commutant(&gens, Default::default()).unwrap();
 //! assert_eq!(commutant.dimension, 1);
+//!
+//! // the projective image, decided by the structural route with its certificate re-checked
+//! use cyclorb_pipeline::image::{decide_image, ImageRequest, ImageStrategy};
+//! let request = ImageRequest::with_strategy(ImageStrategy::Structure);
+//! let set = parse_set("humphries").unwrap();
+//! let image = decide_image(&space, set, &gens, &request).unwrap();
+//! assert_eq!(image.finite, Some(true));
 //! ```
 
 #![deny(missing_docs)]
 
 pub mod answer;
+pub mod check;
 pub mod counting;
+pub mod dw_count;
 pub mod dw_space;
+pub mod envelope;
 pub mod image;
 pub mod lifted;
 pub mod lines;
@@ -58,6 +71,7 @@ pub mod proof;
 mod proof_cache;
 pub mod runtime;
 pub mod space;
+pub mod sweep;
 pub mod witness;
 
 pub use answer::{Count, OrbitAnswer};

@@ -16,7 +16,7 @@ use serde_json::json;
 
 use crate::answer::{LineWord, OrbitAnswer, StoreFigures};
 use crate::dw_space::{is_dw, DwSpace};
-use crate::{proof, space};
+use crate::{proof, runtime, space};
 
 /// How an orbit problem is built: a theory's vacuum at a genus under a generating set, or
 /// raw generator and seed files.
@@ -144,13 +144,21 @@ impl Listing {
         &self.problem
     }
 
-    /// List the orbit: from the start, or continuing the checkpoint at `resume`.
+    /// List the orbit: from the start, or continuing the checkpoint at `resume`. Unless the
+    /// caller gives its own probe, the memory ceiling also holds the process's resident
+    /// memory ([`runtime::resident_memory_bytes`]), so that what the store does not count
+    /// (field tables, compiled generators, freed pages not yet returned) stops the run too.
     pub fn run(
         &self,
         options: &OrbitOptions,
         resume: Option<&Path>,
         progress: &mut dyn ProgressObserver,
     ) -> Result<Orbit, String> {
+        let options = OrbitOptions {
+            resident: options.resident.or(Some(runtime::resident_memory_bytes)),
+            ..options.clone()
+        };
+        let options = &options;
         match resume {
             Some(path) => self.problem.resume(path, options, progress),
             None => self.problem.enumerate(options, progress),

@@ -51,10 +51,21 @@ pub fn answers_verified() -> Option<bool> {
 /// Read a spec and prove every theory file it reads (cached by data hash), unless
 /// `--unverified` was given. Errors name the file, the failing check and its equation.
 pub fn theory(spec: &str) -> Result<Theory, String> {
+    theory_traced(spec).map(|(theory, _)| theory)
+}
+
+/// [`theory`], with the theory files this spec reads (path as written, SHA-256 data hash),
+/// each once, in reading order: what a certificate of this spec records, whatever else the
+/// process has read before.
+pub fn theory_traced(spec: &str) -> Result<(Theory, Vec<(String, String)>), String> {
     let traced = parse_spec_traced(spec).map_err(|e| e.to_string())?;
+    let mut files = Vec::new();
     for file in &traced.files {
         prove_file(file)?;
         let entry = (file.path.display().to_string(), file.theory.data_hash());
+        if !files.contains(&entry) {
+            files.push(entry.clone());
+        }
         let mut read = FILES_READ.lock().unwrap_or_else(|e| e.into_inner());
         if !read.contains(&entry) {
             read.push(entry);
@@ -63,7 +74,7 @@ pub fn theory(spec: &str) -> Result<Theory, String> {
     if traced.files.is_empty() {
         record(true);
     }
-    Ok(traced.theory)
+    Ok((traced.theory, files))
 }
 
 /// Remember a theory whose data hash has just passed every check of `verify` (a file read

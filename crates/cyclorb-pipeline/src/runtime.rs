@@ -1,6 +1,10 @@
 //! What a run needs to know about the process and the machine: resident memory (now and at
-//! its peak, for reports and progress) and the default memory budget. Linux reads
+//! its peak, for reports and progress) the default memory budget and the most worker threads accepted. Linux reads
 //! /proc; elsewhere the figures are `None` and the budget falls back to a fixed size.
+
+/// Most worker threads accepted: more gain nothing on any machine this program targets, and
+/// a thread the system cannot start would end the process.
+pub const MAX_THREADS: usize = 256;
 
 /// The peak resident set size (VmHWM of /proc/self/status) in bytes; `None` where the
 /// operating system does not provide it.

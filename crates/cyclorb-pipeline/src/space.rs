@@ -17,8 +17,18 @@ pub fn parse_set(name: &str) -> Result<GeneratingSet, String> {
 /// Read a theory (built-in spec or file; files proved first, see `proof`) and build its
 /// genus-g block space.
 pub fn build_space(spec: &str, genus: usize) -> Result<BlockSpace, String> {
-    let theory = proof::theory(spec)?;
-    BlockSpace::new(theory, genus).map_err(|e| e.to_string())
+    build_space_traced(spec, genus).map(|(space, _)| space)
+}
+
+/// [`build_space`], with the theory files the spec read (path, data hash; what a
+/// certificate's envelope records, see `envelope::wrap`).
+pub fn build_space_traced(
+    spec: &str,
+    genus: usize,
+) -> Result<(BlockSpace, Vec<(String, String)>), String> {
+    let (theory, files) = proof::theory_traced(spec)?;
+    let space = BlockSpace::new(theory, genus).map_err(|e| e.to_string())?;
+    Ok((space, files))
 }
 
 /// The generators of a block space as the orbit engine's generator set (with basis labels,

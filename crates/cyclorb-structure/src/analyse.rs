@@ -19,10 +19,10 @@ use crate::report::{
     ChainCertificate, CommutantProof, ImageReport, KernelCertificate, OrbitReport,
     StructureCertificate, StructureReport,
 };
-use crate::roots::RootsOfUnity;
 use crate::search::{find_monomial_form, generators_of};
 use crate::sparse::SparseVec;
 use crate::vacuum::{support_exponents, vacuum_expansion};
+use cyclorb_field::RootsOfUnity;
 
 /// Choices of the structural route.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]

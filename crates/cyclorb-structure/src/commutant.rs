@@ -10,7 +10,7 @@ use crate::irreducible::{check_irreducibility, monomial_irreducibility, separati
 use crate::lattice::ModLattice;
 use crate::monomial::{Monomial, MonomialForm};
 use crate::report::CommutantProof;
-use crate::roots::RootsOfUnity;
+use cyclorb_field::RootsOfUnity;
 
 /// The monomial generators (and chosen diagonal elements of K) as a generator set over
 /// Q(ζ_n), for the commutant certificate.

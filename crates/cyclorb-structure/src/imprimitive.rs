@@ -41,11 +41,11 @@ use crate::monomial::Monomial;
 use crate::orbit::count_patterns;
 use crate::power::{candidate_powers, power_candidate, twist_order, PowerCandidate};
 use crate::report::KernelCertificate;
-use crate::roots::RootsOfUnity;
 use crate::search::{generators_of, Generators};
 use crate::sectors::{sectors, Sectors};
 use crate::sectorsum::{sector_orbits, vacuum_column, SectorOrbit};
 use crate::sparse::SparseVec;
+use cyclorb_field::RootsOfUnity;
 
 /// Choices of the imprimitive route.
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]

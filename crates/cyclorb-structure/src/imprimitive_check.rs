@@ -20,11 +20,11 @@ use crate::error::{require, StructureError};
 use crate::imprimitive::{count, lickorish_candidate, sector_supports, ImprimitiveCertificate};
 use crate::lineorbit::{replay, spans, LineOrbit};
 use crate::power::PowerCandidate;
-use crate::roots::RootsOfUnity;
 use crate::search::{generators_named, Generators};
 use crate::sectors::{sectors, Sectors};
 use crate::sectorsum::sector_orbits;
 use crate::sparse::SparseVec;
+use cyclorb_field::RootsOfUnity;
 
 /// A sparse vector from its text form (increasing in-range indices, non-zero values).
 pub(crate) fn sparse_parse(

@@ -84,7 +84,6 @@ mod power;
 mod recheck;
 mod refine;
 mod report;
-mod roots;
 mod search;
 mod sectors;
 mod sectorsum;
@@ -95,6 +94,7 @@ mod vacuum;
 
 pub use analyse::{analyse, analyse_spec, StructureOptions};
 pub use chain::MonomialChain;
+pub use cyclorb_field::RootsOfUnity;
 pub use error::StructureError;
 pub use imprimitive::{
     analyse_imprimitive, ImprimitiveCertificate, ImprimitiveOptions, ImprimitiveReport,
@@ -108,6 +108,5 @@ pub use report::{
     ChainCertificate, CommutantProof, ImageReport, KernelCertificate, OrbitReport,
     StructureCertificate, StructureReport,
 };
-pub use roots::RootsOfUnity;
 pub use sectorsum::SectorOrbit;
 pub use sparse::{ColumnMap, SparseVec};

@@ -22,8 +22,8 @@ use hashbrown::HashMap;
 
 use crate::error::{require, StructureError};
 use crate::monomial::Monomial;
-use crate::roots::RootsOfUnity;
 use crate::sparse::{ColumnMap, SparseVec};
+use cyclorb_field::RootsOfUnity;
 
 /// The lines, their representatives and the generators as monomials on them.
 #[derive(Clone, Debug)]

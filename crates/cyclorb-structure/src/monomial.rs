@@ -15,8 +15,8 @@ use cyclorb_matrix::Matrix;
 use serde::{Deserialize, Serialize};
 
 use crate::error::{require, StructureError};
-use crate::roots::RootsOfUnity;
 use crate::sparse::{ColumnMap, SparseVec};
+use cyclorb_field::RootsOfUnity;
 
 /// The matrix e_i ↦ ζ_m^{φ_i}·e_{π(i)}, π = `perm`, φ = `phases`.
 #[derive(Clone, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]

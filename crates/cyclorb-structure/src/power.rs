@@ -13,8 +13,8 @@ use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_theory::Theory;
 
 use crate::error::StructureError;
-use crate::roots::RootsOfUnity;
 use crate::sparse::{ColumnMap, SparseVec};
+use cyclorb_field::RootsOfUnity;
 
 /// The k-th powers of the generators and the possible eigenvalues of each.
 #[derive(Debug, Clone)]

@@ -9,9 +9,9 @@ use crate::error::{require, StructureError};
 use crate::imprimitive_check::sparse_parse;
 use crate::monomial::MonomialForm;
 use crate::report::StructureCertificate;
-use crate::roots::RootsOfUnity;
 use crate::search::generators_named;
 use crate::vacuum::check_expansion;
+use cyclorb_field::RootsOfUnity;
 
 /// Re-check a certificate against the block space it claims to describe.
 ///

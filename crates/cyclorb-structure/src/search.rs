@@ -11,8 +11,8 @@ use crate::error::StructureError;
 use crate::monomial::MonomialForm;
 use crate::power::{candidate_powers, power_candidate, twist_order, PowerCandidate};
 use crate::refine::Refinement;
-use crate::roots::RootsOfUnity;
 use crate::sparse::{ColumnMap, SparseVec};
+use cyclorb_field::RootsOfUnity;
 
 /// The generators of a block space as column maps, with their names.
 pub(crate) struct Generators {

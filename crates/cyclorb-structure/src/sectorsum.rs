@@ -28,9 +28,9 @@ use serde::{Deserialize, Serialize};
 use crate::error::StructureError;
 use crate::lineorbit::LineOrbit;
 use crate::monomial::Monomial;
-use crate::roots::RootsOfUnity;
 use crate::sectors::{independent_subset, Sectors};
 use crate::sparse::{inner, SparseVec};
+use cyclorb_field::RootsOfUnity;
 
 /// One orbit of sectors: its commutant on a representative sector and its term of B.
 #[derive(Clone, Debug, PartialEq, Eq, Serialize, Deserialize)]

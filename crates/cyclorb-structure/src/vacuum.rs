@@ -3,8 +3,8 @@
 use cyclorb_field::{Cyc, CyclotomicField};
 
 use crate::error::{require, StructureError};
-use crate::roots::RootsOfUnity;
 use crate::sparse::{inner, SparseVec};
+use cyclorb_field::RootsOfUnity;
 
 /// v₀ = e_vac in the monomial basis: c_j = ⟨e_j, e_vac⟩_G / ⟨e_j, e_j⟩_G, then
 /// Σ c_j e_j = e_vac checked exactly (the e_j being a basis, the expansion is unique).

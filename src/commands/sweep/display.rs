@@ -14,9 +14,7 @@ use cyclorb_orbit::{Progress, ProgressObserver};
 use crate::runtime::peak_memory_bytes;
 use indicatif::{MultiProgress, ProgressBar, ProgressDrawTarget, ProgressStyle};
 
-use super::plan::Limits;
-use super::result::RunResult;
-use super::schedule::PlannedRun;
+use cyclorb_pipeline::sweep::{Limits, PlannedRun, RunResult, SweepObserver};
 
 /// The display of one sweep.
 pub struct SweepDisplay {
@@ -223,5 +221,27 @@ impl ProgressObserver for OrbitObserver<'_> {
             mib(p.store_bytes as u64),
             mib(peak_memory_bytes().unwrap_or(0)),
         ));
+    }
+}
+
+impl SweepObserver for SweepDisplay {
+    fn start(&self, run: &PlannedRun) {
+        SweepDisplay::start(self, run);
+    }
+
+    fn stage(&self, run: &PlannedRun, stage: &str) {
+        SweepDisplay::stage(self, run, stage);
+    }
+
+    fn note(&self, text: String) {
+        SweepDisplay::note(self, text);
+    }
+
+    fn orbit<'a>(
+        &'a self,
+        run: &'a PlannedRun,
+        spent_before: f64,
+    ) -> Box<dyn ProgressObserver + 'a> {
+        Box::new(self.observer(run, run.limits, spent_before))
     }
 }

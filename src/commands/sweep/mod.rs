@@ -1,50 +1,9 @@
 //! `cyclorb sweep PLAN --out DIR`: a batch of runs over theories × genera, resumable,
 //! with per-run results, Markdown and CSV summaries and a growth plot.
 //!
-//! # The plan (TOML)
-//!
-//! ```toml
-//! name = "small"                # optional; default: the file's stem
-//! answers = ["orbit", "commutant", "image", "witness"]   # default: all four
-//! set = "humphries"             # generating set: humphries (2g+1) or lickorish (3g-1)
-//! threads = 2                   # default: every core; --threads overrides
-//! checkpoint_seconds = 30       # periodic checkpoints of a running orbit (default 30)
-//!
-//! [limits]                      # caps of every run (default: none); an entry may override
-//! lines = 100000                # stop the orbit after this many lines
-//! memory_mib = 1024             # … or once its store holds this many MiB
-//! seconds = 60                  # … or after this much enumeration time (all attempts)
-//!
-//! [witness]                     # search for a word of infinite projective order
-//! depth = 4                     # every Lyndon word up to this length (default 4)
-//! tries = 100                   # then this many seeded random words (default 100)
-//!
-//! [image]                       # image-order certificates
-//! max_lines = 20000             # Schreier–Sims on orbits up to this size (default 20000)
-//! enumeration_cap = 50000       # else enumerate up to this many elements (default 50000)
-//!
-//! [[theory]]                    # one entry per theory
-//! spec = "ising"                # a built-in spec (see `cyclorb theories`) …
-//! genera = [1, 2]
-//!
-//! [[theory]]
-//! file = "../theories/z3.json"  # … or a theory file, relative to the plan's folder
-//! label = "Z3"                  # name in ids and tables (default: the spec or file stem)
-//! genera = [1]
-//! answers = ["orbit"]           # per-entry answers, set and limits override the defaults
-//! limits = { lines = 5000 }
-//!
-//! [[theory]]
-//! spec = "dw:S3"
-//! genera = [3]
-//! method = "structure"          # count the orbit without listing it (untwisted dw: only;
-//!                               # default "enumerate"; may also be set for the whole plan)
-//! ```
-//!
-//! A malformed plan is refused before anything runs, with `PLAN:LINE:COLUMN: reason` and
-//! the line quoted: TOML syntax, unknown keys, wrong types, genus 0, unknown answers or
-//! generating sets, zero caps, and theories that cannot be read or lack the data for a
-//! genus (naming the entry).
+//! The plan format, the order of runs and what each run computes are the pipeline's
+//! (`cyclorb_pipeline::sweep`); this module runs the schedule, stores the results and
+//! writes the reports.
 //!
 //! # Runs and the output folder
 //! Each (theory, genus) is a run with id `<label>-g<genus>`; runs go smallest first (by
@@ -58,16 +17,10 @@
 //! Exit codes: 0 every run finished (runs stopped by their caps are finished: "not closed
 //! after N"); 1 invalid plan, or a run reported an error (a failed check); 3 interrupted.
 
-mod answers;
 mod display;
-mod hash;
-mod orbit_stage;
-mod plan;
 mod plot;
 mod report;
 mod result;
-mod run;
-mod schedule;
 
 use std::path::{Path, PathBuf};
 use std::sync::atomic::AtomicBool;
@@ -79,12 +32,12 @@ use serde_json::json;
 
 use super::output::{shell_word, Outcome, Report};
 use crate::cli::SweepArgs;
+use cyclorb_pipeline::sweep::{
+    execute, read_plan, schedule, Plan, RunEnd, RunResult, Schedule, SweepSettings,
+};
 use display::SweepDisplay;
-use plan::{read_plan, Plan};
 use report::SweepHeader;
-use result::{finished_result, write_atomically, write_result, RunResult, Stored};
-use run::{execute, RunEnd, SweepSettings};
-use schedule::{schedule, Schedule};
+use result::{finished_result, write_atomically, write_result, Stored};
 
 /// The command line as a user types it: `cyclorb` (not the path the program was started
 /// by) and the arguments, each quoted when the shell would need it.

@@ -12,7 +12,7 @@
 //! with B = λ_g·G⁻¹; a panel with nothing to show says so. Coordinates are floating-point
 //! for drawing only.
 
-use super::result::RunResult;
+use cyclorb_pipeline::sweep::RunResult;
 
 /// What is known of a run's orbit.
 #[derive(Clone, Copy, PartialEq, Debug)]

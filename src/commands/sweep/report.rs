@@ -7,7 +7,7 @@
 //! dimension, witness word, time, peak memory, program version. The CSV adds the raw
 //! fields (orbit size, saturated, stop reason, data hash, conductor).
 
-use super::result::RunResult;
+use cyclorb_pipeline::sweep::RunResult;
 
 /// What the tables say about the plan as a whole.
 pub struct SweepHeader<'a> {

@@ -73,7 +73,46 @@ fn memory_ceiling_stops_the_run() {
     let orbit = problem.enumerate(&options, &mut Silent).unwrap();
     assert_eq!(orbit.stop_reason(), Some(StopReason::Memory));
     assert!(orbit.len() < 1080);
-    assert!(orbit.store_bytes() > 30_000);
+    // it stopped because the store and the next chunk's candidates would pass the ceiling
+    let chunk = problem.chunk_bytes(16);
+    assert!(orbit.store_bytes() + chunk > 30_000);
+    assert!(orbit.store_bytes() <= 30_000);
+}
+
+#[test]
+fn the_hosts_resident_memory_probe_counts_against_the_ceiling() {
+    let problem = three_qubits();
+    let probed = |probe: fn() -> Option<u64>| OrbitOptions {
+        memory_ceiling: Some(1 << 30),
+        resident: Some(probe),
+        ..options(1, 16)
+    };
+    // a process already past the ceiling stops before the first chunk
+    let orbit = problem
+        .enumerate(&probed(|| Some(2 << 30)), &mut Silent)
+        .unwrap();
+    assert_eq!(orbit.stop_reason(), Some(StopReason::Memory));
+    assert_eq!(orbit.processed(), 0);
+    // a probe with nothing to say leaves the store's own count
+    let orbit = problem.enumerate(&probed(|| None), &mut Silent).unwrap();
+    assert!(orbit.is_saturated());
+    assert_eq!(orbit.len(), 1080);
+}
+
+#[test]
+fn a_chunk_is_shortened_to_an_eighth_of_the_ceiling() {
+    let problem = three_qubits();
+    let with = |ceiling| OrbitOptions {
+        memory_ceiling: ceiling,
+        ..options(2, 64)
+    };
+    assert_eq!(problem.chunk_len(&with(None)), 64);
+    assert_eq!(problem.chunk_len(&with(Some(usize::MAX))), 64);
+    assert_eq!(
+        problem.chunk_len(&with(Some(8 * problem.chunk_bytes(5)))),
+        5
+    );
+    assert_eq!(problem.chunk_len(&with(Some(1))), 1);
 }
 
 #[test]

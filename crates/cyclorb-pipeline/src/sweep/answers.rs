@@ -13,12 +13,12 @@ use cyclorb_cert::{commutant, CommutantOptions, CommutantRoute, GeneratorSet, Wi
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use cyclorb_orbit::{Orbit, OrbitProblem};
 
-use cyclorb_pipeline::image::{
+use crate::image::{
     enumerate_image, image_of_orbit, ImageBounds as DecisionBounds, ImageDecision, ImageEvidence,
     ImageRoute,
 };
-use cyclorb_pipeline::lifted::find_lifted;
-use cyclorb_pipeline::witness::search_generators;
+use crate::lifted::find_lifted;
+use crate::witness::search_generators;
 
 use super::plan::{ImageBounds, WitnessBounds};
 use super::result::{CommutantAnswer, ImageAnswer, WitnessAnswer};
@@ -49,7 +49,7 @@ fn undecided(note: String) -> ImageAnswer {
     ImageAnswer {
         finite: None,
         order: None,
-        route: ImageRoute::Undecided.name().into(),
+        route: ImageRoute::Undecided,
         note: Some(note),
     }
 }
@@ -76,13 +76,13 @@ fn answer_of(decision: ImageDecision, before: Option<String>) -> ImageAnswer {
     ImageAnswer {
         finite: decision.finite,
         order: decision.order,
-        route: decision.route.name().into(),
+        route: decision.route,
         note: (!parts.is_empty()).then(|| parts.join("; ")),
     }
 }
 
 /// The order of the projective image, when a certificate decides it within the bounds:
-/// Schreier–Sims on the saturated orbit (`cyclorb_pipeline::image`), else enumeration.
+/// Schreier–Sims on the saturated orbit (`crate::image`), else enumeration.
 pub fn image_answer(
     gens: &GeneratorSet,
     problem: &OrbitProblem,

@@ -1,29 +1,20 @@
 //! The linear algebra of the re-checks, written out plainly so that it shares no code with
 //! the producers' solvers: row echelon form over F_p (rank) and the determinant over Q(ζ_n)
-//! by Gaussian elimination.
+//! by Gaussian elimination. They stay apart from cyclorb-matrix's `Echelon` and elimination
+//! on purpose: the commutant and structure claims are only as sound as this rank, and the
+//! producers find their bases with cyclorb-matrix (only `pow_mod` is shared, from
+//! cyclorb-field).
 //!
 //! Rank over F_p bounds the exact rank from below (a minor that vanishes exactly vanishes
 //! mod p), so full rank mod p proves independence, and rank r mod p of a linear system in N
 //! unknowns proves that its exact nullity is at most N − r.
 
+use cyclorb_field::numtheory::pow_mod;
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_matrix::Matrix;
 
 fn mul_mod(a: u64, b: u64, p: u64) -> u64 {
     ((u128::from(a) * u128::from(b)) % u128::from(p)) as u64
-}
-
-/// b^e mod p by squaring.
-fn pow_mod(mut b: u64, mut e: u64, p: u64) -> u64 {
-    let mut out = 1 % p;
-    while e > 0 {
-        if e & 1 == 1 {
-            out = mul_mod(out, b, p);
-        }
-        b = mul_mod(b, b, p);
-        e >>= 1;
-    }
-    out
 }
 
 /// Rows in echelon form over F_p, added one at a time.

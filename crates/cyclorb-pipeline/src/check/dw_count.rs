@@ -26,7 +26,7 @@ use num_bigint::BigUint;
 use serde::Deserialize;
 
 use super::{Claims, Stop};
-use cyclorb_pipeline::dw_space::DwSpace;
+use crate::dw_space::DwSpace;
 
 /// Largest orbit listed as subsets to confirm the count.
 const MAX_LISTED_ORBIT: usize = 200_000;

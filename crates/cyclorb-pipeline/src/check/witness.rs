@@ -16,11 +16,9 @@ use cyclorb_matrix::Matrix;
 
 use super::claims::same_conductor;
 use super::linear::determinant;
-use super::poly::{
-    cyclotomic, degree, divide_by_x_minus_one, euler_phi, integers, interpolate, mul_z, norm_to_z,
-    rem_monic, trimmed,
-};
+use super::poly::{cyclotomic, divide_by_x_minus_one, euler_phi, interpolate, norm_to_z};
 use super::{Claims, Stop};
+use cyclorb_field::int_poly::{degree, div_exact_monic, from_strings, mul};
 
 fn err(e: impl ToString) -> String {
     e.to_string()
@@ -169,12 +167,12 @@ pub fn check(gens: &GeneratorSet, w: &WitnessCertificate, claims: &mut Claims) -
             "monic of degree {m}, equal to det(x·1 − B) at x = 0…{m} (Gaussian elimination; the producer used Berkowitz)"
         ))
     })?;
-    let norm = integers(&w.ratio_norm);
+    let norm = from_strings(&w.ratio_norm);
     claims.claim("ratio-norm", || {
         let stated = norm.clone().ok_or("a coefficient is not an integer")?;
         let r = ratio_polynomial(field, &f)?;
         let (found, conjugates) = norm_to_z(field, &r)?;
-        if trimmed(&found) != trimmed(&stated) {
+        if found != stated {
             return Err("the norm of Π_{i≠j}(x − λ_i/λ_j) differs from the stated one".into());
         }
         if conjugates != w.conjugates {
@@ -187,7 +185,7 @@ pub fn check(gens: &GeneratorSet, w: &WitnessCertificate, claims: &mut Claims) -
         ))
     })?;
     let norm = norm.expect("checked above");
-    let rest = integers(&w.remaining_factor);
+    let rest = from_strings(&w.remaining_factor);
     claims.claim("cyclotomic-factors", || {
         let rest = rest
             .clone()
@@ -204,10 +202,10 @@ pub fn check(gens: &GeneratorSet, w: &WitnessCertificate, claims: &mut Claims) -
                 ));
             }
             for _ in 0..factor.multiplicity {
-                product = mul_z(&product, &cyclotomic(factor.order));
+                product = mul(&product, &cyclotomic(factor.order));
             }
         }
-        if trimmed(&product) != trimmed(&norm) {
+        if product != norm {
             return Err("N ≠ Π Φ_k^e · rest".into());
         }
         Ok(format!(
@@ -226,8 +224,7 @@ pub fn check(gens: &GeneratorSet, w: &WitnessCertificate, claims: &mut Claims) -
         let mut tested = 0;
         for k in (1..=bound).filter(|&k| euler_phi(k) as usize <= d) {
             tested += 1;
-            let r = rem_monic(&rest, &cyclotomic(k));
-            if r.iter().all(num_traits::Zero::is_zero) {
+            if div_exact_monic(&rest, &cyclotomic(k)).is_some() {
                 return Err(format!("Φ_{k} divides the remaining factor"));
             }
         }
@@ -245,19 +242,19 @@ pub fn check(gens: &GeneratorSet, w: &WitnessCertificate, claims: &mut Claims) -
 /// ratio on the product (docs/minimal-models.md, "Witnesses lifted from a factor").
 pub fn lifted(
     envelope: &super::Envelope,
-    w: &cyclorb_pipeline::lifted::LiftedWitness,
+    w: &crate::lifted::LiftedWitness,
     file: &str,
     claims: &mut Claims,
 ) -> Result<(), Stop> {
     let space = &envelope.space;
     let invalid = |e: String| Stop::Invalid(format!("{file}: rebuilding the input: {e}"));
-    let set = cyclorb_pipeline::space::parse_set(&space.set).map_err(invalid)?;
-    let theory = cyclorb_pipeline::proof::theory(&space.spec).map_err(invalid)?;
-    super::check_theory_files(envelope, claims)?;
+    let set = crate::space::parse_set(&space.set).map_err(invalid)?;
+    let (theory, files) = crate::proof::theory_traced(&space.spec).map_err(invalid)?;
+    super::check_theory_files(envelope, &files, claims)?;
     let named = &w.lifted_from_factor;
     let mut built = None;
     claims.claim("factor", || {
-        let gens = cyclorb_pipeline::lifted::named_factor(&theory, space.genus, set, named)?;
+        let gens = crate::lifted::named_factor(&theory, space.genus, set, named)?;
         if gens.field().conductor() != named.conductor {
             return Err(format!(
                 "the factor's field is Q(ζ_{}), not Q(ζ_{})",

@@ -29,8 +29,8 @@ use num_bigint::BigUint;
 use serde_json::Value;
 
 use super::{body_as, Claims, Envelope, Stop};
-use cyclorb_pipeline::lines::faithful_lines;
-use cyclorb_pipeline::space::{generator_set_file, parse_set};
+use crate::lines::faithful_lines;
+use crate::space::{generator_set_file, parse_set};
 
 fn err(e: impl ToString) -> String {
     e.to_string()

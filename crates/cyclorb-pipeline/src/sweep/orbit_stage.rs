@@ -132,6 +132,7 @@ pub fn run_orbit(
     let options = OrbitOptions {
         limit: limits.lines,
         memory_ceiling: limits.memory_mib.map(|m| m << 20),
+        resident: Some(crate::runtime::resident_memory_bytes),
         threads: engine.threads,
         checkpoint: Some(CheckpointPlan {
             path: checkpoint.to_path_buf(),

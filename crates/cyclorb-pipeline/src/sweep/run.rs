@@ -1,13 +1,14 @@
 //! One run of a sweep: generators, orbit under caps, Poincaré sum, certificates, result.
 //!
-//! Order of work: the Dehn twists of the block space; the orbit of the vacuum line when
-//! the orbit or the image is asked for (continued from `runs/<id>/checkpoint.bin` when a
-//! usable one exists); the Poincaré sum of a saturated orbit; the image order; the
+//! Order of work: the Dehn twists of the block space; the orbit of the vacuum line when the
+//! orbit or the image is asked for (continued from `checkpoint.bin` in the run's folder when
+//! a usable one exists); the Poincaré sum of a saturated orbit; the image order; the
 //! commutant; a witness when the image is not proven finite (on the factors of a Deligne
 //! product first; a run asking for the witness alone on a product tries its factors before
-//! the product's generators are built). Ctrl-C or SIGTERM is honoured
-//! between these stages (and between chunks of the orbit): the run then ends without a
-//! result and the sweep stops, to continue from the checkpoint next time.
+//! the product's generators are built). The settings' stop flag (Ctrl-C or SIGTERM in the
+//! program, KeyboardInterrupt in Python) is honoured between these stages (and between
+//! chunks of the orbit): the run then ends without a result, to continue from the
+//! checkpoint next time.
 
 use std::path::Path;
 use std::sync::atomic::{AtomicBool, Ordering};
@@ -15,21 +16,22 @@ use std::sync::Arc;
 use std::time::{Duration, Instant};
 
 use cyclorb_mcg::BlockSpace;
-use cyclorb_orbit::PoincareReport;
+use cyclorb_orbit::{PoincareReport, ProgressObserver};
 
-use super::super::dw_count::{certificate, count, counted_poincare};
 use super::answers::{
     certificate_generators, commutant_answer, image_answer, lifted_witness_answer, witness_answer,
     witness_failed, witness_not_needed,
 };
-use super::display::SweepDisplay;
 use super::orbit_stage::{run_orbit, starting_orbit, EngineSettings, OrbitStop};
-use super::plan::{Answer, ImageBounds, OrbitMethod, WitnessBounds};
+use super::plan::{Answer, ImageBounds, WitnessBounds};
 use super::result::CommutantAnswer;
 use super::result::{Citation, ImageAnswer, RunResult};
 use super::schedule::{PlannedRun, RunSpace};
+use crate::dw_count::{certificate, count, counted_poincare};
+use crate::dw_space::DwSpace;
+use crate::image::ImageRoute;
+use crate::method::OrbitMethod;
 use cyclorb_dw::VacuumOrbit;
-use cyclorb_pipeline::dw_space::DwSpace;
 
 /// Settings shared by every run of a sweep.
 pub struct SweepSettings<'a> {
@@ -47,6 +49,24 @@ pub struct SweepSettings<'a> {
     pub plan_hash: &'a str,
     /// The command line recorded in results.
     pub command: &'a str,
+}
+
+/// What a host shows of a running sweep (the program's bars and lines, a notebook's
+/// callback, or nothing). It only reports; stopping goes through the settings' `signal`.
+pub trait SweepObserver {
+    /// A run starts.
+    fn start(&self, run: &PlannedRun);
+    /// The run enters a stage (`orbit`, `Poincaré sum`, `commutant`, …).
+    fn stage(&self, run: &PlannedRun, stage: &str);
+    /// A message for the user (the caller of [`execute`] also keeps it in its notes).
+    fn note(&self, text: String);
+    /// The engine's observer while the run's orbit is listed; `spent_before` is the
+    /// enumeration time of earlier attempts (kept in the checkpoint).
+    fn orbit<'a>(
+        &'a self,
+        run: &'a PlannedRun,
+        spent_before: f64,
+    ) -> Box<dyn ProgressObserver + 'a>;
 }
 
 /// How a run ended.
@@ -107,7 +127,12 @@ fn blank_result(
 /// The permutation routes of a `dw:` run: the image order by Schreier–Sims on X_g (unless
 /// the count found it already), the commutant dimension as the number of orbitals, and no
 /// witness (the image is finite).
-fn dw_answers(run: &PlannedRun, space: &DwSpace, result: &mut RunResult, display: &SweepDisplay) {
+fn dw_answers(
+    run: &PlannedRun,
+    space: &DwSpace,
+    result: &mut RunResult,
+    display: &dyn SweepObserver,
+) {
     let known = result.image.as_ref().and_then(|i| i.order.clone());
     if let Some(order) = known.filter(|_| run.wants(Answer::Witness)) {
         result.witness = Some(witness_not_needed(&order));
@@ -123,7 +148,7 @@ fn dw_answers(run: &PlannedRun, space: &DwSpace, result: &mut RunResult, display
                     result.image = Some(ImageAnswer {
                         finite: Some(true),
                         order: Some(order),
-                        route: image.route.name().into(),
+                        route: image.route,
                         note: None,
                     });
                 }
@@ -154,7 +179,7 @@ fn counted_orbit(
     run: &PlannedRun,
     space: &DwSpace,
     result: &mut RunResult,
-    display: &SweepDisplay,
+    display: &dyn SweepObserver,
 ) {
     display.stage(run, "orbit counted (set stabiliser)");
     let counted = match count(space, None) {
@@ -200,7 +225,7 @@ fn counted_orbit(
         result.image = Some(ImageAnswer {
             finite: Some(true),
             order: Some(counted.image_order.to_string()),
-            route: "permutation-schreier-sims".into(),
+            route: ImageRoute::PermutationSchreierSims,
             note: Some("|P| from the counting route's chain on X_g ⊔ Ω".into()),
         });
     }
@@ -226,7 +251,7 @@ fn witness_alone_on_a_product(run: &PlannedRun) -> Option<&BlockSpace> {
 fn witness_from_factors(
     run: &PlannedRun,
     settings: &SweepSettings,
-    display: &SweepDisplay,
+    display: &dyn SweepObserver,
     started: Instant,
 ) -> Result<Option<RunResult>, String> {
     let Some(space) = witness_alone_on_a_product(run) else {
@@ -256,7 +281,7 @@ pub fn execute(
     run: &PlannedRun,
     dir: &Path,
     settings: &SweepSettings,
-    display: &SweepDisplay,
+    display: &dyn SweepObserver,
     notes: &mut Vec<String>,
 ) -> Result<RunEnd, String> {
     let started = Instant::now();
@@ -287,7 +312,7 @@ pub fn execute(
             display.note(note.clone());
             notes.push(note);
         }
-        let mut observer = display.observer(run, run.limits, start.0.compute_seconds());
+        let mut observer = display.orbit(run, start.0.compute_seconds());
         let engine = EngineSettings {
             threads: settings.threads,
             checkpoint_every: settings.checkpoint_every,
@@ -300,7 +325,7 @@ pub fn execute(
             &run.limits,
             &dir.join("checkpoint.bin"),
             &engine,
-            &mut observer,
+            &mut *observer,
         )?;
         if outcome.stop == Some(OrbitStop::Interrupted) {
             return Ok(RunEnd::Interrupted);
@@ -424,7 +449,7 @@ pub fn execute(
             *image = ImageAnswer {
                 finite: Some(false),
                 order: None,
-                route: "witness".into(),
+                route: ImageRoute::Witness,
                 note: Some("a word of infinite projective order (see witness)".into()),
             };
         }

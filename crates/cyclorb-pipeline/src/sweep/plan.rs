@@ -13,7 +13,9 @@ use cyclorb_mcg::GeneratingSet;
 use serde::Deserialize;
 use toml::Spanned;
 
-use cyclorb_pipeline::space::parse_set;
+use crate::method::OrbitMethod;
+use crate::runtime::MAX_THREADS;
+use crate::space::parse_set;
 
 /// The answers a run can compute.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash, Deserialize)]
@@ -37,27 +39,6 @@ impl Answer {
             Answer::Commutant => "commutant",
             Answer::Image => "image",
             Answer::Witness => "witness",
-        }
-    }
-}
-
-/// How a run finds the vacuum orbit.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Deserialize)]
-#[serde(rename_all = "lowercase")]
-pub enum OrbitMethod {
-    /// List every line (the orbit engine), under the run's caps.
-    #[default]
-    Enumerate,
-    /// Count it without listing (`orbit --method structure`; untwisted `dw:` theories).
-    Structure,
-}
-
-impl OrbitMethod {
-    /// The name used in plans and results.
-    pub fn name(self) -> &'static str {
-        match self {
-            OrbitMethod::Enumerate => "enumerate",
-            OrbitMethod::Structure => "structure",
         }
     }
 }
@@ -461,10 +442,10 @@ pub fn parse_plan(path: &Path, source: String) -> Result<Plan, PlanError> {
     let limits = c.limits(&raw.limits, Limits::default())?;
     let threads = c.positive(&raw.threads, "threads")?;
     if let (Some(n), Some(raw_threads)) = (threads, &raw.threads) {
-        if n > crate::cli::MAX_THREADS {
+        if n > MAX_THREADS {
             return Err(c.err(
                 raw_threads.span(),
-                format!("threads must be at most {}", crate::cli::MAX_THREADS),
+                format!("threads must be at most {}", MAX_THREADS),
             ));
         }
     }

@@ -1,13 +1,17 @@
 //! Polynomials for the witness re-check (constant term first), written out plainly: over
-//! Q(ζ_n) (interpolation, products, division by x − 1, the norm to Q) and over Z (products,
-//! remainders by monic polynomials, Φ_m).
+//! Q(ζ_n) (interpolation, products, division by x − 1, the norm to Q) and, over Z, Φ_m and
+//! φ(m). Plain Z[x] arithmetic (products, trimming, primitive parts, exact division) is
+//! cyclorb-field's `int_poly`; Φ_m and φ(m) are computed here by a route of their own (x^m − 1
+//! divided by the Φ_d of its proper divisors, φ by trial division), because the
+//! `no-cyclotomic-factor` claim is only as sound as them and the producer strips its factors
+//! with `int_poly::cyclotomic` (the Möbius product).
 
 use std::collections::HashSet;
 
+use cyclorb_field::int_poly::{self, IntPoly};
 use cyclorb_field::{Cyc, CyclotomicField};
 use num_bigint::BigInt;
-use num_integer::Integer;
-use num_traits::{One, Signed, Zero};
+use num_traits::{One, Zero};
 
 fn err(e: impl ToString) -> String {
     e.to_string()
@@ -94,98 +98,18 @@ pub fn norm_to_z(field: &CyclotomicField, r: &[Cyc]) -> Result<(Vec<BigInt>, usi
                 .ok_or("the product of the conjugates is not rational")?,
         );
     }
-    let denominator = rationals.iter().fold(BigInt::one(), |l, (_, d)| l.lcm(d));
-    let integers: Vec<BigInt> = rationals
-        .iter()
-        .map(|(n, d)| n * (&denominator / d))
-        .collect();
-    Ok((primitive(integers), seen.len()))
+    Ok((int_poly::from_rationals(&rationals), seen.len()))
 }
 
-/// Divided by the gcd of the coefficients, leading coefficient positive.
-fn primitive(p: Vec<BigInt>) -> Vec<BigInt> {
-    let content = p.iter().fold(BigInt::zero(), |g, c| g.gcd(c));
-    if content.is_zero() {
-        return p;
-    }
-    let lead_negative = p
-        .iter()
-        .rev()
-        .find(|c| !c.is_zero())
-        .is_some_and(Signed::is_negative);
-    let divisor = if lead_negative { -content } else { content };
-    p.into_iter().map(|c| c / &divisor).collect()
-}
-
-/// Coefficients given as decimal text; `None` when one is not an integer.
-pub fn integers(texts: &[String]) -> Option<Vec<BigInt>> {
-    texts.iter().map(|t| t.parse().ok()).collect()
-}
-
-/// The degree (−1 for zero is reported as 0 with all coefficients zero).
-pub fn degree(p: &[BigInt]) -> usize {
-    p.iter().rposition(|c| !c.is_zero()).unwrap_or(0)
-}
-
-/// a·b over Z.
-pub fn mul_z(a: &[BigInt], b: &[BigInt]) -> Vec<BigInt> {
-    let mut out = vec![BigInt::zero(); a.len() + b.len() - 1];
-    for (i, x) in a.iter().enumerate() {
-        for (j, y) in b.iter().enumerate() {
-            out[i + j] += x * y;
-        }
-    }
-    out
-}
-
-/// The same polynomial without leading zeros.
-pub fn trimmed(p: &[BigInt]) -> Vec<BigInt> {
-    p[..=degree(p)].to_vec()
-}
-
-/// The remainder of a by a monic b over Z (exact: b is monic).
-pub fn rem_monic(a: &[BigInt], b: &[BigInt]) -> Vec<BigInt> {
-    let b = trimmed(b);
-    let m = b.len() - 1;
-    let mut r = trimmed(a);
-    while r.len() > m && !(r.len() == 1 && r[0].is_zero()) {
-        let top = r.len() - 1;
-        let c = r[top].clone();
-        for (k, bk) in b.iter().enumerate() {
-            r[top - m + k] -= &c * bk;
-        }
-        r.pop();
-    }
-    r
-}
-
-/// Φ_m: x^m − 1 divided by every Φ_d, d a proper divisor of m.
-pub fn cyclotomic(m: u64) -> Vec<BigInt> {
+/// Φ_m (m ≥ 1): x^m − 1 divided exactly by every Φ_d, d a proper divisor of m.
+pub fn cyclotomic(m: u64) -> IntPoly {
     let mut p = vec![BigInt::zero(); m as usize + 1];
     p[0] = -BigInt::one();
     p[m as usize] = BigInt::one();
     for d in (1..m).filter(|d| m % d == 0) {
-        p = exact_quotient(&p, &cyclotomic(d));
+        p = int_poly::div_exact_monic(&p, &cyclotomic(d)).expect("Φ_d divides x^m − 1 for d | m");
     }
     p
-}
-
-/// a / b for a monic b dividing a.
-fn exact_quotient(a: &[BigInt], b: &[BigInt]) -> Vec<BigInt> {
-    let b = trimmed(b);
-    let m = b.len() - 1;
-    let mut r = trimmed(a);
-    let mut q = vec![BigInt::zero(); r.len() - m];
-    while r.len() > m {
-        let top = r.len() - 1;
-        let c = r[top].clone();
-        for (k, bk) in b.iter().enumerate() {
-            r[top - m + k] -= &c * bk;
-        }
-        q[top - m] = c;
-        r.pop();
-    }
-    q
 }
 
 /// Euler's φ(m) by trial division.

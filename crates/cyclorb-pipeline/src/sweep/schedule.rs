@@ -11,10 +11,11 @@ use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use cyclorb_orbit::{Orbit, OrbitProblem, PoincareReport, Seed};
 
 use super::hash::Fnv64;
-use super::plan::{Answer, Entry, Limits, OrbitMethod, Plan, PlanError};
-use cyclorb_pipeline::dw_space::{is_dw, DwSpace};
-use cyclorb_pipeline::proof;
-use cyclorb_pipeline::space::generator_set_file;
+use super::plan::{Answer, Entry, Limits, Plan, PlanError};
+use crate::dw_space::{is_dw, DwSpace};
+use crate::method::OrbitMethod;
+use crate::proof;
+use crate::space::generator_set_file;
 
 /// One run of the sweep: a theory at a genus with its answers and caps.
 pub struct PlannedRun {
@@ -211,6 +212,13 @@ pub fn schedule(plan: &Plan) -> Result<Schedule, PlanError> {
         } else {
             Some(proof::theory(&spec).map_err(refuse)?)
         };
+        if entry.method == OrbitMethod::Product {
+            return Err(refuse(
+                "method \"product\" is not a sweep route (a sweep lists or counts each theory \
+                 itself); use `cyclorb orbit SPEC --method product`"
+                    .into(),
+            ));
+        }
         if theory.is_some() && entry.method == OrbitMethod::Structure {
             return Err(refuse(
                 "method \"structure\" in a sweep counts the orbits of untwisted dw: theories; \
@@ -292,5 +300,14 @@ mod tests {
         assert_eq!(slug("ising*conj(fibonacci)"), "ising-conj-fibonacci");
         assert_eq!(slug("Tricritical-Ising"), "tricritical-ising");
         assert_eq!(slug("::"), "theory");
+    }
+
+    #[test]
+    fn a_product_method_is_refused_naming_the_entry() {
+        let text = "[[theory]]\nspec = \"ising\"\ngenera = [1]\nmethod = \"product\"\n";
+        let plan = super::super::parse_plan(std::path::Path::new("p.toml"), text.into()).unwrap();
+        let e = schedule(&plan).err().expect("refused");
+        assert_eq!(e.location.as_ref().map(|l| l.line), Some(2), "{e}");
+        assert!(e.reason.contains("not a sweep route"), "{e}");
     }
 }

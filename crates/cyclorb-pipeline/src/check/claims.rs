@@ -1,8 +1,9 @@
 //! The claims of a re-check, in the order they were checked, stopping at the first failure.
 
-use serde_json::{json, Value};
+use serde::{Deserialize, Serialize};
 
 /// One claim: its name, whether it held, and how it was re-derived (or why it failed).
+#[derive(Clone, Debug, Serialize, Deserialize, PartialEq, Eq)]
 pub struct Claim {
     /// Short name, e.g. `charpoly`.
     pub name: String,
@@ -59,34 +60,8 @@ impl Claims {
         }
     }
 
-    /// The failed claim, if any.
-    pub fn failed(&self) -> Option<&Claim> {
-        self.list.iter().find(|c| !c.ok)
-    }
-
-    /// The number of claims checked.
-    pub fn count(&self) -> usize {
-        self.list.len()
-    }
-
-    /// One line per claim.
-    pub fn text(&self) -> String {
+    /// The claims checked, in order.
+    pub fn into_list(self) -> Vec<Claim> {
         self.list
-            .iter()
-            .map(|c| {
-                let mark = if c.ok { "ok" } else { "FAILED" };
-                format!("  [{mark}] {}: {}\n", c.name, c.detail)
-            })
-            .collect()
-    }
-
-    /// The claims as a JSON list of {name, ok, detail}.
-    pub fn json(&self) -> Value {
-        Value::Array(
-            self.list
-                .iter()
-                .map(|c| json!({"name": c.name, "ok": c.ok, "detail": c.detail}))
-                .collect(),
-        )
     }
 }

@@ -16,7 +16,7 @@ use super::dw_count::{self, SetStabiliser};
 use super::dw_monomial::projective_order;
 use super::dw_pairs::commutant_dimension;
 use super::{body_as, Claims, Envelope, Stop};
-use cyclorb_pipeline::dw_space::DwSpace;
+use crate::dw_space::DwSpace;
 
 /// Largest group listed element by element.
 const MAX_LISTED: u64 = 200_000;
