@@ -22,13 +22,12 @@
 //! recomputed from the key), that its index grows and its record points to an earlier line
 //! with a generator of the set.
 
-use std::fs::File;
-use std::io::{BufWriter, Write};
+use std::io::Write;
 use std::path::{Path, PathBuf};
 
 use cyclorb_field::Fnv128;
 
-use crate::checkpoint::HashingWriter;
+use crate::checkpoint::{write_hashed, HashingWriter};
 use crate::collective::owner;
 use crate::distributed::DistributedOrbit;
 use crate::engine::Orbit;
@@ -157,23 +156,7 @@ impl OrbitProblem {
         let keys = orbit.local.set.memory_keys().ok_or_else(|| {
             OrbitError::Invalid("a distributed orbit is held in the memory store".into())
         })?;
-        let mut tmp = path.as_os_str().to_owned();
-        tmp.push(".tmp");
-        let tmp = PathBuf::from(tmp);
-        let file = File::create(&tmp).map_err(|e| error(&tmp, e))?;
-        let mut w = HashingWriter {
-            inner: BufWriter::new(file),
-            hash: Fnv128::new(),
-        };
-        self.write_rank_state(orbit, rank, keys, &mut w)
-            .and_then(|()| {
-                let checksum = w.hash.finish().to_le_bytes();
-                w.inner.write_all(&checksum)?;
-                w.inner.flush()
-            })
-            .map_err(|e| error(&tmp, e))?;
-        drop(w);
-        std::fs::rename(&tmp, path).map_err(|e| error(path, e))
+        write_hashed(path, |w| self.write_rank_state(orbit, rank, keys, w))
     }
 
     /// The header, then the lines one by one (nothing of the size of the state is built in
