@@ -9,6 +9,8 @@ mod dw_describe;
 mod envelope;
 mod field;
 mod orbit;
+#[cfg(feature = "mpi")]
+mod orbit_mpi;
 pub mod output;
 mod product;
 mod progress;

@@ -152,7 +152,7 @@ fn poincare_text(p: &PoincareReport) -> String {
     t
 }
 
-fn text_report(report: &OrbitAnswer) -> String {
+pub(super) fn text_report(report: &OrbitAnswer) -> String {
     let mut t = String::new();
     if let Some(theory) = &report.theory {
         t.push_str(&format!("theory {theory}"));
@@ -227,6 +227,10 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
              `cyclorb image --out`"
                 .into(),
         );
+    }
+    #[cfg(feature = "mpi")]
+    if super::orbit_mpi::launched() {
+        return super::orbit_mpi::run(args, as_json, started);
     }
     let completed;
     let args = match &args.resume {
@@ -316,7 +320,7 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
 }
 
 /// The origin of the problem the arguments name (a theory with its genus, or raw files).
-fn origin_of(args: &OrbitArgs) -> Result<Origin, String> {
+pub(super) fn origin_of(args: &OrbitArgs) -> Result<Origin, String> {
     match (&args.matrices, &args.seed, &args.spec) {
         (Some(m), Some(s), _) => Ok(Origin::Files {
             matrices: m.clone(),
@@ -332,7 +336,7 @@ fn origin_of(args: &OrbitArgs) -> Result<Origin, String> {
 }
 
 /// `--resume FILE` alone: the arguments completed with the origin the checkpoint records.
-fn with_origin(args: &OrbitArgs, origin: Origin) -> OrbitArgs {
+pub(super) fn with_origin(args: &OrbitArgs, origin: Origin) -> OrbitArgs {
     let mut out = args.clone();
     match origin {
         Origin::Files { matrices, seed } => {

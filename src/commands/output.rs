@@ -17,6 +17,10 @@ pub enum Outcome {
     Stopped(Report),
     /// The input was invalid: message on stderr (exit 1).
     Invalid(String),
+    /// Another process reports (a rank other than 0 of a distributed run): print nothing,
+    /// exit with this code.
+    #[cfg(feature = "mpi")]
+    Quiet(u8),
 }
 
 /// What a subcommand prints: a JSON object and its human-readable text.
@@ -73,6 +77,20 @@ impl Report {
 }
 
 impl Outcome {
+    /// Print now and keep only the exit code: a distributed run prints before MPI ends,
+    /// since the launcher may end a rank once another has exited.
+    #[cfg(feature = "mpi")]
+    pub fn printed(self) -> Outcome {
+        let code = match &self {
+            Outcome::Done(_) => 0,
+            Outcome::CheckFailed(_) | Outcome::Invalid(_) => 1,
+            Outcome::Stopped(_) => 3,
+            Outcome::Quiet(code) => *code,
+        };
+        let _printed = self.finish();
+        Outcome::Quiet(code)
+    }
+
     /// Print and map to the exit code of the contract.
     pub fn finish(self) -> ExitCode {
         match self {
@@ -92,6 +110,8 @@ impl Outcome {
                 eprintln!("cyclorb: {msg}");
                 ExitCode::from(1)
             }
+            #[cfg(feature = "mpi")]
+            Outcome::Quiet(code) => ExitCode::from(code),
         }
     }
 }

@@ -51,13 +51,13 @@ const COMPACT_VERSION: u32 = 3;
 const MAX_ORIGIN: usize = 1 << 20;
 
 /// A writer that hashes what it writes.
-struct HashingWriter<W: Write> {
+pub(crate) struct HashingWriter<W: Write> {
     inner: W,
     hash: Fnv128,
 }
 
 impl<W: Write> HashingWriter<W> {
-    fn put(&mut self, bytes: &[u8]) -> std::io::Result<()> {
+    pub(crate) fn put(&mut self, bytes: &[u8]) -> std::io::Result<()> {
         self.hash.write(bytes);
         self.inner.write_all(bytes)
     }
@@ -204,27 +204,36 @@ fn io_error(path: &Path, e: impl std::fmt::Display) -> OrbitError {
     }
 }
 
+/// Write a file through `path.tmp` and a rename (a crash while writing leaves the previous
+/// file intact): `body` writes the content, its FNV-1a 128 follows.
+pub(crate) fn write_hashed(
+    path: &Path,
+    body: impl FnOnce(&mut HashingWriter<BufWriter<File>>) -> std::io::Result<()>,
+) -> Result<(), OrbitError> {
+    let mut tmp = path.as_os_str().to_owned();
+    tmp.push(".tmp");
+    let tmp = std::path::PathBuf::from(tmp);
+    let file = File::create(&tmp).map_err(|e| io_error(&tmp, e))?;
+    let mut w = HashingWriter {
+        inner: BufWriter::new(file),
+        hash: Fnv128::new(),
+    };
+    body(&mut w)
+        .and_then(|()| {
+            let checksum = w.hash.finish().to_le_bytes();
+            w.inner.write_all(&checksum)?;
+            w.inner.flush()
+        })
+        .map_err(|e| io_error(&tmp, e))?;
+    drop(w);
+    std::fs::rename(&tmp, path).map_err(|e| io_error(path, e))
+}
+
 impl OrbitProblem {
     /// Write the state of `orbit` to `path` (through `path.tmp` and a rename, so a crash
     /// while writing leaves the previous checkpoint intact).
     pub fn write_checkpoint(&self, orbit: &Orbit, path: &Path) -> Result<(), OrbitError> {
-        let mut tmp = path.as_os_str().to_owned();
-        tmp.push(".tmp");
-        let tmp = std::path::PathBuf::from(tmp);
-        let file = File::create(&tmp).map_err(|e| io_error(&tmp, e))?;
-        let mut w = HashingWriter {
-            inner: BufWriter::new(file),
-            hash: Fnv128::new(),
-        };
-        self.write_state(orbit, &mut w)
-            .map_err(|e| io_error(&tmp, e))?;
-        let checksum = w.hash.finish().to_le_bytes();
-        w.inner
-            .write_all(&checksum)
-            .and_then(|_| w.inner.flush())
-            .map_err(|e| io_error(&tmp, e))?;
-        drop(w);
-        std::fs::rename(&tmp, path).map_err(|e| io_error(path, e))
+        write_hashed(path, |w| self.write_state(orbit, w))
     }
 
     fn write_state<W: Write>(

@@ -362,7 +362,7 @@ impl OrbitProblem {
         Ok(orbit)
     }
 
-    fn should_stop(
+    pub(crate) fn should_stop(
         &self,
         orbit: &Orbit,
         options: &OrbitOptions,
@@ -409,7 +409,7 @@ impl OrbitProblem {
 
     /// Images of the chunk's elements that are not stored yet, in (element, generator)
     /// order, computed on as many threads as there are workspaces.
-    fn expand_chunk(
+    pub(crate) fn expand_chunk(
         &self,
         set: &LineStore,
         chunk: Range<usize>,

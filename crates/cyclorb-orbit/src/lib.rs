@@ -79,10 +79,12 @@
 #![deny(missing_docs)]
 
 mod checkpoint;
+mod collective;
 pub use checkpoint::checkpoint_origin;
 mod commutant;
 mod compact;
 mod compiled;
+mod distributed;
 mod engine;
 mod error;
 mod fingerprint;
@@ -95,6 +97,7 @@ mod pairs;
 mod poincare;
 mod poly;
 mod problem;
+mod rank_checkpoint;
 mod regenerate;
 mod report;
 mod set;
@@ -103,8 +106,11 @@ mod spill;
 mod step;
 mod store;
 mod sum;
+mod wire;
 
+pub use collective::{gather_numbers, Collective};
 pub use commutant::{Decomposition, InvariantTerm};
+pub use distributed::DistributedOrbit;
 pub use engine::{
     CheckpointPlan, Orbit, OrbitOptions, Progress, ProgressObserver, Silent, StopReason,
 };
@@ -115,5 +121,6 @@ pub use invertible::MAX_DENSE_PROOF;
 pub use pairs::{pair_orbit, PairOrbit};
 pub use poincare::PoincareSum;
 pub use problem::OrbitProblem;
+pub use rank_checkpoint::{rank_checkpoint_origin, rank_checkpoint_path};
 pub use report::{InvariantReport, LabelledEntry, ModularInvariantReport, PoincareReport};
 pub use set::StoreKind;

@@ -65,12 +65,7 @@ impl OrbitProblem {
                 "the Poincaré sum needs a saturated orbit".into(),
             ));
         }
-        if let Some(g) = self.generators.first_non_unitary(&self.field)? {
-            return Err(OrbitError::Invalid(format!(
-                "generator {} does not preserve the invariant form (X†GX ≠ G)",
-                self.generators.names[g]
-            )));
-        }
+        self.check_unitary()?;
         let field = &self.field;
         let g = self.generators.form_diagonal(field);
         let norm = self.form_norm(&self.seed, &g)?;
@@ -96,11 +91,35 @@ impl OrbitProblem {
                 b
             }
         };
+        self.conclude_sum(b, &g, norm, orbit.len())
+    }
+
+    /// An error naming the first generator that does not preserve G: then B is not a sum
+    /// over a group orbit of vectors of one norm.
+    pub(crate) fn check_unitary(&self) -> Result<(), OrbitError> {
+        match self.generators.first_non_unitary(&self.field)? {
+            Some(g) => Err(OrbitError::Invalid(format!(
+                "generator {} does not preserve the invariant form (X†GX ≠ G)",
+                self.generators.names[g]
+            ))),
+            None => Ok(()),
+        }
+    }
+
+    /// The checks and the reading of B summed over `size` lines of G-norm `norm`: the
+    /// trace check, λ when B = λ·G⁻¹, else the decomposition over the invariants.
+    pub(crate) fn conclude_sum(
+        &self,
+        b: Matrix,
+        g: &[Cyc],
+        norm: Cyc,
+        size: usize,
+    ) -> Result<PoincareSum, OrbitError> {
+        let field = &self.field;
         let d = self.dimension();
-        let size = orbit.len();
         let trace = field.dot((0..d).map(|i| (b.get(i, i), &g[i])))?;
         let trace_check = trace == field.mul(&field.int(size as i64), &norm)?;
-        let scalar = scalar_of(field, &b, &g)?;
+        let scalar = scalar_of(field, &b, g)?;
         let decomposition = match scalar {
             Some(_) => None,
             None => decompose(field, &self.generators, &b, MAX_COMMUTANT_UNKNOWNS)?,

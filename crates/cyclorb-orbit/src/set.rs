@@ -19,7 +19,7 @@ use crate::key::KeyNumbers;
 use crate::numerators::Numerators;
 use crate::problem::OrbitProblem;
 use crate::step::Workspace;
-use crate::store::{OrbitSet, StoredKey};
+use crate::store::{KeyArena, OrbitSet, StoredKey};
 
 /// Which store holds the lines of an enumeration (the answer never depends on it).
 #[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Serialize, Deserialize)]
@@ -130,6 +130,14 @@ impl LineStore {
         match self {
             LineStore::Memory(s) => s.insert(key, fingerprint as u32, parent, generator),
             LineStore::Compact(s) => s.insert(key, fingerprint, parent, generator as u8),
+        }
+    }
+
+    /// The keys of the memory store (`None` for the compact store, which holds a window).
+    pub(crate) fn memory_keys(&self) -> Option<&KeyArena> {
+        match self {
+            LineStore::Memory(s) => Some(&s.keys),
+            LineStore::Compact(_) => None,
         }
     }
 

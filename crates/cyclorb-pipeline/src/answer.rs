@@ -6,7 +6,9 @@
 use std::fmt;
 use std::time::Duration;
 
-use cyclorb_orbit::{Orbit, OrbitProblem, PoincareReport, PoincareSum, StopReason};
+use cyclorb_orbit::{
+    DistributedOrbit, Orbit, OrbitProblem, PoincareReport, PoincareSum, StopReason,
+};
 use num_bigint::BigUint;
 use serde::{Deserialize, Deserializer, Serialize, Serializer};
 
@@ -240,6 +242,10 @@ pub struct OrbitAnswer {
     pub words: Option<Vec<LineWord>>,
 }
 
+/// What an answer reads from a listed orbit (one process or many ranks): size, saturation,
+/// stop reason, layer sizes.
+type Listed = (usize, bool, Option<StopReason>, Vec<usize>);
+
 /// A listed line and the word of generators that reaches it from the seed (the first
 /// generator applied first: the line is X_k ⋯ X_1 · v₀ for the word X_1 … X_k).
 #[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
@@ -260,8 +266,51 @@ impl OrbitAnswer {
         poincare: Result<&PoincareSum, String>,
         elapsed: Duration,
     ) -> OrbitAnswer {
+        let store = StoreFigures {
+            compute_seconds: orbit.compute_seconds(),
+            store_bytes: orbit.store_bytes(),
+            bytes_per_element: orbit.bytes_per_element(),
+            numerator_width: orbit.numerator_width(),
+            store_kind: orbit.store_kind().name().into(),
+            window_bytes: orbit.window_bytes(),
+        };
+        let listed = (
+            orbit.len(),
+            orbit.is_saturated(),
+            orbit.stop_reason(),
+            orbit.layer_sizes(),
+        );
+        Self::listed(problem, listed, poincare, store, elapsed)
+    }
+
+    /// The answer of the enumerating route run over ranks: the figures every rank agrees
+    /// on, B reduced to this rank (rank 0), and the store figures of all ranks together.
+    pub fn distributed(
+        problem: &OrbitProblem,
+        orbit: &DistributedOrbit,
+        poincare: Result<&PoincareSum, String>,
+        store: StoreFigures,
+        elapsed: Duration,
+    ) -> OrbitAnswer {
+        let listed = (
+            orbit.len(),
+            orbit.is_saturated(),
+            orbit.stop_reason(),
+            orbit.layer_sizes(),
+        );
+        Self::listed(problem, listed, poincare, store, elapsed)
+    }
+
+    /// The answer from a listing's size, saturation, stop reason and layer sizes.
+    fn listed(
+        problem: &OrbitProblem,
+        (size, saturated, stop_reason, layer_sizes): Listed,
+        poincare: Result<&PoincareSum, String>,
+        store: StoreFigures,
+        elapsed: Duration,
+    ) -> OrbitAnswer {
         let g = problem.generators();
-        let poincare_sum = if !orbit.is_saturated() {
+        let poincare_sum = if !saturated {
             PoincareReport::missing("the orbit is not saturated")
         } else {
             match poincare {
@@ -277,21 +326,14 @@ impl OrbitAnswer {
             generators: g.operators.len(),
             generator_names: g.names.clone(),
             method: OrbitMethod::Enumerate,
-            orbit_size: Some(Count::from(orbit.len())),
-            saturated: orbit.is_saturated(),
-            stop_reason: orbit.stop_reason(),
-            layer_sizes: Some(orbit.layer_sizes()),
+            orbit_size: Some(Count::from(size)),
+            saturated,
+            stop_reason,
+            layer_sizes: Some(layer_sizes),
             poincare_sum,
             elapsed_seconds: elapsed.as_secs_f64(),
             peak_memory_bytes: None,
-            store: Some(StoreFigures {
-                compute_seconds: orbit.compute_seconds(),
-                store_bytes: orbit.store_bytes(),
-                bytes_per_element: orbit.bytes_per_element(),
-                numerator_width: orbit.numerator_width(),
-                store_kind: orbit.store_kind().name().into(),
-                window_bytes: orbit.window_bytes(),
-            }),
+            store: Some(store),
             count: None,
             product: None,
             words: None,

@@ -9,11 +9,12 @@ use std::path::{Path, PathBuf};
 use std::time::Duration;
 
 use cyclorb_orbit::{
-    checkpoint_origin, GeneratorSet, Orbit, OrbitOptions, OrbitProblem, ProgressObserver, Seed,
+    checkpoint_origin, gather_numbers, Collective, DistributedOrbit, GeneratorSet, Orbit,
+    OrbitOptions, OrbitProblem, ProgressObserver, Seed,
 };
 use serde_json::json;
 
-use crate::answer::{LineWord, OrbitAnswer};
+use crate::answer::{LineWord, OrbitAnswer, StoreFigures};
 use crate::dw_space::{is_dw, DwSpace};
 use crate::{proof, runtime, space};
 
@@ -72,7 +73,13 @@ impl Origin {
                      --genus G (and --set) as when it was written"
                 )
             })?;
-        let v: serde_json::Value = serde_json::from_str(&origin)
+        Origin::from_recorded(&place.to_string(), &origin)
+    }
+
+    /// The origin from the text a checkpoint recorded ([`Origin::to_json`]); `place` names
+    /// the checkpoint in errors.
+    pub fn from_recorded(place: &str, origin: &str) -> Result<Origin, String> {
+        let v: serde_json::Value = serde_json::from_str(origin)
             .map_err(|e| format!("{place}: the recorded origin is not JSON: {e}"))?;
         match (
             v["matrices"].as_str(),
@@ -180,6 +187,72 @@ impl Listing {
             answer.poincare_sum = space.poincare_report(orbit.len());
         }
         answer
+    }
+
+    /// List the orbit over the ranks of `comm` (every rank calls this; docs/orbits.md §6):
+    /// from the start, or continuing the rank checkpoints `resume.rankR`.
+    pub fn run_distributed(
+        &self,
+        comm: &dyn Collective,
+        options: &OrbitOptions,
+        resume: Option<&Path>,
+        progress: &mut dyn ProgressObserver,
+    ) -> Result<DistributedOrbit, String> {
+        match resume {
+            Some(base) => self
+                .problem
+                .resume_distributed(base, comm, options, progress),
+            None => self.problem.enumerate_distributed(comm, options, progress),
+        }
+        .map_err(|e| e.to_string())
+    }
+
+    /// The answer of an orbit listed over ranks, as [`Self::answer`] gives it for one
+    /// process: every rank calls this (B and the store figures are reduced over the ranks)
+    /// and rank 0 gets `Some`. Store figures are those of all ranks together.
+    pub fn answer_distributed(
+        &self,
+        orbit: &DistributedOrbit,
+        comm: &dyn Collective,
+        threads: usize,
+        elapsed: Duration,
+    ) -> Option<OrbitAnswer> {
+        let dense = self.dw.as_ref().map_or(true, DwSpace::is_twisted);
+        let sum = (orbit.is_saturated() && dense).then(|| {
+            self.problem
+                .poincare_sum_distributed(orbit, comm, threads)
+                .map_err(|e| e.to_string())
+        });
+        let figures = gather_numbers(
+            comm,
+            &[
+                orbit.local_store_bytes() as u64,
+                orbit.numerator_width() as u64,
+            ],
+        );
+        if comm.rank() != 0 {
+            return None;
+        }
+        let store_bytes = figures.iter().map(|f| f[0] as usize).sum::<usize>();
+        let store = StoreFigures {
+            compute_seconds: orbit.compute_seconds(),
+            store_bytes,
+            bytes_per_element: store_bytes as f64 / orbit.len().max(1) as f64,
+            numerator_width: figures.iter().map(|f| f[1] as usize).max().unwrap_or(1),
+            store_kind: "memory".into(),
+            window_bytes: 0,
+        };
+        let poincare = match &sum {
+            Some(Ok(Some(s))) => Ok(s),
+            Some(Ok(None)) => Err("the sum was reduced to another rank".to_string()),
+            Some(Err(e)) => Err(e.clone()),
+            None => Err("the orbit is not saturated".to_string()),
+        };
+        let mut answer = OrbitAnswer::distributed(&self.problem, orbit, poincare, store, elapsed);
+        if let (Some(space), true, false) = (&self.dw, orbit.is_saturated(), dense) {
+            answer.poincare_sum = space.poincare_report(orbit.len());
+        }
+        Some(answer)
     }
 
     /// The words of the `count` lines found last (farthest from the seed first), or `None`

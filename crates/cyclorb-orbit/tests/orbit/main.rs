@@ -3,6 +3,7 @@
 //! against an outside value names its source beside it.
 
 mod common;
+mod distributed;
 mod formats;
 mod groups;
 mod ising;

@@ -1,0 +1,313 @@
+//! Checkpoints of a distributed enumeration: one file per rank, `BASE.rankR`, written by
+//! every rank at the same finished layer (or at a stop), so that the job resumes with the
+//! same number of ranks to the identical answer.
+//!
+//! Layout (integers little-endian unless said; "varint" is LEB128):
+//!
+//! | field | bytes |
+//! | --- | --- |
+//! | magic `CYCORBRK`, format version 1 | 8 + u32 |
+//! | length of the origin text (0: none), then its UTF-8 bytes (as in the one-process checkpoint) | u32 + bytes |
+//! | conductor n, dimension d, degree φ(n), number of generators | 4 × u32 |
+//! | content hash of generators and seed ([`OrbitProblem::content_hash`]) | u128 |
+//! | ranks R, this rank r | 2 × u32 |
+//! | lines of all ranks, global layer ends (count, then each) | u64 + u64 + … |
+//! | this rank's lines N, frontier start, local layer ends (count, then each) | 3 × u64 + … |
+//! | compute seconds so far | f64 bits as u64 |
+//! | per line: its global index (varint), then the wire form of the `wire` module with the order key (parent's global index · 2¹⁶ + generator) and 0 for the fingerprint | … |
+//! | FNV-1a 128 of every byte above | u128 |
+//!
+//! Reading checks the checksum first, then that the header is this problem's, that the file
+//! is this rank's of R, and for every line that this rank owns it (its fingerprint is
+//! recomputed from the key), that its index grows and its record points to an earlier line
+//! with a generator of the set.
+
+use std::io::Write;
+use std::path::{Path, PathBuf};
+
+use cyclorb_field::Fnv128;
+
+use crate::checkpoint::{write_hashed, HashingWriter};
+use crate::collective::owner;
+use crate::distributed::DistributedOrbit;
+use crate::engine::Orbit;
+use crate::error::OrbitError;
+use crate::problem::OrbitProblem;
+use crate::set::{LineStore, StoreKind};
+use crate::store::KeyArena;
+use crate::wire::{encode, put_varint, Reader};
+
+const MAGIC: &[u8; 8] = b"CYCORBRK";
+const VERSION: u32 = 1;
+
+/// The checkpoint file of `rank`: `BASE.rankR`.
+pub fn rank_checkpoint_path(base: &Path, rank: usize) -> PathBuf {
+    let mut name = base.as_os_str().to_owned();
+    name.push(format!(".rank{rank}"));
+    PathBuf::from(name)
+}
+
+fn error(path: &Path, reason: impl std::fmt::Display) -> OrbitError {
+    OrbitError::Checkpoint {
+        path: path.display().to_string(),
+        reason: reason.to_string(),
+    }
+}
+
+/// A cursor over the fixed-width fields of a checkpoint held in memory.
+struct Fields<'a> {
+    bytes: &'a [u8],
+    at: usize,
+}
+
+impl Fields<'_> {
+    fn take(&mut self, len: usize) -> Result<&[u8], String> {
+        let end = self.at.checked_add(len).filter(|&e| e <= self.bytes.len());
+        let end = end.ok_or_else(|| format!("truncated at byte {}", self.at))?;
+        let part = &self.bytes[self.at..end];
+        self.at = end;
+        Ok(part)
+    }
+
+    fn u32(&mut self) -> Result<u32, String> {
+        Ok(u32::from_le_bytes(
+            self.take(4)?.try_into().expect("4 bytes"),
+        ))
+    }
+
+    fn u64(&mut self) -> Result<u64, String> {
+        Ok(u64::from_le_bytes(
+            self.take(8)?.try_into().expect("8 bytes"),
+        ))
+    }
+
+    /// A count or index no larger than `max`.
+    fn count(&mut self, max: u64, what: &str) -> Result<usize, String> {
+        let x = self.u64()?;
+        if x > max {
+            return Err(format!("{what} {x} is out of range"));
+        }
+        Ok(x as usize)
+    }
+
+    /// A non-decreasing list of ends, each at most `max`.
+    fn ends(&mut self, max: usize, what: &str) -> Result<Vec<usize>, String> {
+        let n = self.count(max as u64 + 1, what)?;
+        let mut ends = Vec::with_capacity(n);
+        for _ in 0..n {
+            let e = self.count(max as u64, what)?;
+            if ends.last().is_some_and(|&last| e < last) {
+                return Err(format!("{what} decrease"));
+            }
+            ends.push(e);
+        }
+        Ok(ends)
+    }
+}
+
+/// The origin text recorded in rank checkpoint `path` (`None` when none was recorded).
+pub fn rank_checkpoint_origin(path: &Path) -> Result<Option<String>, OrbitError> {
+    let bytes = checked_bytes(path)?;
+    let mut f = Fields {
+        bytes: &bytes,
+        at: 0,
+    };
+    read_origin(&mut f).map_err(|e| error(path, e))
+}
+
+/// The file's bytes before its checksum, after checking the checksum.
+fn checked_bytes(path: &Path) -> Result<Vec<u8>, OrbitError> {
+    let mut bytes = std::fs::read(path).map_err(|e| error(path, e))?;
+    if bytes.len() < 16 {
+        return Err(error(path, "too short to be a rank checkpoint"));
+    }
+    let tail = bytes.split_off(bytes.len() - 16);
+    let mut hash = Fnv128::new();
+    hash.write(&bytes);
+    if hash.finish().to_le_bytes()[..] != tail[..] {
+        return Err(error(path, "checksum mismatch: the file is damaged"));
+    }
+    Ok(bytes)
+}
+
+fn read_origin(f: &mut Fields<'_>) -> Result<Option<String>, String> {
+    if f.take(8)? != MAGIC {
+        return Err("not a rank checkpoint of cyclorb".into());
+    }
+    let version = f.u32()?;
+    if version != VERSION {
+        return Err(format!(
+            "rank checkpoint version {version}, expected {VERSION}"
+        ));
+    }
+    let len = f.u32()? as usize;
+    let text = std::str::from_utf8(f.take(len)?).map_err(|_| "the origin is not UTF-8")?;
+    Ok((len > 0).then(|| text.to_string()))
+}
+
+impl OrbitProblem {
+    /// Write this rank's state to `path` (through `path.tmp` and a rename).
+    pub(crate) fn write_rank_checkpoint(
+        &self,
+        orbit: &DistributedOrbit,
+        rank: usize,
+        path: &Path,
+    ) -> Result<(), OrbitError> {
+        let keys = orbit.local.set.memory_keys().ok_or_else(|| {
+            OrbitError::Invalid("a distributed orbit is held in the memory store".into())
+        })?;
+        write_hashed(path, |w| self.write_rank_state(orbit, rank, keys, w))
+    }
+
+    /// The header, then the lines one by one (nothing of the size of the state is built in
+    /// memory).
+    fn write_rank_state<W: Write>(
+        &self,
+        orbit: &DistributedOrbit,
+        rank: usize,
+        keys: &KeyArena,
+        w: &mut HashingWriter<W>,
+    ) -> std::io::Result<()> {
+        let mut b = Vec::new();
+        b.extend_from_slice(MAGIC);
+        b.extend_from_slice(&VERSION.to_le_bytes());
+        let origin = self.origin.as_deref().unwrap_or("");
+        b.extend_from_slice(&(origin.len() as u32).to_le_bytes());
+        b.extend_from_slice(origin.as_bytes());
+        for x in self.header() {
+            b.extend_from_slice(&x.to_le_bytes());
+        }
+        b.extend_from_slice(&self.content_hash().to_le_bytes());
+        b.extend_from_slice(&(orbit.ranks as u32).to_le_bytes());
+        b.extend_from_slice(&(rank as u32).to_le_bytes());
+        let put_ends = |b: &mut Vec<u8>, ends: &[usize]| {
+            b.extend_from_slice(&(ends.len() as u64).to_le_bytes());
+            for &e in ends {
+                b.extend_from_slice(&(e as u64).to_le_bytes());
+            }
+        };
+        b.extend_from_slice(&(orbit.total as u64).to_le_bytes());
+        put_ends(&mut b, &orbit.layer_ends);
+        b.extend_from_slice(&(orbit.local.len() as u64).to_le_bytes());
+        b.extend_from_slice(&(orbit.local.processed as u64).to_le_bytes());
+        put_ends(&mut b, &orbit.local.layer_ends);
+        b.extend_from_slice(&orbit.local.compute_seconds.to_bits().to_le_bytes());
+        w.put(&b)?;
+        for (i, (index, parent, generator)) in orbit.local_records().enumerate() {
+            b.clear();
+            put_varint(&mut b, u64::from(index));
+            let order = u64::from(parent) << 16 | u64::from(generator);
+            encode(&mut b, order, 0, &keys.key(i));
+            w.put(&b)?;
+        }
+        Ok(())
+    }
+
+    /// Read rank `rank`'s checkpoint of a job of `ranks` ranks.
+    pub(crate) fn read_rank_checkpoint(
+        &self,
+        path: &Path,
+        ranks: usize,
+        rank: usize,
+    ) -> Result<DistributedOrbit, OrbitError> {
+        let bytes = checked_bytes(path)?;
+        let mut f = Fields {
+            bytes: &bytes,
+            at: 0,
+        };
+        self.read_rank_state(&mut f, ranks, rank)
+            .map_err(|e| error(path, e))
+    }
+
+    fn header(&self) -> [u32; 4] {
+        [
+            self.generators.conductor,
+            self.generators.dimension as u32,
+            self.kernel.degree() as u32,
+            self.generators.operators.len() as u32,
+        ]
+    }
+
+    fn read_rank_state(
+        &self,
+        f: &mut Fields<'_>,
+        ranks: usize,
+        rank: usize,
+    ) -> Result<DistributedOrbit, String> {
+        read_origin(f)?;
+        let header = [f.u32()?, f.u32()?, f.u32()?, f.u32()?];
+        if header != self.header() {
+            return Err(format!(
+                "written for another problem (conductor, dimension, degree, generators {header:?})"
+            ));
+        }
+        let hash = u128::from_le_bytes(f.take(16)?.try_into().expect("16 bytes"));
+        if hash != self.content_hash() {
+            return Err("written for other generators or another seed".into());
+        }
+        let (their_ranks, their_rank) = (f.u32()? as usize, f.u32()? as usize);
+        if (their_ranks, their_rank) != (ranks, rank) {
+            return Err(format!(
+                "written by rank {their_rank} of {their_ranks}; resume with the same number of \
+                 ranks (mpirun -n {their_ranks})"
+            ));
+        }
+        let total = f.count(u64::from(u32::MAX), "line count")?;
+        let layer_ends = f.ends(total, "global layer ends")?;
+        let n = f.count(total as u64, "local line count")?;
+        let processed = f.count(n as u64, "frontier start")?;
+        let local_ends = f.ends(n, "local layer ends")?;
+        let compute_seconds = f64::from_bits(f.u64()?);
+        let mut set = LineStore::new(StoreKind::Memory, self.dimension(), self.kernel.degree());
+        let mut global = Vec::with_capacity(n);
+        let generators = self.generators.operators.len() as u64;
+        let mut reader = Reader::new(&f.bytes[f.at..], self.key_len(), format!("rank {rank}"));
+        for i in 0..n {
+            let index = reader.varint().map_err(|e| e.to_string())?;
+            let line = reader
+                .next_candidate()
+                .map_err(|e| e.to_string())?
+                .ok_or_else(|| format!("{n} lines announced, {i} found"))?;
+            let (parent, generator) = (line.order >> 16, line.order & 0xffff);
+            let seed = index == 0 && parent == u64::from(u32::MAX) && generator == 0xffff;
+            let grows = global
+                .last()
+                .map_or(true, |&last: &u32| index > u64::from(last));
+            if index >= total as u64
+                || !grows
+                || !(seed || parent < index && generator < generators)
+            {
+                return Err(format!(
+                    "line {i}: bad index {index} or record ({parent}, {generator})"
+                ));
+            }
+            let fingerprint = self.key_fingerprint(&line.key, false);
+            if owner(fingerprint, ranks) != rank {
+                return Err(format!("line {i} belongs to another rank"));
+            }
+            set.insert(&line.key, fingerprint, parent as u32, generator as u16);
+            global.push(index as u32);
+        }
+        if !reader.at_end() {
+            return Err("unexpected bytes after the lines".into());
+        }
+        if local_ends.last().is_some_and(|&e| e > n) || local_ends.last() < Some(&processed) {
+            return Err("the frontier lies outside the local layers".into());
+        }
+        Ok(DistributedOrbit {
+            local: Orbit {
+                set,
+                processed,
+                layer_ends: local_ends,
+                stop: None,
+                compute_seconds,
+            },
+            global,
+            layer_ends,
+            total,
+            ranks,
+            saturated: false,
+            stop: None,
+        })
+    }
+}
