@@ -66,7 +66,7 @@ impl ProductOf for cyclorb_field::CyclotomicField {
 }
 
 #[test]
-fn fibonacci_weights_give_the_form_of_math_md() {
+fn fibonacci_weights_give_the_genus_two_form_of_the_conventions() {
     // docs/conventions.md §4: at genus 2, G = diag(1, 1, 1, 1, φ⁻¹), φ⁻¹ on a0 = a1 = b0 = b1 = τ.
     let t = load("fibonacci");
     let f = t.field();
