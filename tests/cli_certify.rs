@@ -210,7 +210,7 @@ fn an_image_certificate_file_is_rechecked_from_the_generators() {
     // seeds) and the permutations by digests; rebuilding the lines from `cyclorb twists
     // --out` and re-running cyclorb-cert's `verify` must accept it, and a changed order must
     // be rejected.
-    use cyclorb_cert::{GeneratorSet as CertSet, ImageOptions, PermutationImageCertificate};
+    use cyclorb_cert::{ImageOptions, PermutationImageCertificate};
     use cyclorb_orbit::{GeneratorSet, OrbitOptions, OrbitProblem, Seed, Silent};
 
     let cert_path = common::temp_path("zn32-image.json");
@@ -237,8 +237,8 @@ fn an_image_certificate_file_is_rechecked_from_the_generators() {
         serde_json::from_str(&std::fs::read_to_string(&cert_path).unwrap()).unwrap();
     let cert: PermutationImageCertificate = serde_json::from_value(file.clone()).unwrap();
     let generators = GeneratorSet::read(&gens_path).unwrap();
-    let field = generators.field().unwrap();
-    let d = generators.dimension;
+    let field = generators.field().clone();
+    let d = generators.dimension();
     let mut seeds = vec![Seed::basis_vector(&field, d, 0)];
     for name in file["added_orbits"].as_array().unwrap() {
         let i: usize = name
@@ -259,13 +259,7 @@ fn an_image_certificate_file_is_rechecked_from_the_generators() {
         assert!(orbit.is_saturated());
         lines.extend((0..orbit.len()).map(|k| problem.line(&orbit, k).unwrap()));
     }
-    let named = generators.names.iter().cloned();
-    let gens = CertSet::new(
-        field,
-        named.zip(generators.operators.iter().cloned()).collect(),
-        generators.form.clone(),
-    )
-    .unwrap();
+    let gens = generators.prove().unwrap();
     let options = ImageOptions::default();
     cert.verify(&gens, &lines, &options).unwrap();
     let mut wrong = cert;

@@ -250,7 +250,7 @@ fn library_mutants(failures: &mut Vec<String>) -> Vec<(String, usize, usize)> {
         let Ok(gens) = GeneratorSet::from_json(&String::from_utf8_lossy(m), "mutant") else {
             return false;
         };
-        if gens.validate().is_err() || gens.prove_invertible().is_err() {
+        if gens.prove_invertible().is_err() {
             return false;
         }
         match OrbitProblem::new(gens, &base_seed) {

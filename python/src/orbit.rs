@@ -209,7 +209,10 @@ pub fn orbit<'py>(
     answer.words = listing.farthest_words(&orbit, words);
     let value = answer_value(py, &answer)?;
     let dict = value.cast::<PyDict>()?;
-    dict.set_item("basis", listing.problem().generators().basis_labels.clone())?;
+    dict.set_item(
+        "basis",
+        listing.problem().generators().basis_labels().to_vec(),
+    )?;
     if let Some(p) = &path {
         if orbit.is_saturated() {
             if named.is_none() {

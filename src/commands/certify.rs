@@ -4,7 +4,7 @@
 use std::path::Path;
 
 use cyclorb_cert::{
-    commutant as commutant_cert, polynomial_text, CommutantOptions, GeneratorSet as CertSet,
+    commutant as commutant_cert, polynomial_text, CommutantOptions, ProvedGenerators,
     WitnessCertificate, WitnessOptions,
 };
 use cyclorb_mcg::BlockSpace;
@@ -20,7 +20,7 @@ use super::output::{Outcome, Report};
 use crate::cli::{CertArgs, ImageArgs, SpaceArgs, WitnessArgs};
 
 /// The block space and its generators as a certificate input.
-pub(super) fn load(args: &CertArgs) -> Result<(BlockSpace, CertSet), String> {
+pub(super) fn load(args: &CertArgs) -> Result<(BlockSpace, ProvedGenerators), String> {
     let set = parse_set(&args.space.set)?;
     let space = build_space(&args.space.spec, args.space.genus)?;
     let cert = cert_generators(&space, set)?;

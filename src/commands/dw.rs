@@ -103,8 +103,11 @@ pub fn twists(args: &TwistsArgs, as_json: bool) -> Outcome {
         value["relations"] = json!(checks);
     }
     if let Some(path) = &args.out {
-        if let Err(e) = space.generator_set().write(path) {
-            return Outcome::Invalid(format!("{}: {e}", path.display()));
+        let written = space
+            .generator_set()
+            .and_then(|set| set.write(path).map_err(|e| e.to_string()));
+        if let Err(e) = written {
+            return Outcome::Invalid(e);
         }
         text.push_str(&format!("generators written to {}\n", path.display()));
         value["out"] = json!(path.display().to_string());

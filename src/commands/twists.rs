@@ -7,7 +7,7 @@ use serde_json::json;
 
 use super::output::{Outcome, Report};
 use crate::cli::TwistsArgs;
-use cyclorb_pipeline::space::{build_space, generator_set_file, parse_set};
+use cyclorb_pipeline::space::{build_space, parse_set};
 
 fn kind(op: &Operator) -> String {
     match op {
@@ -94,9 +94,12 @@ pub fn run(args: &TwistsArgs, as_json: bool) -> Outcome {
         json["relations"] = json!(checks);
     }
     if let Some(path) = &args.out {
-        let file = generator_set_file(&space, &gens);
+        let file = match space.generator_set(&gens) {
+            Ok(file) => file,
+            Err(e) => return Outcome::Invalid(e.to_string()),
+        };
         if let Err(e) = file.write(path) {
-            return Outcome::Invalid(format!("{}: {e}", path.display()));
+            return Outcome::Invalid(e.to_string());
         }
         text.push_str(&format!("generators written to {}\n", path.display()));
         json["out"] = json!(path.display().to_string());

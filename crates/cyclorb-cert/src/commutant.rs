@@ -21,8 +21,8 @@ use cyclorb_matrix::{
 use serde::{Deserialize, Serialize};
 
 use crate::error::{require, CertError};
-use crate::generators::GeneratorSet;
 use crate::hermitian::{g_adjoint, independent_subset, self_adjoint_basis};
+use cyclorb_matrix::ProvedGenerators;
 
 /// Further prime indices tried when a prime divides a denominator of the generators.
 const SPARE_PRIMES: usize = 8;
@@ -91,9 +91,9 @@ impl CommutantCertificate {
     /// Re-derive the certificate from the generators: the basis commutes and is
     /// independent (dimension ≥ k), a recorded prime again gives nullity k, or the exact
     /// nullity is k (dimension ≤ k), and the self-adjoint basis is sound.
-    pub fn verify(&self, gens: &GeneratorSet) -> Result<(), CertError> {
+    pub fn verify(&self, gens: &ProvedGenerators) -> Result<(), CertError> {
         let field = gens.field();
-        gens.require_conductor(self.conductor)?;
+        crate::error::require_conductor(gens, self.conductor)?;
         require(
             self.basis.len() == self.dimension && self.dimension >= 1,
             || {
@@ -142,7 +142,7 @@ impl CommutantCertificate {
 
 /// Every matrix commutes with every generator, and they are linearly independent.
 fn check_commuting_independent(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     matrices: &[Matrix],
     what: &str,
 ) -> Result<(), CertError> {
@@ -166,7 +166,7 @@ fn rows_of(m: &Matrix) -> Rows<cyclorb_field::Cyc> {
 
 /// The generators mod p; `None` when p divides a denominator.
 fn reduced_generators(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     reduction: &PrimeReduction,
 ) -> Result<Option<Vec<Rows<u64>>>, CertError> {
     let mut out = Vec::with_capacity(gens.len());
@@ -182,7 +182,7 @@ fn reduced_generators(
 
 /// The nullity mod p of the commutant system (stopping at 1), with the cut used.
 fn modular_bound(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     reduction: &PrimeReduction,
 ) -> Result<SolvedCommutant<u64>, CertError> {
     let rows = reduced_generators(gens, reduction)?.ok_or_else(|| {
@@ -214,7 +214,7 @@ fn solve<S: cyclorb_matrix::ScalarField>(
 }
 
 fn exact_solve(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     candidates: Option<&[usize]>,
     want: Want,
 ) -> Result<SolvedCommutant<cyclorb_field::Cyc>, CertError> {
@@ -239,7 +239,7 @@ fn matrix_of(rows: Rows<cyclorb_field::Cyc>) -> Result<Matrix, CertError> {
 /// generator (checked), and a prime of nullity equal to its size, or the exact nullity,
 /// bounds the dimension from above.
 pub fn commutant(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     options: CommutantOptions,
 ) -> Result<CommutantCertificate, CertError> {
     let field: &CyclotomicField = gens.field();

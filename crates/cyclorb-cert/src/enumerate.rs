@@ -13,8 +13,8 @@ use hashbrown::HashSet;
 use serde::{Deserialize, Serialize};
 
 use crate::error::{require, CertError};
-use crate::generators::GeneratorSet;
 use crate::projective::projective_matrix;
+use cyclorb_matrix::ProvedGenerators;
 
 /// The order of the projective image, found by enumeration.
 #[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
@@ -47,7 +47,7 @@ pub enum ImageEnumeration {
 /// generator. For a finite image the closure is the group (inverses are positive powers),
 /// and its size is the order of the image modulo scalars, exactly.
 pub fn enumerate_projective_image(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     cap: usize,
 ) -> Result<ImageEnumeration, CertError> {
     let field = gens.field();
@@ -80,7 +80,7 @@ pub fn enumerate_projective_image(
 
 impl EnumerationCertificate {
     /// Enumerate again (with the certified order as the cap) and compare.
-    pub fn verify(&self, gens: &GeneratorSet) -> Result<(), CertError> {
+    pub fn verify(&self, gens: &ProvedGenerators) -> Result<(), CertError> {
         require(
             self.conductor == gens.field().conductor() && self.generators == gens.names(),
             || "the certificate is for other generators".into(),

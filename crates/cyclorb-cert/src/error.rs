@@ -42,8 +42,22 @@ impl From<FieldError> for CertError {
 
 impl From<MatrixError> for CertError {
     fn from(e: MatrixError) -> Self {
-        CertError::Matrix(e)
+        match e {
+            MatrixError::Invalid(reason) => CertError::Input(reason),
+            other => CertError::Matrix(other),
+        }
     }
+}
+
+/// Refuse a certificate made over another field Q(ζ_n) than the generators'.
+pub(crate) fn require_conductor(
+    gens: &cyclorb_matrix::ProvedGenerators,
+    conductor: u32,
+) -> Result<(), CertError> {
+    let own = gens.conductor();
+    require(conductor == own, || {
+        format!("conductor {conductor} for generators over Q(ζ_{own})")
+    })
 }
 
 /// `Ok(())` when `condition` holds, otherwise [`CertError::Rejected`] with `reason`.

@@ -11,11 +11,11 @@ use serde::{Deserialize, Serialize};
 use crate::action::{faithfulness_proof, FaithfulnessProof};
 use crate::digest::permutation_digest;
 use crate::error::{require, CertError};
-use crate::generators::GeneratorSet;
 use crate::line_keys::induced_permutations;
 use crate::line_set::LineSet;
 use crate::perm::orbit;
 use crate::schreier_sims::StabiliserChain;
+use cyclorb_matrix::ProvedGenerators;
 
 /// The order of a permutation group, with its base and strong generating set data and the
 /// orbit–stabiliser check |G| = |orbit of point 0| × |stabiliser of point 0|.
@@ -126,7 +126,7 @@ pub struct PermutationImageCertificate {
 
 /// [`image_from_lines`] with the default options (one thread).
 pub fn image_from_orbit<L: LineSet + ?Sized>(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     lines: &L,
 ) -> Result<PermutationImageCertificate, CertError> {
     image_from_lines(gens, lines, &ImageOptions::default())
@@ -140,7 +140,7 @@ pub fn image_from_orbit<L: LineSet + ?Sized>(
 /// permutation group is ordered by [`StabiliserChain`] on the base of the lemma: with a
 /// trivial kernel, its order is the order of the projective image.
 pub fn image_from_lines<L: LineSet + ?Sized>(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     lines: &L,
     options: &ImageOptions,
 ) -> Result<PermutationImageCertificate, CertError> {
@@ -178,11 +178,11 @@ impl PermutationImageCertificate {
     /// (against the digests), the faithfulness lemma, and the Schreier–Sims summary.
     pub fn verify<L: LineSet + ?Sized>(
         &self,
-        gens: &GeneratorSet,
+        gens: &ProvedGenerators,
         lines: &L,
         options: &ImageOptions,
     ) -> Result<(), CertError> {
-        gens.require_conductor(self.conductor)?;
+        crate::error::require_conductor(gens, self.conductor)?;
         require(self.generators == gens.names(), || {
             "the certificate is for other generators".into()
         })?;

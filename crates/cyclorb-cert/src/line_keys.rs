@@ -22,10 +22,10 @@ use cyclorb_field::{Cyc, FieldError, PrimeReduction};
 use hashbrown::HashMap;
 
 use crate::error::CertError;
-use crate::generators::GeneratorSet;
 use crate::line_set::LineSet;
 use crate::parallel::map_ranges;
 use crate::projective::normalise;
+use cyclorb_matrix::ProvedGenerators;
 
 /// Primes tried before giving up.
 const KEY_PRIMES: usize = 4;
@@ -88,7 +88,7 @@ impl Keys {
 
     /// The reduced generators and the key index of the lines, with the `attempt`-th prime.
     fn build<L: LineSet + ?Sized>(
-        gens: &GeneratorSet,
+        gens: &ProvedGenerators,
         lines: &L,
         attempt: usize,
         threads: usize,
@@ -157,7 +157,7 @@ impl Keys {
     /// For each generator, the images of all lines.
     fn permutations(
         &self,
-        gens: &GeneratorSet,
+        gens: &ProvedGenerators,
         threads: usize,
     ) -> Result<Vec<Vec<u32>>, CertError> {
         let count = gens.len();
@@ -193,7 +193,7 @@ impl Keys {
 /// union of them). The permutations are then exact (module documentation); an image found
 /// outside the lines is an error, as are repeated lines and lines of the wrong length.
 pub fn induced_permutations<L: LineSet + ?Sized>(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     lines: &L,
     threads: usize,
 ) -> Result<Vec<Vec<u32>>, CertError> {
@@ -221,7 +221,7 @@ mod tests {
 
     /// The single-qubit Clifford generators H and S = diag(1, i) over Q(ζ_8) and the six
     /// stabiliser states (common practice).
-    fn clifford() -> (GeneratorSet, Vec<Vec<Cyc>>) {
+    fn clifford() -> (ProvedGenerators, Vec<Vec<Cyc>>) {
         let f = CyclotomicField::new(8).unwrap();
         let e = |t: &str| f.parse(t).unwrap();
         let h = Matrix::from_rows(vec![
@@ -229,7 +229,7 @@ mod tests {
             vec![e("1/sqrt(2)"), e("-1/sqrt(2)")],
         ])
         .unwrap();
-        let gens = GeneratorSet::new(
+        let gens = ProvedGenerators::new(
             f.clone(),
             vec![
                 ("H".into(), Operator::Dense(h)),

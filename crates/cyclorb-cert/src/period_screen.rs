@@ -14,8 +14,8 @@ use cyclorb_field::{FieldError, PrimeReduction};
 use cyclorb_matrix::{Matrix, MatrixError, ModpMatrix};
 
 use crate::error::CertError;
-use crate::generators::GeneratorSet;
 use crate::witness_words::Xorshift;
+use cyclorb_matrix::ProvedGenerators;
 
 /// Primes used by the screen.
 const SCREEN_PRIMES: usize = 2;
@@ -106,7 +106,7 @@ fn restrict_modp(m: &ModpMatrix, block: &[usize]) -> Result<ModpMatrix, CertErro
 impl Screen {
     /// Reduce the generators modulo the first primes p ≡ 1 (mod n) dividing none of
     /// their denominators. With no such prime the screen lets everything through.
-    pub(crate) fn new(gens: &GeneratorSet, max: u64) -> Result<Screen, CertError> {
+    pub(crate) fn new(gens: &ProvedGenerators, max: u64) -> Result<Screen, CertError> {
         let mut generators = Vec::new();
         let mut reductions = Vec::new();
         for index in 0..PRIME_ATTEMPTS {

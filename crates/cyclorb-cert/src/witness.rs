@@ -21,11 +21,11 @@ use serde::{Deserialize, Serialize};
 
 use crate::cyclotomic_part::{has_no_cyclotomic_factor, strip, CyclotomicFactor};
 use crate::error::{require, CertError};
-use crate::generators::GeneratorSet;
 use crate::period_screen::{candidate_blocks, Screen};
 use crate::ratio_polynomial::{norm_to_integers, ratio_polynomial};
 use crate::witness_words::{is_lyndon, next_word, Xorshift};
 use cyclorb_field::int_poly::{cyclotomic, degree, from_strings, mul, to_strings, IntPoly};
+use cyclorb_matrix::ProvedGenerators;
 
 /// Bounds of the search.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -135,7 +135,7 @@ fn prove_block(field: &CyclotomicField, sub: &Matrix) -> Result<BlockProof, Cert
 
 /// The state of a search: the screen and the counts.
 struct Search<'a> {
-    gens: &'a GeneratorSet,
+    gens: &'a ProvedGenerators,
     options: &'a WitnessOptions,
     screen: Screen,
     report: WitnessSearchReport,
@@ -201,7 +201,7 @@ impl Search<'_> {
 /// rest has a root that is not a root of unity; it is σ(λ_i/λ_j) for some Galois σ, so
 /// λ_i/λ_j is not a root of unity and no power of W is a scalar.
 pub fn find_witness(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     options: &WitnessOptions,
 ) -> Result<WitnessOutcome, CertError> {
     let letters = gens.len();
@@ -304,9 +304,9 @@ impl WitnessCertificate {
     /// Re-verify from scratch: the word's matrix, the invariance of the block, its
     /// characteristic polynomial, the norm of the ratio polynomial, the factorisation
     /// N = Π Φ_m^{e_m} · rest, and that the rest is non-constant with no cyclotomic factor.
-    pub fn recheck(&self, gens: &GeneratorSet) -> Result<(), CertError> {
+    pub fn recheck(&self, gens: &ProvedGenerators) -> Result<(), CertError> {
         let field = gens.field();
-        gens.require_conductor(self.conductor)?;
+        crate::error::require_conductor(gens, self.conductor)?;
         let word = gens.indices_of(&self.word)?;
         require(!word.is_empty(), || "the word is empty".into())?;
         let w = gens.word_matrix(&word)?;

@@ -5,7 +5,7 @@ mod common;
 use std::time::Instant;
 
 use common::*;
-use cyclorb_cert::{commutant, CertError, CommutantOptions, CommutantRoute, GeneratorSet};
+use cyclorb_cert::{commutant, CertError, CommutantOptions, CommutantRoute, ProvedGenerators};
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::{Matrix, Operator};
 
@@ -49,7 +49,7 @@ fn ising_and_fibonacci_at_genus_one_are_irreducible() {
 
 /// Ising ⊕ Fibonacci over Q(ζ80), the generators acting blockwise, conjugated by a
 /// diagonal D so that the invariant form is G = D² ≠ 1.
-fn ising_plus_fibonacci() -> GeneratorSet {
+fn ising_plus_fibonacci() -> ProvedGenerators {
     let f = CyclotomicField::new(80).unwrap();
     let (ti, bi) = ising().twists();
     let (tf, bf) = fibonacci().twists();
@@ -60,7 +60,7 @@ fn ising_plus_fibonacci() -> GeneratorSet {
     let t = conjugate(direct_sum(&f, &embed(&f, &ti), &embed(&f, &tf)));
     let b = conjugate(direct_sum(&f, &embed(&f, &bi), &embed(&f, &bf)));
     let form = scale.iter().map(|x| f.mul(x, x).unwrap()).collect();
-    GeneratorSet::new(
+    ProvedGenerators::new(
         f,
         vec![
             ("T".into(), Operator::Dense(t)),
@@ -113,7 +113,7 @@ fn two_copies_of_one_irreducible_have_commutant_dimension_four() {
     let data = ising();
     let f = &data.field;
     let (t, b) = data.twists();
-    let gens = GeneratorSet::new(
+    let gens = ProvedGenerators::new(
         f.clone(),
         vec![
             ("T".into(), Operator::Dense(direct_sum(f, &t, &t))),
@@ -188,7 +188,7 @@ fn a_36_dimensional_irreducible_set_is_certified_in_seconds() {
             (name, op)
         })
         .collect();
-    let gens = GeneratorSet::new(f, generators, None).unwrap();
+    let gens = ProvedGenerators::new(f, generators, None).unwrap();
     let start = Instant::now();
     let cert = commutant(&gens, CommutantOptions::default()).unwrap();
     let elapsed = start.elapsed();
@@ -220,7 +220,7 @@ fn without_diagonal_generators_an_eigenbasis_cuts_the_system() {
             (name, Operator::Dense(c))
         })
         .collect();
-    let gens = GeneratorSet::new(f, generators, None).unwrap();
+    let gens = ProvedGenerators::new(f, generators, None).unwrap();
     let start = Instant::now();
     let cert = commutant(&gens, CommutantOptions::default()).unwrap();
     let elapsed = start.elapsed();
@@ -238,29 +238,32 @@ fn bad_generator_sets_are_errors() {
     let f = CyclotomicField::new(4).unwrap();
     let singular = Operator::Dense(Matrix::zeros(&f, 2, 2));
     assert!(matches!(
-        GeneratorSet::new(f.clone(), vec![("a".into(), singular)], None),
+        ProvedGenerators::new(f.clone(), vec![("a".into(), singular)], None)
+            .map_err(CertError::from),
         Err(CertError::Input(_))
     ));
     let a = Operator::Diagonal(vec![f.one(), f.int(2)]);
     // diag(1, 2) does not preserve G = 1
     assert!(matches!(
-        GeneratorSet::new(
+        ProvedGenerators::new(
             f.clone(),
             vec![("a".into(), a.clone())],
             Some(vec![f.one(); 2])
-        ),
+        )
+        .map_err(CertError::from),
         Err(CertError::Input(_))
     ));
     assert!(matches!(
-        GeneratorSet::new(
+        ProvedGenerators::new(
             f.clone(),
             vec![("a".into(), a.clone()), ("a".into(), a)],
             None
-        ),
+        )
+        .map_err(CertError::from),
         Err(CertError::Input(_))
     ));
     assert!(matches!(
-        GeneratorSet::new(f, vec![], None),
+        ProvedGenerators::new(f, vec![], None).map_err(CertError::from),
         Err(CertError::Input(_))
     ));
 }
@@ -274,7 +277,7 @@ fn over_q_without_a_diagonalisable_generator_all_unknowns_are_kept() {
     let one = Matrix::identity(&f, 1);
     let a = Matrix::from_rows(vec![vec![f.one(), f.int(2)], vec![f.zero(), f.one()]]).unwrap();
     let b = Matrix::from_rows(vec![vec![f.one(), f.zero()], vec![f.int(2), f.one()]]).unwrap();
-    let gens = GeneratorSet::new(
+    let gens = ProvedGenerators::new(
         f.clone(),
         vec![
             ("a".into(), Operator::Dense(direct_sum(&f, &a, &one))),

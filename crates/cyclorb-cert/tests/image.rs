@@ -8,12 +8,12 @@ mod outside;
 use common::*;
 use cyclorb_cert::{
     enumerate_projective_image, image_from_lines, image_from_orbit, induced_permutations,
-    CertError, GeneratorSet, ImageEnumeration, ImageOptions, PermutationImageCertificate,
+    CertError, ImageEnumeration, ImageOptions, PermutationImageCertificate, ProvedGenerators,
 };
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::{Matrix, Operator};
 
-fn enumerated_order(gens: &GeneratorSet, cap: usize) -> u64 {
+fn enumerated_order(gens: &ProvedGenerators, cap: usize) -> u64 {
     match enumerate_projective_image(gens, cap).unwrap() {
         ImageEnumeration::Finite(cert) => {
             cert.verify(gens).unwrap();
@@ -24,7 +24,7 @@ fn enumerated_order(gens: &GeneratorSet, cap: usize) -> u64 {
 }
 
 fn orbit_certificate(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     cap: usize,
 ) -> (Vec<Vec<cyclorb_field::Cyc>>, PermutationImageCertificate) {
     let lines = line_orbit(gens, vacuum(gens.field(), gens.dim()), cap);
@@ -112,7 +112,7 @@ fn unsaturated_lines_and_non_faithful_orbits_are_errors() {
     ));
     // a diagonal generator alone: the orbit of e_0 is one line, which spans nothing
     let f = CyclotomicField::new(4).unwrap();
-    let d = GeneratorSet::new(
+    let d = ProvedGenerators::new(
         f.clone(),
         vec![("d".into(), Operator::Diagonal(vec![f.one(), f.zeta_pow(1)]))],
         None,
@@ -130,7 +130,7 @@ fn an_infinite_image_exceeds_any_cap() {
     let f = CyclotomicField::new(1).unwrap();
     let a = Matrix::from_rows(vec![vec![f.one(), f.int(2)], vec![f.zero(), f.one()]]).unwrap();
     let b = Matrix::from_rows(vec![vec![f.one(), f.zero()], vec![f.int(2), f.one()]]).unwrap();
-    let gens = GeneratorSet::new(
+    let gens = ProvedGenerators::new(
         f,
         vec![
             ("a".into(), Operator::Dense(a)),
@@ -147,7 +147,7 @@ fn an_infinite_image_exceeds_any_cap() {
 
 /// The n-qubit Clifford generators over Q(ζ_8): H and S = diag(1, i) on each qubit and CNOT
 /// from each qubit to the next, as dense 2ⁿ × 2ⁿ matrices (qubit 0 outermost).
-fn clifford(n: usize) -> GeneratorSet {
+fn clifford(n: usize) -> ProvedGenerators {
     let f = CyclotomicField::new(8).unwrap();
     let h = matrix(
         &f,
@@ -176,7 +176,7 @@ fn clifford(n: usize) -> GeneratorSet {
         }
         gens.push((format!("CNOT{q}"), Operator::Dense(m)));
     }
-    GeneratorSet::new(f, gens, None).unwrap()
+    ProvedGenerators::new(f, gens, None).unwrap()
 }
 
 #[test]

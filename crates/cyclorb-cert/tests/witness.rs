@@ -4,8 +4,8 @@ mod common;
 
 use common::*;
 use cyclorb_cert::{
-    find_witness, polynomial_text, CertError, CyclotomicFactor, GeneratorSet, WitnessCertificate,
-    WitnessOptions, WitnessOutcome,
+    find_witness, polynomial_text, CertError, CyclotomicFactor, ProvedGenerators,
+    WitnessCertificate, WitnessOptions, WitnessOutcome,
 };
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::{Matrix, Operator};
@@ -18,11 +18,11 @@ fn found(outcome: WitnessOutcome) -> WitnessCertificate {
 }
 
 /// [[1,2],[0,1]] and [[1,0],[2,1]] over Q: a free group (Sanov's theorem; common practice).
-fn sanov_pair() -> GeneratorSet {
+fn sanov_pair() -> ProvedGenerators {
     let f = CyclotomicField::new(1).unwrap();
     let a = Matrix::from_rows(vec![vec![f.one(), f.int(2)], vec![f.zero(), f.one()]]).unwrap();
     let b = Matrix::from_rows(vec![vec![f.one(), f.zero()], vec![f.int(2), f.one()]]).unwrap();
-    GeneratorSet::new(
+    ProvedGenerators::new(
         f,
         vec![
             ("a".into(), Operator::Dense(a)),
@@ -64,7 +64,7 @@ fn the_norm_is_taken_over_the_galois_conjugates() {
     // (x − 1)⁴ (x² − 4x + 5)² (5x² − 4x + 1)² (hand computation: |2 + i|² = 5).
     let f = CyclotomicField::new(4).unwrap();
     let u = f.add(&f.int(2), &f.zeta_pow(1)).unwrap();
-    let gens = GeneratorSet::new(
+    let gens = ProvedGenerators::new(
         f.clone(),
         vec![("d".into(), Operator::Diagonal(vec![f.one(), f.one(), u]))],
         None,
@@ -105,7 +105,7 @@ fn a_non_integral_unit_circle_ratio_is_found() {
     // polynomial is 5x² − 6x + 5 (hand computation)
     let f = CyclotomicField::new(4).unwrap();
     let u = f.parse("(3 + 4*i)/5").unwrap();
-    let gens = GeneratorSet::new(
+    let gens = ProvedGenerators::new(
         f.clone(),
         vec![("d".into(), Operator::Diagonal(vec![f.one(), u]))],
         Some(vec![f.one(), f.one()]),

@@ -154,19 +154,18 @@ fn genus_one_vacuum_orbits_match_the_modular_data() {
         let vacuum = (0..k)
             .find(|&a| md.s[a].iter().all(positive))
             .expect("a vacuum row");
-        let generators = GeneratorSet {
-            conductor: md.field.conductor(),
-            dimension: k,
-            names: vec!["S".into(), "T".into()],
-            operators: vec![
-                Operator::Dense(Matrix::from_rows(md.s.clone()).unwrap()),
-                Operator::Diagonal(md.t.clone()),
+        let generators = GeneratorSet::new(
+            md.field.clone(),
+            vec![
+                (
+                    "S".into(),
+                    Operator::Dense(Matrix::from_rows(md.s.clone()).unwrap()),
+                ),
+                ("T".into(), Operator::Diagonal(md.t.clone())),
             ],
-            basis_labels: (0..k).map(|a| a.to_string()).collect(),
-            form: None,
-            theory: None,
-            genus: None,
-        };
+        )
+        .and_then(|set| set.with_basis_labels((0..k).map(|a| a.to_string()).collect()))
+        .unwrap();
         let seed = Seed::basis_vector(&md.field, k, vacuum);
         let problem = OrbitProblem::new(generators, &seed).unwrap();
         let lines = problem

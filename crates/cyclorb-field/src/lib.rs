@@ -38,7 +38,9 @@
 //! kernels), `dot` (sums of products), `modular` and `multimodular` (primes p ≡ 1 mod n,
 //! inverse and norm), `galois` (automorphisms, embeddings, trace, roots of unity), `sqrt`,
 //! `text` (syntax and serde), `modp` ([`PrimeReduction`]), `residues` ([`ResidueMap`]: residues
-//! at many prime ideals and the zero test they give), [`numtheory`], `rational`.
+//! at many prime ideals and the zero test they give), [`numtheory`], `rational`,
+//! `poly_kernel` ([`PolyKernel`]: the integer matrices of multiplication by an element and
+//! of conjugation in the power basis of Z[ζ_n], for callers that work on raw numerators).
 //!
 //! ## Untrusted input
 //! [`CyclotomicField::parse`] reports the byte offset and reason of any error; division by
@@ -61,6 +63,7 @@ mod modular;
 mod multimodular;
 pub mod numtheory;
 mod packed;
+mod poly_kernel;
 mod rational;
 mod real_sign;
 mod residues;
@@ -79,6 +82,7 @@ pub use error::FieldError;
 pub use fnv::{Fnv128, Fnv64};
 pub use galois::common_conductor;
 pub use modp::PrimeReduction;
+pub use poly_kernel::PolyKernel;
 pub use rational::Rational;
 pub use real_sign::real_sign;
 pub use residues::ResidueMap;

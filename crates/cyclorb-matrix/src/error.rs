@@ -15,6 +15,9 @@ pub enum MatrixError {
     Singular,
     /// A linear system A·x = b has no solution.
     Inconsistent,
+    /// A generator set is malformed or fails its proof (the text says which generator and
+    /// why).
+    Invalid(String),
 }
 
 impl fmt::Display for MatrixError {
@@ -24,6 +27,7 @@ impl fmt::Display for MatrixError {
             MatrixError::Shape(s) => write!(f, "shape mismatch: {s}"),
             MatrixError::Singular => write!(f, "matrix is singular"),
             MatrixError::Inconsistent => write!(f, "the linear system has no solution"),
+            MatrixError::Invalid(s) => write!(f, "{s}"),
         }
     }
 }

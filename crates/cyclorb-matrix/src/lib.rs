@@ -18,6 +18,10 @@
 //! - the commutant {X : XA = AX for every generator A} ([`solve_commutant`]), its unknowns
 //!   cut by diagonal generators or an eigenbasis, over either field;
 //! - the projective order (order modulo scalars), exactly;
+//! - named generator sets ([`GeneratorSet`], checked when built), their proof
+//!   ([`ProvedGenerators`]: every generator invertible, the diagonal form G preserved) and
+//!   their JSON file format with the seed vector's ([`Seed`], [`FormatError`]): the one
+//!   input type of the orbit engine and the certificates;
 //! - reduction modulo a prime p ≡ 1 (mod n) to [`ModpMatrix`], with rank and nullspace
 //!   over F_p. **A rank over F_p is a lower bound for the exact rank** (a nullity over F_p
 //!   an upper bound for the exact nullity): certificates rely on that direction only.
@@ -51,6 +55,9 @@
 //! ## Untrusted input
 //! Shape mismatches, singular matrices, inconsistent systems and primes dividing a
 //! denominator are [`MatrixError`] values; [`Operator::validate`] checks the sparse forms.
+//! Generator-set and seed files are read with a memory budget checked against the file's
+//! size and dimension first, and a malformed file is a [`FormatError`] naming the file, the
+//! JSON path of the offending value and the reason; reading never panics.
 
 #![deny(missing_docs)]
 
@@ -61,6 +68,8 @@ mod dense;
 mod elimination;
 mod error;
 mod form;
+mod generator_file;
+mod generators;
 mod kronecker;
 mod modp;
 mod operator;
@@ -68,6 +77,7 @@ mod operator_algebra;
 mod order;
 mod power;
 mod scalar_field;
+mod seed;
 mod serial;
 
 pub use commutant::{
@@ -77,6 +87,11 @@ pub use commutant::{
 pub use dense::Matrix;
 pub use elimination::{eigenbasis, rows_inverse, rows_mul, Echelon, Eigenbasis, Rows};
 pub use error::MatrixError;
+pub use generator_file::{
+    operator_json, FormatError, FORMAT_VERSION, GENERATORS_FORMAT, SEED_FORMAT,
+};
+pub use generators::{GeneratorSet, ProvedGenerators, MAX_DENSE_PROOF};
 pub use modp::{reduce_vector, ModpMatrix};
 pub use operator::{Block, LinearMap, Operator};
 pub use scalar_field::{Exact, ModP, ScalarField};
+pub use seed::Seed;

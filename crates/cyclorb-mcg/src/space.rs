@@ -1,7 +1,7 @@
 //! The genus-g block space of a theory: comb basis, invariant form and Dehn twists.
 
 use cyclorb_field::Cyc;
-use cyclorb_matrix::Operator;
+use cyclorb_matrix::{GeneratorSet, Operator};
 use cyclorb_theory::Theory;
 
 use crate::alpha::alpha_twist;
@@ -111,6 +111,25 @@ impl BlockSpace {
             .into_iter()
             .map(|c| Ok((c, self.twist(c)?)))
             .collect()
+    }
+
+    /// Twists of this space as a [`GeneratorSet`]: named by their curves, with the comb
+    /// basis labels, the invariant form (omitted when every entry is 1) and the theory and
+    /// genus recorded.
+    pub fn generator_set(&self, twists: &[(Curve, Operator)]) -> Result<GeneratorSet, McgError> {
+        let named = twists
+            .iter()
+            .map(|(c, op)| (c.to_string(), op.clone()))
+            .collect();
+        let unit_form = self.form.iter().all(|g| g.is_one());
+        let labels = self.states().iter().map(|s| s.describe(&self.theory));
+        let set = GeneratorSet::new(self.theory.field().clone(), named)?
+            .with_form((!unit_form).then(|| self.form.clone()))?
+            .with_basis_labels(labels.collect())?;
+        Ok(set.with_origin(
+            Some(self.theory.name().to_string()),
+            Some(self.genus() as u32),
+        ))
     }
 }
 

@@ -251,10 +251,10 @@ impl OrbitProblem {
         w.put(&(origin.len() as u32).to_le_bytes())?;
         w.put(origin)?;
         for x in [
-            self.generators.conductor,
-            self.generators.dimension as u32,
+            self.generators.conductor(),
+            self.generators.dimension() as u32,
             self.kernel.degree() as u32,
-            self.generators.operators.len() as u32,
+            self.generators.operators().len() as u32,
         ] {
             w.put(&x.to_le_bytes())?;
         }
@@ -322,10 +322,10 @@ impl OrbitProblem {
         let (version, _) = read_origin(r)?;
         let header = [r.u32()?, r.u32()?, r.u32()?, r.u32()?];
         let ours = [
-            self.generators.conductor,
-            self.generators.dimension as u32,
+            self.generators.conductor(),
+            self.generators.dimension() as u32,
             self.kernel.degree() as u32,
-            self.generators.operators.len() as u32,
+            self.generators.operators().len() as u32,
         ];
         let names = ["conductor", "dimension", "degree", "number of generators"];
         for ((theirs, mine), name) in header.iter().zip(ours).zip(names) {
@@ -429,7 +429,7 @@ impl OrbitProblem {
             }
             parents.push(p);
         }
-        let gens = self.generators.operators.len();
+        let gens = self.generators.operators().len();
         let mut generators = Vec::new();
         for i in 0..count {
             let g = r.u16()?;

@@ -22,8 +22,8 @@ use cyclorb_matrix::{
 };
 
 use crate::error::OrbitError;
-use crate::generators::GeneratorSet;
 use crate::sparse::operator_rows;
+use cyclorb_matrix::GeneratorSet;
 
 /// One term c·M of a decomposition of B.
 #[derive(Debug, Clone, PartialEq, Eq)]
@@ -64,9 +64,9 @@ pub(crate) fn invariant_basis(
     generators: &GeneratorSet,
     max_unknowns: usize,
 ) -> Result<Option<InvariantBasis>, OrbitError> {
-    let d = generators.dimension;
+    let d = generators.dimension();
     let dense: Vec<Rows<Cyc>> = generators
-        .operators
+        .operators()
         .iter()
         .map(|op| {
             let mut rows = vec![vec![field.zero(); d]; d];
@@ -87,7 +87,7 @@ pub(crate) fn invariant_basis(
     let Some(solved) = solve_commutant(&Exact::new(field), &dense, &system)? else {
         return Ok(None);
     };
-    let g = generators.form_diagonal(field);
+    let g = generators.form_diagonal();
     let mut basis: Vec<(usize, Matrix)> = Vec::with_capacity(solved.nullity);
     for y in solved.basis.unwrap_or_default() {
         let (fi, fj) = free_position(field, &y).ok_or_else(|| {

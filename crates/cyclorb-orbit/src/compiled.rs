@@ -13,8 +13,8 @@ use num_integer::Integer;
 use num_traits::{One, ToPrimitive};
 
 use crate::numerators::Numerators;
-use crate::poly::PolyKernel;
 use crate::sparse::operator_rows;
+use cyclorb_field::PolyKernel;
 
 /// E·X acting on numerator vectors, in one of two forms (the same integers either way).
 #[derive(Debug, Clone)]

@@ -546,7 +546,7 @@ impl OrbitProblem {
         comm: &dyn Collective,
         threads: usize,
     ) -> Result<Option<PoincareSum>, OrbitError> {
-        let g = self.generators.form_diagonal(&self.field);
+        let g = self.generators.form_diagonal();
         let part = self.sum_part(orbit, threads, &g);
         let text = match &part {
             Ok((_, b)) => serde_json::to_string(&matrix_text(b)).expect("text serialises"),

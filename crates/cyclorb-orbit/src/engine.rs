@@ -300,11 +300,11 @@ impl OrbitProblem {
         let found_before = orbit.len();
         let mut last_checkpoint = Instant::now();
         orbit.stop = None;
-        if orbit.set.kind() == StoreKind::Compact && self.generators.operators.len() > 255 {
+        if orbit.set.kind() == StoreKind::Compact && self.generators.operators().len() > 255 {
             return Err(OrbitError::Invalid(format!(
                 "the compact store records a generator in one byte; {} generators need \
                  the memory store",
-                self.generators.operators.len()
+                self.generators.operators().len()
             )));
         }
         if let Some(dir) = &options.spill {
@@ -391,7 +391,7 @@ impl OrbitProblem {
     pub fn chunk_bytes(&self, elements: usize) -> usize {
         let per_candidate = self.key_len() * (8 + 4) + 64;
         elements
-            .saturating_mul(self.generators.operators.len())
+            .saturating_mul(self.generators.operators().len())
             .saturating_mul(per_candidate)
     }
 
@@ -453,7 +453,7 @@ impl OrbitProblem {
         let mut pending = Pending::default();
         for element in range {
             ws.load(self, set, element)?;
-            for generator in 0..self.generators.operators.len() {
+            for generator in 0..self.generators.operators().len() {
                 if let Outcome::New { key, fingerprint } =
                     self.classify(set, &pending, ws, generator)?
                 {
@@ -491,7 +491,7 @@ impl OrbitProblem {
                 &materialised
             }
         };
-        let generators = self.generators.operators.len();
+        let generators = self.generators.operators().len();
         let parts = split(0..orbit.len(), threads.max(1));
         let images_of = |range: Range<usize>| -> Result<Vec<u32>, OrbitError> {
             let mut ws = Workspace::new(self);
@@ -505,7 +505,7 @@ impl OrbitProblem {
                         _ => {
                             return Err(OrbitError::Invalid(format!(
                                 "generator {} maps line {element} outside the orbit",
-                                self.generators.names[generator]
+                                self.generators.names()[generator]
                             )))
                         }
                     }
@@ -579,7 +579,7 @@ impl OrbitProblem {
         orbit
             .word(index)
             .into_iter()
-            .map(|g| self.generators.names[g].clone())
+            .map(|g| self.generators.names()[g].clone())
             .collect()
     }
 }

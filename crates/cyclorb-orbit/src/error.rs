@@ -3,33 +3,7 @@
 use std::fmt;
 
 use cyclorb_field::FieldError;
-use cyclorb_matrix::MatrixError;
-
-/// A generator-set or seed file that cannot be read: which file, where in it, and why.
-///
-/// `place` is a JSON path such as `generators[3].rows[7]`, or `line 4 column 17` for a
-/// JSON syntax error, or empty when the problem concerns the whole file.
-#[derive(Debug, Clone, PartialEq, Eq)]
-pub struct FormatError {
-    /// The file (its path as given, or a description such as `<memory>`).
-    pub file: String,
-    /// Where in the file.
-    pub place: String,
-    /// What is wrong there.
-    pub reason: String,
-}
-
-impl fmt::Display for FormatError {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
-        if self.place.is_empty() {
-            write!(f, "{}: {}", self.file, self.reason)
-        } else {
-            write!(f, "{}: at {}: {}", self.file, self.place, self.reason)
-        }
-    }
-}
-
-impl std::error::Error for FormatError {}
+use cyclorb_matrix::{FormatError, MatrixError};
 
 /// What can go wrong when setting up or running an orbit computation.
 #[derive(Debug, Clone, PartialEq, Eq)]
@@ -84,7 +58,10 @@ impl From<FieldError> for OrbitError {
 
 impl From<MatrixError> for OrbitError {
     fn from(e: MatrixError) -> Self {
-        OrbitError::Arithmetic(e.to_string())
+        match e {
+            MatrixError::Invalid(reason) => OrbitError::Invalid(reason),
+            other => OrbitError::Arithmetic(other.to_string()),
+        }
     }
 }
 

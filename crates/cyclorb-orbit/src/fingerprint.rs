@@ -236,8 +236,8 @@ pub(crate) fn bucket_hash(fingerprint: u64) -> u64 {
 mod tests {
     use super::*;
     use crate::key::{key_of_integer_vector, KeyNumbers, Normaliser};
-    use crate::poly::PolyKernel;
     use cyclorb_field::Cyc;
+    use cyclorb_field::PolyKernel;
 
     fn numerators(f: &CyclotomicField, texts: &[&str]) -> Numerators {
         let dense: Vec<i64> = texts

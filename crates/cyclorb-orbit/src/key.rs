@@ -14,7 +14,7 @@ use num_integer::Integer;
 use num_traits::{One, ToPrimitive, Zero};
 
 use crate::numerators::Numerators;
-use crate::poly::PolyKernel;
+use cyclorb_field::PolyKernel;
 
 /// The numerators S of a key (d blocks of φ coefficients): machine words when they fit.
 #[derive(Debug, Clone, PartialEq, Eq)]

@@ -30,16 +30,13 @@
 //!     vec![e("1/sqrt(2)"), e("-1/sqrt(2)")],
 //! ])
 //! .unwrap();
-//! let generators = GeneratorSet {
-//!     conductor: 8,
-//!     dimension: 2,
-//!     names: vec!["H".into(), "S".into()],
-//!     operators: vec![Operator::Dense(h), Operator::Diagonal(vec![e("1"), e("i")])],
-//!     basis_labels: vec!["0".into(), "1".into()],
-//!     form: None,
-//!     theory: None,
-//!     genus: None,
-//! };
+//! let named = vec![
+//!     ("H".to_string(), Operator::Dense(h)),
+//!     ("S".to_string(), Operator::Diagonal(vec![e("1"), e("i")])),
+//! ];
+//! let generators = GeneratorSet::new(q8.clone(), named)
+//!     .and_then(|set| set.with_basis_labels(vec!["0".into(), "1".into()]))
+//!     .unwrap();
 //! let problem = OrbitProblem::new(generators, &Seed::basis_vector(&q8, 2, 0)).unwrap();
 //! let orbit = problem.enumerate(&OrbitOptions::default(), &mut Silent).unwrap();
 //! // the six stabilizer states of one qubit (common practice)
@@ -88,14 +85,10 @@ mod distributed;
 mod engine;
 mod error;
 mod fingerprint;
-mod format;
-mod generators;
-mod invertible;
 mod key;
 mod numerators;
 mod pairs;
 mod poincare;
-mod poly;
 mod problem;
 mod rank_checkpoint;
 mod regenerate;
@@ -110,14 +103,15 @@ mod wire;
 
 pub use collective::{gather_numbers, Collective};
 pub use commutant::{Decomposition, InvariantTerm};
+pub use cyclorb_matrix::{
+    FormatError, GeneratorSet, Seed, FORMAT_VERSION, GENERATORS_FORMAT, MAX_DENSE_PROOF,
+    SEED_FORMAT,
+};
 pub use distributed::DistributedOrbit;
 pub use engine::{
     CheckpointPlan, Orbit, OrbitOptions, Progress, ProgressObserver, Silent, StopReason,
 };
-pub use error::{FormatError, OrbitError};
-pub use format::{FORMAT_VERSION, GENERATORS_FORMAT, SEED_FORMAT};
-pub use generators::{GeneratorSet, Seed};
-pub use invertible::MAX_DENSE_PROOF;
+pub use error::OrbitError;
 pub use pairs::{pair_orbit, PairOrbit};
 pub use poincare::PoincareSum;
 pub use problem::OrbitProblem;

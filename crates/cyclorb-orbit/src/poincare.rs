@@ -67,7 +67,7 @@ impl OrbitProblem {
         }
         self.check_unitary()?;
         let field = &self.field;
-        let g = self.generators.form_diagonal(field);
+        let g = self.generators.form_diagonal();
         let norm = self.form_norm(&self.seed, &g)?;
         let b = match &orbit.set {
             LineStore::Memory(set) => {
@@ -97,10 +97,10 @@ impl OrbitProblem {
     /// An error naming the first generator that does not preserve G: then B is not a sum
     /// over a group orbit of vectors of one norm.
     pub(crate) fn check_unitary(&self) -> Result<(), OrbitError> {
-        match self.generators.first_non_unitary(&self.field)? {
+        match self.generators.first_non_unitary()? {
             Some(g) => Err(OrbitError::Invalid(format!(
                 "generator {} does not preserve the invariant form (X†GX ≠ G)",
-                self.generators.names[g]
+                self.generators.names()[g]
             ))),
             None => Ok(()),
         }
@@ -170,8 +170,8 @@ fn scalar_of(field: &CyclotomicField, b: &Matrix, g: &[Cyc]) -> Result<Option<Cy
 mod tests {
     use super::*;
     use crate::engine::{OrbitOptions, Silent};
-    use crate::generators::{GeneratorSet, Seed};
     use cyclorb_matrix::Operator;
+    use cyclorb_matrix::{GeneratorSet, Seed};
 
     #[test]
     fn flushing_integer_sums_early_does_not_change_b() {
@@ -186,19 +186,17 @@ mod tests {
             vec![e("1/2"), e("-sqrt(2)/2"), e("1/2")],
         ])
         .unwrap();
-        let generators = GeneratorSet {
-            conductor: 16,
-            dimension: 3,
-            names: vec!["T".into(), "S".into()],
-            operators: vec![
-                Operator::Diagonal(vec![e("1"), e("z"), e("-1")]),
-                Operator::Dense(s),
+        let generators = GeneratorSet::new(
+            f.clone(),
+            vec![
+                (
+                    "T".into(),
+                    Operator::Diagonal(vec![e("1"), e("z"), e("-1")]),
+                ),
+                ("S".into(), Operator::Dense(s)),
             ],
-            basis_labels: Vec::new(),
-            form: None,
-            theory: None,
-            genus: None,
-        };
+        )
+        .unwrap();
         let problem = OrbitProblem::new(generators, &Seed::basis_vector(&f, 3, 0)).unwrap();
         let orbit = problem
             .enumerate(&OrbitOptions::default(), &mut Silent)

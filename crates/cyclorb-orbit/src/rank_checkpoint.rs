@@ -221,10 +221,10 @@ impl OrbitProblem {
 
     fn header(&self) -> [u32; 4] {
         [
-            self.generators.conductor,
-            self.generators.dimension as u32,
+            self.generators.conductor(),
+            self.generators.dimension() as u32,
             self.kernel.degree() as u32,
-            self.generators.operators.len() as u32,
+            self.generators.operators().len() as u32,
         ]
     }
 
@@ -260,7 +260,7 @@ impl OrbitProblem {
         let compute_seconds = f64::from_bits(f.u64()?);
         let mut set = LineStore::new(StoreKind::Memory, self.dimension(), self.kernel.degree());
         let mut global = Vec::with_capacity(n);
-        let generators = self.generators.operators.len() as u64;
+        let generators = self.generators.operators().len() as u64;
         let mut reader = Reader::new(&f.bytes[f.at..], self.key_len(), format!("rank {rank}"));
         for i in 0..n {
             let index = reader.varint().map_err(|e| e.to_string())?;

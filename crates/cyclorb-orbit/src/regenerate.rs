@@ -106,7 +106,7 @@ impl OrbitProblem {
             let Some((start, parent_keys)) = holder else {
                 return Err(bad_record(i));
             };
-            if generator >= self.generators.operators.len() {
+            if generator >= self.generators.operators().len() {
                 return Err(bad_record(i));
             }
             ws.load_stored(parent_keys, parent - start)

@@ -5,8 +5,8 @@ use cyclorb_field::Cyc;
 use cyclorb_matrix::Matrix;
 use serde::{Deserialize, Serialize};
 
-use crate::generators::GeneratorSet;
 use crate::poincare::PoincareSum;
+use cyclorb_matrix::GeneratorSet;
 
 /// One non-zero entry of a matrix over the basis, keyed by the labels of its row and
 /// column (for a theory: the comb-basis label tuples `a=(…) b=(…) x=(…)`).
@@ -117,10 +117,10 @@ fn loop_label(basis_label: &str) -> Option<String> {
 /// B as a modular invariant over the labels: only at genus 1, with G = I (then the comb
 /// basis is orthonormal and B's entries are the multiplicities M_ab of Z = Σ M_ab χ_a χ̄_b).
 fn modular_invariant(b: &Matrix, gens: &GeneratorSet) -> Option<ModularInvariantReport> {
-    if gens.genus != Some(1) || gens.form.is_some() {
+    if gens.genus() != Some(1) || gens.form().is_some() {
         return None;
     }
-    let labels = (0..gens.dimension)
+    let labels = (0..gens.dimension())
         .map(|i| loop_label(&gens.label(i)))
         .collect::<Option<Vec<String>>>()?;
     Some(ModularInvariantReport {

@@ -283,7 +283,7 @@ impl Workspace {
 fn singular(problem: &OrbitProblem, generator: usize) -> OrbitError {
     OrbitError::Invalid(format!(
         "generator {} maps a line to zero: it is not invertible",
-        problem.generators.names[generator]
+        problem.generators.names()[generator]
     ))
 }
 
@@ -347,7 +347,7 @@ impl OrbitProblem {
         generator: usize,
     ) -> Result<Outcome, OrbitError> {
         let line = ws.source_line(self)?;
-        let image = self.generators.operators[generator].apply(&self.field, line)?;
+        let image = self.generators.operators()[generator].apply(&self.field, line)?;
         let key =
             KeyNumbers::of_line(&self.field, &image)?.ok_or_else(|| singular(self, generator))?;
         self.lookup_key(set, pending, ws, key)
@@ -432,7 +432,7 @@ impl OrbitProblem {
             )?);
         }
         let line = ws.source_line(self)?;
-        let image = self.generators.operators[generator].apply(&self.field, line)?;
+        let image = self.generators.operators()[generator].apply(&self.field, line)?;
         KeyNumbers::of_line(&self.field, &image)?.ok_or_else(|| singular(self, generator))
     }
 

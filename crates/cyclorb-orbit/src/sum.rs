@@ -24,9 +24,9 @@ use num_traits::{One, ToPrimitive};
 
 use crate::error::{joined, OrbitError};
 use crate::numerators::Numerators;
-use crate::poly::PolyKernel;
 use crate::problem::OrbitProblem;
 use crate::store::{KeyArena, StoredKey};
+use cyclorb_field::PolyKernel;
 
 /// The integer form of G: G = G'/E with G' integral.
 struct IntegerForm {
@@ -332,7 +332,7 @@ impl<'a> Accumulator<'a> {
         let problem = self.problem;
         let field = &problem.field;
         let w = keys.key(index).to_line(field, problem.kernel.degree())?;
-        let g = problem.generators.form_diagonal(field);
+        let g = problem.generators.form_diagonal();
         let wnorm = problem.form_norm(&w, &g)?;
         if wnorm.is_zero() {
             return Err(OrbitError::Invalid(

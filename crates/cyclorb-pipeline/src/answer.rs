@@ -319,12 +319,12 @@ impl OrbitAnswer {
             }
         };
         OrbitAnswer {
-            theory: g.theory.clone(),
-            genus: g.genus,
-            dimension: g.dimension,
-            conductor: g.conductor,
-            generators: g.operators.len(),
-            generator_names: g.names.clone(),
+            theory: g.theory().map(str::to_string),
+            genus: g.genus(),
+            dimension: g.dimension(),
+            conductor: g.conductor(),
+            generators: g.operators().len(),
+            generator_names: g.names().to_vec(),
             method: OrbitMethod::Enumerate,
             orbit_size: Some(Count::from(size)),
             saturated,

@@ -33,7 +33,7 @@ use serde::{Deserialize, Serialize};
 use serde_json::Value;
 
 use crate::space::{build_space_traced, cert_generators, parse_set};
-use cyclorb_cert::GeneratorSet as CertSet;
+use cyclorb_cert::ProvedGenerators;
 
 mod claims;
 mod commutant;
@@ -238,7 +238,7 @@ pub(crate) fn check_theory_files(
 
 /// The block space, its generators as a certificate input, and the theory files the spec
 /// read.
-type Input = (BlockSpace, CertSet, Vec<(String, String)>);
+type Input = (BlockSpace, ProvedGenerators, Vec<(String, String)>);
 
 /// Rebuild the block space and its generators from the envelope.
 fn load(source: &Source) -> Result<Input, String> {

@@ -7,7 +7,7 @@
 
 use std::path::Path;
 
-use cyclorb_cert::{CommutantOptions, GeneratorSet as CertSet, StabiliserChain};
+use cyclorb_cert::{CommutantOptions, StabiliserChain};
 use cyclorb_dw::{
     builtin_group, check_relations, check_twisted_relations, subset_orbit, CyclicCocycle, DwError,
     FiniteGroup, FlatBundles, Orbitals, RelationCheck, SizeBound, TwistedBundles,
@@ -239,35 +239,31 @@ impl DwSpace {
     /// The twists as monomial matrices: row x holds ζ_{N²}^{phase} (1 when untwisted) at
     /// column p(x) ((M f)(x) = f(p(x)) up to the phase, the crate's convention), unit
     /// invariant form.
-    pub fn generator_set(&self) -> GeneratorSet {
+    pub fn generator_set(&self) -> Result<GeneratorSet, String> {
         let field = self.field();
         let d = self.dimension();
         let entry = |k: usize, x: usize| match &self.twisting {
             None => field.one(),
             Some(t) => field.zeta_pow(i64::from(t.phases[k][x])),
         };
-        GeneratorSet {
-            conductor: self.conductor(),
-            dimension: d,
-            names: self.twists.iter().map(|(c, _)| c.to_string()).collect(),
-            operators: self
-                .twists
-                .iter()
-                .enumerate()
-                .map(|(k, (_, p))| Operator::SparseRows {
-                    dim: d,
-                    rows: p
-                        .iter()
-                        .enumerate()
-                        .map(|(x, &j)| vec![(j as usize, entry(k, x))])
-                        .collect(),
-                })
-                .collect(),
-            basis_labels: (0..d).map(|i| self.bundles.describe(i)).collect(),
-            form: None,
-            theory: Some(self.spec.clone()),
-            genus: Some(self.bundles.genus() as u32),
-        }
+        let named = self
+            .twists
+            .iter()
+            .enumerate()
+            .map(|(k, (c, p))| {
+                let rows = p
+                    .iter()
+                    .enumerate()
+                    .map(|(x, &j)| vec![(j as usize, entry(k, x))])
+                    .collect();
+                (c.to_string(), Operator::SparseRows { dim: d, rows })
+            })
+            .collect();
+        let labels = (0..d).map(|i| self.bundles.describe(i)).collect();
+        let set = GeneratorSet::new(field.clone(), named)
+            .and_then(|set| set.with_basis_labels(labels))
+            .map_err(|e| e.to_string())?;
+        Ok(set.with_origin(Some(self.spec.clone()), Some(self.bundles.genus() as u32)))
     }
 
     /// The orbit problem of the vacuum: the indicator of {[φ] : φ(a_h) = 1 for all h}.
@@ -281,7 +277,7 @@ impl DwSpace {
             conductor: self.conductor(),
             vector,
         };
-        OrbitProblem::new(self.generator_set(), &seed).map_err(|e| e.to_string())
+        OrbitProblem::new(self.generator_set()?, &seed).map_err(|e| e.to_string())
     }
 
     fn permutations(&self) -> Vec<&[u32]> {
@@ -377,9 +373,7 @@ impl DwSpace {
         if self.twisting.is_none() {
             return Ok((self.orbitals()?.count(), "orbitals", Vec::new()));
         }
-        let gens = self.generator_set();
-        let named = gens.names.iter().cloned().zip(gens.operators).collect();
-        let set = CertSet::new(self.field(), named, None).map_err(|e| e.to_string())?;
+        let set = self.generator_set()?.prove().map_err(|e| e.to_string())?;
         let cert = cyclorb_cert::commutant(&set, CommutantOptions::default())
             .map_err(|e| e.to_string())?;
         cert.verify(&set).map_err(|e| e.to_string())?;

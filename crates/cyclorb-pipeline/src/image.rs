@@ -5,13 +5,13 @@
 //! imprimitive one (counted and certified, see [`crate::counting`]); the vacuum orbit, with a witness search once it passes
 //! a first bound unclosed (a certified word of infinite projective order decides
 //! "infinite"); Schreier–Sims on the saturated orbit, extended by further orbits until the
-//! faithfulness lemma applies (see [`crate::lines`]); enumeration of the image modulo
+//! faithfulness lemma applies (see [`crate::faithful_lines`]); enumeration of the image modulo
 //! scalars up to a cap. "Undecided", with the reason, when none decides within its bounds.
 //! Every certificate is re-checked before the decision is returned.
 
 use cyclorb_cert::{
-    enumerate_projective_image, image_from_lines, EnumerationCertificate, GeneratorSet,
-    ImageEnumeration, ImageOptions, PermutationImageCertificate, WitnessCertificate,
+    enumerate_projective_image, image_from_lines, EnumerationCertificate, ImageEnumeration,
+    ImageOptions, PermutationImageCertificate, ProvedGenerators, WitnessCertificate,
     WitnessOptions,
 };
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
@@ -20,8 +20,8 @@ use cyclorb_structure::{ImprimitiveReport, StructureReport};
 use serde::{Deserialize, Serialize};
 
 use crate::counting::{counted_any, Counted};
+use crate::faithful_lines::faithful_lines;
 use crate::lifted::LiftedWitness;
-use crate::lines::faithful_lines;
 use crate::witness::{search, WitnessSearch};
 
 /// The route that decided the image (the `route` key of every answer that reports one).
@@ -253,7 +253,10 @@ impl ImageDecision {
 }
 
 /// Enumerate the image modulo scalars up to the cap; the certificate is verified.
-pub fn enumerate_image(gens: &GeneratorSet, bounds: &ImageBounds) -> Result<ImageDecision, String> {
+pub fn enumerate_image(
+    gens: &ProvedGenerators,
+    bounds: &ImageBounds,
+) -> Result<ImageDecision, String> {
     match enumerate_projective_image(gens, bounds.enumeration_cap).map_err(|e| e.to_string())? {
         ImageEnumeration::Finite(cert) => {
             cert.verify(gens).map_err(|e| e.to_string())?;
@@ -279,7 +282,7 @@ pub fn enumerate_image(gens: &GeneratorSet, bounds: &ImageBounds) -> Result<Imag
 /// The image from a saturated vacuum orbit: Schreier–Sims on the orbit (extended until
 /// faithful), else — under `fallback` — enumeration; undecided when neither fits.
 pub fn image_of_orbit(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     problem: &OrbitProblem,
     orbit: &Orbit,
     bounds: &ImageBounds,
@@ -324,7 +327,7 @@ pub fn image_of_orbit(
 pub fn decide_image(
     space: &BlockSpace,
     set: GeneratingSet,
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     request: &ImageRequest,
 ) -> Result<ImageDecision, String> {
     let bounds = &request.bounds;

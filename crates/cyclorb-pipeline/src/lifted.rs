@@ -13,7 +13,7 @@
 //! certificate there.
 
 use cyclorb_cert::{
-    find_witness, GeneratorSet as CertSet, WitnessCertificate, WitnessOptions, WitnessOutcome,
+    find_witness, ProvedGenerators, WitnessCertificate, WitnessOptions, WitnessOutcome,
 };
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use cyclorb_theory::Theory;
@@ -60,7 +60,7 @@ fn factor_generators(
     factor: &Theory,
     genus: usize,
     set: GeneratingSet,
-) -> Result<(BlockSpace, CertSet), String> {
+) -> Result<(BlockSpace, ProvedGenerators), String> {
     let space = BlockSpace::new(factor.clone(), genus).map_err(|e| e.to_string())?;
     let gens = cert_generators(&space, set)?;
     Ok((space, gens))
@@ -114,7 +114,7 @@ pub fn named_factor(
     genus: usize,
     set: GeneratingSet,
     named: &FactorRef,
-) -> Result<CertSet, String> {
+) -> Result<ProvedGenerators, String> {
     let (_, factor) = factors(theory)
         .into_iter()
         .find(|(side, _)| *side == named.factor)

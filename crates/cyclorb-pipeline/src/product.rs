@@ -81,7 +81,7 @@ fn factor(spec: &str, genus: usize, set: &str, options: &OrbitOptions) -> Result
                 prefactor: prefactor.as_ref().map(Rational::to_string),
             },
         },
-        generator_names: problem.generators().names.clone(),
+        generator_names: problem.generators().names().to_vec(),
         permutations,
         prefactor,
     })

@@ -2,10 +2,9 @@
 //! space, the twists of a generating set as the orbit engine's generator set or as the
 //! certificates' generator set, and the orbit problem of the vacuum line.
 
-use cyclorb_cert::GeneratorSet as CertSet;
-use cyclorb_matrix::Operator;
-use cyclorb_mcg::{BlockSpace, Curve, GeneratingSet};
-use cyclorb_orbit::{GeneratorSet, OrbitProblem, Seed};
+use cyclorb_cert::ProvedGenerators;
+use cyclorb_mcg::{BlockSpace, GeneratingSet};
+use cyclorb_orbit::{OrbitProblem, Seed};
 
 use crate::{dw_space, proof};
 
@@ -31,23 +30,6 @@ pub fn build_space_traced(
     Ok((space, files))
 }
 
-/// The generators of a block space as the orbit engine's generator set (with basis labels,
-/// invariant form, theory and genus recorded).
-pub fn generator_set_file(space: &BlockSpace, gens: &[(Curve, Operator)]) -> GeneratorSet {
-    let theory = space.theory();
-    let unit_form = space.form().iter().all(|g| g.is_one());
-    GeneratorSet {
-        conductor: theory.field().conductor(),
-        dimension: space.dimension(),
-        names: gens.iter().map(|(c, _)| c.to_string()).collect(),
-        operators: gens.iter().map(|(_, op)| op.clone()).collect(),
-        basis_labels: space.states().iter().map(|s| s.describe(theory)).collect(),
-        form: (!unit_form).then(|| space.form().to_vec()),
-        theory: Some(theory.name().to_string()),
-        genus: Some(space.genus() as u32),
-    }
-}
-
 /// The orbit problem of a theory's vacuum line at genus g under the named generating set:
 /// the twists as a generator set, the vacuum basis vector as the seed.
 pub fn vacuum_problem(spec: &str, genus: usize, set: &str) -> Result<OrbitProblem, String> {
@@ -60,7 +42,7 @@ pub fn vacuum_problem(spec: &str, genus: usize, set: &str) -> Result<OrbitProble
 /// The orbit problem of the vacuum line of a block space under a generating set.
 pub fn vacuum_problem_of(space: &BlockSpace, set: GeneratingSet) -> Result<OrbitProblem, String> {
     let twists = space.generators(set).map_err(|e| e.to_string())?;
-    let gens = generator_set_file(space, &twists);
+    let gens = space.generator_set(&twists).map_err(|e| e.to_string())?;
     let seed = Seed::basis_vector(
         space.theory().field(),
         space.dimension(),
@@ -70,7 +52,7 @@ pub fn vacuum_problem_of(space: &BlockSpace, set: GeneratingSet) -> Result<Orbit
 }
 
 /// The twists of a generating set on a block space, as a certificate input (with the form).
-pub fn cert_generators(space: &BlockSpace, set: GeneratingSet) -> Result<CertSet, String> {
+pub fn cert_generators(space: &BlockSpace, set: GeneratingSet) -> Result<ProvedGenerators, String> {
     let gens = space.generators(set).map_err(|e| e.to_string())?;
     // the certificate routes hold every generator as a dense d × d matrix: the Cyc values
     // alone (a zero holds no heap, so this is a lower bound) are checked against the budget
@@ -88,5 +70,5 @@ pub fn cert_generators(space: &BlockSpace, set: GeneratingSet) -> Result<CertSet
         .map(|(c, op)| (c.to_string(), op))
         .collect();
     let form = Some(space.form().to_vec());
-    CertSet::new(space.theory().field().clone(), named, form).map_err(|e| e.to_string())
+    ProvedGenerators::new(space.theory().field().clone(), named, form).map_err(|e| e.to_string())
 }

@@ -4,7 +4,7 @@
 //! been re-checked.
 
 use cyclorb_cert::{
-    find_witness, GeneratorSet, WitnessCertificate, WitnessOptions, WitnessOutcome,
+    find_witness, ProvedGenerators, WitnessCertificate, WitnessOptions, WitnessOutcome,
 };
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
 
@@ -27,7 +27,7 @@ pub enum WitnessSearch {
 /// Search on `gens`, the twists of the block space, and re-check what is found: the
 /// witness, or (inner `Err`) the number of words tried without one.
 pub fn search_generators(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     options: &WitnessOptions,
 ) -> Result<Result<WitnessCertificate, usize>, String> {
     match find_witness(gens, options).map_err(|e| e.to_string())? {

@@ -1,7 +1,7 @@
 //! The commutant of the group in the monomial basis: the monomial lemma of
 //! [`crate::irreducible`] when it applies, cyclorb-cert's certificate otherwise.
 
-use cyclorb_cert::{commutant, CommutantOptions, GeneratorSet};
+use cyclorb_cert::{commutant, CommutantOptions, ProvedGenerators};
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_matrix::Operator;
 
@@ -20,7 +20,7 @@ fn monomial_generator_set(
     names: &[String],
     monomials: &[Monomial],
     diagonals: &[Vec<u32>],
-) -> Result<GeneratorSet, StructureError> {
+) -> Result<ProvedGenerators, StructureError> {
     let mut generators = Vec::new();
     for (name, g) in names.iter().zip(monomials) {
         let mut rows: Vec<Vec<(usize, Cyc)>> = vec![Vec::new(); g.degree()];
@@ -34,7 +34,7 @@ fn monomial_generator_set(
         let entries = x.iter().map(|&e| roots.power(e).clone()).collect();
         generators.push((format!("kernel{k}"), Operator::Diagonal(entries)));
     }
-    Ok(GeneratorSet::new(field.clone(), generators, None)?)
+    Ok(ProvedGenerators::new(field.clone(), generators, None)?)
 }
 
 /// The commutant: the monomial lemma when K separates the coordinates and P is

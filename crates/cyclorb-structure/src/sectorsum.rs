@@ -17,7 +17,7 @@
 //! value, P_O commuting with M and g preserving G) gives
 //! β_O = |orbit|·‖P_O v₀‖²_G / dim(⊕_{σ∈O} W_σ). So B = Σ_O β_O·Π_O with Π_O = P_O G⁻¹.
 
-use cyclorb_cert::{commutant, CommutantOptions, GeneratorSet};
+use cyclorb_cert::{commutant, CommutantOptions, ProvedGenerators};
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_matrix::{Matrix, Operator};
 use cyclorb_mcg::BlockSpace;
@@ -142,7 +142,7 @@ fn sector_commutant(
             }
         }
     }
-    let set = GeneratorSet::new(field.clone(), generators, None)?;
+    let set = ProvedGenerators::new(field.clone(), generators, None)?;
     Ok(commutant(&set, CommutantOptions { primes })?.dimension)
 }
 

@@ -1,7 +1,7 @@
 //! Hand-built generator sets shared by the tests, with their sources.
 #![allow(dead_code)]
 
-use cyclorb_cert::GeneratorSet;
+use cyclorb_cert::ProvedGenerators;
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_matrix::{LinearMap, Matrix, Operator};
 use hashbrown::HashSet;
@@ -41,9 +41,9 @@ impl ModularData {
     }
 
     /// The generator set {T (diagonal), B = S T S⁻¹ (dense)}.
-    pub fn generators(&self) -> GeneratorSet {
+    pub fn generators(&self) -> ProvedGenerators {
         let (_, b) = self.twists();
-        GeneratorSet::new(
+        ProvedGenerators::new(
             self.field.clone(),
             vec![
                 ("T".into(), Operator::Diagonal(self.t.clone())),
@@ -91,7 +91,7 @@ pub fn fibonacci() -> ModularData {
 
 /// The orbit of the line of `start` under the generators, breadth-first, lines
 /// normalised by their first non-zero coordinate (a test-side orbit search).
-pub fn line_orbit(gens: &GeneratorSet, start: Vec<Cyc>, cap: usize) -> Vec<Vec<Cyc>> {
+pub fn line_orbit(gens: &ProvedGenerators, start: Vec<Cyc>, cap: usize) -> Vec<Vec<Cyc>> {
     let f = gens.field();
     let key = |v: &[Cyc]| -> Vec<Cyc> {
         let lead = v.iter().find(|x| !x.is_zero()).unwrap();

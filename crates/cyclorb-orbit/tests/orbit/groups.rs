@@ -32,7 +32,7 @@ fn stabilizer_states_of_one_two_three_qubits() {
 #[test]
 fn permutations_of_five_coordinates() {
     let g = permutations5();
-    let f = g.field().unwrap();
+    let f = g.field().clone();
     // A transposition and a 5-cycle generate S_5 (order 120); the seed (1,2,3,4,5) has
     // distinct positive entries, so no two permutations of it span the same line.
     let problem = OrbitProblem::new(g.clone(), &seed(&f, &["1", "2", "3", "4", "5"])).unwrap();
@@ -48,7 +48,7 @@ fn permutations_of_five_coordinates() {
 #[test]
 fn a_zero_seed_and_a_wrong_length_are_refused() {
     let g = permutations5();
-    let f = g.field().unwrap();
+    let f = g.field().clone();
     let zero = Seed::basis_vector(&f, 5, 7); // index out of range: the zero vector
     assert!(OrbitProblem::new(g.clone(), &zero)
         .unwrap_err()

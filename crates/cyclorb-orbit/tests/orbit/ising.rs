@@ -66,12 +66,10 @@ fn conjugated_generating_set_gives_the_same_orbit() {
 #[test]
 fn fixture_file_and_sparse_seed_from_a_subfield() {
     let g = GeneratorSet::read(&fixture("ising-genus1.json")).unwrap();
-    assert_eq!(g, {
-        let mut h = ising_genus1();
-        h.theory = Some("ising (modular data by hand)".into());
-        h.genus = Some(1);
-        h
-    });
+    assert_eq!(
+        g,
+        ising_genus1().with_origin(Some("ising (modular data by hand)".into()), Some(1))
+    );
     // the seed file is written over Q(ζ8) ⊂ Q(ζ16)
     let seed = Seed::read(&fixture("sparse-seed.json")).unwrap();
     assert_eq!(seed.conductor, 8);

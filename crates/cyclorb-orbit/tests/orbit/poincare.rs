@@ -13,7 +13,7 @@ fn ising_in_gauge(f: &CyclotomicField, d: &[Cyc]) -> GeneratorSet {
     let dm = Matrix::diagonal(f, d);
     let dinv = Matrix::diagonal(f, &d.iter().map(|x| f.inv(x).unwrap()).collect::<Vec<_>>());
     let s = dinv.mul(f, &ising_s(f)).unwrap().mul(f, &dm).unwrap();
-    let mut g = generator_set(
+    let g = generator_set(
         16,
         3,
         vec![
@@ -21,8 +21,8 @@ fn ising_in_gauge(f: &CyclotomicField, d: &[Cyc]) -> GeneratorSet {
             ("S", Operator::Dense(s)),
         ],
     );
-    g.form = Some(d.iter().map(|x| f.mul(&f.conj(x), x).unwrap()).collect());
-    g
+    let form = d.iter().map(|x| f.mul(&f.conj(x), x).unwrap()).collect();
+    g.with_form(Some(form)).unwrap()
 }
 
 #[test]
@@ -40,7 +40,7 @@ fn non_orthonormal_gauge_gives_lambda_times_inverse_form() {
     assert_eq!(sum.scalar, Some(parse(&f, &published.prefactor)));
     assert!(sum.trace_check);
     let g_inv: Vec<Cyc> = g
-        .form
+        .form()
         .as_ref()
         .unwrap()
         .iter()
@@ -93,7 +93,7 @@ fn permutation_sums_decompose_over_identity_and_all_ones() {
     // seed (1,2,3,4,5): B_ii = 4!·Σ a² = 24·55 = 1320, B_ij = 3!·((Σ a)² − Σ a²) =
     // 6·170 = 1020, so B = 300·I + 1020·J.
     let g = permutations5();
-    let f = g.field().unwrap();
+    let f = g.field().clone();
     let identity = Matrix::identity(&f, 5);
     let ones = Matrix::from_rows(vec![vec![f.one(); 5]; 5]).unwrap();
     for (entries, a, b) in [
@@ -126,8 +126,9 @@ fn generators_that_do_not_preserve_the_form_get_no_sum() {
     // The gauge-changed Ising generators with the form left out: S' is not unitary for I
     // (|entries| scaled by 2), so the sum over lines is not defined.
     let f = field(16);
-    let mut g = ising_in_gauge(&f, &[parse(&f, "1"), parse(&f, "2"), parse(&f, "1")]);
-    g.form = None;
+    let g = ising_in_gauge(&f, &[parse(&f, "1"), parse(&f, "2"), parse(&f, "1")])
+        .with_form(None)
+        .unwrap();
     let problem = OrbitProblem::new(g.clone(), &vacuum(&g)).unwrap();
     let orbit = run(&problem, 1, 8);
     assert_eq!(orbit.len(), 24); // lines do not care about the form (Castro et al. 2012)

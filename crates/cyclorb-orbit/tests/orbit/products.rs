@@ -34,7 +34,7 @@ fn induced_permutations_are_the_actions_on_the_orbit() {
     // S_5 on the lines spanned by e_i + e_j: the transposition (0 1) and the 5-cycle act on
     // the ten 2-subsets with orders 2 and 5 (common practice).
     let g = permutations5();
-    let f = g.field().unwrap();
+    let f = g.field().clone();
     let problem = OrbitProblem::new(g, &seed(&f, &["1", "1", "0", "0", "0"])).unwrap();
     let orbit = run(&problem, 1, 3);
     let perms = problem.induced_permutations(&orbit, 2).unwrap();
@@ -74,8 +74,8 @@ fn a_product_orbit_from_its_factors_matches_enumeration() {
     // |0⟩ ⊗ |0⟩. The line ⟨v ⊗ w⟩ determines ⟨v⟩ and ⟨w⟩, so enumerating in C² ⊗ C² and
     // searching pairs of factor lines must give the same count (and the same layers).
     let one = clifford(1);
-    let f = one.field().unwrap();
-    let dense: Vec<Matrix> = one.operators.iter().map(|op| op.to_dense(&f)).collect();
+    let f = one.field().clone();
+    let dense: Vec<Matrix> = one.operators().iter().map(|op| op.to_dense(&f)).collect();
     let (h, s) = (&dense[0], &dense[1]);
     let product = generator_set(
         8,

@@ -194,13 +194,20 @@ fn checkpoints_for_other_problems_or_damaged_files_are_refused() {
     let path = stopped_checkpoint(&problem, "refuse.ckpt");
     assert_eq!(problem.read_checkpoint(&path).unwrap().len(), 200);
     // same shapes, one generator changed: S0 = diag(1, −i) instead of diag(1, i)
-    let mut g = clifford(3);
-    let f = g.field().unwrap();
-    g.operators[1] = Operator::Diagonal(
+    let g = clifford(3);
+    let f = g.field().clone();
+    let mut named: Vec<(String, Operator)> = g
+        .names()
+        .iter()
+        .cloned()
+        .zip(g.operators().iter().cloned())
+        .collect();
+    named[1].1 = Operator::Diagonal(
         (0..8)
             .map(|i| if i & 1 == 1 { parse(&f, "-i") } else { f.one() })
             .collect(),
     );
+    let g = cyclorb_orbit::GeneratorSet::new(f.clone(), named).unwrap();
     let other = OrbitProblem::new(g.clone(), &vacuum(&g)).unwrap();
     assert!(checkpoint_error(&other, &path).contains("content hash differs"));
     // same generators, another seed
@@ -237,6 +244,8 @@ fn words_print_generator_names() {
     let last = orbit.len() - 1;
     let names = problem.word_names(&orbit, last);
     assert_eq!(names.len(), orbit.layer_sizes().len() - 1);
-    assert!(names.iter().all(|n| problem.generators().names.contains(n)));
+    assert!(names
+        .iter()
+        .all(|n| problem.generators().names().contains(n)));
     assert!(problem.word_names(&orbit, 0).is_empty());
 }

@@ -8,7 +8,7 @@
 //! unknowns first; here the whole system is used), and one of them equals the dimension;
 //! when none does, the exact rank of the system over Q(ζ_n) is used. The self-adjoint basis: each element commutes and G·X = X†·G.
 
-use cyclorb_cert::{CommutantCertificate, GeneratorSet};
+use cyclorb_cert::{CommutantCertificate, ProvedGenerators};
 use cyclorb_field::PrimeReduction;
 use cyclorb_matrix::{reduce_vector, Matrix};
 
@@ -21,7 +21,7 @@ fn err(e: impl ToString) -> String {
 }
 
 /// Every matrix commutes with every generator; the name of the first that does not.
-fn commuting(gens: &GeneratorSet, matrices: &[Matrix]) -> Result<(), String> {
+fn commuting(gens: &ProvedGenerators, matrices: &[Matrix]) -> Result<(), String> {
     let field = gens.field();
     for (k, x) in matrices.iter().enumerate() {
         if x.rows() != gens.dim() || x.cols() != gens.dim() {
@@ -42,7 +42,7 @@ fn commuting(gens: &GeneratorSet, matrices: &[Matrix]) -> Result<(), String> {
 
 /// The rank of the matrices as vectors of length d²: modulo p first, exactly if short.
 fn rank(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     reduction: &PrimeReduction,
     matrices: &[Matrix],
 ) -> Result<usize, String> {
@@ -60,7 +60,7 @@ fn rank(
 }
 
 /// The rank modulo p of the whole system X·A − A·X = 0 in the d² unknowns X_ij.
-fn rank_mod_p(gens: &GeneratorSet, reduction: &PrimeReduction) -> Result<usize, String> {
+fn rank_mod_p(gens: &ProvedGenerators, reduction: &PrimeReduction) -> Result<usize, String> {
     let d = gens.dim();
     let p = reduction.prime();
     let mut echelon = EchelonModP::new(p);
@@ -82,7 +82,7 @@ fn rank_mod_p(gens: &GeneratorSet, reduction: &PrimeReduction) -> Result<usize, 
 }
 
 /// The exact rank of the commutant system over Q(ζ_n).
-fn exact_rank(gens: &GeneratorSet) -> Result<usize, String> {
+fn exact_rank(gens: &ProvedGenerators) -> Result<usize, String> {
     let field = gens.field();
     let d = gens.dim();
     let mut rows = Vec::new();
@@ -106,7 +106,7 @@ fn exact_rank(gens: &GeneratorSet) -> Result<usize, String> {
 
 /// Every claim of a commutant certificate.
 pub fn check(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     c: &CommutantCertificate,
     claims: &mut Claims,
 ) -> Result<(), Stop> {

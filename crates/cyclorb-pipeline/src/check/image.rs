@@ -18,8 +18,8 @@
 use std::collections::HashSet;
 
 use cyclorb_cert::{
-    permutation_group_summary, EnumerationCertificate, GeneratorSet, ImageOptions,
-    PermutationImageCertificate,
+    permutation_group_summary, EnumerationCertificate, ImageOptions, PermutationImageCertificate,
+    ProvedGenerators,
 };
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_matrix::Matrix;
@@ -29,8 +29,8 @@ use num_bigint::BigUint;
 use serde_json::Value;
 
 use super::{body_as, Claims, Envelope, Stop};
-use crate::lines::faithful_lines;
-use crate::space::{generator_set_file, parse_set};
+use crate::faithful_lines::faithful_lines;
+use crate::space::parse_set;
 
 fn err(e: impl ToString) -> String {
     e.to_string()
@@ -52,7 +52,7 @@ fn scaled_by_last(field: &CyclotomicField, m: &Matrix) -> Result<Vec<Cyc>, Strin
 }
 
 /// The size of the group modulo scalars, listed by left multiplication; `None` past `cap`.
-fn group_size(gens: &GeneratorSet, cap: u64) -> Result<Option<u64>, String> {
+fn group_size(gens: &ProvedGenerators, cap: u64) -> Result<Option<u64>, String> {
     let field = gens.field();
     let identity = Matrix::identity(field, gens.dim());
     let mut seen: HashSet<Vec<Cyc>> = HashSet::new();
@@ -74,7 +74,7 @@ fn group_size(gens: &GeneratorSet, cap: u64) -> Result<Option<u64>, String> {
 
 /// The claim of an enumeration certificate.
 pub fn enumeration(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     c: &EnumerationCertificate,
     claims: &mut Claims,
 ) -> Result<(), Stop> {
@@ -128,7 +128,7 @@ fn decimal(text: &str, what: &str) -> Result<BigUint, String> {
 pub fn orbit(
     space: &BlockSpace,
     envelope: &Envelope,
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     body: &Value,
     file: &str,
     claims: &mut Claims,
@@ -144,8 +144,10 @@ pub fn orbit(
         space.dimension(),
         space.basis().vacuum(),
     );
-    let problem = OrbitProblem::new(generator_set_file(space, &twists), &seed)
+    let twist_set = space
+        .generator_set(&twists)
         .map_err(|e| Stop::Invalid(e.to_string()))?;
+    let problem = OrbitProblem::new(twist_set, &seed).map_err(|e| Stop::Invalid(e.to_string()))?;
     let threads = std::thread::available_parallelism().map_or(1, |n| n.get());
     let options = OrbitOptions {
         limit: Some(c.lines),

@@ -12,7 +12,7 @@
 
 use std::collections::HashSet;
 
-use cyclorb_cert::{permutation_group_summary, GeneratorSet};
+use cyclorb_cert::{permutation_group_summary, ProvedGenerators};
 use cyclorb_field::{Cyc, PrimeReduction};
 use cyclorb_matrix::reduce_vector;
 use cyclorb_mcg::BlockSpace;
@@ -71,7 +71,7 @@ fn support_orbit(perms: &[Vec<u32>], start: Vec<u32>, cap: usize) -> Option<usiz
 /// Every claim of a structure certificate.
 pub fn check(
     space: &BlockSpace,
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     c: &StructureCertificate,
     claims: &mut Claims,
 ) -> Result<(), Stop> {

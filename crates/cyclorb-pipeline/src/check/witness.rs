@@ -10,7 +10,7 @@
 //! its distinct Galois conjugates. The cyclotomic factors are multiplied back, and the rest
 //! is tested against every Φ_k of degree φ(k) ≤ deg(rest) by division in Z[x].
 
-use cyclorb_cert::{GeneratorSet, WitnessCertificate};
+use cyclorb_cert::{ProvedGenerators, WitnessCertificate};
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_matrix::Matrix;
 
@@ -25,7 +25,7 @@ fn err(e: impl ToString) -> String {
 }
 
 /// The word's matrix: the product of the letters' matrices, read left to right.
-fn word_matrix(gens: &GeneratorSet, word: &[usize]) -> Result<Matrix, String> {
+fn word_matrix(gens: &ProvedGenerators, word: &[usize]) -> Result<Matrix, String> {
     let field = gens.field();
     let mut w = Matrix::identity(field, gens.dim());
     for &a in word {
@@ -105,7 +105,11 @@ fn ratio_polynomial(field: &CyclotomicField, f: &[Cyc]) -> Result<Vec<Cyc>, Stri
 }
 
 /// Every claim of a witness certificate.
-pub fn check(gens: &GeneratorSet, w: &WitnessCertificate, claims: &mut Claims) -> Result<(), Stop> {
+pub fn check(
+    gens: &ProvedGenerators,
+    w: &WitnessCertificate,
+    claims: &mut Claims,
+) -> Result<(), Stop> {
     let field = gens.field();
     let mut word = Vec::new();
     claims.claim("word", || {

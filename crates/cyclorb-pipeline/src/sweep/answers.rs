@@ -9,7 +9,7 @@
 //! cap. A witness is searched for only when the image is not already proven finite, on the
 //! factors of a Deligne product first (a witness there lifts, see `lifted`).
 
-use cyclorb_cert::{commutant, CommutantOptions, CommutantRoute, GeneratorSet, WitnessOptions};
+use cyclorb_cert::{commutant, CommutantOptions, CommutantRoute, ProvedGenerators, WitnessOptions};
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
 use cyclorb_orbit::{Orbit, OrbitProblem};
 
@@ -24,15 +24,16 @@ use super::plan::{ImageBounds, WitnessBounds};
 use super::result::{CommutantAnswer, ImageAnswer, WitnessAnswer};
 
 /// The orbit problem's generators as the certificates' generator set (with the form).
-pub fn certificate_generators(problem: &OrbitProblem) -> Result<GeneratorSet, String> {
-    let g = problem.generators();
-    let named = g.names.iter().cloned().zip(g.operators.iter().cloned());
-    GeneratorSet::new(problem.field().clone(), named.collect(), g.form.clone())
+pub fn certificate_generators(problem: &OrbitProblem) -> Result<ProvedGenerators, String> {
+    problem
+        .generators()
+        .clone()
+        .prove()
         .map_err(|e| format!("generators: {e}"))
 }
 
 /// The certified commutant dimension.
-pub fn commutant_answer(gens: &GeneratorSet) -> Result<CommutantAnswer, String> {
+pub fn commutant_answer(gens: &ProvedGenerators) -> Result<CommutantAnswer, String> {
     let cert =
         commutant(gens, CommutantOptions::default()).map_err(|e| format!("commutant: {e}"))?;
     Ok(CommutantAnswer {
@@ -84,7 +85,7 @@ fn answer_of(decision: ImageDecision, before: Option<String>) -> ImageAnswer {
 /// The order of the projective image, when a certificate decides it within the bounds:
 /// Schreier–Sims on the saturated orbit (`crate::image`), else enumeration.
 pub fn image_answer(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     problem: &OrbitProblem,
     orbit: &Orbit,
     bounds: &ImageBounds,
@@ -154,7 +155,7 @@ pub fn lifted_witness_answer(
 /// A certified word of infinite projective order, searched within the bounds on the
 /// generators themselves.
 pub fn witness_answer(
-    gens: &GeneratorSet,
+    gens: &ProvedGenerators,
     bounds: &WitnessBounds,
 ) -> Result<WitnessAnswer, String> {
     match search_generators(gens, &witness_options(bounds)).map_err(|e| format!("witness: {e}"))? {

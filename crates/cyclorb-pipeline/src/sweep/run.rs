@@ -293,7 +293,7 @@ pub fn execute(
     }
     let problem = run.space.problem(run.set)?;
     let g = problem.generators();
-    let mut result = blank_result(run, g.conductor, g.names.clone(), settings);
+    let mut result = blank_result(run, g.conductor(), g.names().to_vec(), settings);
     let mut earlier_seconds = 0.0;
     let mut orbit_found = None;
     let counting = match &run.space {

@@ -15,7 +15,6 @@ use super::plan::{Answer, Entry, Limits, Plan, PlanError};
 use crate::dw_space::{is_dw, DwSpace};
 use crate::method::OrbitMethod;
 use crate::proof;
-use crate::space::generator_set_file;
 
 /// One run of the sweep: a theory at a genus with its answers and caps.
 pub struct PlannedRun {
@@ -98,8 +97,11 @@ impl RunSpace {
                 let twists = space.generators(set).map_err(|e| e.to_string())?;
                 let field = space.theory().field();
                 let seed = Seed::basis_vector(field, space.dimension(), space.basis().vacuum());
-                OrbitProblem::new(generator_set_file(space, &twists), &seed)
-                    .map_err(|e| e.to_string())
+                OrbitProblem::new(
+                    space.generator_set(&twists).map_err(|e| e.to_string())?,
+                    &seed,
+                )
+                .map_err(|e| e.to_string())
             }
             RunSpace::Dw(space) => space.problem(),
         }

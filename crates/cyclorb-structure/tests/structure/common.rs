@@ -1,7 +1,7 @@
 //! Shared helpers: block spaces, and an independent brute-force orbit of the vacuum line
 //! (breadth-first search over exact lines) to compare the counts with.
 
-use cyclorb_cert::GeneratorSet;
+use cyclorb_cert::ProvedGenerators;
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_matrix::LinearMap;
 use cyclorb_mcg::{BlockSpace, GeneratingSet};
@@ -20,14 +20,14 @@ pub fn report(space: &BlockSpace) -> StructureReport {
 }
 
 /// The Humphries twists as a generator set with the invariant form.
-pub fn generator_set(space: &BlockSpace) -> GeneratorSet {
+pub fn generator_set(space: &BlockSpace) -> ProvedGenerators {
     let generators = space
         .generators(GeneratingSet::Humphries)
         .unwrap()
         .into_iter()
         .map(|(curve, op)| (curve.to_string(), op))
         .collect();
-    GeneratorSet::new(
+    ProvedGenerators::new(
         space.theory().field().clone(),
         generators,
         Some(space.form().to_vec()),

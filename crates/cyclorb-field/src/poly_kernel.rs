@@ -8,13 +8,16 @@
 //!
 //! Every routine here is exact: it either returns the correct integers or `None` when a
 //! machine word would overflow, and the caller then uses exact `Cyc` arithmetic.
+//!
+//! The orbit engine compiles its generators with these maps (an entry a of a generator acts
+//! on a key's coefficient vector by M(a)) and conjugates keys with C for the Poincaré sum.
 
-use cyclorb_field::CyclotomicField;
+use crate::context::CyclotomicField;
 use num_bigint::BigInt;
 
 /// The residues of ζ^e and the conjugation matrix, in sparse form.
 #[derive(Debug, Clone)]
-pub(crate) struct PolyKernel {
+pub struct PolyKernel {
     n: usize,
     phi: usize,
     /// `residues[e]` = the non-zero (t, c) with ζ^e = Σ c ζ^t, for 0 ≤ e < n.
@@ -27,7 +30,7 @@ pub(crate) struct PolyKernel {
 
 impl PolyKernel {
     /// The kernel of a field context.
-    pub(crate) fn new(field: &CyclotomicField) -> PolyKernel {
+    pub fn new(field: &CyclotomicField) -> PolyKernel {
         let n = field.conductor() as usize;
         let phi = field.degree();
         let residues: Vec<Vec<(usize, i64)>> = (0..n.max(1))
@@ -60,18 +63,18 @@ impl PolyKernel {
     }
 
     /// The degree φ(n).
-    pub(crate) fn degree(&self) -> usize {
+    pub fn degree(&self) -> usize {
         self.phi
     }
 
     /// The residue of ζ^e (sparse), for any e ≥ 0.
-    pub(crate) fn residue(&self, e: usize) -> &[(usize, i64)] {
+    pub fn residue(&self, e: usize) -> &[(usize, i64)] {
         &self.residues[e % self.n]
     }
 
     /// The non-zero entries (t, s, M[t][s]) of the multiplication matrix of `a`, or `None`
     /// when an entry does not fit an `i64`.
-    pub(crate) fn mult_entries(&self, a: &[i64]) -> Option<Vec<(usize, usize, i64)>> {
+    pub fn mult_entries(&self, a: &[i64]) -> Option<Vec<(usize, usize, i64)>> {
         let mut dense = vec![0i128; self.phi * self.phi];
         self.mult_matrix(a, &mut dense)?;
         let mut out = Vec::new();
@@ -88,7 +91,7 @@ impl PolyKernel {
 
     /// The dense multiplication matrix of `a` (row t, column s, row-major) into `out`
     /// (length φ²); `None` on `i128` overflow.
-    pub(crate) fn mult_matrix(&self, a: &[i64], out: &mut [i128]) -> Option<()> {
+    pub fn mult_matrix(&self, a: &[i64], out: &mut [i128]) -> Option<()> {
         out.fill(0);
         for (u, &au) in a.iter().enumerate() {
             if au == 0 {
@@ -105,17 +108,17 @@ impl PolyKernel {
     }
 
     /// Column s of the conjugation matrix: conj(ζ^s) = Σ c·ζ^t over the returned (t, c).
-    pub(crate) fn conj_column(&self, s: usize) -> &[(usize, i64)] {
+    pub fn conj_column(&self, s: usize) -> &[(usize, i64)] {
         &self.conj_columns[s]
     }
 
     /// A bound on the coefficients of conj(a): max_t Σ_s |C[t][s]| · max|a|.
-    pub(crate) fn conj_bound(&self, max_abs: u64) -> u128 {
+    pub fn conj_bound(&self, max_abs: u64) -> u128 {
         self.conj_row_bound.saturating_mul(max_abs as u128)
     }
 
     /// Fold an unreduced product (exponents 0..len) modulo Φ_n, exactly.
-    pub(crate) fn fold_big(&self, wide: &[BigInt]) -> Vec<BigInt> {
+    pub fn fold_big(&self, wide: &[BigInt]) -> Vec<BigInt> {
         let mut low = vec![BigInt::from(0); self.phi];
         for (e, c) in wide.iter().enumerate() {
             if num_traits::Zero::is_zero(c) {

@@ -48,12 +48,42 @@
 use std::fmt::Write as _;
 use std::path::Path;
 
+use std::fmt;
+
 use cyclorb_field::{Cyc, CyclotomicField, UniqueKeys};
-use cyclorb_matrix::{Block, Matrix, Operator};
 use serde_json::{Map, Value};
 
-use crate::error::{FormatError, OrbitError};
-use crate::generators::{GeneratorSet, Seed};
+use crate::generators::GeneratorSet;
+use crate::seed::Seed;
+use crate::{Block, Matrix, Operator};
+
+/// A generator-set or seed file that cannot be read or written: which file, where in it, and
+/// why.
+///
+/// `place` is a JSON path such as `generators[3].rows[7]`, or `line 4 column 17` for a
+/// JSON syntax error, or empty when the problem concerns the whole file (it cannot be read,
+/// or it is too large for the memory budget).
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct FormatError {
+    /// The file (its path as given, or a description such as `<memory>`).
+    pub file: String,
+    /// Where in the file.
+    pub place: String,
+    /// What is wrong there.
+    pub reason: String,
+}
+
+impl fmt::Display for FormatError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        if self.place.is_empty() {
+            write!(f, "{}: {}", self.file, self.reason)
+        } else {
+            write!(f, "{}: at {}: {}", self.file, self.place, self.reason)
+        }
+    }
+}
+
+impl std::error::Error for FormatError {}
 
 /// The `format` value of a generator-set file.
 pub const GENERATORS_FORMAT: &str = "cyclorb-generators";
@@ -299,27 +329,22 @@ impl Reader<'_> {
         if list.is_empty() {
             return Err(self.err("generators", "no generators"));
         }
-        let mut names = Vec::with_capacity(list.len());
-        let mut operators = Vec::with_capacity(list.len());
+        let mut generators: Vec<(String, Operator)> = Vec::with_capacity(list.len());
         for (g, item) in list.iter().enumerate() {
             let place = format!("generators[{g}]");
             let (name, op) = self.operator(&field, item, dimension, &place)?;
-            if names.contains(&name) {
+            if generators.iter().any(|(n, _)| *n == name) {
                 return Err(self.err(&join(&place, "name"), format!("repeated name \"{name}\"")));
             }
-            names.push(name);
-            operators.push(op);
+            generators.push((name, op));
         }
-        Ok(GeneratorSet {
-            conductor: field.conductor(),
-            dimension,
-            names,
-            operators,
-            basis_labels,
-            form,
-            theory,
-            genus,
-        })
+        let set = GeneratorSet::new(field, generators)
+            .map_err(|e| self.err("generators", e.to_string()))?
+            .with_form(form)
+            .map_err(|e| self.err("form", e.to_string()))?
+            .with_basis_labels(basis_labels)
+            .map_err(|e| self.err("basis", e.to_string()))?;
+        Ok(set.with_origin(theory, genus))
     }
 
     fn operator(
@@ -523,23 +548,26 @@ fn kind(v: &Value) -> &'static str {
 fn read_file<T>(
     path: &Path,
     parse: fn(&str, &str) -> Result<T, FormatError>,
-) -> Result<T, OrbitError> {
+) -> Result<T, FormatError> {
+    let whole_file = |reason: String| FormatError {
+        file: path.display().to_string(),
+        place: String::new(),
+        reason,
+    };
     let size = std::fs::metadata(path).map_or(0, |m| m.len());
     cyclorb_field::check_budget(
         || format!("reading {}", path.display()),
         size.saturating_mul(PER_TEXT_BYTE),
     )
-    .map_err(|e| OrbitError::Invalid(e.to_string()))?;
-    let text = std::fs::read_to_string(path).map_err(|e| OrbitError::Io {
-        path: path.display().to_string(),
-        reason: e.to_string(),
-    })?;
-    Ok(parse(&text, &path.display().to_string())?)
+    .map_err(|e| whole_file(e.to_string()))?;
+    let text = std::fs::read_to_string(path).map_err(|e| whole_file(e.to_string()))?;
+    parse(&text, &path.display().to_string())
 }
 
-fn write_text(path: &Path, text: &str) -> Result<(), OrbitError> {
-    std::fs::write(path, text).map_err(|e| OrbitError::Io {
-        path: path.display().to_string(),
+fn write_text(path: &Path, text: &str) -> Result<(), FormatError> {
+    std::fs::write(path, text).map_err(|e| FormatError {
+        file: path.display().to_string(),
+        place: String::new(),
         reason: e.to_string(),
     })
 }
@@ -561,8 +589,9 @@ fn matrix_rows(m: &Matrix, indent: &str) -> String {
     format!("[\n{}]", rows.join(",\n"))
 }
 
-/// The JSON text of one generator (used by the writer and by the content hash).
-pub(crate) fn operator_json(name: &str, op: &Operator) -> String {
+/// The JSON text of one named generator, as the generator-set file writes it (also what
+/// content hashes of a set are taken over).
+pub fn operator_json(name: &str, op: &Operator) -> String {
     let head = format!("{{\"name\": {}, ", quoted(name));
     match op {
         Operator::Diagonal(d) => format!(
@@ -616,7 +645,7 @@ impl GeneratorSet {
     }
 
     /// Read a generator-set file.
-    pub fn read(path: &Path) -> Result<GeneratorSet, OrbitError> {
+    pub fn read(path: &Path) -> Result<GeneratorSet, FormatError> {
         read_file(path, GeneratorSet::from_json)
     }
 
@@ -626,19 +655,19 @@ impl GeneratorSet {
         let _ = writeln!(s, "{{");
         let _ = writeln!(s, "  \"format\": {},", quoted(GENERATORS_FORMAT));
         let _ = writeln!(s, "  \"version\": {FORMAT_VERSION},");
-        let _ = writeln!(s, "  \"conductor\": {},", self.conductor);
-        let _ = writeln!(s, "  \"dimension\": {},", self.dimension);
-        if let Some(t) = &self.theory {
+        let _ = writeln!(s, "  \"conductor\": {},", self.conductor());
+        let _ = writeln!(s, "  \"dimension\": {},", self.dimension());
+        if let Some(t) = self.theory() {
             let _ = writeln!(s, "  \"theory\": {},", quoted(t));
         }
-        if let Some(g) = self.genus {
+        if let Some(g) = self.genus() {
             let _ = writeln!(s, "  \"genus\": {g},");
         }
-        if !self.basis_labels.is_empty() {
-            let labels: Vec<String> = self.basis_labels.iter().map(|l| quoted(l)).collect();
+        if !self.basis_labels().is_empty() {
+            let labels: Vec<String> = self.basis_labels().iter().map(|l| quoted(l)).collect();
             let _ = writeln!(s, "  \"basis\": [{}],", labels.join(", "));
         }
-        match &self.form {
+        match self.form() {
             Some(g) => {
                 let _ = writeln!(s, "  \"form\": {},", element_list(g));
             }
@@ -647,9 +676,9 @@ impl GeneratorSet {
             }
         }
         let ops: Vec<String> = self
-            .names
+            .names()
             .iter()
-            .zip(&self.operators)
+            .zip(self.operators())
             .map(|(n, op)| format!("    {}", operator_json(n, op)))
             .collect();
         let _ = writeln!(s, "  \"generators\": [\n{}\n  ]", ops.join(",\n"));
@@ -658,7 +687,7 @@ impl GeneratorSet {
     }
 
     /// Write the set to a file.
-    pub fn write(&self, path: &Path) -> Result<(), OrbitError> {
+    pub fn write(&self, path: &Path) -> Result<(), FormatError> {
         write_text(path, &self.to_json())
     }
 }
@@ -670,7 +699,7 @@ impl Seed {
     }
 
     /// Read a seed file.
-    pub fn read(path: &Path) -> Result<Seed, OrbitError> {
+    pub fn read(path: &Path) -> Result<Seed, FormatError> {
         read_file(path, Seed::from_json)
     }
 
@@ -685,7 +714,7 @@ impl Seed {
     }
 
     /// Write the seed to a file.
-    pub fn write(&self, path: &Path) -> Result<(), OrbitError> {
+    pub fn write(&self, path: &Path) -> Result<(), FormatError> {
         write_text(path, &self.to_json())
     }
 }
