@@ -1,13 +1,13 @@
 //! Commutant certificates on hand-built generator sets.
 
-mod common;
+mod sample_sets;
 
 use std::time::Instant;
 
-use common::*;
 use cyclorb_cert::{commutant, CertError, CommutantOptions, CommutantRoute, ProvedGenerators};
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::{Matrix, Operator};
+use sample_sets::*;
 
 #[test]
 fn the_modular_data_used_here_is_right() {

@@ -1,17 +1,17 @@
 //! Image orders by the two routes, on the genus-1 Ising and Fibonacci representations and
 //! on Clifford groups.
 
-mod common;
 #[path = "../../../tests/outside/mod.rs"]
 mod outside;
+mod sample_sets;
 
-use common::*;
 use cyclorb_cert::{
     enumerate_projective_image, image_from_lines, image_from_orbit, induced_permutations,
     CertError, ImageEnumeration, ImageOptions, PermutationImageCertificate, ProvedGenerators,
 };
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::{Matrix, Operator};
+use sample_sets::*;
 
 fn enumerated_order(gens: &ProvedGenerators, cap: usize) -> u64 {
     match enumerate_projective_image(gens, cap).unwrap() {

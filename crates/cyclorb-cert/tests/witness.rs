@@ -1,14 +1,14 @@
 //! Witnesses of infinite image, and their absence for a finite image.
 
-mod common;
+mod sample_sets;
 
-use common::*;
 use cyclorb_cert::{
     find_witness, polynomial_text, CertError, CyclotomicFactor, ProvedGenerators,
     WitnessCertificate, WitnessOptions, WitnessOutcome,
 };
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::{Matrix, Operator};
+use sample_sets::*;
 
 fn found(outcome: WitnessOutcome) -> WitnessCertificate {
     match outcome {

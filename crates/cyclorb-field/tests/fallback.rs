@@ -1,14 +1,14 @@
 //! The machine-word fast paths against a slow big-integer model written in the test helpers
-//! (`common::Slow`: schoolbook products and long division by Φ_n on `BigInt`, sharing no code
+//! (`random_and_reference::Slow`: schoolbook products and long division by Φ_n on `BigInt`, sharing no code
 //! with the crate), with inputs chosen to overflow every tier: coefficients and denominators
 //! near the i64 limits, products that overflow i128, sums that land exactly on i64::MIN.
 //! Source of truth: the definition of arithmetic in Z[x]/(Φ_n) (common practice).
 
-mod common;
+mod random_and_reference;
 
-use common::{assert_canonical, element, iters, nonzero, Repr, Rng, Slow};
 use cyclorb_field::{Cyc, CyclotomicField};
 use num_bigint::BigInt;
+use random_and_reference::{assert_canonical, element, iters, nonzero, Repr, Rng, Slow};
 
 /// A representation for one operand: the given one or, half of the time, another, so that
 /// mixed small/edge/big operations are covered.

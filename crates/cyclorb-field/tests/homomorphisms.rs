@@ -7,15 +7,15 @@
 //! ch. VI §3). The norm is multiplicative and the trace additive and Q-linear (any algebraic
 //! number theory text; common practice).
 
-mod common;
+mod random_and_reference;
 
-use common::{iters, Repr, CONDUCTORS};
+use random_and_reference::{iters, Repr, CONDUCTORS};
 
 mod laws {
     use cyclorb_field::{common_conductor, Cyc, CyclotomicField, FieldError};
     use num_bigint::BigInt;
 
-    use crate::common::{assert_canonical, element, nonzero, Repr, Rng};
+    use crate::random_and_reference::{assert_canonical, element, nonzero, Repr, Rng};
 
     fn setup(n: u32, repr: Repr, law: &str) -> (CyclotomicField, Rng) {
         let field = CyclotomicField::new(n).expect("supported conductor");

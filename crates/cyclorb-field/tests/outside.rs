@@ -1,6 +1,6 @@
 //! Checks against values from outside this project, the source named beside each.
 
-mod common;
+mod random_and_reference;
 
 use cyclorb_field::int_poly::cyclotomic;
 use cyclorb_field::{Cyc, CyclotomicField};
@@ -102,7 +102,7 @@ fn cyclotomic_polynomial_heights() {
 #[test]
 fn cyclotomic_polynomials_agree_with_the_recursion() {
     for n in 1..=150u32 {
-        let expected: Vec<BigInt> = common::reference_cyclotomic(n);
+        let expected: Vec<BigInt> = random_and_reference::reference_cyclotomic(n);
         let got: Vec<BigInt> = cyclotomic(n as u64);
         assert_eq!(got, expected, "Φ_{n}");
     }

@@ -7,9 +7,9 @@
 //! e.g. Lang, Algebra, ch. II and V; common practice). Every check compares two different
 //! computations of one value, so a wrong kernel makes it fail.
 
-mod common;
+mod random_and_reference;
 
-use common::{iters, Repr};
+use random_and_reference::{iters, Repr};
 
 mod laws {
     use std::collections::hash_map::DefaultHasher;
@@ -18,7 +18,7 @@ mod laws {
     use cyclorb_field::{Cyc, CyclotomicField, DotAccumulator, FieldError};
     use num_bigint::BigInt;
 
-    use crate::common::{assert_canonical, element, nonzero, Repr, Rng};
+    use crate::random_and_reference::{assert_canonical, element, nonzero, Repr, Rng};
 
     fn setup(n: u32, repr: Repr, law: &str) -> (CyclotomicField, Rng) {
         let field = CyclotomicField::new(n).expect("supported conductor");

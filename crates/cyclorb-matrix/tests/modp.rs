@@ -3,12 +3,12 @@
 //! minor; e.g. the modular rank algorithms of Cohen, A Course in Computational Algebraic
 //! Number Theory, §2.4 — from memory).
 
-mod common;
+mod random_matrices;
 
-use common::*;
 use cyclorb_field::{CyclotomicField, FieldError, PrimeReduction};
 use cyclorb_matrix::{reduce_vector, Matrix, MatrixError, ModpMatrix};
 use num_bigint::BigInt;
+use random_matrices::*;
 
 #[test]
 fn rank_mod_p_bounds_the_exact_rank_from_below() {

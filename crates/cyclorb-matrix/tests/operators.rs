@@ -1,11 +1,11 @@
 //! The sparse operator forms agree with their dense forms (apply, adjoint, inverse, form
 //! invariance), over Q(ζ_n) for n = 1, 5, 16, 60 on seeded random data.
 
-mod common;
+mod random_matrices;
 
-use common::*;
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_matrix::{Block, LinearMap, Matrix, MatrixError, Operator};
+use random_matrices::*;
 
 /// A random operator of each form on Q(ζ_n)^dim.
 fn random_operators(f: &CyclotomicField, rng: &mut XorShift, dim: usize) -> Vec<Operator> {

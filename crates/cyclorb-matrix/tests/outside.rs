@@ -1,12 +1,12 @@
 //! Checks against values known from outside this code: the discrete Fourier matrix, the
 //! Vandermonde determinant, companion matrices, and the Ising modular data.
 
-mod common;
+mod random_matrices;
 
-use common::*;
 use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_matrix::Matrix;
 use num_bigint::BigInt;
+use random_matrices::*;
 
 /// F_m with entries ζ_m^{jk}, in Q(ζ_m).
 fn fourier(f: &CyclotomicField, m: usize) -> Matrix {

@@ -2,11 +2,11 @@
 //! CYCLORB_TEST_ITERS). Each identity is a textbook theorem of linear algebra over a field
 //! (e.g. Hoffman & Kunze, Linear Algebra; Lang, Algebra, ch. XIII–XV), named beside its test.
 
-mod common;
+mod random_matrices;
 
-use common::*;
 use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::{Matrix, MatrixError};
+use random_matrices::*;
 
 fn fields() -> Vec<CyclotomicField> {
     CONDUCTORS

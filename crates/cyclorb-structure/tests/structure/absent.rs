@@ -2,7 +2,7 @@
 
 use cyclorb_structure::{analyse, StructureError, StructureOptions};
 
-use crate::common::space;
+use crate::reference_orbits::space;
 
 fn absent(spec: &str, genus: usize) -> String {
     match analyse(&space(spec, genus), &StructureOptions::default()) {

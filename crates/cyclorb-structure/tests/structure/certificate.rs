@@ -3,7 +3,7 @@
 
 use cyclorb_structure::{recheck, CommutantProof, StructureCertificate, StructureError};
 
-use crate::common::{report, space};
+use crate::reference_orbits::{report, space};
 
 fn rejected(result: Result<(), StructureError>) -> bool {
     result.is_err()
@@ -77,7 +77,10 @@ fn tampering_is_caught() {
     assert!(rejected(recheck(&space, &garbage)));
 
     // a certificate for genus 2 does not describe genus 1
-    assert!(rejected(recheck(&crate::common::space("ising", 1), &good)));
+    assert!(rejected(recheck(
+        &crate::reference_orbits::space("ising", 1),
+        &good
+    )));
 }
 
 #[test]
@@ -91,7 +94,7 @@ fn a_reducible_representation_carries_a_solved_commutant() {
         panic!("the lemma cannot prove a reducible representation irreducible");
     };
     let direct = cyclorb_cert::commutant(
-        &crate::common::generator_set(&space),
+        &crate::reference_orbits::generator_set(&space),
         cyclorb_cert::CommutantOptions::default(),
     )
     .unwrap();
@@ -118,7 +121,7 @@ fn the_monomial_lemma_agrees_with_the_direct_commutant() {
             CommutantProof::Monomial { .. }
         ));
         let direct = cyclorb_cert::commutant(
-            &crate::common::generator_set(&space),
+            &crate::reference_orbits::generator_set(&space),
             cyclorb_cert::CommutantOptions::default(),
         )
         .unwrap();

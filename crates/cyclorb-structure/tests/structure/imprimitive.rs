@@ -6,7 +6,7 @@ use cyclorb_structure::{
     analyse_imprimitive, recheck_imprimitive, ImprimitiveOptions, ImprimitiveReport, StructureError,
 };
 
-use crate::common::{brute_orbit, lagrangians, report, space, symplectic_order};
+use crate::reference_orbits::{brute_orbit, lagrangians, report, space, symplectic_order};
 
 fn imprimitive(spec: &str, genus: usize) -> ImprimitiveReport {
     analyse_imprimitive(&space(spec, genus), &ImprimitiveOptions::default()).unwrap()
@@ -27,7 +27,7 @@ fn sector_dimensions(g: u32) -> Vec<(usize, usize)> {
 fn su2_level_four_genus_one_matches_brute_force() {
     let s = space("su2:4", 1);
     let r = imprimitive("su2:4", 1);
-    // the brute-force breadth-first search over exact lines (tests/structure/common.rs)
+    // the brute-force breadth-first search over exact lines (tests/structure/reference_orbits.rs)
     assert_eq!(r.orbit_size, brute_orbit(&s).len().to_string());
     assert_eq!(r.sector_dimensions, sector_dimensions(1));
     // Sp(2, F_2) = SL(2, F_2) ≅ S_3 permutes the three twisted sectors

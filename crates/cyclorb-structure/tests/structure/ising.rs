@@ -5,7 +5,7 @@ use cyclorb_cert::{enumerate_projective_image, image_from_orbit, ImageEnumeratio
 use cyclorb_mcg::GeneratingSet;
 use cyclorb_structure::{analyse, StructureOptions};
 
-use crate::common::{
+use crate::reference_orbits::{
     brute_orbit, brute_prefactor, generator_set, lagrangians, report, space, symplectic_order,
 };
 

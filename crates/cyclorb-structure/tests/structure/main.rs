@@ -2,7 +2,7 @@
 
 mod absent;
 mod certificate;
-mod common;
 mod groups;
 mod imprimitive;
 mod ising;
+mod reference_orbits;
