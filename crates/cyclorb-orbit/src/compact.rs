@@ -34,14 +34,14 @@ pub(crate) const WINDOW_LAYERS: usize = 5;
 const MAX_LOAD: (usize, usize) = (4, 5);
 
 /// The keys of one layer, from element `start` on.
-#[derive(Debug, Clone)]
+#[derive(Debug)]
 struct LayerKeys {
     start: usize,
     keys: KeyArena,
 }
 
 /// Records, fingerprints, the index table and the window of recent keys.
-#[derive(Debug, Clone)]
+#[derive(Debug)]
 pub(crate) struct CompactSet {
     blocks: usize,
     phi: usize,
@@ -82,13 +82,18 @@ impl CompactSet {
         }
     }
 
-    /// Keep the keys of finished layers in files in `dir` from now on (the layer being built
-    /// stays in memory until it is finished).
+    /// Keep the keys in files in `dir` from now on: finished layers' keys go there whole,
+    /// the layer being built streams its keys there (up to [`crate::store::STREAM_BUFFER`]
+    /// bytes of them in memory).
     pub(crate) fn spill_to(&mut self, dir: &Path) -> std::io::Result<()> {
         self.spill = Some(dir.to_path_buf());
         let building = self.window.len().saturating_sub(1);
-        for layer in self.window.iter_mut().take(building) {
-            layer.keys.spill(dir)?;
+        for (i, layer) in self.window.iter_mut().enumerate() {
+            if i < building {
+                layer.keys.spill(dir)?;
+            } else {
+                layer.keys.stream_to(dir)?;
+            }
         }
         Ok(())
     }
@@ -104,8 +109,8 @@ impl CompactSet {
     }
 
     /// Start a new layer of keys at element `start` (the next one inserted), dropping the
-    /// keys of the layer that leaves the window; the finished layer goes to disk when the
-    /// store spills.
+    /// keys of the layer that leaves the window; when the store spills, the finished layer's
+    /// last keys go to its file and the new layer streams to a file of its own.
     pub(crate) fn open_layer(&mut self, start: usize) -> std::io::Result<()> {
         if self.window.back().is_some_and(|l| l.start == start) {
             return Ok(());
@@ -113,10 +118,11 @@ impl CompactSet {
         if let (Some(dir), Some(finished)) = (&self.spill, self.window.back_mut()) {
             finished.keys.spill(dir)?;
         }
-        self.window.push_back(LayerKeys {
-            start,
-            keys: KeyArena::new(self.blocks, self.phi),
-        });
+        let mut keys = KeyArena::new(self.blocks, self.phi);
+        if let Some(dir) = &self.spill {
+            keys.stream_to(dir)?;
+        }
+        self.window.push_back(LayerKeys { start, keys });
         while self.window.len() > WINDOW_LAYERS {
             self.window.pop_front();
         }

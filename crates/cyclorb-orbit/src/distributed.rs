@@ -46,7 +46,7 @@ use crate::wire::{encode, Reader, WireCandidate};
 
 /// This rank's share of an orbit enumerated over several ranks, with the figures every
 /// rank agrees on (global size, layers, saturation).
-#[derive(Debug, Clone)]
+#[derive(Debug)]
 pub struct DistributedOrbit {
     /// The lines this rank owns (records hold global parent indices); its layer ends are
     /// the local ends of the finished layers, `processed` the start of the frontier.

@@ -134,7 +134,7 @@ impl ProgressObserver for Silent {
 }
 
 /// The lines found, in order, with their Schreier records and layers.
-#[derive(Debug, Clone)]
+#[derive(Debug)]
 pub struct Orbit {
     pub(crate) set: LineStore,
     pub(crate) processed: usize,

@@ -46,7 +46,7 @@ impl StoreKind {
 }
 
 /// The lines found so far, in one of the two stores.
-#[derive(Debug, Clone)]
+#[derive(Debug)]
 pub(crate) enum LineStore {
     Memory(OrbitSet),
     Compact(CompactSet),

@@ -1,14 +1,15 @@
-//! Keys of finished layers in files: the compact store's window on disk (`--spill DIR`).
+//! Keys in files: the compact store's window on disk (`--spill DIR`).
 //!
-//! A layer's packed keys (the encoding of the `store` module) are written once, when the
-//! layer is finished and becomes the frontier, to a file of their own in the chosen
-//! directory; the offsets stay in memory (4 bytes per key) and a key is read back with one
-//! positioned read. The file is removed when its layer leaves the window (or the store is
+//! Each layer's packed keys (the encoding of the `store` module) go to a file of their own
+//! in the chosen directory as the layer is built: they are appended in blocks of
+//! [`crate::store::STREAM_BUFFER`] bytes, and only the offsets (4 bytes per key) and the
+//! block not yet written stay in memory. A key is read back with one positioned read (the
+//! operating system's page cache serves most of them; its pages are not the process's
+//! resident memory). The file is removed when its layer leaves the window (or the store is
 //! dropped). Nothing on disk is trusted beyond the run that wrote it: the files are private
 //! scratch space, and a checkpoint never refers to them.
 
 use std::fs::{File, OpenOptions};
-use std::io::Write;
 use std::os::unix::fs::FileExt;
 use std::path::{Path, PathBuf};
 use std::sync::atomic::{AtomicU64, Ordering};
@@ -25,46 +26,41 @@ pub(crate) struct SpillFile {
 static NEXT: AtomicU64 = AtomicU64::new(0);
 
 impl SpillFile {
-    /// Write `bytes` to a new file in `dir`.
-    pub(crate) fn write(dir: &Path, bytes: &[u8]) -> std::io::Result<SpillFile> {
+    /// A new empty file in `dir`.
+    pub(crate) fn create(dir: &Path) -> std::io::Result<SpillFile> {
         let n = NEXT.fetch_add(1, Ordering::Relaxed);
         let path = dir.join(format!("cyclorb-keys-{}-{n}.bin", std::process::id()));
-        let named =
-            |e: std::io::Error| std::io::Error::new(e.kind(), format!("{}: {e}", path.display()));
-        let mut file = OpenOptions::new()
+        let file = OpenOptions::new()
             .read(true)
             .write(true)
             .create_new(true)
             .open(&path)
-            .map_err(named)?;
-        let written = file
-            .write_all(bytes)
-            .and_then(|_| file.flush())
-            .map_err(named);
-        let spilled = SpillFile {
-            path,
-            file,
-            len: bytes.len() as u64,
-        };
-        written.map(|_| spilled)
+            .map_err(|e| named(&path, e))?;
+        Ok(SpillFile { path, file, len: 0 })
     }
 
-    /// Bytes in the file.
-    pub(crate) fn len(&self) -> usize {
-        self.len as usize
+    /// Append `bytes` at the end of the file.
+    pub(crate) fn append(&mut self, bytes: &[u8]) -> std::io::Result<()> {
+        self.file
+            .write_all_at(bytes, self.len)
+            .map_err(|e| named(&self.path, e))?;
+        self.len += bytes.len() as u64;
+        Ok(())
     }
 
     /// The bytes `range` of the file into `buf`.
     pub(crate) fn read(&self, start: usize, end: usize, buf: &mut Vec<u8>) -> std::io::Result<()> {
         buf.clear();
         buf.resize(end - start, 0);
-        self.file.read_exact_at(buf, start as u64)
+        self.file
+            .read_exact_at(buf, start as u64)
+            .map_err(|e| named(&self.path, e))
     }
+}
 
-    /// The file's path (for error messages).
-    pub(crate) fn path(&self) -> &Path {
-        &self.path
-    }
+/// An I/O error that names the file.
+fn named(path: &Path, e: std::io::Error) -> std::io::Error {
+    std::io::Error::new(e.kind(), format!("{}: {e}", path.display()))
 }
 
 impl Drop for SpillFile {

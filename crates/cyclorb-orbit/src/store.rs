@@ -5,7 +5,9 @@
 //! its non-zero blocks (⌈d/8⌉ bytes), then for each non-zero block a bit mask of its non-zero
 //! coefficients (⌈φ/8⌉ bytes) followed by those coefficients. Every coefficient of a store
 //! uses one width (1, 2, 4 or 8 bytes, little-endian two's complement); the width grows, and
-//! the arena is re-encoded, the first time a key needs more. A key with a numerator beyond
+//! the arena is re-encoded, the first time a key needs more. An arena whose keys stream to a
+//! file (the compact store's `--spill`) is never re-encoded: a wider key starts a new segment
+//! of keys at the new width. A key with a numerator beyond
 //! `i64` is kept as big integers beside the arena (its encoding is the empty block mask, which
 //! no real key has). Keys are addressed by 32-bit offsets from a base per segment of keys.
 //!
@@ -13,8 +15,8 @@
 //! store stays close to its payload. A table slot holds an element index and its 32-bit
 //! fingerprint, so a probe compares fingerprints before it touches a key.
 
+use std::cell::RefCell;
 use std::path::Path;
-use std::sync::Arc;
 
 use hashbrown::{HashMap, HashTable};
 use num_bigint::BigInt;
@@ -79,12 +81,24 @@ pub(crate) enum StoredKey<'a> {
     Big(&'a [BigInt]),
 }
 
+/// Bytes of encoded keys an arena that streams to a file keeps in memory before it appends
+/// them to the file (4 MiB: reads of the newest keys, the most frequent, stay in memory).
+pub(crate) const STREAM_BUFFER: usize = 4 << 20;
+
+thread_local! {
+    /// Scratch for keys read back from a file.
+    static READ_BUFFER: RefCell<Vec<u8>> = const { RefCell::new(Vec::new()) };
+}
+
 /// Packed keys of d blocks of φ numerators.
-#[derive(Debug, Clone)]
+#[derive(Debug)]
 pub(crate) struct KeyArena {
     blocks: usize,
     phi: usize,
-    width: Width,
+    /// (first key, width) of each run of keys of one width, in order; one entry unless the
+    /// arena streams to a file and a wider key came after some were written.
+    widths: Vec<(u32, Width)>,
+    /// The encoding from byte `in_file` on (all of it when there is no file).
     bytes: Vec<u8>,
     /// Offset of key i from `bases[i >> shift]`.
     offsets: Vec<u32>,
@@ -94,8 +108,14 @@ pub(crate) struct KeyArena {
     /// Estimated heap bytes of `big`, kept as keys are added so that the size is known in
     /// constant time (it is read after every chunk).
     big_bytes: usize,
-    /// The encoded keys when they were moved to a file (`bytes` is then empty).
-    spilled: Option<Arc<SpillFile>>,
+    /// The file holding the first `in_file` bytes of the encoding, when the keys go to disk.
+    file: Option<SpillFile>,
+    in_file: usize,
+    /// Bytes held before they are appended to the file ([`STREAM_BUFFER`]).
+    buffer_limit: usize,
+    /// The first failure to append to the file (the bytes then stay in memory; the failure
+    /// is reported by the next [`KeyArena::stream_to`] or [`KeyArena::spill`]).
+    write_error: Option<String>,
 }
 
 /// Estimated heap bytes of one big key.
@@ -111,49 +131,97 @@ impl KeyArena {
         KeyArena {
             blocks,
             phi,
-            width: Width::W1,
+            widths: vec![(0, Width::W1)],
             bytes: Vec::new(),
             offsets: Vec::new(),
             bases: Vec::new(),
             shift,
             big: HashMap::new(),
             big_bytes: 0,
-            spilled: None,
+            file: None,
+            in_file: 0,
+            buffer_limit: STREAM_BUFFER,
+            write_error: None,
         }
     }
 
-    /// Move the encoded keys to a file in `dir` (the arena is finished: keys are no longer
+    /// From now on keep the encoded keys in a new file in `dir`: what is held goes there
+    /// now, and new keys are appended in blocks of [`STREAM_BUFFER`] bytes. An error from an
+    /// earlier append is reported here.
+    pub(crate) fn stream_to(&mut self, dir: &Path) -> std::io::Result<()> {
+        if self.file.is_none() {
+            self.file = Some(SpillFile::create(dir)?);
+        }
+        self.flush();
+        match &self.write_error {
+            Some(e) => Err(std::io::Error::other(e.clone())),
+            None => Ok(()),
+        }
+    }
+
+    /// Move every encoded key to a file in `dir` (the arena is finished: keys are no longer
     /// added); they are read back one key at a time.
     pub(crate) fn spill(&mut self, dir: &Path) -> std::io::Result<()> {
-        if self.spilled.is_none() {
-            self.spilled = Some(Arc::new(SpillFile::write(dir, &self.bytes)?));
-            self.bytes = Vec::new();
-        }
+        self.stream_to(dir)?;
+        self.bytes = Vec::new();
         Ok(())
     }
 
-    /// Key i, reading it from the file when the keys were spilled.
+    /// Append the bytes held to the file (when there is one and no append failed before).
+    fn flush(&mut self) {
+        let Some(file) = &mut self.file else {
+            return;
+        };
+        if self.write_error.is_some() || self.bytes.is_empty() {
+            return;
+        }
+        match file.append(&self.bytes) {
+            Ok(()) => {
+                self.in_file += self.bytes.len();
+                self.bytes.clear();
+                self.bytes
+                    .shrink_to(self.buffer_limit + self.buffer_limit / 8);
+            }
+            Err(e) => self.write_error = Some(e.to_string()),
+        }
+    }
+
+    /// The width of key i.
+    fn width_of(&self, i: usize) -> Width {
+        self.widths
+            .iter()
+            .rev()
+            .find(|(first, _)| *first as usize <= i)
+            .map_or(Width::W1, |&(_, w)| w)
+    }
+
+    /// Key i, reading it from the file when it was written there.
     pub(crate) fn get_spilled<'a>(
         &'a self,
         i: usize,
         out: &mut Numerators,
     ) -> Result<StoredKey<'a>, String> {
-        let Some(file) = &self.spilled else {
+        let start = self.start(i);
+        if start >= self.in_file {
             return Ok(self.get(i, out));
-        };
+        }
         if let Some(k) = self.big.get(&(i as u32)) {
             return Ok(StoredKey::Big(k));
         }
+        let Some(file) = &self.file else {
+            return Err(format!("key {i} is in a file that is not open"));
+        };
+        // a key is appended whole, so a key that starts in the file ends there
         let end = if i + 1 < self.len() {
             self.start(i + 1)
         } else {
-            file.len()
+            self.in_file
         };
-        let mut bytes = Vec::new();
-        file.read(self.start(i), end, &mut bytes)
-            .map_err(|e| format!("{}: {e}", file.path().display()))?;
-        self.decode_bytes(&bytes, out);
-        Ok(StoredKey::Small)
+        READ_BUFFER.with_borrow_mut(|bytes| {
+            file.read(start, end, bytes).map_err(|e| e.to_string())?;
+            self.decode_bytes(bytes, self.width_of(i), out);
+            Ok(StoredKey::Small)
+        })
     }
 
     /// Number of keys.
@@ -161,12 +229,16 @@ impl KeyArena {
         self.offsets.len()
     }
 
-    /// The current width.
+    /// The widest width of the keys held.
     pub(crate) fn width(&self) -> Width {
-        self.width
+        self.widths
+            .iter()
+            .map(|&(_, w)| w)
+            .max()
+            .unwrap_or(Width::W1)
     }
 
-    /// The encoded keys (checkpoint files).
+    /// The encoded keys (checkpoint files; an arena kept in memory has one width).
     pub(crate) fn raw_bytes(&self) -> &[u8] {
         &self.bytes
     }
@@ -190,7 +262,7 @@ impl KeyArena {
         big: Vec<(u32, Box<[BigInt]>)>,
     ) -> Option<KeyArena> {
         let mut arena = KeyArena::new(blocks, phi);
-        arena.width = width;
+        arena.widths = vec![(0, width)];
         let mut at = 0usize;
         for i in 0..count {
             arena.record_offset(i, at as u64)?;
@@ -238,7 +310,7 @@ impl KeyArena {
                 .iter()
                 .map(|b| b.count_ones())
                 .sum();
-            at += coefficient_mask + set as usize * self.width as usize;
+            at += coefficient_mask + set as usize * self.width() as usize;
         }
         (at <= bytes.len()).then_some(at)
     }
@@ -248,7 +320,7 @@ impl KeyArena {
     }
 
     fn block_mask_is_empty(&self, i: usize) -> bool {
-        let at = self.start(i);
+        let at = self.start(i) - self.in_file;
         self.bytes[at..at + self.blocks.div_ceil(8)]
             .iter()
             .all(|&b| b == 0)
@@ -262,20 +334,24 @@ impl KeyArena {
             + self.big_bytes
     }
 
-    /// Append a key.
+    /// Append a key (to the file when the arena streams and its buffer is full).
     pub(crate) fn push(&mut self, key: &KeyNumbers) {
         let index = self.len();
         if let KeyNumbers::Small(numbers) = key {
             let needed = Width::needed(numbers);
-            if needed > self.width {
+            let current = self.widths.last().map_or(Width::W1, |&(_, w)| w);
+            if needed > current && self.file.is_some() {
+                self.widths.push((index as u32, needed));
+            } else if needed > current {
                 self.widen(needed);
             }
         }
-        self.record_offset(index, self.bytes.len() as u64)
+        let width = self.widths.last().map_or(Width::W1, |&(_, w)| w);
+        self.record_offset(index, (self.in_file + self.bytes.len()) as u64)
             .expect("offsets are sized for the longest key");
         match key {
             KeyNumbers::Small(numbers) => {
-                encode_into(&mut self.bytes, self.width, self.phi, numbers);
+                encode_into(&mut self.bytes, width, self.phi, numbers);
             }
             KeyNumbers::Big(numbers) => {
                 let mask_len = self.blocks.div_ceil(8);
@@ -286,17 +362,25 @@ impl KeyArena {
                     .insert(index as u32, numbers.clone().into_boxed_slice());
             }
         }
+        if self.file.is_some() && self.bytes.len() >= self.buffer_limit {
+            self.flush();
+        }
     }
 
+    /// Re-encode the keys (all in memory) at a wider width.
     fn widen(&mut self, to: Width) {
         let mut key = Numerators::new(self.blocks * self.phi);
+        let from = self.width();
         let mut fresh = KeyArena {
-            width: to,
-            bytes: Vec::with_capacity(self.bytes.len() * (to as usize) / (self.width as usize)),
+            widths: vec![(0, to)],
+            bytes: Vec::with_capacity(self.bytes.len() * (to as usize) / (from as usize)),
             offsets: Vec::with_capacity(self.offsets.len()),
             bases: Vec::new(),
             big: HashMap::new(),
-            spilled: None,
+            file: None,
+            in_file: 0,
+            write_error: None,
+            buffer_limit: self.buffer_limit,
             ..*self
         };
         for i in 0..self.len() {
@@ -311,23 +395,25 @@ impl KeyArena {
                 encode_into(&mut fresh.bytes, to, self.phi, &key.dense);
             }
         }
-        self.bytes = fresh.bytes;
-        self.offsets = fresh.offsets;
-        self.bases = fresh.bases;
-        self.width = to;
+        self.bytes = std::mem::take(&mut fresh.bytes);
+        self.offsets = std::mem::take(&mut fresh.offsets);
+        self.bases = std::mem::take(&mut fresh.bases);
+        self.widths = vec![(0, to)];
     }
 
-    /// Key i into `out` (which must be the zero vector or hold a previous key).
+    /// Key i, held in memory, into `out` (which must be the zero vector or hold a previous
+    /// key).
     fn decode_small(&self, i: usize, out: &mut Numerators) {
-        self.decode_bytes(&self.bytes[self.start(i)..], out);
+        let at = self.start(i) - self.in_file;
+        self.decode_bytes(&self.bytes[at..], self.width_of(i), out);
     }
 
-    /// The key encoded at the start of `bytes` into `out`.
-    fn decode_bytes(&self, bytes: &[u8], out: &mut Numerators) {
+    /// The key encoded at `width` at the start of `bytes` into `out`.
+    fn decode_bytes(&self, bytes: &[u8], width: Width, out: &mut Numerators) {
         out.clear();
         let mask_len = self.blocks.div_ceil(8);
         let coefficient_mask = self.phi.div_ceil(8);
-        let w = self.width as usize;
+        let w = width as usize;
         let mut at = mask_len;
         for (byte_index, &block_bits) in bytes[..mask_len].iter().enumerate() {
             let mut bits = block_bits;
@@ -342,7 +428,7 @@ impl KeyArena {
                         let t = c * 8 + coefficient_bits.trailing_zeros() as usize;
                         coefficient_bits &= coefficient_bits - 1;
                         let v = &bytes[at..at + w];
-                        let value = match self.width {
+                        let value = match width {
                             Width::W1 => v[0] as i8 as i64,
                             Width::W2 => i16::from_le_bytes([v[0], v[1]]) as i64,
                             Width::W4 => i32::from_le_bytes([v[0], v[1], v[2], v[3]]) as i64,
@@ -356,7 +442,8 @@ impl KeyArena {
         }
     }
 
-    /// Key i: machine words into `out`, or big.
+    /// Key i, held in memory (see [`KeyArena::get_spilled`] for keys in a file): machine
+    /// words into `out`, or big.
     pub(crate) fn get<'a>(&'a self, i: usize, out: &mut Numerators) -> StoredKey<'a> {
         if !self.big.is_empty() {
             if let Some(k) = self.big.get(&(i as u32)) {
@@ -419,7 +506,7 @@ struct Slot {
 }
 
 /// The elements found so far: keys, Schreier records and the lookup table.
-#[derive(Debug, Clone)]
+#[derive(Debug)]
 pub(crate) struct OrbitSet {
     pub(crate) keys: KeyArena,
     /// Parent element of each element (u32::MAX for the seed).
@@ -556,5 +643,56 @@ mod tests {
         let mut cut = arena.raw_bytes().to_vec();
         cut.pop();
         assert!(KeyArena::from_parts(3, phi, Width::W8, cut, 5, Vec::new()).is_none());
+    }
+
+    #[test]
+    fn streamed_keys_read_back_across_flushes_and_widths() {
+        // keys of growing width (segments of W1, W2, W4, W8) and one big key, appended to a
+        // file in blocks of 40 bytes: every key reads back the same from memory or file
+        let dir = std::env::temp_dir();
+        let phi = 3;
+        let key = |i: usize| -> KeyNumbers {
+            if i == 77 {
+                return KeyNumbers::Big(vec![BigInt::from(i64::MAX) * 4; 6]);
+            }
+            let scale: i64 = match i {
+                0..=49 => 1,
+                50..=99 => 300,
+                100..=149 => 100_000,
+                _ => 10_000_000_000,
+            };
+            let x = (i as i64 % 11 - 5) * scale;
+            KeyNumbers::Small(vec![1, 0, x, 0, 0, if i % 3 == 0 { 0 } else { -x - 1 }])
+        };
+        let mut arena = KeyArena::new(2, phi);
+        arena.buffer_limit = 40;
+        arena.push(&key(0));
+        arena.stream_to(&dir).unwrap();
+        let mut out = Numerators::new(2 * phi);
+        let read = |arena: &KeyArena, i: usize, out: &mut Numerators| -> KeyNumbers {
+            match arena.get_spilled(i, out).unwrap() {
+                StoredKey::Small => KeyNumbers::Small(out.dense.clone()),
+                StoredKey::Big(b) => KeyNumbers::Big(b.to_vec()),
+            }
+        };
+        for i in 1..200 {
+            arena.push(&key(i));
+            assert!(arena.bytes.len() < 40 + 64, "the buffer is flushed");
+            for j in [0, i / 2, i.saturating_sub(1), i] {
+                assert_eq!(read(&arena, j, &mut out), key(j), "key {j} after {i}");
+            }
+        }
+        assert!(arena.in_file > 0);
+        assert_eq!(arena.width(), Width::W8);
+        assert_eq!(
+            arena.widths.len(),
+            4,
+            "one segment per width, nothing re-encoded"
+        );
+        arena.spill(&dir).unwrap();
+        assert!(arena.bytes.is_empty());
+        for i in 0..200 {
+            assert_eq!(read(&arena, i, &mut out), key(i));
+        }
     }
 }
