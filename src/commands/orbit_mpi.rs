@@ -175,20 +175,16 @@ fn refusal(args: &OrbitArgs) -> Option<&'static str> {
     None
 }
 
-/// This rank's problem and options; with `--resume BASE` alone the problem is the one this
-/// rank's checkpoint `BASE.rankR` records.
-fn set_up(
-    args: &OrbitArgs,
-    rank: usize,
-    stop: Arc<AtomicBool>,
-) -> Result<(Listing, OrbitOptions), String> {
+/// This rank's problem and options; with `--resume BASE` alone the problem is the one the
+/// checkpoint `BASE.rank0` records (every job of any number of ranks writes it).
+fn set_up(args: &OrbitArgs, stop: Arc<AtomicBool>) -> Result<(Listing, OrbitOptions), String> {
     if let Some(reason) = refusal(args) {
         return Err(reason.into());
     }
     let completed;
     let args = match &args.resume {
         Some(base) if args.spec.is_none() && args.matrices.is_none() => {
-            let path = rank_checkpoint_path(base, rank);
+            let path = rank_checkpoint_path(base, 0);
             let place = path.display().to_string();
             let origin = rank_checkpoint_origin(&path)
                 .map_err(|e| e.to_string())?
@@ -206,7 +202,7 @@ fn set_up(
 
 fn run_rank(world: &World, args: &OrbitArgs, as_json: bool, started: Instant) -> RankOutcome {
     let rank = world.rank();
-    let set_up = set_up(args, rank, Arc::new(AtomicBool::new(false)));
+    let set_up = set_up(args, Arc::new(AtomicBool::new(false)));
     // no rank goes on alone: the first collective call would wait for the others forever
     let ready = gather_numbers(world, &[u64::from(set_up.is_ok())]);
     let (listing, opts) = match set_up {
