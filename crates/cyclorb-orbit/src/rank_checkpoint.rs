@@ -21,7 +21,7 @@
 //!
 //! Reading checks the checksum first, then that the header is this problem's, that the file
 //! is this rank's of R (or, with another number of ranks, file r's of R for every r), and
-//! for every line that this rank owns it (its fingerprint is
+//! for every line that the file's rank owns it (its fingerprint is
 //! recomputed from the key), that its index grows and its record points to an earlier line
 //! with a generator of the set.
 
