@@ -224,6 +224,41 @@ fn rank_checkpoints_resume_on_another_number_of_ranks() {
             std::fs::remove_file(format!("{name}.rank{rank}")).ok();
         }
     }
+    // a one-process checkpoint (memory store), cut inside a layer, continued by two ranks
+    let single_file = format!("{base}-single");
+    let (code, v) = cyclorb_json(&[
+        "orbit",
+        "ising",
+        "--genus",
+        "2",
+        "--limit",
+        "1000",
+        "--checkpoint",
+        &single_file,
+    ]);
+    assert_eq!(code, 3, "{v}");
+    let (code, v) = mpirun_json(2, &["orbit", "--resume", &single_file]);
+    assert_eq!(code, 0, "{v}");
+    same_as_single(&v, "resuming a one-process checkpoint on 2 ranks");
+    // ... but not one of the compact store
+    let (code, v) = cyclorb_json(&[
+        "orbit",
+        "ising",
+        "--genus",
+        "2",
+        "--limit",
+        "1000",
+        "--store",
+        "compact",
+        "--checkpoint",
+        &single_file,
+    ]);
+    assert_eq!(code, 3, "{v}");
+    let out = mpirun(2, &["orbit", "--resume", &single_file]);
+    assert_eq!(out.status.code(), Some(1));
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert!(stderr.contains("compact store"), "{stderr}");
+    std::fs::remove_file(&single_file).ok();
 }
 
 #[test]

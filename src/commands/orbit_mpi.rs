@@ -12,7 +12,8 @@ use std::sync::Arc;
 use std::time::Instant;
 
 use cyclorb_orbit::{
-    gather_numbers, rank_checkpoint_origin, rank_checkpoint_path, Collective, OrbitOptions, Silent,
+    checkpoint_origin, gather_numbers, rank_checkpoint_origin, rank_checkpoint_path, Collective,
+    OrbitOptions, Silent,
 };
 use cyclorb_pipeline::listing::{Listing, Origin};
 use cyclorb_pipeline::OrbitMethod;
@@ -176,7 +177,8 @@ fn refusal(args: &OrbitArgs) -> Option<&'static str> {
 }
 
 /// This rank's problem and options; with `--resume BASE` alone the problem is the one the
-/// checkpoint `BASE.rank0` records (every job of any number of ranks writes it).
+/// checkpoint `BASE.rank0` records (every job of any number of ranks writes it), or, when
+/// there is none, the one-process checkpoint `BASE`.
 fn set_up(args: &OrbitArgs, stop: Arc<AtomicBool>) -> Result<(Listing, OrbitOptions), String> {
     if let Some(reason) = refusal(args) {
         return Err(reason.into());
@@ -184,9 +186,15 @@ fn set_up(args: &OrbitArgs, stop: Arc<AtomicBool>) -> Result<(Listing, OrbitOpti
     let completed;
     let args = match &args.resume {
         Some(base) if args.spec.is_none() && args.matrices.is_none() => {
-            let path = rank_checkpoint_path(base, 0);
+            let first = rank_checkpoint_path(base, 0);
+            // no rank files but a file BASE: a one-process checkpoint
+            let (path, recorded) = if !first.exists() && base.is_file() {
+                (base.clone(), checkpoint_origin(base))
+            } else {
+                (first.clone(), rank_checkpoint_origin(&first))
+            };
             let place = path.display().to_string();
-            let origin = rank_checkpoint_origin(&path)
+            let origin = recorded
                 .map_err(|e| e.to_string())?
                 .ok_or_else(|| format!("{place} records no problem; give SPEC --genus G"))?;
             completed = with_origin(args, Origin::from_recorded(&place, &origin)?);

@@ -306,28 +306,53 @@ impl OrbitProblem {
             set.insert(&key, fingerprint, parent, generator);
             global.push(index);
         }
-        let below = |end: usize| global.partition_point(|&g| (g as usize) < end);
-        let local_ends: Vec<usize> = first.layer_ends.iter().map(|&e| below(e)).collect();
-        let frontier = match first.layer_ends.as_slice() {
-            [.., before, _] => *before,
-            _ => 0,
-        };
-        let processed = below(frontier);
-        Ok(DistributedOrbit {
-            local: Orbit {
-                set,
-                processed,
-                layer_ends: local_ends,
-                stop: None,
-                compute_seconds: first.compute_seconds,
-            },
+        Ok(share(
+            set,
             global,
-            layer_ends: first.layer_ends,
-            total: first.total,
+            first.layer_ends,
+            first.total,
+            first.compute_seconds,
             ranks,
-            saturated: false,
-            stop: None,
-        })
+        ))
+    }
+
+    /// This rank's share, among `ranks` ranks, of the one-process checkpoint at `path`
+    /// (memory store): a line's global index is its index there. The frontier becomes the
+    /// whole last layer again; the lines of the next layer already found are the first of it
+    /// in order-key order (their parents precede the unprocessed ones), so expanding the
+    /// frontier again finds them known and numbers the others after them.
+    pub(crate) fn read_single_checkpoint_as_rank(
+        &self,
+        path: &Path,
+        ranks: usize,
+        rank: usize,
+    ) -> Result<DistributedOrbit, OrbitError> {
+        let single = self.read_checkpoint(path)?;
+        let LineStore::Memory(store) = &single.set else {
+            return Err(error(
+                path,
+                "a one-process checkpoint of the compact store cannot be continued under MPI \
+                 (a distributed run keeps every exact key); continue it in one process",
+            ));
+        };
+        let mut set = LineStore::new(StoreKind::Memory, self.dimension(), self.kernel.degree());
+        let mut global = Vec::new();
+        for i in 0..single.set.len() {
+            let key = store.keys.key(i);
+            let fingerprint = self.key_fingerprint(&key, false);
+            if owner(fingerprint, ranks) == rank {
+                set.insert(&key, fingerprint, store.parents[i], store.generators[i]);
+                global.push(i as u32);
+            }
+        }
+        Ok(share(
+            set,
+            global,
+            single.layer_ends,
+            single.set.len(),
+            single.compute_seconds,
+            ranks,
+        ))
     }
 
     /// Check and read the rank file at `path`: its header, then each line (global index,
@@ -420,6 +445,43 @@ impl OrbitProblem {
             local_ends,
             compute_seconds,
         })
+    }
+}
+
+/// A rank's state from its lines (`set`, with their increasing global indices `global`)
+/// and the global figures: its local layer ends and frontier start are the numbers of its
+/// lines below each global layer end and below the frontier's global start (the start of
+/// the last finished layer), since a local line lies in a layer exactly when its global
+/// index does.
+fn share(
+    set: LineStore,
+    global: Vec<u32>,
+    layer_ends: Vec<usize>,
+    total: usize,
+    compute_seconds: f64,
+    ranks: usize,
+) -> DistributedOrbit {
+    let below = |end: usize| global.partition_point(|&g| (g as usize) < end);
+    let local_ends: Vec<usize> = layer_ends.iter().map(|&e| below(e)).collect();
+    let frontier = match layer_ends.as_slice() {
+        [.., before, _] => *before,
+        _ => 0,
+    };
+    let processed = below(frontier);
+    DistributedOrbit {
+        local: Orbit {
+            set,
+            processed,
+            layer_ends: local_ends,
+            stop: None,
+            compute_seconds,
+        },
+        global,
+        layer_ends,
+        total,
+        ranks,
+        saturated: false,
+        stop: None,
     }
 }
 
