@@ -145,11 +145,6 @@ fn rank_checkpoints_resume_to_the_one_process_answer() {
     assert_eq!(stopped["checkpoint"], base_text.as_str());
     let command = stopped["resume_command"].as_str().unwrap();
     assert!(command.starts_with("mpirun -n 2 "), "{command}");
-    // three ranks cannot continue two ranks' files: refused, the missing file named once
-    let out = mpirun(3, &["orbit", "--resume", &base_text]);
-    assert_eq!(out.status.code(), Some(1));
-    let stderr = String::from_utf8_lossy(&out.stderr);
-    assert_eq!(stderr.matches(".rank2").count(), 1, "{stderr}");
     // `--resume BASE` alone: the problem is the one the checkpoints record
     let (code, resumed) = mpirun_json(2, &["orbit", "--resume", &base_text]);
     assert_eq!(code, 0, "{resumed}");
@@ -159,6 +154,111 @@ fn rank_checkpoints_resume_to_the_one_process_answer() {
     for rank in 0..2 {
         std::fs::remove_file(format!("{base_text}.rank{rank}")).ok();
     }
+}
+
+#[test]
+fn rank_checkpoints_resume_on_another_number_of_ranks() {
+    let base = common::temp_path("mpi-regroup");
+    let base = base.display().to_string();
+    let again = format!("{base}-again");
+    let (_, single) = cyclorb_json(&["orbit", "ising", "--genus", "2"]);
+    let same_as_single = |v: &Value, what: &str| {
+        for key in ANSWER_KEYS {
+            assert_eq!(v[key], single[key], "{key} {what}");
+        }
+    };
+    let stop_on_two = || {
+        let (code, v) = mpirun_json(
+            2,
+            &[
+                "orbit",
+                "ising",
+                "--genus",
+                "2",
+                "--limit",
+                "1000",
+                "--checkpoint",
+                &base,
+            ],
+        );
+        assert_eq!(code, 3, "{v}");
+    };
+    // two ranks' files, cut inside a layer by the limit, continued by one rank
+    stop_on_two();
+    let (code, v) = mpirun_json(1, &["orbit", "--resume", &base]);
+    assert_eq!(code, 0, "{v}");
+    same_as_single(&v, "resuming 2 ranks' files on 1");
+    // ... and by three, stopped again by a second limit, their files continued by two
+    stop_on_two();
+    let (code, v) = mpirun_json(
+        3,
+        &[
+            "orbit",
+            "--resume",
+            &base,
+            "--limit",
+            "2500",
+            "--checkpoint",
+            &again,
+        ],
+    );
+    assert_eq!(code, 3, "{v}");
+    assert_eq!(v["orbit_size"], 2500);
+    let (code, v) = mpirun_json(2, &["orbit", "--resume", &again]);
+    assert_eq!(code, 0, "{v}");
+    same_as_single(&v, "resuming 2 → 3 → 2 ranks");
+    assert_eq!(v["ranks"]["count"], 2);
+    // another problem's files are refused
+    let out = mpirun(3, &["orbit", "ising", "--genus", "1", "--resume", &base]);
+    assert_eq!(out.status.code(), Some(1));
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert!(stderr.contains("another problem"), "{stderr}");
+    // a missing rank file is named
+    std::fs::remove_file(format!("{base}.rank1")).unwrap();
+    let out = mpirun(3, &["orbit", "--resume", &base]);
+    assert_eq!(out.status.code(), Some(1));
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert!(stderr.contains(".rank1"), "{stderr}");
+    for name in [&base, &again] {
+        for rank in 0..3 {
+            std::fs::remove_file(format!("{name}.rank{rank}")).ok();
+        }
+    }
+    // a one-process checkpoint (memory store), cut inside a layer, continued by two ranks
+    let single_file = format!("{base}-single");
+    let (code, v) = cyclorb_json(&[
+        "orbit",
+        "ising",
+        "--genus",
+        "2",
+        "--limit",
+        "1000",
+        "--checkpoint",
+        &single_file,
+    ]);
+    assert_eq!(code, 3, "{v}");
+    let (code, v) = mpirun_json(2, &["orbit", "--resume", &single_file]);
+    assert_eq!(code, 0, "{v}");
+    same_as_single(&v, "resuming a one-process checkpoint on 2 ranks");
+    // ... but not one of the compact store
+    let (code, v) = cyclorb_json(&[
+        "orbit",
+        "ising",
+        "--genus",
+        "2",
+        "--limit",
+        "1000",
+        "--store",
+        "compact",
+        "--checkpoint",
+        &single_file,
+    ]);
+    assert_eq!(code, 3, "{v}");
+    let out = mpirun(2, &["orbit", "--resume", &single_file]);
+    assert_eq!(out.status.code(), Some(1));
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert!(stderr.contains("compact store"), "{stderr}");
+    std::fs::remove_file(&single_file).ok();
 }
 
 #[test]

@@ -12,7 +12,8 @@ use std::sync::Arc;
 use std::time::Instant;
 
 use cyclorb_orbit::{
-    gather_numbers, rank_checkpoint_origin, rank_checkpoint_path, Collective, OrbitOptions, Silent,
+    checkpoint_origin, gather_numbers, rank_checkpoint_origin, rank_checkpoint_path, Collective,
+    OrbitOptions, Silent,
 };
 use cyclorb_pipeline::listing::{Listing, Origin};
 use cyclorb_pipeline::OrbitMethod;
@@ -175,22 +176,25 @@ fn refusal(args: &OrbitArgs) -> Option<&'static str> {
     None
 }
 
-/// This rank's problem and options; with `--resume BASE` alone the problem is the one this
-/// rank's checkpoint `BASE.rankR` records.
-fn set_up(
-    args: &OrbitArgs,
-    rank: usize,
-    stop: Arc<AtomicBool>,
-) -> Result<(Listing, OrbitOptions), String> {
+/// This rank's problem and options; with `--resume BASE` alone the problem is the one the
+/// checkpoint `BASE.rank0` records (every job of any number of ranks writes it), or, when
+/// there is none, the one-process checkpoint `BASE`.
+fn set_up(args: &OrbitArgs, stop: Arc<AtomicBool>) -> Result<(Listing, OrbitOptions), String> {
     if let Some(reason) = refusal(args) {
         return Err(reason.into());
     }
     let completed;
     let args = match &args.resume {
         Some(base) if args.spec.is_none() && args.matrices.is_none() => {
-            let path = rank_checkpoint_path(base, rank);
+            let first = rank_checkpoint_path(base, 0);
+            // no rank files but a file BASE: a one-process checkpoint
+            let (path, recorded) = if !first.exists() && base.is_file() {
+                (base.clone(), checkpoint_origin(base))
+            } else {
+                (first.clone(), rank_checkpoint_origin(&first))
+            };
             let place = path.display().to_string();
-            let origin = rank_checkpoint_origin(&path)
+            let origin = recorded
                 .map_err(|e| e.to_string())?
                 .ok_or_else(|| format!("{place} records no problem; give SPEC --genus G"))?;
             completed = with_origin(args, Origin::from_recorded(&place, &origin)?);
@@ -206,7 +210,7 @@ fn set_up(
 
 fn run_rank(world: &World, args: &OrbitArgs, as_json: bool, started: Instant) -> RankOutcome {
     let rank = world.rank();
-    let set_up = set_up(args, rank, Arc::new(AtomicBool::new(false)));
+    let set_up = set_up(args, Arc::new(AtomicBool::new(false)));
     // no rank goes on alone: the first collective call would wait for the others forever
     let ready = gather_numbers(world, &[u64::from(set_up.is_ok())]);
     let (listing, opts) = match set_up {

@@ -38,7 +38,7 @@ use crate::key::KeyNumbers;
 use crate::numerators::Numerators;
 use crate::poincare::PoincareSum;
 use crate::problem::OrbitProblem;
-use crate::rank_checkpoint::rank_checkpoint_path;
+use crate::rank_checkpoint::{rank_checkpoint_path, rank_checkpoint_ranks};
 use crate::regenerate::layer_ranges;
 use crate::set::{LineStore, StoreKind};
 use crate::step::Workspace;
@@ -188,8 +188,11 @@ impl OrbitProblem {
         self.extend_distributed(orbit, comm, options, observer)
     }
 
-    /// Continue the distributed enumeration whose rank checkpoints are `base.rankR` (written
-    /// with the same number of ranks) to the identical answer.
+    /// Continue the distributed enumeration whose rank checkpoints are `base.rankR` to the
+    /// identical answer. The number of ranks that wrote them is read from `base.rank0`; with
+    /// another number of ranks every rank reads all the old files and keeps the lines it
+    /// now owns. When there is no `base.rank0` but a file `base`, that is a one-process
+    /// checkpoint (memory store), shared out in the same way.
     pub fn resume_distributed(
         &self,
         base: &Path,
@@ -197,8 +200,19 @@ impl OrbitProblem {
         options: &OrbitOptions,
         observer: &mut dyn ProgressObserver,
     ) -> Result<DistributedOrbit, OrbitError> {
+        let first = rank_checkpoint_path(base, 0);
         let path = rank_checkpoint_path(base, comm.rank());
-        let read = self.read_rank_checkpoint(&path, comm.size(), comm.rank());
+        let read = if !first.exists() && base.is_file() {
+            self.read_single_checkpoint_as_rank(base, comm.size(), comm.rank())
+        } else {
+            rank_checkpoint_ranks(&first).and_then(|old| {
+                if old == comm.size() {
+                    self.read_rank_checkpoint(&path, comm.size(), comm.rank())
+                } else {
+                    self.read_regrouped_checkpoints(base, old, comm.size(), comm.rank())
+                }
+            })
+        };
         let mine = match &read {
             Ok(o) => [1, o.total as u64, o.layer_ends.len() as u64],
             Err(_) => [0, 0, 0],

@@ -1,6 +1,8 @@
 //! Checkpoints of a distributed enumeration: one file per rank, `BASE.rankR`, written by
-//! every rank at the same finished layer (or at a stop), so that the job resumes with the
-//! same number of ranks to the identical answer.
+//! every rank at the same finished layer (or at a stop), so that the job resumes to the
+//! identical answer with the same number of ranks (each rank reads its own file) or with
+//! another number (each rank reads every old file and keeps the lines it now owns: records
+//! hold global indices, so nothing else changes with the owner map).
 //!
 //! Layout (integers little-endian unless said; "varint" is LEB128):
 //!
@@ -18,7 +20,8 @@
 //! | FNV-1a 128 of every byte above | u128 |
 //!
 //! Reading checks the checksum first, then that the header is this problem's, that the file
-//! is this rank's of R, and for every line that this rank owns it (its fingerprint is
+//! is this rank's of R (or, with another number of ranks, file r's of R for every r), and
+//! for every line that the file's rank owns it (its fingerprint is
 //! recomputed from the key), that its index grows and its record points to an earlier line
 //! with a generator of the set.
 
@@ -32,6 +35,7 @@ use crate::collective::owner;
 use crate::distributed::DistributedOrbit;
 use crate::engine::Orbit;
 use crate::error::OrbitError;
+use crate::key::KeyNumbers;
 use crate::problem::OrbitProblem;
 use crate::set::{LineStore, StoreKind};
 use crate::store::KeyArena;
@@ -203,22 +207,6 @@ impl OrbitProblem {
         Ok(())
     }
 
-    /// Read rank `rank`'s checkpoint of a job of `ranks` ranks.
-    pub(crate) fn read_rank_checkpoint(
-        &self,
-        path: &Path,
-        ranks: usize,
-        rank: usize,
-    ) -> Result<DistributedOrbit, OrbitError> {
-        let bytes = checked_bytes(path)?;
-        let mut f = Fields {
-            bytes: &bytes,
-            at: 0,
-        };
-        self.read_rank_state(&mut f, ranks, rank)
-            .map_err(|e| error(path, e))
-    }
-
     fn header(&self) -> [u32; 4] {
         [
             self.generators.conductor(),
@@ -228,12 +216,166 @@ impl OrbitProblem {
         ]
     }
 
+    /// Read rank `rank`'s checkpoint of a job of `ranks` ranks.
+    pub(crate) fn read_rank_checkpoint(
+        &self,
+        path: &Path,
+        ranks: usize,
+        rank: usize,
+    ) -> Result<DistributedOrbit, OrbitError> {
+        let mut set = LineStore::new(StoreKind::Memory, self.dimension(), self.kernel.degree());
+        let mut global = Vec::new();
+        let head = self.read_rank_file(path, |index, key, fingerprint, parent, generator| {
+            set.insert(key, fingerprint, parent, generator);
+            global.push(index);
+        })?;
+        if (head.ranks, head.rank) != (ranks, rank) {
+            return Err(error(
+                path,
+                format!(
+                    "written by rank {} of {}, read as rank {rank} of {ranks}",
+                    head.rank, head.ranks
+                ),
+            ));
+        }
+        Ok(DistributedOrbit {
+            local: Orbit {
+                set,
+                processed: head.processed,
+                layer_ends: head.local_ends,
+                stop: None,
+                compute_seconds: head.compute_seconds,
+            },
+            global,
+            layer_ends: head.layer_ends,
+            total: head.total,
+            ranks,
+            saturated: false,
+            stop: None,
+        })
+    }
+
+    /// This rank's share, among `ranks` ranks, of the state checkpointed by a job of
+    /// `old_ranks` ranks in `base.rank0` … : every old file is read, the lines that this
+    /// rank now owns are kept in order of their global indices, and the local layer ends
+    /// and frontier start follow from those indices (the frontier is the last finished
+    /// layer, and a local line lies in a layer exactly when its global index does).
+    pub(crate) fn read_regrouped_checkpoints(
+        &self,
+        base: &Path,
+        old_ranks: usize,
+        ranks: usize,
+        rank: usize,
+    ) -> Result<DistributedOrbit, OrbitError> {
+        let mut kept: Vec<(u32, KeyNumbers, u64, u32, u16)> = Vec::new();
+        let mut first: Option<RankHeader> = None;
+        for r in 0..old_ranks {
+            let path = rank_checkpoint_path(base, r);
+            let head =
+                self.read_rank_file(&path, |index, key, fingerprint, parent, generator| {
+                    if owner(fingerprint, ranks) == rank {
+                        kept.push((index, key.clone(), fingerprint, parent, generator));
+                    }
+                })?;
+            if (head.ranks, head.rank) != (old_ranks, r) {
+                return Err(error(
+                    &path,
+                    format!(
+                        "written by rank {} of {}, expected rank {r} of {old_ranks}",
+                        head.rank, head.ranks
+                    ),
+                ));
+            }
+            match &first {
+                None => first = Some(head),
+                Some(f) if (f.total, &f.layer_ends) != (head.total, &head.layer_ends) => {
+                    return Err(error(
+                        &path,
+                        "written at another layer than the other ranks' files (a job killed \
+                         while writing them); no common state to resume from",
+                    ));
+                }
+                Some(_) => {}
+            }
+        }
+        let first = first.ok_or_else(|| error(base, "no rank files (0 ranks)"))?;
+        kept.sort_unstable_by_key(|line| line.0);
+        let mut set = LineStore::new(StoreKind::Memory, self.dimension(), self.kernel.degree());
+        let mut global = Vec::with_capacity(kept.len());
+        for (index, key, fingerprint, parent, generator) in kept {
+            set.insert(&key, fingerprint, parent, generator);
+            global.push(index);
+        }
+        Ok(share(
+            set,
+            global,
+            first.layer_ends,
+            first.total,
+            first.compute_seconds,
+            ranks,
+        ))
+    }
+
+    /// This rank's share, among `ranks` ranks, of the one-process checkpoint at `path`
+    /// (memory store): a line's global index is its index there. The frontier becomes the
+    /// whole last layer again; the lines of the next layer already found are the first of it
+    /// in order-key order (their parents precede the unprocessed ones), so expanding the
+    /// frontier again finds them known and numbers the others after them.
+    pub(crate) fn read_single_checkpoint_as_rank(
+        &self,
+        path: &Path,
+        ranks: usize,
+        rank: usize,
+    ) -> Result<DistributedOrbit, OrbitError> {
+        let single = self.read_checkpoint(path)?;
+        let LineStore::Memory(store) = &single.set else {
+            return Err(error(
+                path,
+                "a one-process checkpoint of the compact store cannot be continued under MPI \
+                 (a distributed run keeps every exact key); continue it in one process",
+            ));
+        };
+        let mut set = LineStore::new(StoreKind::Memory, self.dimension(), self.kernel.degree());
+        let mut global = Vec::new();
+        for i in 0..single.set.len() {
+            let key = store.keys.key(i);
+            let fingerprint = self.key_fingerprint(&key, false);
+            if owner(fingerprint, ranks) == rank {
+                set.insert(&key, fingerprint, store.parents[i], store.generators[i]);
+                global.push(i as u32);
+            }
+        }
+        Ok(share(
+            set,
+            global,
+            single.layer_ends,
+            single.set.len(),
+            single.compute_seconds,
+            ranks,
+        ))
+    }
+
+    /// Check and read the rank file at `path`: its header, then each line (global index,
+    /// key, fingerprint, parent's global index, generator) handed to `line` in file order.
+    fn read_rank_file(
+        &self,
+        path: &Path,
+        line: impl FnMut(u32, &KeyNumbers, u64, u32, u16),
+    ) -> Result<RankHeader, OrbitError> {
+        let bytes = checked_bytes(path)?;
+        let mut f = Fields {
+            bytes: &bytes,
+            at: 0,
+        };
+        self.read_rank_state(&mut f, line)
+            .map_err(|e| error(path, e))
+    }
+
     fn read_rank_state(
         &self,
         f: &mut Fields<'_>,
-        ranks: usize,
-        rank: usize,
-    ) -> Result<DistributedOrbit, String> {
+        mut line_at: impl FnMut(u32, &KeyNumbers, u64, u32, u16),
+    ) -> Result<RankHeader, String> {
         read_origin(f)?;
         let header = [f.u32()?, f.u32()?, f.u32()?, f.u32()?];
         if header != self.header() {
@@ -245,12 +387,9 @@ impl OrbitProblem {
         if hash != self.content_hash() {
             return Err("written for other generators or another seed".into());
         }
-        let (their_ranks, their_rank) = (f.u32()? as usize, f.u32()? as usize);
-        if (their_ranks, their_rank) != (ranks, rank) {
-            return Err(format!(
-                "written by rank {their_rank} of {their_ranks}; resume with the same number of \
-                 ranks (mpirun -n {their_ranks})"
-            ));
+        let (ranks, rank) = (f.u32()? as usize, f.u32()? as usize);
+        if ranks == 0 || rank >= ranks {
+            return Err(format!("rank {rank} of {ranks} is out of range"));
         }
         let total = f.count(u64::from(u32::MAX), "line count")?;
         let layer_ends = f.ends(total, "global layer ends")?;
@@ -258,10 +397,9 @@ impl OrbitProblem {
         let processed = f.count(n as u64, "frontier start")?;
         let local_ends = f.ends(n, "local layer ends")?;
         let compute_seconds = f64::from_bits(f.u64()?);
-        let mut set = LineStore::new(StoreKind::Memory, self.dimension(), self.kernel.degree());
-        let mut global = Vec::with_capacity(n);
         let generators = self.generators.operators().len() as u64;
         let mut reader = Reader::new(&f.bytes[f.at..], self.key_len(), format!("rank {rank}"));
+        let mut last: Option<u64> = None;
         for i in 0..n {
             let index = reader.varint().map_err(|e| e.to_string())?;
             let line = reader
@@ -270,9 +408,7 @@ impl OrbitProblem {
                 .ok_or_else(|| format!("{n} lines announced, {i} found"))?;
             let (parent, generator) = (line.order >> 16, line.order & 0xffff);
             let seed = index == 0 && parent == u64::from(u32::MAX) && generator == 0xffff;
-            let grows = global
-                .last()
-                .map_or(true, |&last: &u32| index > u64::from(last));
+            let grows = last.map_or(true, |last| index > last);
             if index >= total as u64
                 || !grows
                 || !(seed || parent < index && generator < generators)
@@ -285,8 +421,14 @@ impl OrbitProblem {
             if owner(fingerprint, ranks) != rank {
                 return Err(format!("line {i} belongs to another rank"));
             }
-            set.insert(&line.key, fingerprint, parent as u32, generator as u16);
-            global.push(index as u32);
+            line_at(
+                index as u32,
+                &line.key,
+                fingerprint,
+                parent as u32,
+                generator as u16,
+            );
+            last = Some(index);
         }
         if !reader.at_end() {
             return Err("unexpected bytes after the lines".into());
@@ -294,20 +436,77 @@ impl OrbitProblem {
         if local_ends.last().is_some_and(|&e| e > n) || local_ends.last() < Some(&processed) {
             return Err("the frontier lies outside the local layers".into());
         }
-        Ok(DistributedOrbit {
-            local: Orbit {
-                set,
-                processed,
-                layer_ends: local_ends,
-                stop: None,
-                compute_seconds,
-            },
-            global,
-            layer_ends,
-            total,
+        Ok(RankHeader {
             ranks,
-            saturated: false,
-            stop: None,
+            rank,
+            total,
+            layer_ends,
+            processed,
+            local_ends,
+            compute_seconds,
         })
     }
+}
+
+/// A rank's state from its lines (`set`, with their increasing global indices `global`)
+/// and the global figures: its local layer ends and frontier start are the numbers of its
+/// lines below each global layer end and below the frontier's global start (the start of
+/// the last finished layer), since a local line lies in a layer exactly when its global
+/// index does.
+fn share(
+    set: LineStore,
+    global: Vec<u32>,
+    layer_ends: Vec<usize>,
+    total: usize,
+    compute_seconds: f64,
+    ranks: usize,
+) -> DistributedOrbit {
+    let below = |end: usize| global.partition_point(|&g| (g as usize) < end);
+    let local_ends: Vec<usize> = layer_ends.iter().map(|&e| below(e)).collect();
+    let frontier = match layer_ends.as_slice() {
+        [.., before, _] => *before,
+        _ => 0,
+    };
+    let processed = below(frontier);
+    DistributedOrbit {
+        local: Orbit {
+            set,
+            processed,
+            layer_ends: local_ends,
+            stop: None,
+            compute_seconds,
+        },
+        global,
+        layer_ends,
+        total,
+        ranks,
+        saturated: false,
+        stop: None,
+    }
+}
+
+/// The fixed fields of a rank file.
+struct RankHeader {
+    ranks: usize,
+    rank: usize,
+    total: usize,
+    layer_ends: Vec<usize>,
+    processed: usize,
+    local_ends: Vec<usize>,
+    compute_seconds: f64,
+}
+
+/// The number of ranks of the job that wrote rank file `path`.
+pub(crate) fn rank_checkpoint_ranks(path: &Path) -> Result<usize, OrbitError> {
+    let bytes = checked_bytes(path)?;
+    let mut f = Fields {
+        bytes: &bytes,
+        at: 0,
+    };
+    let ranks = (|| -> Result<usize, String> {
+        read_origin(&mut f)?;
+        f.take(4 * 4 + 16)?;
+        Ok(f.u32()? as usize)
+    })();
+    ranks.map_err(|e| error(path, e))
 }
