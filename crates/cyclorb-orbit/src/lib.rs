@@ -90,6 +90,7 @@ mod error;
 mod fingerprint;
 mod format;
 mod generators;
+mod insert;
 mod invertible;
 mod key;
 mod numerators;

@@ -11,7 +11,9 @@
 //!
 //! The arena and the record vectors grow by an eighth at a time (not by doubling), so the
 //! store stays close to its payload. A table slot holds an element index and its 32-bit
-//! fingerprint, so a probe compares fingerprints before it touches a key.
+//! fingerprint, so a probe compares fingerprints before it touches a key. The table is split
+//! into [`SHARDS`] tables by fingerprint ([`shard_of`]), so that threads can index the new
+//! lines of a chunk at the same time, each in its own shards (`crate::insert`).
 
 use std::path::Path;
 use std::sync::Arc;
@@ -20,6 +22,7 @@ use hashbrown::{HashMap, HashTable};
 use num_bigint::BigInt;
 
 use crate::fingerprint::bucket_hash;
+use crate::insert::{shard_of, SHARDS};
 use crate::key::KeyNumbers;
 use crate::numerators::Numerators;
 use crate::spill::SpillFile;
@@ -288,6 +291,33 @@ impl KeyArena {
         }
     }
 
+    /// Encode a machine-word key at the arena's present width into `out`, for
+    /// [`Self::push_encoded`] later (another thread may do the encoding); `None` (nothing
+    /// written) when the key is big or needs a wider width: then [`Self::push`] it.
+    pub(crate) fn encode_detached(&self, key: &KeyNumbers, out: &mut Vec<u8>) -> Option<Width> {
+        match key {
+            KeyNumbers::Small(numbers) if Width::needed(numbers) <= self.width => {
+                encode_into(out, self.width, self.phi, numbers);
+                Some(self.width)
+            }
+            _ => None,
+        }
+    }
+
+    /// Append a key that [`Self::encode_detached`] encoded at `width`; `false` (nothing
+    /// appended) when the arena has been widened since, so the caller pushes the key itself.
+    pub(crate) fn push_encoded(&mut self, width: Width, bytes: &[u8]) -> bool {
+        if width != self.width {
+            return false;
+        }
+        let index = self.len();
+        self.record_offset(index, self.bytes.len() as u64)
+            .expect("offsets are sized for the longest key");
+        reserve_gently(&mut self.bytes, bytes.len());
+        self.bytes.extend_from_slice(bytes);
+        true
+    }
+
     fn widen(&mut self, to: Width) {
         let mut key = Numerators::new(self.blocks * self.phi);
         let mut fresh = KeyArena {
@@ -413,9 +443,17 @@ fn encode_into(bytes: &mut Vec<u8>, width: Width, phi: usize, numbers: &[i64]) {
 
 /// A hash-table slot: an element and its fingerprint.
 #[derive(Debug, Clone, Copy)]
-struct Slot {
+pub(crate) struct Slot {
     index: u32,
     fingerprint: u32,
+}
+
+/// Index element `index` in the shard table its fingerprint belongs to.
+pub(crate) fn place(table: &mut HashTable<Slot>, index: u32, fingerprint: u32) {
+    let slot = Slot { index, fingerprint };
+    table.insert_unique(bucket_hash(fingerprint as u64), slot, |s| {
+        bucket_hash(s.fingerprint as u64)
+    });
 }
 
 /// The elements found so far: keys, Schreier records and the lookup table.
@@ -426,7 +464,8 @@ pub(crate) struct OrbitSet {
     pub(crate) parents: Vec<u32>,
     /// Generator that maps the parent to the element (u16::MAX for the seed).
     pub(crate) generators: Vec<u16>,
-    table: HashTable<Slot>,
+    /// The lookup table, one per shard of fingerprints.
+    tables: Vec<HashTable<Slot>>,
 }
 
 impl OrbitSet {
@@ -435,7 +474,7 @@ impl OrbitSet {
             keys: KeyArena::new(blocks, phi),
             parents: Vec::new(),
             generators: Vec::new(),
-            table: HashTable::new(),
+            tables: (0..SHARDS).map(|_| HashTable::new()).collect(),
         }
     }
 
@@ -446,21 +485,24 @@ impl OrbitSet {
         generators: Vec<u16>,
         fingerprints: Vec<u32>,
     ) -> OrbitSet {
-        let mut table = HashTable::with_capacity(fingerprints.len());
+        let mut counts = vec![0usize; SHARDS];
+        for &fingerprint in &fingerprints {
+            counts[shard_of(fingerprint as u64)] += 1;
+        }
+        let mut tables: Vec<HashTable<Slot>> =
+            counts.into_iter().map(HashTable::with_capacity).collect();
         for (i, &fingerprint) in fingerprints.iter().enumerate() {
-            let slot = Slot {
-                index: i as u32,
+            place(
+                &mut tables[shard_of(fingerprint as u64)],
+                i as u32,
                 fingerprint,
-            };
-            table.insert_unique(bucket_hash(fingerprint as u64), slot, |s| {
-                bucket_hash(s.fingerprint as u64)
-            });
+            );
         }
         OrbitSet {
             keys,
             parents,
             generators,
-            table,
+            tables,
         }
     }
 
@@ -475,7 +517,7 @@ impl OrbitSet {
         fingerprint: u32,
         mut same: impl FnMut(usize) -> bool,
     ) -> Option<u32> {
-        self.table
+        self.tables[shard_of(fingerprint as u64)]
             .find(bucket_hash(fingerprint as u64), |s| {
                 s.fingerprint == fingerprint && same(s.index as usize)
             })
@@ -492,15 +534,26 @@ impl OrbitSet {
     ) {
         let index = self.len() as u32;
         self.keys.push(key);
+        self.append_record(parent, generator);
+        place(
+            &mut self.tables[shard_of(fingerprint as u64)],
+            index,
+            fingerprint,
+        );
+    }
+
+    /// Append the Schreier record of an element whose key was just appended to `keys`; the
+    /// element is not found by [`Self::find`] until it is placed in its shard's table.
+    pub(crate) fn append_record(&mut self, parent: u32, generator: u16) {
         reserve_gently(&mut self.parents, 1);
         reserve_gently(&mut self.generators, 1);
         self.parents.push(parent);
         self.generators.push(generator);
-        let slot = Slot { index, fingerprint };
-        self.table
-            .insert_unique(bucket_hash(fingerprint as u64), slot, |s| {
-                bucket_hash(s.fingerprint as u64)
-            });
+    }
+
+    /// The shard tables, for placing elements appended with [`Self::append_record`].
+    pub(crate) fn tables_mut(&mut self) -> &mut [HashTable<Slot>] {
+        &mut self.tables
     }
 
     /// Bytes held by the whole store.
@@ -508,7 +561,11 @@ impl OrbitSet {
         self.keys.bytes_used()
             + self.parents.capacity() * 4
             + self.generators.capacity() * 2
-            + self.table.allocation_size()
+            + self
+                .tables
+                .iter()
+                .map(HashTable::allocation_size)
+                .sum::<usize>()
     }
 }
 
