@@ -449,9 +449,18 @@ fn a_stopped_run_resumes_to_the_same_answer() {
 #[test]
 fn thread_count_does_not_change_the_answer() {
     let (_, one) = cyclorb_json(&["orbit", "ising", "--genus", "2", "--threads", "1"]);
-    let (_, two) = cyclorb_json(&["orbit", "ising", "--genus", "2", "--threads", "2"]);
-    assert_eq!(one["layer_sizes"], two["layer_sizes"]);
-    assert_eq!(one["poincare_sum"], two["poincare_sum"]);
+    for threads in ["2", "3"] {
+        let (_, other) = cyclorb_json(&["orbit", "ising", "--genus", "2", "--threads", threads]);
+        assert_eq!(
+            one["layer_sizes"], other["layer_sizes"],
+            "{threads} threads"
+        );
+        assert_eq!(
+            one["poincare_sum"], other["poincare_sum"],
+            "{threads} threads"
+        );
+        assert_eq!(one["orbit_size"], other["orbit_size"], "{threads} threads");
+    }
 }
 
 /// Ising's genus-1 twists written by `cyclorb twists --out` to a scratch file `name`.

@@ -6,7 +6,9 @@
 //! slot of an
 //! open-addressing table of element indices (4 bytes at a load between 0.53 and 0.8, so
 //! 5 to 7.5 bytes per line): 18 to 21 bytes, plus an eighth of slack while the record
-//! vectors grow. The keys (the exact lines) are kept only for the last [`WINDOW_LAYERS`]
+//! vectors grow. The table is split into [`SHARDS`] tables by fingerprint ([`shard_of`]),
+//! each growing on its own, so that threads index a chunk's new lines side by side
+//! (`crate::insert`). The keys (the exact lines) are kept only for the last [`WINDOW_LAYERS`]
 //! breadth-first layers: the layer being built, the frontier being expanded (its keys are
 //! the sources of the next layer anyway) and the three before it. A fingerprint match with
 //! an older line is settled by recomputing that line from its word (the parent chain back
@@ -22,16 +24,84 @@
 use std::collections::VecDeque;
 use std::path::{Path, PathBuf};
 
+use crate::insert::{shard_of, SHARDS};
 use crate::key::KeyNumbers;
 use crate::numerators::Numerators;
-use crate::store::{KeyArena, StoredKey};
+use crate::store::{KeyArena, StoredKey, Width};
 
 /// Layers whose keys the compact store keeps: the one being built, the frontier and three
 /// before it.
 pub(crate) const WINDOW_LAYERS: usize = 5;
 
-/// Largest load of the index table before it grows by half.
+/// Largest load of an index table before it grows by half.
 const MAX_LOAD: (usize, usize) = (4, 5);
+
+/// Slots of a shard's table when it is created.
+const FIRST_SLOTS: usize = 16;
+
+/// One shard of the index table: open addressing with linear probing, element index + 1 in
+/// a slot, 0 for an empty one.
+#[derive(Debug, Clone)]
+pub(crate) struct ShardTable {
+    slots: Vec<u32>,
+    filled: usize,
+}
+
+impl ShardTable {
+    fn new() -> ShardTable {
+        ShardTable {
+            slots: vec![0; FIRST_SLOTS],
+            filled: 0,
+        }
+    }
+
+    /// The element of this shard with this fingerprint for which `same(index)` holds.
+    fn find(
+        &self,
+        fingerprint: u64,
+        fingerprints: &[u64],
+        mut same: impl FnMut(usize) -> bool,
+    ) -> Option<u32> {
+        let slots = self.slots.len();
+        let mut at = home(fingerprint, slots);
+        loop {
+            let entry = self.slots[at];
+            if entry == 0 {
+                return None;
+            }
+            let index = (entry - 1) as usize;
+            if fingerprints[index] == fingerprint && same(index) {
+                return Some(index as u32);
+            }
+            at = if at + 1 == slots { 0 } else { at + 1 };
+        }
+    }
+
+    /// Index element `index` (whose fingerprint is `fingerprints[index]`), growing the table
+    /// by half first when the load would pass [`MAX_LOAD`].
+    pub(crate) fn place(&mut self, index: usize, fingerprints: &[u64]) {
+        if (self.filled + 1) * MAX_LOAD.1 > self.slots.len() * MAX_LOAD.0 {
+            let mut slots = vec![0u32; self.slots.len() + self.slots.len() / 2];
+            for &entry in self.slots.iter().filter(|&&e| e != 0) {
+                let i = (entry - 1) as usize;
+                put(&mut slots, fingerprints[i], i);
+            }
+            self.slots = slots;
+        }
+        put(&mut self.slots, fingerprints[index], index);
+        self.filled += 1;
+    }
+}
+
+/// Put element `index` in the first free slot of its probe sequence.
+fn put(table: &mut [u32], fingerprint: u64, index: usize) {
+    let slots = table.len();
+    let mut at = home(fingerprint, slots);
+    while table[at] != 0 {
+        at = if at + 1 == slots { 0 } else { at + 1 };
+    }
+    table[at] = index as u32 + 1;
+}
 
 /// The keys of one layer, from element `start` on.
 #[derive(Debug)]
@@ -48,8 +118,8 @@ pub(crate) struct CompactSet {
     pub(crate) parents: Vec<u32>,
     pub(crate) generators: Vec<u8>,
     fingerprints: Vec<u64>,
-    /// Open addressing with linear probing: element index + 1, 0 for an empty slot.
-    table: Vec<u32>,
+    /// The index table, one per shard of fingerprints.
+    tables: Vec<ShardTable>,
     window: VecDeque<LayerKeys>,
     /// Where finished layers' keys go (`None`: they stay in memory).
     spill: Option<PathBuf>,
@@ -76,7 +146,7 @@ impl CompactSet {
             parents: Vec::new(),
             generators: Vec::new(),
             fingerprints: Vec::new(),
-            table: vec![0; 64],
+            tables: (0..SHARDS).map(|_| ShardTable::new()).collect(),
             window: VecDeque::new(),
             spill: None,
         }
@@ -147,33 +217,8 @@ impl CompactSet {
     }
 
     /// The element with this fingerprint for which `same(index)` holds.
-    pub(crate) fn find(
-        &self,
-        fingerprint: u64,
-        mut same: impl FnMut(usize) -> bool,
-    ) -> Option<u32> {
-        let slots = self.table.len();
-        let mut at = home(fingerprint, slots);
-        loop {
-            let entry = self.table[at];
-            if entry == 0 {
-                return None;
-            }
-            let index = (entry - 1) as usize;
-            if self.fingerprints[index] == fingerprint && same(index) {
-                return Some(index as u32);
-            }
-            at = if at + 1 == slots { 0 } else { at + 1 };
-        }
-    }
-
-    fn place(table: &mut [u32], fingerprint: u64, index: usize) {
-        let slots = table.len();
-        let mut at = home(fingerprint, slots);
-        while table[at] != 0 {
-            at = if at + 1 == slots { 0 } else { at + 1 };
-        }
-        table[at] = index as u32 + 1;
+    pub(crate) fn find(&self, fingerprint: u64, same: impl FnMut(usize) -> bool) -> Option<u32> {
+        self.tables[shard_of(fingerprint)].find(fingerprint, &self.fingerprints, same)
     }
 
     /// Append a new element (the caller has checked it is new); its key goes to the newest
@@ -186,14 +231,27 @@ impl CompactSet {
         generator: u8,
     ) {
         let index = self.len();
-        if (index + 1) * MAX_LOAD.1 > self.table.len() * MAX_LOAD.0 {
-            let mut table = vec![0u32; self.table.len() + self.table.len() / 2];
-            for (i, &f) in self.fingerprints.iter().enumerate() {
-                Self::place(&mut table, f, i);
-            }
-            self.table = table;
-        }
-        Self::place(&mut self.table, fingerprint, index);
+        self.append(key, None, fingerprint, parent, generator);
+        self.tables[shard_of(fingerprint)].place(index, &self.fingerprints);
+    }
+
+    /// The keys of the layer being built, where the next key goes (`None` before the first).
+    pub(crate) fn newest_keys(&self) -> Option<&KeyArena> {
+        self.window.back().map(|l| &l.keys)
+    }
+
+    /// Append a new element's record, fingerprint and key (pre-encoded by
+    /// [`KeyArena::encode_detached`] when `encoded` is given) without indexing it: it is not
+    /// found by [`Self::find`] until it is placed in its shard's table ([`Self::tables_mut`]).
+    pub(crate) fn append(
+        &mut self,
+        key: &KeyNumbers,
+        encoded: Option<(Width, &[u8])>,
+        fingerprint: u64,
+        parent: u32,
+        generator: u8,
+    ) {
+        let index = self.len();
         reserve_gently(&mut self.parents);
         reserve_gently(&mut self.generators);
         reserve_gently(&mut self.fingerprints);
@@ -207,8 +265,17 @@ impl CompactSet {
             });
         }
         if let Some(layer) = self.window.back_mut() {
-            layer.keys.push(key);
+            let pushed =
+                encoded.is_some_and(|(width, bytes)| layer.keys.push_encoded(width, bytes));
+            if !pushed {
+                layer.keys.push(key);
+            }
         }
+    }
+
+    /// The shard tables and the fingerprints they index, for placing appended elements.
+    pub(crate) fn tables_mut(&mut self) -> (&mut [ShardTable], &[u64]) {
+        (&mut self.tables, &self.fingerprints)
     }
 
     /// The widest numerator of the keys held.
@@ -230,7 +297,11 @@ impl CompactSet {
         self.parents.capacity() * 4
             + self.generators.capacity()
             + self.fingerprints.capacity() * 8
-            + self.table.capacity() * 4
+            + self
+                .tables
+                .iter()
+                .map(|t| t.slots.capacity() * 4)
+                .sum::<usize>()
             + self.window_bytes()
     }
 
@@ -256,7 +327,8 @@ mod tests {
             assert_eq!(found, Some(i as u32));
         }
         assert_eq!(set.find(5000, |_| true), None);
-        assert!(set.table.len() * 4 >= set.len() * 5);
+        let slots: usize = set.tables.iter().map(|t| t.slots.len()).sum();
+        assert!(slots * 4 >= set.len() * 5);
     }
 
     #[test]

@@ -3,10 +3,12 @@
 //! Elements are numbered in the order found; the seed's line is element 0. Layer L+1 is the
 //! set of lines first reached from layer L. The frontier is processed in chunks: the images
 //! of a chunk's elements under every generator are computed and looked up in parallel (the
-//! store is read-only then), and the new lines are inserted afterwards on one thread, in the
-//! order (element, generator). So the element order, the layer sizes and the Schreier
-//! records do not depend on the number of threads or on the chunk size, and a run stopped
-//! between chunks and resumed finds exactly what an uninterrupted run finds.
+//! store is read-only then), and the new lines are inserted afterwards as if one by one in
+//! the order (element, generator): threads sharded by fingerprint drop repetitions and
+//! encode keys, one thread numbers the new lines in that order, and the threads index them
+//! in their shards ([`crate::insert`]). So the element order, the layer sizes and the
+//! Schreier records do not depend on the number of threads or on the chunk size, and a run
+//! stopped between chunks and resumed finds exactly what an uninterrupted run finds.
 //!
 //! The orbit is saturated when every stored element has been processed: then every generator
 //! maps every stored line to a stored line. Forward images suffice (docs/orbits.md §2): a finite
@@ -22,6 +24,7 @@ use cyclorb_field::Cyc;
 use serde::{Deserialize, Serialize};
 
 use crate::error::{joined, OrbitError};
+use crate::insert::InsertScratch;
 use crate::key::KeyNumbers;
 use crate::numerators::Numerators;
 use crate::problem::OrbitProblem;
@@ -312,6 +315,7 @@ impl OrbitProblem {
         }
         let threads = options.threads.max(1);
         let mut workspaces: Vec<Workspace> = (0..threads).map(|_| Workspace::new(self)).collect();
+        let mut scratch = InsertScratch::new(threads);
         let chunk_size = self.chunk_len(options);
         loop {
             let end = *orbit.layer_ends.last().unwrap_or(&0);
@@ -328,8 +332,8 @@ impl OrbitProblem {
                 orbit.stop = Some(reason);
                 break;
             }
-            let candidates = self.expand_chunk(&orbit.set, chunk.clone(), &mut workspaces)?;
-            if !self.insert_candidates(&mut orbit.set, candidates, options.limit)? {
+            let parts = self.expand_parts(&orbit.set, chunk.clone(), &mut workspaces)?;
+            if !self.insert_parts(&mut orbit.set, parts, &mut scratch, options.limit)? {
                 orbit.stop = Some(StopReason::Limit);
                 break;
             }
@@ -415,9 +419,29 @@ impl OrbitProblem {
         chunk: Range<usize>,
         workspaces: &mut [Workspace],
     ) -> Result<Vec<Candidate>, OrbitError> {
+        Ok(self
+            .expand_parts(set, chunk, workspaces)?
+            .into_iter()
+            .flatten()
+            .collect())
+    }
+
+    /// [`Self::expand_chunk`]'s images as each worker found them: the workers take
+    /// contiguous ranges of the chunk, so the chunk order is the parts one after the other
+    /// (a line found by two workers is in both).
+    pub(crate) fn expand_parts(
+        &self,
+        set: &LineStore,
+        chunk: Range<usize>,
+        workspaces: &mut [Workspace],
+    ) -> Result<Vec<Vec<Candidate>>, OrbitError> {
         let parts = split(chunk, workspaces.len());
         if parts.len() == 1 {
-            return self.expand_range(set, parts[0].clone(), &mut workspaces[0]);
+            return Ok(vec![self.expand_range(
+                set,
+                parts[0].clone(),
+                &mut workspaces[0],
+            )?]);
         }
         std::thread::scope(|scope| {
             let (first, rest) = workspaces.split_at_mut(1);
@@ -429,12 +453,13 @@ impl OrbitProblem {
                     scope.spawn(move || self.expand_range(set, range, ws))
                 })
                 .collect();
-            let mut all = self.expand_range(set, parts[0].clone(), &mut first[0]);
+            let first = self.expand_range(set, parts[0].clone(), &mut first[0]);
+            let mut all = first.map(|part| vec![part]);
             for handle in handles {
                 let part = joined(handle);
                 all = match (all, part) {
                     (Ok(mut a), Ok(b)) => {
-                        a.extend(b);
+                        a.push(b);
                         Ok(a)
                     }
                     (Err(e), _) | (_, Err(e)) => Err(e),
@@ -533,29 +558,6 @@ impl OrbitProblem {
             }
         }
         Ok(permutations)
-    }
-
-    /// Insert the candidates that are still new, in order; `false` when the limit stopped it.
-    fn insert_candidates(
-        &self,
-        set: &mut LineStore,
-        candidates: Vec<Candidate>,
-        limit: Option<usize>,
-    ) -> Result<bool, OrbitError> {
-        let mut buf = Numerators::new(self.key_len());
-        for c in candidates {
-            if self
-                .find_key(set, &mut buf, c.fingerprint, &c.key)?
-                .is_some()
-            {
-                continue;
-            }
-            if limit.is_some_and(|l| set.len() >= l) {
-                return Ok(false);
-            }
-            set.insert(&c.key, c.fingerprint, c.parent, c.generator);
-        }
-        Ok(true)
     }
 
     /// The key of element `index` as a vector of field elements (first non-zero entry 1).

@@ -61,8 +61,9 @@
 //! whenever a bound fails. A field inversion is needed only for a new line, and inverses of
 //! first coordinates are remembered. Keys are packed sparsely (bit masks of non-zero blocks
 //! and coefficients, then the coefficients at 1, 2, 4 or 8 bytes) in one flat arena. The
-//! frontier is split over threads; insertion is sequential in a fixed order, so results do
-//! not depend on the thread count. Ising at genus 3 (8 847 360 lines of Q(ζ16)^36) stores
+//! frontier is split over threads, and so is the insertion of new lines (sharded by
+//! fingerprint, numbered on one thread in a fixed order), so results do not depend on the
+//! thread count. Ising at genus 3 (8 847 360 lines of Q(ζ16)^36) stores
 //! about 90 bytes per line in the memory store and about 19 in the compact store
 //! ([`StoreKind`]: Schreier records, 62-bit fingerprints and the keys of the last five
 //! layers, older lines recomputed from their words on a fingerprint match; finished layers'
@@ -85,6 +86,7 @@ mod distributed;
 mod engine;
 mod error;
 mod fingerprint;
+mod insert;
 mod key;
 mod numerators;
 mod pairs;

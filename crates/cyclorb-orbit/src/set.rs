@@ -8,18 +8,21 @@
 //! to the seed).
 
 use std::borrow::Cow;
+use std::ops::Range;
 use std::path::Path;
 
+use hashbrown::HashTable;
 use num_bigint::BigInt;
 use serde::{Deserialize, Serialize};
 
-use crate::compact::CompactSet;
+use crate::compact::{CompactSet, ShardTable};
 use crate::error::OrbitError;
+use crate::insert::shard_of;
 use crate::key::KeyNumbers;
 use crate::numerators::Numerators;
 use crate::problem::OrbitProblem;
 use crate::step::Workspace;
-use crate::store::{KeyArena, OrbitSet, StoredKey};
+use crate::store::{place, KeyArena, OrbitSet, Slot, StoredKey, Width};
 
 /// Which store holds the lines of an enumeration (the answer never depends on it).
 #[derive(Debug, Clone, Copy, Default, PartialEq, Eq, Serialize, Deserialize)]
@@ -50,6 +53,49 @@ impl StoreKind {
 pub(crate) enum LineStore {
     Memory(OrbitSet),
     Compact(CompactSet),
+}
+
+/// A contiguous range of shards of a store's lookup table, lent to one thread that places
+/// (indexes) the elements of those shards that were appended without being indexed.
+pub(crate) enum ShardGroup<'a> {
+    Memory {
+        first: usize,
+        tables: &'a mut [HashTable<Slot>],
+    },
+    Compact {
+        first: usize,
+        tables: &'a mut [ShardTable],
+        fingerprints: &'a [u64],
+    },
+}
+
+impl ShardGroup<'_> {
+    /// Index element `index`, whose fingerprint (in one of this group's shards) is given.
+    pub(crate) fn place(&mut self, index: u32, fingerprint: u64) {
+        match self {
+            ShardGroup::Memory { first, tables } => place(
+                &mut tables[shard_of(fingerprint) - *first],
+                index,
+                fingerprint as u32,
+            ),
+            ShardGroup::Compact {
+                first,
+                tables,
+                fingerprints,
+            } => tables[shard_of(fingerprint) - *first].place(index as usize, fingerprints),
+        }
+    }
+}
+
+/// Split `tables` into the contiguous groups of shards `groups` (which cover them in order).
+fn split_groups<'a, T>(mut tables: &'a mut [T], groups: &[Range<usize>]) -> Vec<&'a mut [T]> {
+    let mut parts = Vec::with_capacity(groups.len());
+    for group in groups {
+        let (head, rest) = std::mem::take(&mut tables).split_at_mut(group.len());
+        parts.push(head);
+        tables = rest;
+    }
+    parts
 }
 
 /// A stored key as read back: machine words in the caller's buffer, or big numbers.
@@ -130,6 +176,66 @@ impl LineStore {
         match self {
             LineStore::Memory(s) => s.insert(key, fingerprint as u32, parent, generator),
             LineStore::Compact(s) => s.insert(key, fingerprint, parent, generator as u8),
+        }
+    }
+
+    /// Encode a new key, ahead of [`Self::append`], for the arena it will go to (any thread
+    /// may do this while the store is shared); `None` when it must be pushed as it is.
+    pub(crate) fn encode(&self, key: &KeyNumbers, out: &mut Vec<u8>) -> Option<Width> {
+        match self {
+            LineStore::Memory(s) => s.keys.encode_detached(key, out),
+            LineStore::Compact(s) => s.newest_keys()?.encode_detached(key, out),
+        }
+    }
+
+    /// Append a new element (the caller has checked it is new) with its key, pre-encoded by
+    /// [`Self::encode`] when `encoded` is given, without indexing it: [`Self::find`] sees it
+    /// once a [`ShardGroup`] has placed it.
+    pub(crate) fn append(
+        &mut self,
+        key: &KeyNumbers,
+        encoded: Option<(Width, &[u8])>,
+        fingerprint: u64,
+        parent: u32,
+        generator: u16,
+    ) {
+        match self {
+            LineStore::Memory(s) => {
+                let pushed =
+                    encoded.is_some_and(|(width, bytes)| s.keys.push_encoded(width, bytes));
+                if !pushed {
+                    s.keys.push(key);
+                }
+                s.append_record(parent, generator);
+            }
+            LineStore::Compact(s) => s.append(key, encoded, fingerprint, parent, generator as u8),
+        }
+    }
+
+    /// The lookup table's shards in the contiguous `groups` (which cover every shard in
+    /// order), one mutable group per thread.
+    pub(crate) fn shard_groups(&mut self, groups: &[Range<usize>]) -> Vec<ShardGroup<'_>> {
+        match self {
+            LineStore::Memory(s) => split_groups(s.tables_mut(), groups)
+                .into_iter()
+                .zip(groups)
+                .map(|(tables, g)| ShardGroup::Memory {
+                    first: g.start,
+                    tables,
+                })
+                .collect(),
+            LineStore::Compact(s) => {
+                let (tables, fingerprints) = s.tables_mut();
+                split_groups(tables, groups)
+                    .into_iter()
+                    .zip(groups)
+                    .map(|(tables, g)| ShardGroup::Compact {
+                        first: g.start,
+                        tables,
+                        fingerprints,
+                    })
+                    .collect()
+            }
         }
     }
 

@@ -13,7 +13,9 @@
 //!
 //! The arena and the record vectors grow by an eighth at a time (not by doubling), so the
 //! store stays close to its payload. A table slot holds an element index and its 32-bit
-//! fingerprint, so a probe compares fingerprints before it touches a key.
+//! fingerprint, so a probe compares fingerprints before it touches a key. The table is split
+//! into [`SHARDS`] tables by fingerprint ([`shard_of`]), so that threads can index the new
+//! lines of a chunk at the same time, each in its own shards (`crate::insert`).
 
 use std::cell::RefCell;
 use std::path::Path;
@@ -22,6 +24,7 @@ use hashbrown::{HashMap, HashTable};
 use num_bigint::BigInt;
 
 use crate::fingerprint::bucket_hash;
+use crate::insert::{shard_of, SHARDS};
 use crate::key::KeyNumbers;
 use crate::numerators::Numerators;
 use crate::spill::SpillFile;
@@ -339,14 +342,14 @@ impl KeyArena {
         let index = self.len();
         if let KeyNumbers::Small(numbers) = key {
             let needed = Width::needed(numbers);
-            let current = self.widths.last().map_or(Width::W1, |&(_, w)| w);
+            let current = self.current_width();
             if needed > current && self.file.is_some() {
                 self.widths.push((index as u32, needed));
             } else if needed > current {
                 self.widen(needed);
             }
         }
-        let width = self.widths.last().map_or(Width::W1, |&(_, w)| w);
+        let width = self.current_width();
         self.record_offset(index, (self.in_file + self.bytes.len()) as u64)
             .expect("offsets are sized for the longest key");
         match key {
@@ -365,6 +368,43 @@ impl KeyArena {
         if self.file.is_some() && self.bytes.len() >= self.buffer_limit {
             self.flush();
         }
+    }
+
+    /// The width new keys are written at (the last run's).
+    fn current_width(&self) -> Width {
+        self.widths.last().map_or(Width::W1, |&(_, w)| w)
+    }
+
+    /// Encode a machine-word key at the arena's present width into `out`, for
+    /// [`Self::push_encoded`] later (another thread may do the encoding); `None` (nothing
+    /// written) when the key is big or needs a wider width: then [`Self::push`] it.
+    pub(crate) fn encode_detached(&self, key: &KeyNumbers, out: &mut Vec<u8>) -> Option<Width> {
+        let width = self.current_width();
+        match key {
+            KeyNumbers::Small(numbers) if Width::needed(numbers) <= width => {
+                encode_into(out, width, self.phi, numbers);
+                Some(width)
+            }
+            _ => None,
+        }
+    }
+
+    /// Append a key that [`Self::encode_detached`] encoded at `width`; `false` (nothing
+    /// appended) when the arena's width has changed since, so the caller pushes the key
+    /// itself.
+    pub(crate) fn push_encoded(&mut self, width: Width, bytes: &[u8]) -> bool {
+        if width != self.current_width() {
+            return false;
+        }
+        let index = self.len();
+        self.record_offset(index, (self.in_file + self.bytes.len()) as u64)
+            .expect("offsets are sized for the longest key");
+        reserve_gently(&mut self.bytes, bytes.len());
+        self.bytes.extend_from_slice(bytes);
+        if self.file.is_some() && self.bytes.len() >= self.buffer_limit {
+            self.flush();
+        }
+        true
     }
 
     /// Re-encode the keys (all in memory) at a wider width.
@@ -500,9 +540,17 @@ fn encode_into(bytes: &mut Vec<u8>, width: Width, phi: usize, numbers: &[i64]) {
 
 /// A hash-table slot: an element and its fingerprint.
 #[derive(Debug, Clone, Copy)]
-struct Slot {
+pub(crate) struct Slot {
     index: u32,
     fingerprint: u32,
+}
+
+/// Index element `index` in the shard table its fingerprint belongs to.
+pub(crate) fn place(table: &mut HashTable<Slot>, index: u32, fingerprint: u32) {
+    let slot = Slot { index, fingerprint };
+    table.insert_unique(bucket_hash(fingerprint as u64), slot, |s| {
+        bucket_hash(s.fingerprint as u64)
+    });
 }
 
 /// The elements found so far: keys, Schreier records and the lookup table.
@@ -513,7 +561,8 @@ pub(crate) struct OrbitSet {
     pub(crate) parents: Vec<u32>,
     /// Generator that maps the parent to the element (u16::MAX for the seed).
     pub(crate) generators: Vec<u16>,
-    table: HashTable<Slot>,
+    /// The lookup table, one per shard of fingerprints.
+    tables: Vec<HashTable<Slot>>,
 }
 
 impl OrbitSet {
@@ -522,7 +571,7 @@ impl OrbitSet {
             keys: KeyArena::new(blocks, phi),
             parents: Vec::new(),
             generators: Vec::new(),
-            table: HashTable::new(),
+            tables: (0..SHARDS).map(|_| HashTable::new()).collect(),
         }
     }
 
@@ -533,21 +582,24 @@ impl OrbitSet {
         generators: Vec<u16>,
         fingerprints: Vec<u32>,
     ) -> OrbitSet {
-        let mut table = HashTable::with_capacity(fingerprints.len());
+        let mut counts = vec![0usize; SHARDS];
+        for &fingerprint in &fingerprints {
+            counts[shard_of(fingerprint as u64)] += 1;
+        }
+        let mut tables: Vec<HashTable<Slot>> =
+            counts.into_iter().map(HashTable::with_capacity).collect();
         for (i, &fingerprint) in fingerprints.iter().enumerate() {
-            let slot = Slot {
-                index: i as u32,
+            place(
+                &mut tables[shard_of(fingerprint as u64)],
+                i as u32,
                 fingerprint,
-            };
-            table.insert_unique(bucket_hash(fingerprint as u64), slot, |s| {
-                bucket_hash(s.fingerprint as u64)
-            });
+            );
         }
         OrbitSet {
             keys,
             parents,
             generators,
-            table,
+            tables,
         }
     }
 
@@ -562,7 +614,7 @@ impl OrbitSet {
         fingerprint: u32,
         mut same: impl FnMut(usize) -> bool,
     ) -> Option<u32> {
-        self.table
+        self.tables[shard_of(fingerprint as u64)]
             .find(bucket_hash(fingerprint as u64), |s| {
                 s.fingerprint == fingerprint && same(s.index as usize)
             })
@@ -579,15 +631,26 @@ impl OrbitSet {
     ) {
         let index = self.len() as u32;
         self.keys.push(key);
+        self.append_record(parent, generator);
+        place(
+            &mut self.tables[shard_of(fingerprint as u64)],
+            index,
+            fingerprint,
+        );
+    }
+
+    /// Append the Schreier record of an element whose key was just appended to `keys`; the
+    /// element is not found by [`Self::find`] until it is placed in its shard's table.
+    pub(crate) fn append_record(&mut self, parent: u32, generator: u16) {
         reserve_gently(&mut self.parents, 1);
         reserve_gently(&mut self.generators, 1);
         self.parents.push(parent);
         self.generators.push(generator);
-        let slot = Slot { index, fingerprint };
-        self.table
-            .insert_unique(bucket_hash(fingerprint as u64), slot, |s| {
-                bucket_hash(s.fingerprint as u64)
-            });
+    }
+
+    /// The shard tables, for placing elements appended with [`Self::append_record`].
+    pub(crate) fn tables_mut(&mut self) -> &mut [HashTable<Slot>] {
+        &mut self.tables
     }
 
     /// Bytes held by the whole store.
@@ -595,7 +658,11 @@ impl OrbitSet {
         self.keys.bytes_used()
             + self.parents.capacity() * 4
             + self.generators.capacity() * 2
-            + self.table.allocation_size()
+            + self
+                .tables
+                .iter()
+                .map(HashTable::allocation_size)
+                .sum::<usize>()
     }
 }
 
@@ -694,5 +761,34 @@ mod tests {
         for i in 0..200 {
             assert_eq!(read(&arena, i, &mut out), key(i));
         }
+    }
+
+    #[test]
+    fn keys_encoded_apart_stream_like_pushed_ones() {
+        // the sharded insertion encodes keys on other threads and appends the bytes: on a
+        // streaming arena they flush and read back like pushed keys, and a key encoded
+        // before the width changed is refused so that the caller pushes it
+        let dir = std::env::temp_dir();
+        let key = |i: i64| KeyNumbers::Small(vec![1, i % 100, 0, -(i % 7)]);
+        let mut arena = KeyArena::new(2, 2);
+        arena.buffer_limit = 32;
+        arena.stream_to(&dir).unwrap();
+        for i in 0..300 {
+            let mut bytes = Vec::new();
+            let width = arena.encode_detached(&key(i), &mut bytes).unwrap();
+            assert!(arena.push_encoded(width, &bytes));
+        }
+        assert!(arena.in_file > 0 && arena.bytes.len() < 32 + 16);
+        let mut stale = Vec::new();
+        let w1 = arena.encode_detached(&key(1), &mut stale).unwrap();
+        arena.push(&KeyNumbers::Small(vec![1, 1000, 0, 0]));
+        assert!(!arena.push_encoded(w1, &stale));
+        let mut out = Numerators::new(4);
+        for i in 0..300 {
+            assert!(matches!(arena.get_spilled(i, &mut out), Ok(StoredKey::Small)));
+            assert_eq!(KeyNumbers::Small(out.dense.clone()), key(i as i64), "key {i}");
+        }
+        assert!(matches!(arena.get_spilled(300, &mut out), Ok(StoredKey::Small)));
+        assert_eq!(out.dense, vec![1, 1000, 0, 0]);
     }
 }
