@@ -1,8 +1,8 @@
 //! `cyclorb commutant`, `image`, `witness` against published facts.
 
-mod common;
+mod run_cli;
 
-use common::cyclorb_json;
+use run_cli::cyclorb_json;
 
 #[test]
 fn ising_and_fibonacci_are_irreducible() {
@@ -213,8 +213,8 @@ fn an_image_certificate_file_is_rechecked_from_the_generators() {
     use cyclorb_cert::{ImageOptions, PermutationImageCertificate};
     use cyclorb_orbit::{GeneratorSet, OrbitOptions, OrbitProblem, Seed, Silent};
 
-    let cert_path = common::temp_path("zn32-image.json");
-    let gens_path = common::temp_path("zn32-gens.json");
+    let cert_path = run_cli::temp_path("zn32-image.json");
+    let gens_path = run_cli::temp_path("zn32-gens.json");
     let (code, _) = cyclorb_json(&[
         "image",
         "zn:3:2",

@@ -4,11 +4,11 @@
 //! is the one that must catch it: the test asserts that claim's name, so a check that let the
 //! change through would fail the test.
 
-mod common;
+mod run_cli;
 
 use std::path::{Path, PathBuf};
 
-use common::{cyclorb, cyclorb_json, temp_path};
+use run_cli::{cyclorb, cyclorb_json, temp_path};
 use serde_json::Value;
 
 /// Run a producing command with `--out`, expect exit 0, and return the file and its JSON.

@@ -2,9 +2,9 @@
 //! commutants and relations, against standard values and against the pointed theories
 //! built from F- and R-symbols.
 
-mod common;
+mod run_cli;
 
-use common::{cyclorb, cyclorb_json, temp_path};
+use run_cli::{cyclorb, cyclorb_json, temp_path};
 use serde_json::Value;
 
 fn orbit(spec: &str, genus: usize) -> Value {

@@ -1,9 +1,9 @@
 //! `cyclorb orbit dw:… --method structure`: the vacuum orbit of D(G) counted as
 //! |P| / |Stab_P(S)| against the listed orbit and against standard counts.
 
-mod common;
+mod run_cli;
 
-use common::cyclorb_json;
+use run_cli::cyclorb_json;
 use serde_json::Value;
 
 fn run(spec: &str, genus: usize, extra: &[&str]) -> (i32, Value) {

@@ -5,12 +5,12 @@
 //! one-process answer.
 #![cfg(feature = "mpi")]
 
-mod common;
 mod outside;
+mod run_cli;
 
 use std::process::Command;
 
-use common::{cyclorb_json, test_cache};
+use run_cli::{cyclorb_json, test_cache};
 use serde_json::Value;
 
 /// `mpirun -n RANKS cyclorb ARGS --json`: the exit code and the one JSON object on stdout.
@@ -133,7 +133,7 @@ fn mpirun(ranks: usize, args: &[&str]) -> std::process::Output {
 
 #[test]
 fn rank_checkpoints_resume_to_the_one_process_answer() {
-    let base = common::temp_path("mpi-ckpt");
+    let base = run_cli::temp_path("mpi-ckpt");
     let base_text = base.display().to_string();
     let (_, single) = cyclorb_json(&["orbit", "ising", "--genus", "2"]);
     let mut args: Vec<&str> = "orbit ising --genus 2 --limit 1000 --checkpoint"
@@ -158,7 +158,7 @@ fn rank_checkpoints_resume_to_the_one_process_answer() {
 
 #[test]
 fn rank_checkpoints_resume_on_another_number_of_ranks() {
-    let base = common::temp_path("mpi-regroup");
+    let base = run_cli::temp_path("mpi-regroup");
     let base = base.display().to_string();
     let again = format!("{base}-again");
     let (_, single) = cyclorb_json(&["orbit", "ising", "--genus", "2"]);

@@ -1,9 +1,9 @@
 //! `cyclorb orbit` end to end against published values.
 
-mod common;
 mod outside;
+mod run_cli;
 
-use common::{cyclorb_json, fixture, temp_path};
+use run_cli::{cyclorb_json, fixture, temp_path};
 
 /// Orbit size and prefactor of a saturated run with a scalar Poincaré sum.
 fn scalar_orbit(args: &[&str]) -> (u64, String) {
@@ -376,7 +376,7 @@ fn a_stopped_run_names_its_checkpoint_and_resumes_from_it_alone() {
     let last = bytes.len() - 20;
     bytes[last] ^= 1;
     std::fs::write(&damaged, bytes).unwrap();
-    let out = common::cyclorb(&["orbit", "--resume", damaged.to_str().unwrap()]);
+    let out = run_cli::cyclorb(&["orbit", "--resume", damaged.to_str().unwrap()]);
     assert_eq!(out.status.code(), Some(1));
     let err = String::from_utf8_lossy(&out.stderr);
     assert!(err.contains("checksum mismatch"), "{err}");
@@ -390,7 +390,7 @@ fn a_stopped_run_names_its_checkpoint_and_resumes_from_it_alone() {
 fn an_interrupted_run_says_how_to_continue() {
     // SU(2)_3's genus-2 orbit never closes (its image is infinite: Freedman, Larsen and
     // Wang 2002), so the run is still going when SIGINT arrives.
-    let child = common::command()
+    let child = run_cli::command()
         .args(["orbit", "su2:3", "--genus", "2", "--threads", "1"])
         .stdout(std::process::Stdio::piped())
         .spawn()
@@ -497,7 +497,7 @@ fn raw_mode_reads_the_files_twists_writes() {
 
 #[test]
 fn genus_two_needs_fusion_data() {
-    let out = common::cyclorb(&["orbit", "kac:6:5", "--genus", "2"]);
+    let out = run_cli::cyclorb(&["orbit", "kac:6:5", "--genus", "2"]);
     assert_eq!(out.status.code(), Some(1));
     let err = String::from_utf8_lossy(&out.stderr);
     assert!(err.contains("modular data only"), "{err}");
@@ -621,7 +621,7 @@ fn the_product_route_agrees_with_enumeration() {
 
 #[test]
 fn the_product_route_refuses_a_theory_that_is_not_a_product() {
-    let out = common::cyclorb(&["orbit", "ising", "--genus", "1", "--method", "product"]);
+    let out = run_cli::cyclorb(&["orbit", "ising", "--genus", "1", "--method", "product"]);
     assert_eq!(out.status.code(), Some(1));
     let err = String::from_utf8_lossy(&out.stderr);
     assert!(err.contains("not one"), "{err}");
@@ -653,7 +653,7 @@ fn genus_one_sum_is_printed_as_a_modular_invariant_over_labels() {
             assert_eq!(x, if i == j { "8" } else { "0" }, "M[{i}][{j}]");
         }
     }
-    let out = common::cyclorb(&["orbit", "ising", "--genus", "1"]);
+    let out = run_cli::cyclorb(&["orbit", "ising", "--genus", "1"]);
     let text = String::from_utf8_lossy(&out.stdout);
     assert!(
         text.contains("modular invariant Z = Σ M_ab χ_a χ̄_b"),
@@ -770,7 +770,7 @@ fn the_compact_store_and_its_spill_give_the_same_answer() {
     }
     let _ = std::fs::remove_file(ckpt);
     // the memory store does not spill: a clear refusal
-    let out = common::cyclorb(&[
+    let out = run_cli::cyclorb(&[
         "orbit", "ising", "--genus", "2", "--store", "memory", "--spill", spill_arg,
     ]);
     assert_eq!(out.status.code(), Some(1));

@@ -1,9 +1,9 @@
 //! `cyclorb completions` and `cyclorb manual`: generated from the command-line definition,
 //! so every command appears in them.
 
-mod common;
+mod run_cli;
 
-use common::{cyclorb, temp_path};
+use run_cli::{cyclorb, temp_path};
 
 const COMMANDS: &[&str] = &[
     "field",

@@ -1,9 +1,9 @@
 //! The structural route (`--method structure`, and `cyclorb image` choosing it) agrees with
 //! brute-force enumeration wherever both run, and gives the genus-4 Ising numbers.
 
-mod common;
+mod run_cli;
 
-use common::cyclorb_json;
+use run_cli::cyclorb_json;
 
 #[test]
 fn counting_agrees_with_enumeration_for_ising() {
@@ -68,7 +68,7 @@ fn ising_genus_four_counts() {
 #[test]
 fn theories_without_the_structure_are_refused() {
     // Fibonacci's twists have order 5: no proper power to diagonalise (Larsen–Wang 2005: dense image).
-    let out = common::cyclorb(&[
+    let out = run_cli::cyclorb(&[
         "orbit",
         "fibonacci",
         "--genus",

@@ -2,11 +2,11 @@
 //! structure`, `image` and `check` agree with the enumerating route and re-derive their
 //! certificates; a changed certificate is refused by the claim it breaks.
 
-mod common;
+mod run_cli;
 
 use std::path::PathBuf;
 
-use common::{cyclorb, cyclorb_json, temp_path};
+use run_cli::{cyclorb, cyclorb_json, temp_path};
 use serde_json::Value;
 
 /// B's entries in the vacuum's column, by row label, from an `orbit --json` report of

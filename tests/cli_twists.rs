@@ -2,9 +2,9 @@
 //! exactly (Humphries 1979; Wajnryb 1983; Birman–Hilden; Farb–Margalit, A Primer on Mapping
 //! Class Groups, ch. 3–5), and block-space dimensions match the Verlinde formula.
 
-mod common;
+mod run_cli;
 
-use common::{cyclorb_json, fixture};
+use run_cli::{cyclorb_json, fixture};
 
 fn check(spec: &str, genus: usize) -> serde_json::Value {
     let g = genus.to_string();

@@ -4,7 +4,7 @@
 //! `additionalProperties: false` — which the validator below implements; it is exercised on
 //! documents that must fail, so a schema that accepts everything is caught.
 
-mod common;
+mod run_cli;
 
 use std::path::Path;
 
@@ -82,7 +82,7 @@ fn schema(command: &str) -> Value {
 
 /// Run `cyclorb ARGS --json` and check its object against the command's schema.
 fn conforms(args: &[&str]) {
-    let (_, value) = common::cyclorb_json(args);
+    let (_, value) = run_cli::cyclorb_json(args);
     let mut out = Vec::new();
     violations(&schema(args[0]), &value, "$", &mut out);
     assert!(
@@ -167,8 +167,8 @@ fn certificate_commands_follow_their_schemas() {
 
 #[test]
 fn check_follows_its_schema() {
-    let cert = common::temp_path("schema-image.json");
-    let out = common::cyclorb(&[
+    let cert = run_cli::temp_path("schema-image.json");
+    let out = run_cli::cyclorb(&[
         "image",
         "fibonacci",
         "--genus",
@@ -191,7 +191,7 @@ fn check_follows_its_schema() {
 
 #[test]
 fn sweep_follows_its_schema() {
-    let out = common::temp_path("schema-sweep");
+    let out = run_cli::temp_path("schema-sweep");
     conforms(&[
         "sweep",
         "fixtures/sweeps/small.toml",

@@ -9,7 +9,7 @@
 //! byte-level and token-level mutations, so a failure reproduces exactly.
 //! `CYCLORB_MUTATION_SCALE` (default 1) multiplies every mutant count.
 
-mod common;
+mod run_cli;
 
 use std::panic::{catch_unwind, AssertUnwindSafe};
 use std::path::Path;
@@ -19,7 +19,7 @@ use cyclorb_field::{set_memory_budget, CyclotomicField};
 use cyclorb_orbit::{GeneratorSet, OrbitOptions, OrbitProblem, Progress, Seed};
 use cyclorb_theory::{parse_spec, parse_spec_traced, theory_to_json, verify};
 
-use common::{cyclorb, fixture, temp_path};
+use run_cli::{cyclorb, fixture, temp_path};
 
 /// Longest time one library mutant may take: a bound that catches runaway work (a hang, an
 /// exponential blow-up), not a speed figure. Some mutants are valid specs that build a

@@ -11,7 +11,7 @@
 //!
 //! Everything runs in a scratch folder that sees the repository's `fixtures/`.
 
-mod common;
+mod run_cli;
 
 use std::path::{Path, PathBuf};
 use std::process::Command;
@@ -136,7 +136,7 @@ fn claimed_numbers(comment: &str) -> Vec<String> {
 
 /// A scratch folder with `fixtures/` pointing at the repository's.
 fn scratch() -> PathBuf {
-    let dir = common::temp_path("readme");
+    let dir = run_cli::temp_path("readme");
     std::fs::create_dir_all(&dir).unwrap();
     let fixtures = dir.join("fixtures");
     if !fixtures.exists() {
@@ -163,7 +163,7 @@ fn run(dir: &Path, command: &str) -> (String, bool) {
         .arg(format!("{command} 2>&1"))
         .current_dir(dir)
         .env("PATH", path)
-        .env("XDG_CACHE_HOME", common::test_cache())
+        .env("XDG_CACHE_HOME", run_cli::test_cache())
         .output()
         .unwrap();
     (

@@ -2,14 +2,14 @@
 //! clean outcome now expected: exit 1 with a named reason, exit 2 for a usage error, or exit
 //! 3 with a partial result. Every test bounds its own time by the size of what it runs.
 
-mod common;
+mod run_cli;
 
 use std::io::Read;
 use std::path::{Path, PathBuf};
 use std::process::{Output, Stdio};
 use std::time::{Duration, Instant};
 
-use common::{command, cyclorb, cyclorb_json, temp_path, test_cache};
+use run_cli::{command, cyclorb, cyclorb_json, temp_path, test_cache};
 use serde_json::Value;
 
 fn text(bytes: &[u8]) -> String {
@@ -183,7 +183,7 @@ fn a_forged_cache_entry_does_not_prove_a_failing_file() {
 
 /// The ising genus-1 generator file of the fixtures with S replaced by `rows`.
 fn raw_generators(dir: &Path, rows: Value) -> String {
-    let text = std::fs::read_to_string(common::fixture("orbit/ising-genus1.json")).unwrap();
+    let text = std::fs::read_to_string(run_cli::fixture("orbit/ising-genus1.json")).unwrap();
     let mut gens: Value = serde_json::from_str(&text).unwrap();
     gens["generators"][1]["rows"] = rows;
     write_json(&dir.join("gens.json"), &gens)
@@ -196,7 +196,7 @@ fn a_singular_raw_generator_is_refused() {
         &dir,
         serde_json::json!([["1", "1", "0"], ["1", "1", "0"], ["0", "0", "1"]]),
     );
-    let seed = common::fixture("orbit/vacuum-seed-ising.json");
+    let seed = run_cli::fixture("orbit/vacuum-seed-ising.json");
     // was: "17 lines, saturated", exit 0
     refused(
         &[
@@ -332,12 +332,12 @@ fn a_repeated_json_key_is_refused() {
         &["ising.json", "repeated key \"conductor\""],
         5,
     );
-    let gens = std::fs::read_to_string(common::fixture("orbit/ising-genus1.json"))
+    let gens = std::fs::read_to_string(run_cli::fixture("orbit/ising-genus1.json"))
         .unwrap()
         .replacen('{', "{\"dimension\": 4, ", 1);
     let gens_path = dir.join("gens.json");
     std::fs::write(&gens_path, gens).unwrap();
-    let seed = common::fixture("orbit/vacuum-seed-ising.json");
+    let seed = run_cli::fixture("orbit/vacuum-seed-ising.json");
     refused(
         &[
             "orbit",

@@ -3,9 +3,9 @@
 //! 11 ≤ K ≤ 19. With the residue form of the pentagon, su2:20 (324 million pentagon
 //! instances) takes about a minute on two cores.
 
-mod common;
+mod run_cli;
 
-use common::cyclorb_json;
+use run_cli::cyclorb_json;
 
 fn verifies_fully(spec: &str) {
     let (code, v) = cyclorb_json(&["verify", spec]);

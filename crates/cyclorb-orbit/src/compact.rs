@@ -26,7 +26,7 @@ use std::path::{Path, PathBuf};
 
 use crate::insert::{shard_of, SHARDS};
 use crate::key::KeyNumbers;
-use crate::numerators::Numerators;
+use crate::sparse_numerators::SparseNumerators;
 use crate::store::{KeyArena, StoredKey, Width};
 
 /// Layers whose keys the compact store keeps: the one being built, the frontier and three
@@ -210,7 +210,7 @@ impl CompactSet {
     pub(crate) fn get<'a>(
         &'a self,
         i: usize,
-        out: &mut Numerators,
+        out: &mut SparseNumerators,
     ) -> Option<Result<StoredKey<'a>, String>> {
         let layer = self.window.iter().rev().find(|l| l.start <= i)?;
         Some(layer.keys.get_spilled(i - layer.start, out))
@@ -334,7 +334,7 @@ mod tests {
     #[test]
     fn the_window_keeps_the_last_layers_only() {
         let mut set = CompactSet::new(1, 1);
-        let mut out = Numerators::new(1);
+        let mut out = SparseNumerators::new(1);
         for layer in 0..8usize {
             set.open_layer(layer * 10).unwrap();
             for j in 0..10 {
@@ -356,7 +356,7 @@ mod tests {
     fn spilled_layers_read_back_the_same_keys() {
         let dir = std::env::temp_dir();
         let mut set = CompactSet::new(2, 2);
-        let mut out = Numerators::new(4);
+        let mut out = SparseNumerators::new(4);
         set.spill_to(&dir).unwrap();
         let key = |i: usize| KeyNumbers::Small(vec![1, 0, (i % 7) as i64 - 3, 300 * i as i64]);
         for layer in 0..3usize {

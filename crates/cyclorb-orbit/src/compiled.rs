@@ -12,8 +12,8 @@ use num_bigint::BigInt;
 use num_integer::Integer;
 use num_traits::{One, ToPrimitive};
 
-use crate::numerators::Numerators;
 use crate::sparse::operator_rows;
+use crate::sparse_numerators::SparseNumerators;
 use cyclorb_field::PolyKernel;
 
 /// E·X acting on numerator vectors, in one of two forms (the same integers either way).
@@ -101,7 +101,12 @@ impl CompiledOperator {
     /// out += (E·X)·s (out starts at zero), setting bit r of `touched` for every row r
     /// written; or `false` (nothing written) when the form's bound times max|s| does not
     /// guarantee that every `i128` sum is exact.
-    pub(crate) fn apply(&self, s: &Numerators, out: &mut [i128], touched: &mut [u64]) -> bool {
+    pub(crate) fn apply(
+        &self,
+        s: &SparseNumerators,
+        out: &mut [i128],
+        touched: &mut [u64],
+    ) -> bool {
         match self {
             CompiledOperator::Columns(form) => form.apply(s, out, touched),
             CompiledOperator::Polynomials(form) => form.apply(s, out, touched),
@@ -164,7 +169,7 @@ impl ColumnForm {
         })
     }
 
-    fn apply(&self, s: &Numerators, out: &mut [i128], touched: &mut [u64]) -> bool {
+    fn apply(&self, s: &SparseNumerators, out: &mut [i128], touched: &mut [u64]) -> bool {
         match self.row_bound.checked_mul(s.max as u128) {
             Some(b) if b < (1u128 << 126) => {}
             _ => return false,
@@ -250,7 +255,7 @@ impl PolynomialForm {
         })
     }
 
-    fn apply(&self, s: &Numerators, out: &mut [i128], touched: &mut [u64]) -> bool {
+    fn apply(&self, s: &SparseNumerators, out: &mut [i128], touched: &mut [u64]) -> bool {
         match self.bound.checked_mul(s.max as u128) {
             Some(b) if b < (1u128 << 126) => {}
             _ => return false,
@@ -324,7 +329,7 @@ mod tests {
         let polynomial = CompiledOperator::compile(f, &kernel, op, 0).unwrap();
         assert!(matches!(matrix, CompiledOperator::Columns(_)));
         assert!(matches!(polynomial, CompiledOperator::Polynomials(_)));
-        let mut s = Numerators::new(3 * phi);
+        let mut s = SparseNumerators::new(3 * phi);
         for (at, x) in [(0, 1), (1, 1), (phi, 2), (2 * phi + 3, -1)] {
             s.push(at, x);
         }

@@ -35,12 +35,12 @@ use crate::collective::{gather_numbers, owner, Collective};
 use crate::engine::{Orbit, OrbitOptions, Progress, ProgressObserver, StopReason};
 use crate::error::OrbitError;
 use crate::key::KeyNumbers;
-use crate::numerators::Numerators;
 use crate::poincare::PoincareSum;
 use crate::problem::OrbitProblem;
 use crate::rank_checkpoint::{rank_checkpoint_path, rank_checkpoint_ranks};
 use crate::regenerate::layer_ranges;
 use crate::set::{LineStore, StoreKind};
+use crate::sparse_numerators::SparseNumerators;
 use crate::step::Workspace;
 use crate::wire::{encode, Reader, WireCandidate};
 
@@ -415,7 +415,7 @@ impl OrbitProblem {
         layer: &mut NewLayer,
         incoming: &[Vec<u8>],
     ) -> Result<(), OrbitError> {
-        let mut buf = Numerators::new(self.key_len());
+        let mut buf = SparseNumerators::new(self.key_len());
         for (from, bytes) in incoming.iter().enumerate() {
             let mut reader = Reader::new(bytes, self.key_len(), format!("rank {from}"));
             while let Some(WireCandidate {

@@ -26,9 +26,9 @@ use serde::{Deserialize, Serialize};
 use crate::error::{joined, OrbitError};
 use crate::insert::InsertScratch;
 use crate::key::KeyNumbers;
-use crate::numerators::Numerators;
 use crate::problem::OrbitProblem;
 use crate::set::{Fetched, LineStore, StoreKind};
+use crate::sparse_numerators::SparseNumerators;
 use crate::step::{Candidate, Outcome, Pending, Workspace};
 
 /// Where and how often to write checkpoints.
@@ -568,7 +568,7 @@ impl OrbitProblem {
                 orbit.len()
             )));
         }
-        let mut buf = Numerators::new(self.key_len());
+        let mut buf = SparseNumerators::new(self.key_len());
         let key = match self.fetch(&orbit.set, index, &mut buf)? {
             Fetched::Small => KeyNumbers::Small(buf.dense),
             Fetched::Big(b) => KeyNumbers::Big(b.into_owned()),

@@ -28,7 +28,7 @@ use num_integer::Integer;
 use num_traits::{One, Signed, ToPrimitive, Zero};
 
 use crate::key::KeyNumbers;
-use crate::numerators::Numerators;
+use crate::sparse_numerators::SparseNumerators;
 
 /// Fingerprints of lines of Q(ζ_n)^d.
 #[derive(Debug, Clone)]
@@ -111,7 +111,12 @@ impl Fingerprinter {
 
     /// The fingerprint of the line through `u` (first non-zero block k), or `None` when
     /// red(u_k) = 0 (then use [`Self::of_key`]); the second form only when `wide`.
-    pub(crate) fn of_representative(&self, u: &Numerators, k: usize, wide: bool) -> Option<u64> {
+    pub(crate) fn of_representative(
+        &self,
+        u: &SparseNumerators,
+        k: usize,
+        wide: bool,
+    ) -> Option<u64> {
         let p = self.p as i128;
         let lead = &u.dense[k * self.phi..(k + 1) * self.phi];
         let mut a = 0i128;
@@ -239,12 +244,12 @@ mod tests {
     use cyclorb_field::Cyc;
     use cyclorb_field::PolyKernel;
 
-    fn numerators(f: &CyclotomicField, texts: &[&str]) -> Numerators {
+    fn numerators(f: &CyclotomicField, texts: &[&str]) -> SparseNumerators {
         let dense: Vec<i64> = texts
             .iter()
             .flat_map(|t| f.parse(t).unwrap().small_parts().unwrap().0.to_vec())
             .collect();
-        let mut u = Numerators::new(dense.len());
+        let mut u = SparseNumerators::new(dense.len());
         u.set_dense(&dense);
         u
     }
@@ -288,7 +293,7 @@ mod tests {
         let key = KeyNumbers::Small(vec![p, 0, -r, 1]);
         let w = vec![f.one(), f.parse(&format!("(z - {r})/{p}")).unwrap()];
         assert_eq!(KeyNumbers::of_line(&f, &w).unwrap().unwrap(), key);
-        let mut u = Numerators::new(4);
+        let mut u = SparseNumerators::new(4);
         u.set_dense(&[r - p, 1, r - (r * r + 1) / p, -1]);
         let c = f.parse(&format!("z + {r} - {p}")).unwrap();
         let cw: Vec<Cyc> = w.iter().map(|x| f.mul(&c, x).unwrap()).collect();

@@ -13,7 +13,7 @@ use num_bigint::BigInt;
 use num_integer::Integer;
 use num_traits::{One, ToPrimitive, Zero};
 
-use crate::numerators::Numerators;
+use crate::sparse_numerators::SparseNumerators;
 use cyclorb_field::PolyKernel;
 
 /// The numerators S of a key (d blocks of φ coefficients): machine words when they fit.
@@ -151,7 +151,7 @@ pub(crate) fn key_of_integer_vector(
     field: &CyclotomicField,
     kernel: &PolyKernel,
     normaliser: &mut Normaliser,
-    u: &Numerators,
+    u: &SparseNumerators,
     k: usize,
 ) -> Result<KeyNumbers, FieldError> {
     let phi = kernel.degree();
@@ -206,7 +206,7 @@ fn gcd_with(a: u128, b: u128) -> u128 {
 /// caller then takes the exact route).
 fn small_key(
     kernel: &PolyKernel,
-    u: &Numerators,
+    u: &SparseNumerators,
     inverse: &SmallInverse,
     product: &mut Vec<i128>,
     values: &mut Vec<i128>,
@@ -289,7 +289,7 @@ mod tests {
         .iter()
         .flat_map(|t| f.parse(t).unwrap().small_parts().unwrap().0.to_vec())
         .collect();
-        let mut numbers = Numerators::new(u.len());
+        let mut numbers = SparseNumerators::new(u.len());
         numbers.set_dense(&u);
         let mut cache = Normaliser::default();
         let fast = key_of_integer_vector(&f, &kernel, &mut cache, &numbers, 1).unwrap();

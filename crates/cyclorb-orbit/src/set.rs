@@ -19,8 +19,8 @@ use crate::compact::{CompactSet, ShardTable};
 use crate::error::OrbitError;
 use crate::insert::shard_of;
 use crate::key::KeyNumbers;
-use crate::numerators::Numerators;
 use crate::problem::OrbitProblem;
+use crate::sparse_numerators::SparseNumerators;
 use crate::step::Workspace;
 use crate::store::{place, KeyArena, OrbitSet, Slot, StoredKey, Width};
 
@@ -144,7 +144,7 @@ impl LineStore {
     pub(crate) fn get<'a>(
         &'a self,
         i: usize,
-        out: &mut Numerators,
+        out: &mut SparseNumerators,
     ) -> Option<Result<StoredKey<'a>, OrbitError>> {
         match self {
             LineStore::Memory(s) => Some(Ok(s.keys.get(i, out))),
@@ -312,7 +312,7 @@ impl OrbitProblem {
         &self,
         set: &'a LineStore,
         i: usize,
-        out: &mut Numerators,
+        out: &mut SparseNumerators,
     ) -> Result<Fetched<'a>, OrbitError> {
         if let Some(stored) = set.get(i, out) {
             return Ok(match stored? {

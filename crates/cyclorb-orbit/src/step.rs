@@ -26,9 +26,9 @@ use num_traits::One;
 use crate::error::OrbitError;
 use crate::fingerprint::bucket_hash;
 use crate::key::{first_nonzero_block, key_of_integer_vector, KeyNumbers, Normaliser};
-use crate::numerators::Numerators;
 use crate::problem::OrbitProblem;
 use crate::set::{Fetched, LineStore};
+use crate::sparse_numerators::SparseNumerators;
 use crate::store::{KeyArena, StoredKey};
 
 /// What an image turned out to be.
@@ -107,7 +107,7 @@ impl Pending {
 pub(crate) struct Workspace {
     phi: usize,
     /// Numerators of the source element's key, when it is in machine words.
-    source: Numerators,
+    source: SparseNumerators,
     source_is_small: bool,
     /// The source key as numbers (exact path) and as field elements, made on demand.
     source_key: Option<KeyNumbers>,
@@ -115,14 +115,14 @@ pub(crate) struct Workspace {
     /// Zero between uses, with a bit mask of the entries a product wrote.
     wide: Vec<i128>,
     touched: Vec<u64>,
-    image: Numerators,
+    image: SparseNumerators,
     /// Multiplication matrix of the image's first non-zero coordinate, by columns, and its
     /// largest row sum; `lead_state` 0 = not built, 1 = built, 2 = beyond `i64`.
     lead: Vec<i64>,
     lead_wide: Vec<i128>,
     lead_bound: u128,
     lead_state: u8,
-    stored: Numerators,
+    stored: SparseNumerators,
     /// Number of non-zero blocks of the image.
     image_blocks: usize,
     /// One block of U_k·S_i.
@@ -137,18 +137,18 @@ impl Workspace {
         let len = problem.key_len();
         Workspace {
             phi,
-            source: Numerators::new(len),
+            source: SparseNumerators::new(len),
             source_is_small: true,
             source_key: None,
             source_line: None,
             wide: vec![0; len],
             touched: vec![0; len.div_ceil(64)],
-            image: Numerators::new(len),
+            image: SparseNumerators::new(len),
             lead: vec![0; phi * phi],
             lead_wide: vec![0; phi * phi],
             lead_bound: 0,
             lead_state: 0,
-            stored: Numerators::new(len),
+            stored: SparseNumerators::new(len),
             image_blocks: 0,
             rhs: vec![0; phi],
             rhs_small: vec![0; phi],
@@ -384,7 +384,7 @@ impl OrbitProblem {
     pub(crate) fn find_key(
         &self,
         set: &LineStore,
-        buf: &mut Numerators,
+        buf: &mut SparseNumerators,
         fingerprint: u64,
         key: &KeyNumbers,
     ) -> Result<Option<u32>, OrbitError> {
@@ -444,7 +444,7 @@ impl OrbitProblem {
         i: usize,
         k: usize,
     ) -> Result<bool, OrbitError> {
-        let mut stored = std::mem::replace(&mut ws.stored, Numerators::new(0));
+        let mut stored = std::mem::replace(&mut ws.stored, SparseNumerators::new(0));
         let result = match self.fetch(set, i, &mut stored) {
             Err(e) => Err(e),
             Ok(Fetched::Small) => {
@@ -545,7 +545,7 @@ impl OrbitProblem {
     }
 
     /// Exact test, in `Cyc` arithmetic, that the integer vector u spans the line of `key`.
-    fn same_line_exact(&self, u: &Numerators, key: &KeyNumbers) -> Result<bool, OrbitError> {
+    fn same_line_exact(&self, u: &SparseNumerators, key: &KeyNumbers) -> Result<bool, OrbitError> {
         let phi = self.kernel.degree();
         let w = key.to_line(&self.field, phi)?;
         let one = BigInt::one();

@@ -26,7 +26,7 @@ use num_bigint::BigInt;
 use crate::fingerprint::bucket_hash;
 use crate::insert::{shard_of, SHARDS};
 use crate::key::KeyNumbers;
-use crate::numerators::Numerators;
+use crate::sparse_numerators::SparseNumerators;
 use crate::spill::SpillFile;
 
 /// Bytes per stored numerator.
@@ -202,7 +202,7 @@ impl KeyArena {
     pub(crate) fn get_spilled<'a>(
         &'a self,
         i: usize,
-        out: &mut Numerators,
+        out: &mut SparseNumerators,
     ) -> Result<StoredKey<'a>, String> {
         let start = self.start(i);
         if start >= self.in_file {
@@ -409,7 +409,7 @@ impl KeyArena {
 
     /// Re-encode the keys (all in memory) at a wider width.
     fn widen(&mut self, to: Width) {
-        let mut key = Numerators::new(self.blocks * self.phi);
+        let mut key = SparseNumerators::new(self.blocks * self.phi);
         let from = self.width();
         let mut fresh = KeyArena {
             widths: vec![(0, to)],
@@ -443,13 +443,13 @@ impl KeyArena {
 
     /// Key i, held in memory, into `out` (which must be the zero vector or hold a previous
     /// key).
-    fn decode_small(&self, i: usize, out: &mut Numerators) {
+    fn decode_small(&self, i: usize, out: &mut SparseNumerators) {
         let at = self.start(i) - self.in_file;
         self.decode_bytes(&self.bytes[at..], self.width_of(i), out);
     }
 
     /// The key encoded at `width` at the start of `bytes` into `out`.
-    fn decode_bytes(&self, bytes: &[u8], width: Width, out: &mut Numerators) {
+    fn decode_bytes(&self, bytes: &[u8], width: Width, out: &mut SparseNumerators) {
         out.clear();
         let mask_len = self.blocks.div_ceil(8);
         let coefficient_mask = self.phi.div_ceil(8);
@@ -484,7 +484,7 @@ impl KeyArena {
 
     /// Key i, held in memory (see [`KeyArena::get_spilled`] for keys in a file): machine
     /// words into `out`, or big.
-    pub(crate) fn get<'a>(&'a self, i: usize, out: &mut Numerators) -> StoredKey<'a> {
+    pub(crate) fn get<'a>(&'a self, i: usize, out: &mut SparseNumerators) -> StoredKey<'a> {
         if !self.big.is_empty() {
             if let Some(k) = self.big.get(&(i as u32)) {
                 return StoredKey::Big(k);
@@ -496,7 +496,7 @@ impl KeyArena {
 
     /// Key i as owned numbers.
     pub(crate) fn key(&self, i: usize) -> KeyNumbers {
-        let mut out = Numerators::new(self.blocks * self.phi);
+        let mut out = SparseNumerators::new(self.blocks * self.phi);
         match self.get(i, &mut out) {
             StoredKey::Small => KeyNumbers::Small(out.dense),
             StoredKey::Big(b) => KeyNumbers::Big(b.to_vec()),
@@ -735,8 +735,8 @@ mod tests {
         arena.buffer_limit = 40;
         arena.push(&key(0));
         arena.stream_to(&dir).unwrap();
-        let mut out = Numerators::new(2 * phi);
-        let read = |arena: &KeyArena, i: usize, out: &mut Numerators| -> KeyNumbers {
+        let mut out = SparseNumerators::new(2 * phi);
+        let read = |arena: &KeyArena, i: usize, out: &mut SparseNumerators| -> KeyNumbers {
             match arena.get_spilled(i, out).unwrap() {
                 StoredKey::Small => KeyNumbers::Small(out.dense.clone()),
                 StoredKey::Big(b) => KeyNumbers::Big(b.to_vec()),
@@ -783,12 +783,22 @@ mod tests {
         let w1 = arena.encode_detached(&key(1), &mut stale).unwrap();
         arena.push(&KeyNumbers::Small(vec![1, 1000, 0, 0]));
         assert!(!arena.push_encoded(w1, &stale));
-        let mut out = Numerators::new(4);
+        let mut out = SparseNumerators::new(4);
         for i in 0..300 {
-            assert!(matches!(arena.get_spilled(i, &mut out), Ok(StoredKey::Small)));
-            assert_eq!(KeyNumbers::Small(out.dense.clone()), key(i as i64), "key {i}");
+            assert!(matches!(
+                arena.get_spilled(i, &mut out),
+                Ok(StoredKey::Small)
+            ));
+            assert_eq!(
+                KeyNumbers::Small(out.dense.clone()),
+                key(i as i64),
+                "key {i}"
+            );
         }
-        assert!(matches!(arena.get_spilled(300, &mut out), Ok(StoredKey::Small)));
+        assert!(matches!(
+            arena.get_spilled(300, &mut out),
+            Ok(StoredKey::Small)
+        ));
         assert_eq!(out.dense, vec![1, 1000, 0, 0]);
     }
 }

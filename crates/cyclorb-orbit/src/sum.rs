@@ -23,8 +23,8 @@ use num_integer::Integer;
 use num_traits::{One, ToPrimitive};
 
 use crate::error::{joined, OrbitError};
-use crate::numerators::Numerators;
 use crate::problem::OrbitProblem;
+use crate::sparse_numerators::SparseNumerators;
 use crate::store::{KeyArena, StoredKey};
 use cyclorb_field::PolyKernel;
 
@@ -93,7 +93,7 @@ struct BlockEntries {
 struct LineReader<'a> {
     problem: &'a OrbitProblem,
     form: &'a IntegerForm,
-    key: Numerators,
+    key: SparseNumerators,
     /// conj(S_i) of one block.
     conj_block: Vec<i64>,
     blocks: Vec<BlockEntries>,
@@ -112,7 +112,7 @@ impl<'a> LineReader<'a> {
         LineReader {
             problem,
             form,
-            key: Numerators::new(len),
+            key: SparseNumerators::new(len),
             conj_block: vec![0; phi],
             blocks: Vec::new(),
             s_list: Vec::new(),

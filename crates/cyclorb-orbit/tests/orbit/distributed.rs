@@ -13,7 +13,7 @@ use cyclorb_orbit::{
     PoincareSum, Silent, StopReason,
 };
 
-use crate::common::*;
+use crate::sample_sets::*;
 
 /// One rank of a group of threads meeting at a barrier.
 struct ThreadRank {

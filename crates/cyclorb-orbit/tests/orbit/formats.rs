@@ -3,7 +3,7 @@
 use cyclorb_matrix::{Block, Operator};
 use cyclorb_orbit::{FormatError, GeneratorSet, Seed};
 
-use crate::common::*;
+use crate::sample_sets::*;
 
 fn every_kind() -> GeneratorSet {
     let f = field(12);

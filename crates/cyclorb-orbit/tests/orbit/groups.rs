@@ -2,7 +2,7 @@
 
 use cyclorb_orbit::{OrbitProblem, Seed};
 
-use crate::common::*;
+use crate::sample_sets::*;
 
 #[test]
 fn stabilizer_states_of_one_two_three_qubits() {

@@ -3,7 +3,7 @@
 use cyclorb_matrix::{Matrix, Operator};
 use cyclorb_orbit::{GeneratorSet, OrbitProblem, PoincareReport, Seed};
 
-use crate::common::*;
+use crate::sample_sets::*;
 
 #[test]
 fn ising_vacuum_orbit_has_24_lines_and_b_is_8() {

@@ -2,7 +2,6 @@
 //! stops and resumption, thread independence, checkpoints and file formats. Every check
 //! against an outside value names its source beside it.
 
-mod common;
 mod distributed;
 mod formats;
 mod groups;
@@ -12,5 +11,6 @@ mod outside;
 mod poincare;
 mod products;
 mod runs;
+mod sample_sets;
 mod stores;
 mod su2;

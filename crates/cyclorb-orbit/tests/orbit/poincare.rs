@@ -5,8 +5,8 @@ use cyclorb_field::{Cyc, CyclotomicField};
 use cyclorb_matrix::{Matrix, Operator};
 use cyclorb_orbit::{GeneratorSet, OrbitProblem, PoincareReport};
 
-use crate::common::*;
 use crate::outside;
+use crate::sample_sets::*;
 
 /// Ising's (T, S) in the basis v = D v': X' = D⁻¹ X D, invariant form G = D† D.
 fn ising_in_gauge(f: &CyclotomicField, d: &[Cyc]) -> GeneratorSet {

@@ -5,7 +5,7 @@ use cyclorb_field::CyclotomicField;
 use cyclorb_matrix::{LinearMap, Matrix, Operator};
 use cyclorb_orbit::{pair_orbit, GeneratorSet, OrbitOptions, OrbitProblem, Silent};
 
-use crate::common::*;
+use crate::sample_sets::*;
 
 /// x ⊗ y, rows (i, k) and columns (j, l) in lexicographic order.
 fn kron(f: &CyclotomicField, x: &Matrix, y: &Matrix) -> Matrix {

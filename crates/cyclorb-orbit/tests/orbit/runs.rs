@@ -11,7 +11,7 @@ use cyclorb_orbit::{
     CheckpointPlan, OrbitError, OrbitOptions, OrbitProblem, Progress, Silent, StopReason,
 };
 
-use crate::common::*;
+use crate::sample_sets::*;
 
 fn three_qubits() -> OrbitProblem {
     let g = clifford(3);

@@ -7,7 +7,7 @@ use std::time::Duration;
 
 use cyclorb_orbit::{CheckpointPlan, OrbitOptions, OrbitProblem, Silent, StopReason, StoreKind};
 
-use crate::common::*;
+use crate::sample_sets::*;
 
 fn three_qubits() -> OrbitProblem {
     let g = clifford(3);

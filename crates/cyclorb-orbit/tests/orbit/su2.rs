@@ -3,7 +3,7 @@
 use cyclorb_matrix::{Matrix, Operator};
 use cyclorb_orbit::OrbitProblem;
 
-use crate::common::*;
+use crate::sample_sets::*;
 
 #[test]
 fn su2_level_4_sum_is_a_combination_of_the_two_modular_invariants() {

@@ -6,16 +6,16 @@
 
 /// Numerators in a dense array plus their non-zero positions (ascending) and largest |x|.
 #[derive(Debug, Clone)]
-pub(crate) struct Numerators {
+pub(crate) struct SparseNumerators {
     pub(crate) dense: Vec<i64>,
     pub(crate) nonzero: Vec<u32>,
     pub(crate) max: u64,
 }
 
-impl Numerators {
+impl SparseNumerators {
     /// The zero vector of `len` numerators.
-    pub(crate) fn new(len: usize) -> Numerators {
-        Numerators {
+    pub(crate) fn new(len: usize) -> SparseNumerators {
+        SparseNumerators {
             dense: vec![0; len],
             nonzero: Vec::new(),
             max: 0,
