@@ -269,7 +269,7 @@ pub fn commutant(
             eigen_generator = Some(g);
         }
         if solved.nullity == 1 {
-            let identity = Matrix::identity(field, gens.dim());
+            let identity = Matrix::identity(field, gens.dimension());
             return Ok(CommutantCertificate {
                 conductor: field.conductor(),
                 dimension: 1,

@@ -51,7 +51,7 @@ pub fn enumerate_projective_image(
     cap: usize,
 ) -> Result<ImageEnumeration, CertError> {
     let field = gens.field();
-    let identity = Matrix::identity(field, gens.dim());
+    let identity = Matrix::identity(field, gens.dimension());
     let mut seen: HashSet<Matrix> = HashSet::new();
     let mut elements = vec![identity.clone()];
     seen.insert(identity);

@@ -111,7 +111,7 @@ impl Keys {
             }
             generators.push(rows);
         }
-        let dim = gens.dim();
+        let dim = gens.dimension();
         let mut keys = Keys {
             reduction,
             generators,

@@ -205,7 +205,7 @@ pub fn find_witness(
     options: &WitnessOptions,
 ) -> Result<WitnessOutcome, CertError> {
     let letters = gens.len();
-    let dim = gens.dim();
+    let dim = gens.dimension();
     let mut search = Search {
         gens,
         options,

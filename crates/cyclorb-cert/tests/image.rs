@@ -27,7 +27,7 @@ fn orbit_certificate(
     gens: &ProvedGenerators,
     cap: usize,
 ) -> (Vec<Vec<cyclorb_field::Cyc>>, PermutationImageCertificate) {
-    let lines = line_orbit(gens, vacuum(gens.field(), gens.dim()), cap);
+    let lines = line_orbit(gens, vacuum(gens.field(), gens.dimension()), cap);
     let cert = image_from_orbit(gens, &lines).unwrap();
     cert.verify(gens, &lines, &ImageOptions::default()).unwrap();
     (lines, cert)

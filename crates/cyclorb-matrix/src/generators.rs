@@ -350,11 +350,6 @@ impl ProvedGenerators {
         &self.set
     }
 
-    /// The size d of the matrices.
-    pub fn dim(&self) -> usize {
-        self.set.dimension
-    }
-
     /// Generator i as a dense matrix.
     pub fn dense(&self, i: usize) -> &Matrix {
         &self.dense[i]
@@ -364,7 +359,7 @@ impl ProvedGenerators {
     /// word); an error for an index that names no generator.
     pub fn word_matrix(&self, word: &[usize]) -> Result<Matrix, MatrixError> {
         let field = &self.set.field;
-        let mut acc = Matrix::identity(field, self.dim());
+        let mut acc = Matrix::identity(field, self.set.dimension);
         for &i in word {
             let generator = self
                 .dense

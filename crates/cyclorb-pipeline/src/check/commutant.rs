@@ -24,8 +24,8 @@ fn err(e: impl ToString) -> String {
 fn commuting(gens: &ProvedGenerators, matrices: &[Matrix]) -> Result<(), String> {
     let field = gens.field();
     for (k, x) in matrices.iter().enumerate() {
-        if x.rows() != gens.dim() || x.cols() != gens.dim() {
-            return Err(format!("matrix {k} is not {0}×{0}", gens.dim()));
+        if x.rows() != gens.dimension() || x.cols() != gens.dimension() {
+            return Err(format!("matrix {k} is not {0}×{0}", gens.dimension()));
         }
         for a in 0..gens.len() {
             let g = gens.dense(a);
@@ -61,7 +61,7 @@ fn rank(
 
 /// The rank modulo p of the whole system X·A − A·X = 0 in the d² unknowns X_ij.
 fn rank_mod_p(gens: &ProvedGenerators, reduction: &PrimeReduction) -> Result<usize, String> {
-    let d = gens.dim();
+    let d = gens.dimension();
     let p = reduction.prime();
     let mut echelon = EchelonModP::new(p);
     for a in 0..gens.len() {
@@ -84,7 +84,7 @@ fn rank_mod_p(gens: &ProvedGenerators, reduction: &PrimeReduction) -> Result<usi
 /// The exact rank of the commutant system over Q(ζ_n).
 fn exact_rank(gens: &ProvedGenerators) -> Result<usize, String> {
     let field = gens.field();
-    let d = gens.dim();
+    let d = gens.dimension();
     let mut rows = Vec::new();
     for a in 0..gens.len() {
         let g = gens.dense(a);
@@ -111,7 +111,7 @@ pub fn check(
     claims: &mut Claims,
 ) -> Result<(), Stop> {
     let field = gens.field();
-    let d = gens.dim();
+    let d = gens.dimension();
     let reduction = PrimeReduction::nth(field, 0).map_err(|e| Stop::Invalid(e.to_string()))?;
     claims.claim("basis-commutes", || {
         same_conductor(c.conductor, field.conductor())?;

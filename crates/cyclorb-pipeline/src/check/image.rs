@@ -54,7 +54,7 @@ fn scaled_by_last(field: &CyclotomicField, m: &Matrix) -> Result<Vec<Cyc>, Strin
 /// The size of the group modulo scalars, listed by left multiplication; `None` past `cap`.
 fn group_size(gens: &ProvedGenerators, cap: u64) -> Result<Option<u64>, String> {
     let field = gens.field();
-    let identity = Matrix::identity(field, gens.dim());
+    let identity = Matrix::identity(field, gens.dimension());
     let mut seen: HashSet<Vec<Cyc>> = HashSet::new();
     seen.insert(scaled_by_last(field, &identity)?);
     let mut queue = vec![identity];

@@ -27,7 +27,7 @@ fn err(e: impl ToString) -> String {
 /// The word's matrix: the product of the letters' matrices, read left to right.
 fn word_matrix(gens: &ProvedGenerators, word: &[usize]) -> Result<Matrix, String> {
     let field = gens.field();
-    let mut w = Matrix::identity(field, gens.dim());
+    let mut w = Matrix::identity(field, gens.dimension());
     for &a in word {
         w = w.mul(field, gens.dense(a)).map_err(err)?;
     }
