@@ -188,6 +188,18 @@ fn rank_checkpoints_resume_on_another_number_of_ranks() {
     let (code, v) = mpirun_json(1, &["orbit", "--resume", &base]);
     assert_eq!(code, 0, "{v}");
     same_as_single(&v, "resuming 2 ranks' files on 1");
+    // ... and by one process without mpirun: stopped by a second limit (its one rank file
+    // continues without mpirun too), then to the end
+    stop_on_two();
+    let (code, v) = cyclorb_json(&["orbit", "--resume", &base, "--limit", "2000"]);
+    assert_eq!(code, 3, "{v}");
+    assert_eq!(v["orbit_size"], 2000);
+    assert_eq!(v["ranks"]["count"], 1);
+    let command = v["resume_command"].as_str().unwrap();
+    assert!(command.starts_with("cyclorb orbit --resume "), "{command}");
+    let (code, v) = cyclorb_json(&["orbit", "--resume", &base]);
+    assert_eq!(code, 0, "{v}");
+    same_as_single(&v, "resuming 2 ranks' files in one process");
     // ... and by three, stopped again by a second limit, their files continued by two
     stop_on_two();
     let (code, v) = mpirun_json(

@@ -11,6 +11,7 @@ mod field;
 mod orbit;
 #[cfg(feature = "mpi")]
 mod orbit_mpi;
+mod orbit_ranks;
 pub mod output;
 mod product;
 mod progress;

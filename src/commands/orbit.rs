@@ -232,6 +232,9 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
     if super::orbit_mpi::launched() {
         return super::orbit_mpi::run(args, as_json, started);
     }
+    if super::orbit_ranks::names_rank_files(args) {
+        return super::orbit_ranks::resume_alone(args, as_json, started);
+    }
     let completed;
     let args = match &args.resume {
         Some(path) if args.spec.is_none() && args.matrices.is_none() => {

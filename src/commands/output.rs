@@ -19,7 +19,6 @@ pub enum Outcome {
     Invalid(String),
     /// Another process reports (a rank other than 0 of a distributed run): print nothing,
     /// exit with this code.
-    #[cfg(feature = "mpi")]
     Quiet(u8),
 }
 
@@ -110,7 +109,6 @@ impl Outcome {
                 eprintln!("cyclorb: {msg}");
                 ExitCode::from(1)
             }
-            #[cfg(feature = "mpi")]
             Outcome::Quiet(code) => ExitCode::from(code),
         }
     }
