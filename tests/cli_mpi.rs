@@ -275,9 +275,46 @@ fn rank_checkpoints_resume_on_another_number_of_ranks() {
 
 #[test]
 fn what_a_distributed_run_cannot_do_is_refused_once() {
-    let out = mpirun(2, &["orbit", "ising", "--genus", "1", "--store", "compact"]);
-    assert_eq!(out.status.code(), Some(1));
-    assert!(out.stdout.is_empty());
-    let stderr = String::from_utf8_lossy(&out.stderr);
-    assert_eq!(stderr.matches("memory store").count(), 1, "{stderr}");
+    let spill = std::env::temp_dir().display().to_string();
+    let checkpoint = run_cli::temp_path("mpi-compact").display().to_string();
+    for (args, reason) in [
+        (
+            vec!["--store", "memory", "--spill", spill.as_str()],
+            "only the compact store spills",
+        ),
+        (
+            vec!["--store", "compact", "--checkpoint", checkpoint.as_str()],
+            "no checkpoints",
+        ),
+    ] {
+        let mut all = vec!["orbit", "ising", "--genus", "1"];
+        all.extend(args);
+        let out = mpirun(2, &all);
+        assert_eq!(out.status.code(), Some(1));
+        assert!(out.stdout.is_empty());
+        let stderr = String::from_utf8_lossy(&out.stderr);
+        assert_eq!(stderr.matches(reason).count(), 1, "{stderr}");
+    }
+}
+
+#[test]
+fn ranks_in_the_compact_store_give_the_one_process_answer() {
+    // fixtures/outside.toml: Ising at genus 2 has 3840 terms and B = 384·I (as above)
+    let published = outside::orbit("ising", 2);
+    let (code, v) = same_on_ranks(&["orbit", "ising", "--genus", "2", "--store", "compact"]);
+    assert_eq!(code, 0);
+    assert_eq!(v["store_kind"], "compact");
+    assert_eq!(v["orbit_size"].as_u64(), Some(published.lines));
+    assert_eq!(v["poincare_sum"]["prefactor"], published.prefactor.as_str());
+    // ... and spilling their windows to a directory of their own each
+    let dir = run_cli::temp_path("mpi-spill");
+    std::fs::create_dir_all(&dir).unwrap();
+    let dir_text = dir.display().to_string();
+    let (code, spilled) = mpirun_json(2, &["orbit", "ising", "--genus", "2", "--spill", &dir_text]);
+    assert_eq!(code, 0, "{spilled}");
+    for key in ANSWER_KEYS {
+        assert_eq!(spilled[key], v[key], "{key} with --spill on 2 ranks");
+    }
+    assert!(dir.join("rank1").is_dir());
+    std::fs::remove_dir_all(&dir).ok();
 }

@@ -89,10 +89,19 @@ fn refusal(args: &OrbitArgs) -> Option<&'static str> {
     if args.method != OrbitMethod::Enumerate {
         return Some("under MPI only the enumerating route runs (drop --method)");
     }
-    if args.store.is_some() || args.spill.is_some() {
-        return Some(
-            "a distributed run keeps each rank's lines in the memory store (drop --store/--spill)",
-        );
+    if args.spill.is_some() && args.store.as_deref() == Some("memory") {
+        return Some("only the compact store spills keys to disk (drop --store memory)");
+    }
+    if args.store.as_deref() == Some("compact") || args.spill.is_some() {
+        if args.checkpoint.is_some() {
+            return Some(
+                "a distributed run in the compact store writes no checkpoints yet (drop \
+                 --checkpoint, or use the memory store)",
+            );
+        }
+        if args.resume.is_some() {
+            return Some("rank checkpoints hold the memory store (drop --store compact/--spill)");
+        }
     }
     if args.words > 0 {
         return Some("a distributed run does not print words (drop --words)");

@@ -123,6 +123,9 @@ pub(crate) struct CompactSet {
     window: VecDeque<LayerKeys>,
     /// Where finished layers' keys go (`None`: they stay in memory).
     spill: Option<PathBuf>,
+    /// Whether `parents` are global indices (a rank's share of a distributed orbit): then a
+    /// line past the window is not recomputed here ([`crate::distributed_compact`]).
+    pub(crate) parents_are_global: bool,
 }
 
 /// The slot a fingerprint's probe starts at (its high bits, scaled to the table).
@@ -132,7 +135,7 @@ fn home(fingerprint: u64, slots: usize) -> usize {
 }
 
 /// Grow a vector by an eighth when it is full.
-fn reserve_gently<T>(v: &mut Vec<T>) {
+pub(crate) fn reserve_gently<T>(v: &mut Vec<T>) {
     if v.capacity() == v.len() {
         v.reserve_exact((v.len() / 8).max(64));
     }
@@ -149,6 +152,7 @@ impl CompactSet {
             tables: (0..SHARDS).map(|_| ShardTable::new()).collect(),
             window: VecDeque::new(),
             spill: None,
+            parents_are_global: false,
         }
     }
 
@@ -193,7 +197,10 @@ impl CompactSet {
             keys.stream_to(dir)?;
         }
         self.window.push_back(LayerKeys { start, keys });
-        while self.window.len() > WINDOW_LAYERS {
+        // a rank's share of a distributed orbit builds its layer apart (the window starts
+        // at the frontier): one layer fewer gives the same reach back
+        let kept = WINDOW_LAYERS - usize::from(self.parents_are_global);
+        while self.window.len() > kept {
             self.window.pop_front();
         }
         Ok(())

@@ -32,6 +32,8 @@ use std::time::Instant;
 use cyclorb_matrix::Matrix;
 
 use crate::collective::{gather_numbers, owner, Collective};
+use crate::compact::reserve_gently;
+use crate::distributed_compact::{words_of, CompactShare, LayerSums, RecordDirectory};
 use crate::engine::{Orbit, OrbitOptions, Progress, ProgressObserver, StopReason};
 use crate::error::OrbitError;
 use crate::key::KeyNumbers;
@@ -42,6 +44,7 @@ use crate::regenerate::layer_ranges;
 use crate::set::{LineStore, StoreKind};
 use crate::sparse_numerators::SparseNumerators;
 use crate::step::Workspace;
+use crate::store::KeyArena;
 use crate::wire::{encode, Reader, WireCandidate};
 
 /// This rank's share of an orbit enumerated over several ranks, with the figures every
@@ -59,6 +62,8 @@ pub struct DistributedOrbit {
     pub(crate) ranks: usize,
     pub(crate) saturated: bool,
     pub(crate) stop: Option<StopReason>,
+    /// The record directory and the part of B, when the lines are in the compact store.
+    pub(crate) compact: Option<CompactShare>,
 }
 
 impl DistributedOrbit {
@@ -105,9 +110,24 @@ impl DistributedOrbit {
         self.local.len()
     }
 
-    /// Bytes held by this rank's store (keys, records, table, global indices).
+    /// Bytes held by this rank's store (keys, records, table, global indices, and with the
+    /// compact store its share of the record directory).
     pub fn local_store_bytes(&self) -> usize {
-        self.local.store_bytes() + self.global.capacity() * 4
+        let directory = self
+            .compact
+            .as_ref()
+            .map_or(0, |c| c.directory.bytes_used());
+        self.local.store_bytes() + self.global.capacity() * 4 + directory
+    }
+
+    /// The store holding this rank's lines (the same on every rank).
+    pub fn store_kind(&self) -> StoreKind {
+        self.local.set.kind()
+    }
+
+    /// Bytes of this rank's compact store's window of keys (0 for the memory store).
+    pub fn local_window_bytes(&self) -> usize {
+        self.local.set.window_bytes()
     }
 
     /// Bytes per numerator of this rank's keys (1, 2, 4 or 8).
@@ -139,6 +159,11 @@ struct NewLayer {
     lines: LineStore,
     orders: Vec<u64>,
     fingerprints: Vec<u64>,
+    /// (new line, old local line): the new line's fingerprint matched an old line whose key
+    /// the compact store no longer holds; settled at the end of the layer.
+    pending: Vec<(u32, u32)>,
+    /// New lines found equal to an old line when the pending ones were settled.
+    known: Vec<bool>,
 }
 
 /// Status codes of the agreement between rounds.
@@ -149,10 +174,13 @@ const FAILED: u8 = 3;
 
 impl OrbitProblem {
     /// Enumerate the orbit of the seed's line over the ranks of `comm` (every rank calls
-    /// this with the same problem and options). Only the memory store is used; the options'
-    /// limit, memory ceiling, threads, chunk size and stop flag apply (the ceiling to each
-    /// rank's store); a checkpoint plan writes one file per rank ([`rank_checkpoint_path`])
-    /// at finished layers and at a stop. `observer` hears the whole job after every layer.
+    /// this with the same problem and options). Each rank keeps its lines in the store the
+    /// options name (the compact one with its records filed by global index and B summed
+    /// layer by layer, module `distributed_compact`; not spilled); the options' limit,
+    /// memory ceiling, threads, chunk size and stop flag apply (the ceiling to each rank's
+    /// store); a checkpoint plan writes one file per rank ([`rank_checkpoint_path`]) at
+    /// finished layers and at a stop (memory store). `observer` hears the whole job after
+    /// every layer.
     pub fn enumerate_distributed(
         &self,
         comm: &dyn Collective,
@@ -161,19 +189,30 @@ impl OrbitProblem {
     ) -> Result<DistributedOrbit, OrbitError> {
         let ranks = comm.size();
         let mut local = Orbit {
-            set: LineStore::new(StoreKind::Memory, self.dimension(), self.kernel.degree()),
+            set: LineStore::new(options.store, self.dimension(), self.kernel.degree())
+                .with_global_parents(),
             processed: 0,
             layer_ends: Vec::new(),
             stop: None,
             compute_seconds: 0.0,
         };
+        self.check_store_fits(options.store)?;
+        let mut compact = (options.store == StoreKind::Compact).then(|| CompactShare {
+            directory: RecordDirectory::new(comm.rank(), ranks),
+            sums: LayerSums::new(self),
+        });
         let mut global = Vec::new();
-        let seed_fingerprint = self.key_fingerprint(&self.seed_key, false);
+        let seed_fingerprint = self.key_fingerprint(&self.seed_key, local.set.wide());
         if owner(seed_fingerprint, ranks) == comm.rank() {
             local
                 .set
                 .insert(&self.seed_key, seed_fingerprint, u32::MAX, u16::MAX);
             global.push(0);
+            if let Some(sums) = compact.as_mut().and_then(|c| c.sums.as_mut()) {
+                let mut seed = KeyArena::new(self.dimension(), self.kernel.degree());
+                seed.push(&self.seed_key);
+                sums.add(self, &seed, options.threads)?;
+            }
         }
         local.layer_ends.push(local.set.len());
         let orbit = DistributedOrbit {
@@ -184,6 +223,7 @@ impl OrbitProblem {
             ranks,
             saturated: false,
             stop: None,
+            compact,
         };
         self.extend_distributed(orbit, comm, options, observer)
     }
@@ -243,10 +283,29 @@ impl OrbitProblem {
         options: &OrbitOptions,
         observer: &mut dyn ProgressObserver,
     ) -> Result<DistributedOrbit, OrbitError> {
-        if options.store != StoreKind::Memory || options.spill.is_some() {
+        if options.store != orbit.local.set.kind() {
+            return Err(OrbitError::Invalid(format!(
+                "this distributed enumeration keeps every rank's lines in the {} store (drop \
+                 --store)",
+                orbit.local.set.kind().name()
+            )));
+        }
+        if let Some(dir) = &options.spill {
+            // a directory of its own per rank: ranks on nodes sharing a file system never
+            // meet in one directory
+            let mine = dir.join(format!("rank{}", comm.rank()));
+            let made = std::fs::create_dir_all(&mine)
+                .map_err(|e| OrbitError::Io {
+                    path: mine.display().to_string(),
+                    reason: e.to_string(),
+                })
+                .and_then(|()| orbit.local.set.spill_to(&mine));
+            agreed(comm, made, "could not spill its keys")?;
+        }
+        if orbit.compact.is_some() && options.checkpoint.is_some() {
             return Err(OrbitError::Invalid(
-                "a distributed enumeration keeps every rank's lines in the memory store \
-                 (no --store compact or --spill)"
+                "a distributed run in the compact store writes no checkpoints yet (drop \
+                 --checkpoint, or use the memory store)"
                     .into(),
             ));
         }
@@ -270,6 +329,8 @@ impl OrbitProblem {
                 lines: LineStore::new(StoreKind::Memory, self.dimension(), self.kernel.degree()),
                 orders: Vec::new(),
                 fingerprints: Vec::new(),
+                pending: Vec::new(),
+                known: Vec::new(),
             };
             let mut failure = None;
             for round in 0..=rounds {
@@ -322,7 +383,10 @@ impl OrbitProblem {
                     }
                 }
             }
-            let found = self.settle_layer(comm, &mut orbit, layer, options.limit)?;
+            if let Some(share) = &orbit.compact {
+                self.settle_pending(comm, &orbit.local.set, &share.directory, &mut layer)?;
+            }
+            let found = self.settle_layer(comm, &mut orbit, layer, options)?;
             orbit.local.compute_seconds = base_seconds + started.elapsed().as_secs_f64();
             let elapsed = started.elapsed();
             observer.progress(&Progress {
@@ -371,15 +435,10 @@ impl OrbitProblem {
         };
         let path = rank_checkpoint_path(&plan.path, comm.rank());
         let written = self.write_rank_checkpoint(orbit, comm.rank(), &path);
-        let all = gather_numbers(comm, &[u64::from(written.is_ok())]);
-        written?;
-        match all.iter().position(|v| v[0] == 0) {
-            Some(rank) => Err(OrbitError::Checkpoint {
-                path: rank_checkpoint_path(&plan.path, rank).display().to_string(),
-                reason: "rank could not write its checkpoint (its message is on stderr)".into(),
-            }),
-            None => Ok(()),
-        }
+        agreed_or(comm, written, |rank| OrbitError::Checkpoint {
+            path: rank_checkpoint_path(&plan.path, rank).display().to_string(),
+            reason: "rank could not write its checkpoint (its message is on stderr)".into(),
+        })
     }
 
     /// The images of the local elements `part` that this rank does not already know, as
@@ -416,6 +475,7 @@ impl OrbitProblem {
         incoming: &[Vec<u8>],
     ) -> Result<(), OrbitError> {
         let mut buf = SparseNumerators::new(self.key_len());
+        let mut not_held = Vec::new();
         for (from, bytes) in incoming.iter().enumerate() {
             let mut reader = Reader::new(bytes, self.key_len(), format!("rank {from}"));
             while let Some(WireCandidate {
@@ -424,7 +484,10 @@ impl OrbitProblem {
                 key,
             }) = reader.next_candidate()?
             {
-                if self.find_key(known, &mut buf, fingerprint, &key)?.is_some() {
+                not_held.clear();
+                let found =
+                    self.find_key_noting(known, &mut buf, fingerprint, &key, &mut not_held)?;
+                if found.is_some() {
                     continue;
                 }
                 match self.find_key(&layer.lines, &mut buf, fingerprint, &key)? {
@@ -433,14 +496,57 @@ impl OrbitProblem {
                         *o = (*o).min(order);
                     }
                     None => {
+                        let new = layer.orders.len() as u32;
                         layer.lines.insert(&key, fingerprint, 0, 0);
                         layer.orders.push(order);
                         layer.fingerprints.push(fingerprint);
+                        layer.known.push(false);
+                        // a later candidate with this key finds this line in the layer:
+                        // one pending entry per old line suffices
+                        layer.pending.extend(not_held.iter().map(|&old| (new, old)));
                     }
                 }
             }
         }
         Ok(())
+    }
+
+    /// Settle the layer's pending lines (the compact store): the old lines they may equal
+    /// are recomputed from their words, followed through the holders' records
+    /// ([`words_of`]), and a new line equal to one of them is marked known. Collective.
+    fn settle_pending(
+        &self,
+        comm: &dyn Collective,
+        known: &LineStore,
+        directory: &RecordDirectory,
+        layer: &mut NewLayer,
+    ) -> Result<(), OrbitError> {
+        let mut old: Vec<u32> = layer.pending.iter().map(|&(_, o)| o).collect();
+        old.sort_unstable();
+        old.dedup();
+        let records: Vec<(u32, u16)> = old
+            .iter()
+            .map(|&o| {
+                let (parent, generator) = known.record(o as usize);
+                (parent as u32, generator as u16)
+            })
+            .collect();
+        let words = words_of(comm, directory, &records)?;
+        let decided = (|| -> Result<(), OrbitError> {
+            let keys = old
+                .iter()
+                .zip(&words)
+                .map(|(&o, w)| Ok((o, self.key_of_word(w)?)))
+                .collect::<Result<hashbrown::HashMap<u32, KeyNumbers>, OrbitError>>()?;
+            let lines = layer.lines.memory_keys().ok_or_else(held_in_memory)?;
+            for &(new, o) in &layer.pending {
+                if lines.key(new as usize) == keys[&o] {
+                    layer.known[new as usize] = true;
+                }
+            }
+            Ok(())
+        })();
+        agreed(comm, decided, "could not settle its pending lines")
     }
 
     /// Give the layer's new lines their global indices (their rank among all ranks' new
@@ -450,9 +556,12 @@ impl OrbitProblem {
         comm: &dyn Collective,
         orbit: &mut DistributedOrbit,
         layer: NewLayer,
-        limit: Option<usize>,
+        options: &OrbitOptions,
     ) -> Result<LayerEnd, OrbitError> {
-        let mut order: Vec<usize> = (0..layer.orders.len()).collect();
+        let limit = options.limit;
+        let mut order: Vec<usize> = (0..layer.orders.len())
+            .filter(|&i| !layer.known[i])
+            .collect();
         order.sort_unstable_by_key(|&i| layer.orders[i]);
         let mine: Vec<u64> = order.iter().map(|&i| layer.orders[i]).collect();
         let (positions, new_lines) = self.rank_order_keys(comm, orbit, &mine);
@@ -467,8 +576,26 @@ impl OrbitProblem {
             )));
         }
         let lines = layer.lines.memory_keys().ok_or_else(held_in_memory)?;
+        // the layer's keys start a layer of the compact store's window (a spilling store
+        // writes the finished one to its file: an error there is every rank's)
+        let opened = orbit.local.set.open_layer(orbit.local.set.len());
+        agreed(comm, opened, "could not write its finished layer's keys")?;
+        let mut filed = Vec::new();
+        // B's terms come from the layer's keys, held in memory here whether or not the
+        // store spills: all of them, less (B is exact) the terms of those found known or
+        // cut by the limit, which are few but for a cut
+        let summing = orbit.compact.as_ref().is_some_and(|c| c.sums.is_some());
+        let mut left_out = KeyArena::new(self.dimension(), self.kernel.degree());
+        if summing {
+            for i in (0..layer.orders.len()).filter(|&i| layer.known[i]) {
+                left_out.push(&lines.key(i));
+            }
+        }
         for ((&i, &key_order), &position) in order.iter().zip(&mine).zip(&positions) {
             if position >= room {
+                if summing {
+                    left_out.push(&lines.key(i));
+                }
                 continue;
             }
             let key: KeyNumbers = lines.key(i);
@@ -478,7 +605,17 @@ impl OrbitProblem {
                 (key_order >> 16) as u32,
                 (key_order & 0xffff) as u16,
             );
-            orbit.global.push((orbit.total + position) as u32);
+            let index = (orbit.total + position) as u32;
+            reserve_gently(&mut orbit.global);
+            orbit.global.push(index);
+            filed.push((index, key_order));
+        }
+        if let Some(share) = &mut orbit.compact {
+            share.directory.file(comm, &filed)?;
+            if let Some(sums) = &mut share.sums {
+                sums.add(self, lines, options.threads)?;
+                sums.subtract(self, &left_out, options.threads)?;
+            }
         }
         let kept = new_lines.min(room);
         orbit.total += kept;
@@ -597,6 +734,12 @@ impl OrbitProblem {
         }
         self.check_unitary()?;
         let norm = self.form_norm(&self.seed, g)?;
+        if let Some(share) = &orbit.compact {
+            // summed layer by layer during the enumeration (module `distributed_compact`)
+            return share.sums.as_ref().map(LayerSums::parts).ok_or_else(|| {
+                OrbitError::Invalid("the compact store's layer sums were not kept".into())
+            });
+        }
         let keys = orbit.local.set.memory_keys().ok_or_else(held_in_memory)?;
         let b =
             crate::sum::sum_matrix(self, keys, threads, g, &norm, crate::sum::Tuning::default())?;
@@ -626,6 +769,33 @@ fn matrix_text(m: &Matrix) -> Vec<String> {
     (0..m.rows())
         .flat_map(|i| (0..m.rows()).map(move |j| m.get(i, j).to_string()))
         .collect()
+}
+
+/// A step that may fail on some ranks only: every rank learns whether all succeeded, so
+/// that all return an error together (this rank's own, or one naming the failed rank)
+/// instead of waiting for a collective call the failed rank never makes.
+fn agreed(
+    comm: &dyn Collective,
+    mine: Result<(), OrbitError>,
+    what: &str,
+) -> Result<(), OrbitError> {
+    agreed_or(comm, mine, |rank| {
+        OrbitError::Invalid(format!("rank {rank} {what} (its message is on stderr)"))
+    })
+}
+
+/// [`agreed`], with the error for a failed `rank` made by `failed`.
+fn agreed_or(
+    comm: &dyn Collective,
+    mine: Result<(), OrbitError>,
+    failed: impl FnOnce(usize) -> OrbitError,
+) -> Result<(), OrbitError> {
+    let all = gather_numbers(comm, &[u64::from(mine.is_ok())]);
+    mine?;
+    match all.iter().position(|v| v[0] == 0) {
+        Some(rank) => Err(failed(rank)),
+        None => Ok(()),
+    }
 }
 
 fn held_in_memory() -> OrbitError {

@@ -303,13 +303,7 @@ impl OrbitProblem {
         let found_before = orbit.len();
         let mut last_checkpoint = Instant::now();
         orbit.stop = None;
-        if orbit.set.kind() == StoreKind::Compact && self.generators.operators().len() > 255 {
-            return Err(OrbitError::Invalid(format!(
-                "the compact store records a generator in one byte; {} generators need \
-                 the memory store",
-                self.generators.operators().len()
-            )));
-        }
+        self.check_store_fits(orbit.set.kind())?;
         if let Some(dir) = &options.spill {
             orbit.set.spill_to(dir)?;
         }
@@ -560,6 +554,19 @@ impl OrbitProblem {
         Ok(permutations)
     }
 
+    /// The compact store records a generator in one byte: more than 255 generators need the
+    /// memory store.
+    pub(crate) fn check_store_fits(&self, store: StoreKind) -> Result<(), OrbitError> {
+        let generators = self.generators.operators().len();
+        if store == StoreKind::Compact && generators > 255 {
+            return Err(OrbitError::Invalid(format!(
+                "the compact store records a generator in one byte; {generators} generators \
+                 need the memory store"
+            )));
+        }
+        Ok(())
+    }
+
     /// The key of element `index` as a vector of field elements (first non-zero entry 1).
     pub fn line(&self, orbit: &Orbit, index: usize) -> Result<Vec<Cyc>, OrbitError> {
         if index >= orbit.len() {
@@ -572,6 +579,11 @@ impl OrbitProblem {
         let key = match self.fetch(&orbit.set, index, &mut buf)? {
             Fetched::Small => KeyNumbers::Small(buf.dense),
             Fetched::Big(b) => KeyNumbers::Big(b.into_owned()),
+            Fetched::NotHeld => {
+                return Err(OrbitError::Invalid(format!(
+                    "line {index} is held by its rank only as a record"
+                )))
+            }
         };
         Ok(key.to_line(&self.field, self.kernel.degree())?)
     }

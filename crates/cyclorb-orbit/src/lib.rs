@@ -83,6 +83,7 @@ mod commutant;
 mod compact;
 mod compiled;
 mod distributed;
+mod distributed_compact;
 mod engine;
 mod error;
 mod fingerprint;

@@ -252,6 +252,8 @@ impl OrbitProblem {
             ranks,
             saturated: false,
             stop: None,
+            // rank checkpoints hold the memory store
+            compact: None,
         })
     }
 
@@ -482,6 +484,8 @@ fn share(
         ranks,
         saturated: false,
         stop: None,
+        // rank checkpoints hold the memory store
+        compact: None,
     }
 }
 

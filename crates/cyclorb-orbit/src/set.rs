@@ -98,10 +98,13 @@ fn split_groups<'a, T>(mut tables: &'a mut [T], groups: &[Range<usize>]) -> Vec<
     parts
 }
 
-/// A stored key as read back: machine words in the caller's buffer, or big numbers.
+/// A stored key as read back: machine words in the caller's buffer, or big numbers; or
+/// not held here: a rank's compact store past its window, whose word runs through other
+/// ranks' records (the distributed enumeration settles such a line at the end of the layer).
 pub(crate) enum Fetched<'a> {
     Small,
     Big(Cow<'a, [BigInt]>),
+    NotHeld,
 }
 
 impl LineStore {
@@ -110,6 +113,16 @@ impl LineStore {
             StoreKind::Memory => LineStore::Memory(OrbitSet::new(blocks, phi)),
             StoreKind::Compact => LineStore::Compact(CompactSet::new(blocks, phi)),
         }
+    }
+
+    /// The store of a rank's share of a distributed orbit, whose records hold global parent
+    /// indices: the compact store then reads only its window back
+    /// ([`Self::parents_are_global`]); the memory store holds every key anyway.
+    pub(crate) fn with_global_parents(mut self) -> LineStore {
+        if let LineStore::Compact(s) = &mut self {
+            s.parents_are_global = true;
+        }
+        self
     }
 
     pub(crate) fn kind(&self) -> StoreKind {
@@ -130,6 +143,12 @@ impl LineStore {
             LineStore::Memory(s) => s.len(),
             LineStore::Compact(s) => s.len(),
         }
+    }
+
+    /// Whether the records hold global parent indices (a rank's share of a distributed
+    /// compact store), so that a line past the window cannot be recomputed from them here.
+    pub(crate) fn parents_are_global(&self) -> bool {
+        matches!(self, LineStore::Compact(s) if s.parents_are_global)
     }
 
     /// The Schreier record of element i > 0: (parent, generator).
@@ -320,6 +339,9 @@ impl OrbitProblem {
                 StoredKey::Big(b) => Fetched::Big(Cow::Borrowed(b)),
             });
         }
+        if set.parents_are_global() {
+            return Ok(Fetched::NotHeld);
+        }
         Ok(match self.recompute(set, i)? {
             KeyNumbers::Small(v) => {
                 out.clear();
@@ -344,9 +366,17 @@ impl OrbitProblem {
             word.push(generator);
             at = parent;
         }
+        word.reverse();
+        self.key_of_word(&word)
+    }
+
+    /// The key of the line X_{w_k} ⋯ X_{w_1}·v₀ for the word w (generator indices in the
+    /// order they are applied), each image normalised to its key (§1 of docs/orbits.md), so
+    /// that the result is exactly the key the enumeration stored for the line.
+    pub(crate) fn key_of_word(&self, word: &[usize]) -> Result<KeyNumbers, OrbitError> {
         let mut ws = Workspace::new(self);
         let mut key = self.seed_key.clone();
-        for &generator in word.iter().rev() {
+        for &generator in word {
             ws.load_key(&key);
             key = self.image_key(&mut ws, generator)?;
         }

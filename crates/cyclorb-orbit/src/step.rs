@@ -164,6 +164,11 @@ impl Workspace {
         index: usize,
     ) -> Result<(), OrbitError> {
         let fetched = problem.fetch(set, index, &mut self.source)?;
+        if matches!(fetched, Fetched::NotHeld) {
+            return Err(OrbitError::Invalid(format!(
+                "element {index} is to be expanded but its key is not held (past the window)"
+            )));
+        }
         self.take_source(fetched);
         Ok(())
     }
@@ -183,7 +188,8 @@ impl Workspace {
         self.source_line = None;
         self.source_is_small = matches!(fetched, Fetched::Small);
         self.source_key = match fetched {
-            Fetched::Small => None,
+            // (never `NotHeld`: `load` refuses it)
+            Fetched::Small | Fetched::NotHeld => None,
             Fetched::Big(b) => Some(KeyNumbers::Big(b.into_owned())),
         };
     }
@@ -380,7 +386,9 @@ impl OrbitProblem {
         self.fingerprints.of_key(key, k.unwrap_or(0), wide)
     }
 
-    /// The stored element with exactly this key.
+    /// The stored element with exactly this key. Every stored line is read back or
+    /// recomputed here, so a store whose records are global ([`LineStore::parents_are_global`])
+    /// goes through [`Self::find_key_noting`] instead.
     pub(crate) fn find_key(
         &self,
         set: &LineStore,
@@ -388,11 +396,36 @@ impl OrbitProblem {
         fingerprint: u64,
         key: &KeyNumbers,
     ) -> Result<Option<u32>, OrbitError> {
+        let mut not_held = Vec::new();
+        let found = self.find_key_noting(set, buf, fingerprint, key, &mut not_held)?;
+        if found.is_none() && !not_held.is_empty() {
+            return Err(OrbitError::Invalid(
+                "a line of a distributed compact store was looked up as if held here".into(),
+            ));
+        }
+        Ok(found)
+    }
+
+    /// The stored element with exactly this key, among those whose key the store holds or
+    /// recomputes; the elements with this fingerprint whose key is not held here are added
+    /// to `not_held` (they may still be the line: the caller settles them).
+    pub(crate) fn find_key_noting(
+        &self,
+        set: &LineStore,
+        buf: &mut SparseNumerators,
+        fingerprint: u64,
+        key: &KeyNumbers,
+        not_held: &mut Vec<u32>,
+    ) -> Result<Option<u32>, OrbitError> {
         let mut failure = None;
         let found = set.find(fingerprint, |i| {
             let same = match (self.fetch(set, i, buf), key) {
                 (Ok(Fetched::Small), KeyNumbers::Small(k)) => Ok(buf.dense == *k),
                 (Ok(Fetched::Big(b)), KeyNumbers::Big(k)) => Ok(*b == *k.as_slice()),
+                (Ok(Fetched::NotHeld), _) => {
+                    not_held.push(i as u32);
+                    Ok(false)
+                }
                 // canonical keys are small exactly when every numerator fits an i64
                 (Ok(_), _) => Ok(false),
                 (Err(e), _) => Err(e),
@@ -458,6 +491,8 @@ impl OrbitProblem {
             Ok(Fetched::Big(b)) => {
                 self.same_line_exact(&ws.image, &KeyNumbers::Big(b.into_owned()))
             }
+            // not decided here: the image goes to its owner, which settles it exactly
+            Ok(Fetched::NotHeld) => Ok(false),
         };
         ws.stored = stored;
         result

@@ -226,6 +226,7 @@ impl Listing {
             &[
                 orbit.local_store_bytes() as u64,
                 orbit.numerator_width() as u64,
+                orbit.local_window_bytes() as u64,
             ],
         );
         if comm.rank() != 0 {
@@ -237,8 +238,8 @@ impl Listing {
             store_bytes,
             bytes_per_element: store_bytes as f64 / orbit.len().max(1) as f64,
             numerator_width: figures.iter().map(|f| f[1] as usize).max().unwrap_or(1),
-            store_kind: "memory".into(),
-            window_bytes: 0,
+            store_kind: orbit.store_kind().name().into(),
+            window_bytes: figures.iter().map(|f| f[2] as usize).sum(),
         };
         let poincare = match &sum {
             Some(Ok(Some(s))) => Ok(s),

@@ -8,9 +8,10 @@ use std::sync::atomic::AtomicBool;
 use std::sync::{Arc, Barrier, Mutex};
 use std::time::Duration;
 
+use cyclorb_matrix::Operator;
 use cyclorb_orbit::{
     rank_checkpoint_path, CheckpointPlan, Collective, DistributedOrbit, OrbitOptions, OrbitProblem,
-    PoincareSum, Silent, StopReason,
+    PoincareSum, Silent, StopReason, StoreKind,
 };
 
 use crate::sample_sets::*;
@@ -113,8 +114,18 @@ fn records(results: &[RankResult]) -> Vec<Option<(usize, usize)>> {
 }
 
 fn assert_same_as_one_process(problem: &OrbitProblem, ranks: usize, chunk: usize) {
+    assert_same_in_store(problem, ranks, chunk, StoreKind::Memory);
+}
+
+/// The distributed run in `store` gives the one-process run's (memory store) lines,
+/// layers, records and B.
+fn assert_same_in_store(problem: &OrbitProblem, ranks: usize, chunk: usize, store: StoreKind) {
     let single = run(problem, 1, 64);
-    let results = distributed(problem, ranks, &options(2, chunk));
+    let in_store = OrbitOptions {
+        store,
+        ..options(2, chunk)
+    };
+    let results = distributed(problem, ranks, &in_store);
     for (orbit, sum) in &results {
         assert!(orbit.is_saturated());
         assert_eq!(orbit.len(), single.len());
@@ -125,7 +136,7 @@ fn assert_same_as_one_process(problem: &OrbitProblem, ranks: usize, chunk: usize
     let expected: Vec<_> = (0..single.len()).map(|i| single.schreier(i)).collect();
     assert!(
         records(&results) == expected,
-        "{ranks} ranks, chunk {chunk}"
+        "{ranks} ranks, chunk {chunk}, {store:?} store"
     );
     assert_eq!(
         results[0].1.as_ref().unwrap(),
@@ -152,6 +163,85 @@ fn ranks_find_the_one_process_orbit_records_and_sum() {
         Some(problem.field().int(8))
     );
     assert_same_as_one_process(&problem, 3, 2);
+}
+
+/// One generator X = diag(1, ζ₁₆) on the line of (1, 1): the orbit is the 16 lines
+/// (1, ζ₁₆^k), one per layer, and X maps the last back to the seed, 15 layers before:
+/// every rank's compact store must settle that image through the records of other ranks.
+fn cycle_of_sixteen() -> OrbitProblem {
+    let f = field(16);
+    let g = generator_set(
+        16,
+        2,
+        vec![(
+            "X",
+            Operator::Diagonal(vec![parse(&f, "1"), parse(&f, "z")]),
+        )],
+    );
+    OrbitProblem::new(g, &seed(&f, &["1", "1"])).unwrap()
+}
+
+#[test]
+fn ranks_in_the_compact_store_find_the_one_process_orbit_records_and_sum() {
+    let cycle = cycle_of_sixteen();
+    // common practice: ζ₁₆ has order 16, so the lines (1, ζ₁₆^k) are 16 distinct lines
+    let single = run(&cycle, 1, 64);
+    assert_eq!(single.layer_sizes(), vec![1; 16]);
+    for ranks in [1, 2, 3] {
+        assert_same_in_store(&cycle, ranks, 1, StoreKind::Compact);
+    }
+    let g = clifford(3);
+    let problem = OrbitProblem::new(g.clone(), &vacuum(&g)).unwrap();
+    for (ranks, chunk) in [(1, 64), (2, 5), (3, 1)] {
+        assert_same_in_store(&problem, ranks, chunk, StoreKind::Compact);
+    }
+}
+
+#[test]
+fn the_compact_store_over_ranks_spills_to_a_directory_per_rank() {
+    let g = clifford(3);
+    let problem = OrbitProblem::new(g.clone(), &vacuum(&g)).unwrap();
+    let dir = temp_path("compact-ranks-spill");
+    std::fs::create_dir_all(&dir).unwrap();
+    let spilled = OrbitOptions {
+        store: StoreKind::Compact,
+        spill: Some(dir.clone()),
+        ..options(1, 16)
+    };
+    let single = run(&problem, 1, 64);
+    let results = distributed(&problem, 2, &spilled);
+    let expected: Vec<_> = (0..single.len()).map(|i| single.schreier(i)).collect();
+    assert!(records(&results) == expected);
+    assert_eq!(
+        results[0].1.as_ref().unwrap(),
+        &problem.poincare_sum(&single, 1).unwrap()
+    );
+    for rank in 0..2 {
+        assert!(dir.join(format!("rank{rank}")).is_dir());
+    }
+    drop(results);
+    std::fs::remove_dir_all(&dir).ok();
+}
+
+#[test]
+fn the_compact_store_over_ranks_refuses_checkpoints() {
+    let problem = cycle_of_sixteen();
+    let checkpointed = OrbitOptions {
+        store: StoreKind::Compact,
+        checkpoint: Some(CheckpointPlan {
+            path: temp_path("compact-ranks.ckpt"),
+            every: Duration::from_secs(60),
+        }),
+        ..options(1, 16)
+    };
+    for message in on_ranks(2, |comm| {
+        problem
+            .enumerate_distributed(comm, &checkpointed, &mut Silent)
+            .unwrap_err()
+            .to_string()
+    }) {
+        assert!(message.contains("no checkpoints"), "{message}");
+    }
 }
 
 #[test]
@@ -210,7 +300,7 @@ fn a_stop_or_a_memory_ceiling_ends_every_rank_together() {
             .to_string()
     })
     .remove(0);
-    assert!(e.contains("memory store"), "{e}");
+    assert!(e.contains("only the compact store spills"), "{e}");
 }
 
 /// Resume on `ranks` threads from the rank checkpoints at `base`.
