@@ -6,7 +6,9 @@
 //! `cyclorb` binary of this build, `cyclorb orbit SPEC --genus GENUS --json --threads T`
 //! (thread counts from `CYCLORB_BENCH_THREADS`, default `1,2`), then under Open MPI's
 //! `mpirun -n R --oversubscribe` with one thread per rank (`CYCLORB_BENCH_RANKS`, default
-//! `1,2,4`; launcher `CYCLORB_MPIRUN`, default `mpirun`). Per run one line: the workers
+//! `1,2,4`; launcher `CYCLORB_MPIRUN`, default `mpirun`), in the store `CYCLORB_BENCH_STORE`
+//! names (`memory`, the default; `compact`; `compact+spill`, spilling to a temporary
+//! directory). Per run one line: the workers
 //! (threads × ranks) and the cores they had, the wall time of the whole command (orbit and
 //! Poincaré sum), the CPU time of the processes, lines per second and per second per core,
 //! the speed-up over the first run of its kind, the store's bytes per line (every rank's
@@ -38,15 +40,29 @@ fn main() {
     let threads = counts("CYCLORB_BENCH_THREADS", "1,2");
     let ranks = counts("CYCLORB_BENCH_RANKS", "1,2,4");
     let cores = std::thread::available_parallelism().map_or(1, |n| n.get());
-    let problem = ["orbit", spec.as_str(), "--genus", genus.as_str(), "--json"];
-    println!("{spec} genus {genus}, {cores} cores");
+    let spill = std::env::temp_dir().join(format!("cyclorb-scaling-{}", std::process::id()));
+    let spill_text = spill.display().to_string();
+    let store = std::env::var("CYCLORB_BENCH_STORE").unwrap_or_else(|_| "memory".into());
+    let store_args: Vec<&str> = match store.as_str() {
+        "memory" => vec!["--store", "memory"],
+        "compact" => vec!["--store", "compact"],
+        "compact+spill" => vec!["--spill", spill_text.as_str()],
+        other => {
+            eprintln!("scaling: CYCLORB_BENCH_STORE={other:?}: memory, compact or compact+spill");
+            std::process::exit(1);
+        }
+    };
+    std::fs::create_dir_all(&spill).expect("a temporary directory");
+    let mut problem = vec!["orbit", spec.as_str(), "--genus", genus.as_str(), "--json"];
+    problem.extend(store_args);
+    println!("{spec} genus {genus}, {cores} cores, {store} store");
     println!(
         "run\tworkers\tcores\twall_s\tcpu_s\tlines_per_s\tlines_per_s_per_core\tspeed_up\tstore_bytes_per_line\tpeak_resident_mib"
     );
     let mut runs = Vec::new();
     for &t in &threads {
         let mut command = Command::new(env!("CARGO_BIN_EXE_cyclorb"));
-        command.args(problem).args(["--threads", &t.to_string()]);
+        command.args(&problem).args(["--threads", &t.to_string()]);
         runs.push(measure(format!("{t} thread(s)"), t, command));
         print_row(&runs, threads.len(), cores);
     }
@@ -59,7 +75,7 @@ fn main() {
                 .env("OMPI_ALLOW_RUN_AS_ROOT", "1")
                 .env("OMPI_ALLOW_RUN_AS_ROOT_CONFIRM", "1")
                 .arg(env!("CARGO_BIN_EXE_cyclorb"))
-                .args(problem)
+                .args(&problem)
                 .args(["--threads", "1"]);
             runs.push(measure(format!("{r} rank(s)"), r, command));
             print_row(&runs, threads.len(), cores);
@@ -67,6 +83,7 @@ fn main() {
     } else {
         println!("(ranks not run: build with --features mpi)");
     }
+    std::fs::remove_dir_all(&spill).ok();
     let first = &runs[0].report;
     for run in &runs[1..] {
         for key in ["orbit_size", "layer_sizes", "poincare_sum"] {
