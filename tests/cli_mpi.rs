@@ -276,16 +276,13 @@ fn rank_checkpoints_resume_on_another_number_of_ranks() {
 #[test]
 fn what_a_distributed_run_cannot_do_is_refused_once() {
     let spill = std::env::temp_dir().display().to_string();
-    let checkpoint = run_cli::temp_path("mpi-compact").display().to_string();
     for (args, reason) in [
         (
             vec!["--store", "memory", "--spill", spill.as_str()],
             "only the compact store spills",
         ),
-        (
-            vec!["--store", "compact", "--checkpoint", checkpoint.as_str()],
-            "no checkpoints",
-        ),
+        (vec!["--words", "3"], "drop --words"),
+        (vec!["--method", "structure"], "drop --method"),
     ] {
         let mut all = vec!["orbit", "ising", "--genus", "1"];
         all.extend(args);
@@ -317,4 +314,42 @@ fn ranks_in_the_compact_store_give_the_one_process_answer() {
     }
     assert!(dir.join("rank1").is_dir());
     std::fs::remove_dir_all(&dir).ok();
+    // stopped by a limit with rank checkpoints, continued on 2 and 3 ranks and in one
+    // process (the files keep the compact store)
+    let base = run_cli::temp_path("mpi-compact").display().to_string();
+    let stop = |ranks| {
+        let (code, stopped) = mpirun_json(
+            ranks,
+            &[
+                "orbit",
+                "ising",
+                "--genus",
+                "2",
+                "--store",
+                "compact",
+                "--limit",
+                "1000",
+                "--checkpoint",
+                &base,
+            ],
+        );
+        assert_eq!(code, 3, "{stopped}");
+    };
+    for ranks in [2, 3] {
+        stop(2);
+        let (code, resumed) = mpirun_json(ranks, &["orbit", "--resume", &base]);
+        assert_eq!(code, 0, "{resumed}");
+        for key in ANSWER_KEYS {
+            assert_eq!(resumed[key], v[key], "{key} resumed on {ranks} ranks");
+        }
+    }
+    stop(2);
+    let (code, resumed) = cyclorb_json(&["orbit", "--resume", &base]);
+    assert_eq!(code, 0, "{resumed}");
+    for key in ANSWER_KEYS {
+        assert_eq!(resumed[key], v[key], "{key} resumed in one process");
+    }
+    for rank in 0..3 {
+        std::fs::remove_file(format!("{base}.rank{rank}")).ok();
+    }
 }

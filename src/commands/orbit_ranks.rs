@@ -92,17 +92,6 @@ fn refusal(args: &OrbitArgs) -> Option<&'static str> {
     if args.spill.is_some() && args.store.as_deref() == Some("memory") {
         return Some("only the compact store spills keys to disk (drop --store memory)");
     }
-    if args.store.as_deref() == Some("compact") || args.spill.is_some() {
-        if args.checkpoint.is_some() {
-            return Some(
-                "a distributed run in the compact store writes no checkpoints yet (drop \
-                 --checkpoint, or use the memory store)",
-            );
-        }
-        if args.resume.is_some() {
-            return Some("rank checkpoints hold the memory store (drop --store compact/--spill)");
-        }
-    }
     if args.words > 0 {
         return Some("a distributed run does not print words (drop --words)");
     }

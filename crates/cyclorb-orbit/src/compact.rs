@@ -242,6 +242,29 @@ impl CompactSet {
         self.tables[shard_of(fingerprint)].place(index, &self.fingerprints);
     }
 
+    /// Append and index an element whose key is not kept (a line before the window, read
+    /// back from a rank checkpoint); only before the first key, since the window holds a
+    /// suffix of the elements. `false` (nothing appended) once a key is held.
+    pub(crate) fn insert_record(&mut self, fingerprint: u64, parent: u32, generator: u8) -> bool {
+        if !self.window.is_empty() {
+            return false;
+        }
+        let index = self.len();
+        reserve_gently(&mut self.parents);
+        reserve_gently(&mut self.generators);
+        reserve_gently(&mut self.fingerprints);
+        self.parents.push(parent);
+        self.generators.push(generator);
+        self.fingerprints.push(fingerprint);
+        self.tables[shard_of(fingerprint)].place(index, &self.fingerprints);
+        true
+    }
+
+    /// The fingerprint of element i.
+    pub(crate) fn fingerprint(&self, i: usize) -> u64 {
+        self.fingerprints[i]
+    }
+
     /// The keys of the layer being built, where the next key goes (`None` before the first).
     pub(crate) fn newest_keys(&self) -> Option<&KeyArena> {
         self.window.back().map(|l| &l.keys)

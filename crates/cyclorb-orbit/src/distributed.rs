@@ -2,8 +2,9 @@
 //!
 //! Rank r owns the lines whose fingerprint maps to r ([`crate::collective`]'s `owner`); the
 //! fingerprint is a function of the line alone, so every rank names the same owner. A rank
-//! keeps only the lines it owns (memory store), each with its global index and its
-//! Schreier record (global index of the parent, generator). Each layer:
+//! keeps only the lines it owns (memory store, or compact store with the additions of
+//! `distributed_compact`), each with its global index and its Schreier record (global
+//! index of the parent, generator). Each layer:
 //!
 //! 1. every rank expands its part of the frontier in rounds of `chunk_size` elements (all
 //!    ranks run the same number of rounds) and sends each image it does not already know
@@ -146,6 +147,8 @@ impl DistributedOrbit {
         self.global.iter().enumerate().map(|(i, &g)| {
             let (parent, generator) = match &self.local.set {
                 LineStore::Memory(s) => (s.parents[i], s.generators[i]),
+                // the compact store keeps a generator in a byte: the seed's is u16::MAX
+                LineStore::Compact(s) if s.parents[i] == u32::MAX => (u32::MAX, u16::MAX),
                 LineStore::Compact(s) => (s.parents[i], s.generators[i] as u16),
             };
             (g, parent, generator)
@@ -176,11 +179,11 @@ impl OrbitProblem {
     /// Enumerate the orbit of the seed's line over the ranks of `comm` (every rank calls
     /// this with the same problem and options). Each rank keeps its lines in the store the
     /// options name (the compact one with its records filed by global index and B summed
-    /// layer by layer, module `distributed_compact`; not spilled); the options' limit,
-    /// memory ceiling, threads, chunk size and stop flag apply (the ceiling to each rank's
-    /// store); a checkpoint plan writes one file per rank ([`rank_checkpoint_path`]) at
-    /// finished layers and at a stop (memory store). `observer` hears the whole job after
-    /// every layer.
+    /// layer by layer, module `distributed_compact`, its window spilled to `DIR/rankR` with
+    /// the option `spill`); the options' limit, memory ceiling, threads, chunk size and
+    /// stop flag apply (the ceiling to each rank's store); a checkpoint plan writes one file
+    /// per rank ([`rank_checkpoint_path`]) at finished layers and at a stop. `observer`
+    /// hears the whole job after every layer.
     pub fn enumerate_distributed(
         &self,
         comm: &dyn Collective,
@@ -232,7 +235,8 @@ impl OrbitProblem {
     /// identical answer. The number of ranks that wrote them is read from `base.rank0`; with
     /// another number of ranks every rank reads all the old files and keeps the lines it
     /// now owns. When there is no `base.rank0` but a file `base`, that is a one-process
-    /// checkpoint (memory store), shared out in the same way.
+    /// checkpoint (memory store), shared out in the same way. The run keeps the store of
+    /// its checkpoints (the options' store is not used).
     pub fn resume_distributed(
         &self,
         base: &Path,
@@ -283,13 +287,6 @@ impl OrbitProblem {
         options: &OrbitOptions,
         observer: &mut dyn ProgressObserver,
     ) -> Result<DistributedOrbit, OrbitError> {
-        if options.store != orbit.local.set.kind() {
-            return Err(OrbitError::Invalid(format!(
-                "this distributed enumeration keeps every rank's lines in the {} store (drop \
-                 --store)",
-                orbit.local.set.kind().name()
-            )));
-        }
         if let Some(dir) = &options.spill {
             // a directory of its own per rank: ranks on nodes sharing a file system never
             // meet in one directory
@@ -301,13 +298,6 @@ impl OrbitProblem {
                 })
                 .and_then(|()| orbit.local.set.spill_to(&mine));
             agreed(comm, made, "could not spill its keys")?;
-        }
-        if orbit.compact.is_some() && options.checkpoint.is_some() {
-            return Err(OrbitError::Invalid(
-                "a distributed run in the compact store writes no checkpoints yet (drop \
-                 --checkpoint, or use the memory store)"
-                    .into(),
-            ));
         }
         let started = Instant::now();
         let base_seconds = orbit.local.compute_seconds;
@@ -746,8 +736,13 @@ impl OrbitProblem {
         Ok((norm, b))
     }
 
-    /// A d × d matrix from its entries in the field's text syntax, row by row.
-    fn matrix_from_text(&self, entries: &[String], rank: usize) -> Result<Matrix, OrbitError> {
+    /// A d × d matrix from its entries in the field's text syntax, row by row (sent by
+    /// rank `rank`, or read from its checkpoint).
+    pub(crate) fn matrix_from_text(
+        &self,
+        entries: &[String],
+        rank: usize,
+    ) -> Result<Matrix, OrbitError> {
         let d = self.dimension();
         if entries.len() != d * d {
             return Err(OrbitError::Invalid(format!(
@@ -765,7 +760,7 @@ impl OrbitProblem {
 }
 
 /// A square matrix's entries in the field's text syntax (exact), row by row.
-fn matrix_text(m: &Matrix) -> Vec<String> {
+pub(crate) fn matrix_text(m: &Matrix) -> Vec<String> {
     (0..m.rows())
         .flat_map(|i| (0..m.rows()).map(move |j| m.get(i, j).to_string()))
         .collect()

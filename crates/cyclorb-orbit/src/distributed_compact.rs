@@ -54,6 +54,52 @@ impl RecordDirectory {
         directory
     }
 
+    /// The share of rank `rank` of `ranks` rebuilt from records (global index, parent,
+    /// generator) in any order; every index i ≡ rank (mod ranks) below `total` must be
+    /// there once, and no other.
+    pub(crate) fn from_records(
+        rank: usize,
+        ranks: usize,
+        mut records: Vec<(u32, u32, u8)>,
+        total: usize,
+    ) -> Result<RecordDirectory, String> {
+        records.sort_unstable();
+        let expected = if rank < total {
+            (total - rank).div_ceil(ranks)
+        } else {
+            0
+        };
+        if records.len() != expected {
+            return Err(format!(
+                "{} records for rank {rank} of {ranks}, {expected} expected",
+                records.len()
+            ));
+        }
+        let mut directory = RecordDirectory {
+            rank,
+            ranks,
+            parents: Vec::with_capacity(records.len()),
+            generators: Vec::with_capacity(records.len()),
+        };
+        for (at, (index, parent, generator)) in records.into_iter().enumerate() {
+            if index as usize != rank + ranks * at {
+                return Err(format!("no record of line {}", rank + ranks * at));
+            }
+            directory.parents.push(parent);
+            directory.generators.push(generator);
+        }
+        Ok(directory)
+    }
+
+    /// The records held: (global index, parent, generator), by increasing index.
+    pub(crate) fn records(&self) -> impl Iterator<Item = (u32, u32, u8)> + '_ {
+        self.parents
+            .iter()
+            .zip(&self.generators)
+            .enumerate()
+            .map(|(at, (&p, &g))| ((self.rank + self.ranks * at) as u32, p, g))
+    }
+
     /// The rank holding the record of global index `index`.
     fn holder(&self, index: u32) -> usize {
         index as usize % self.ranks
@@ -241,6 +287,16 @@ impl LayerSums {
         Ok(())
     }
 
+    /// Add a part of B summed elsewhere (another rank's, read from its checkpoint).
+    pub(crate) fn add_part(
+        &mut self,
+        field: &cyclorb_field::CyclotomicField,
+        part: &Matrix,
+    ) -> Result<(), OrbitError> {
+        self.b = self.b.add(field, part)?;
+        Ok(())
+    }
+
     /// Take away the terms of the lines whose keys are `keys` (added before with others).
     pub(crate) fn subtract(
         &mut self,
@@ -278,6 +334,16 @@ impl LayerSums {
     /// The seed's norm and this rank's part of B.
     pub(crate) fn parts(&self) -> (Cyc, Matrix) {
         (self.norm.clone(), self.b.clone())
+    }
+
+    /// The part summed so far, as a checkpoint holds it.
+    pub(crate) fn part(&self) -> &Matrix {
+        &self.b
+    }
+
+    /// The sums of a resumed run, whose part so far is `b`.
+    pub(crate) fn resumed(problem: &OrbitProblem, b: Matrix) -> Option<LayerSums> {
+        LayerSums::new(problem).map(|sums| LayerSums { b, ..sums })
     }
 }
 

@@ -8,7 +8,7 @@
 //!
 //! | field | bytes |
 //! | --- | --- |
-//! | magic `CYCORBRK`, format version 1 | 8 + u32 |
+//! | magic `CYCORBRK`, format version: 1 (memory store) or 2 (compact store) | 8 + u32 |
 //! | length of the origin text (0: none), then its UTF-8 bytes (as in the one-process checkpoint) | u32 + bytes |
 //! | conductor n, dimension d, degree φ(n), number of generators | 4 × u32 |
 //! | content hash of generators and seed ([`OrbitProblem::content_hash`]) | u128 |
@@ -16,14 +16,21 @@
 //! | lines of all ranks, global layer ends (count, then each) | u64 + u64 + … |
 //! | this rank's lines N, frontier start, local layer ends (count, then each) | 3 × u64 + … |
 //! | compute seconds so far | f64 bits as u64 |
-//! | per line: its global index (varint), then the wire form of the `wire` module with the order key (parent's global index · 2¹⁶ + generator) and 0 for the fingerprint | … |
+//! | version 2 only: the window start W (a global index), this rank's part of B (a flag byte, then the length and the JSON array of its d² entries in the field's text syntax), its share of the record directory (count, then per record the parent u32 and the generator u8) | u64 + … |
+//! | per line (version 1): its global index (varint), then the wire form of the `wire` module with the order key (parent's global index · 2¹⁶ + generator) and 0 for the fingerprint | … |
+//! | per line (version 2): its global index (varint), then from index W on the wire form with the order key and the 62-bit fingerprint, before W the order key and the fingerprint alone (varints) | … |
 //! | FNV-1a 128 of every byte above | u128 |
+//!
+//! A compact file holds the keys of its lines from the start W of the layer two before the
+//! frontier on (the rank's window always holds them: at most four layers, with a layer cut
+//! by the line limit); a resume rebuilds the window from them, and an older line is settled
+//! through its word as in the run (`distributed_compact`).
 //!
 //! Reading checks the checksum first, then that the header is this problem's, that the file
 //! is this rank's of R (or, with another number of ranks, file r's of R for every r), and
 //! for every line that the file's rank owns it (its fingerprint is
-//! recomputed from the key), that its index grows and its record points to an earlier line
-//! with a generator of the set.
+//! recomputed from the key where there is one, and must equal the stored one), that its
+//! index grows and its record points to an earlier line with a generator of the set.
 
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -32,17 +39,24 @@ use cyclorb_field::Fnv128;
 
 use crate::checkpoint::{write_hashed, HashingWriter};
 use crate::collective::owner;
+use crate::distributed::matrix_text;
 use crate::distributed::DistributedOrbit;
+use crate::distributed_compact::{CompactShare, LayerSums, RecordDirectory};
 use crate::engine::Orbit;
 use crate::error::OrbitError;
 use crate::key::KeyNumbers;
 use crate::problem::OrbitProblem;
+use crate::set::Fetched;
 use crate::set::{LineStore, StoreKind};
-use crate::store::KeyArena;
+use crate::sparse_numerators::SparseNumerators;
 use crate::wire::{encode, put_varint, Reader};
+use cyclorb_matrix::Matrix;
 
 const MAGIC: &[u8; 8] = b"CYCORBRK";
+/// The memory store's files: every line with its key.
 const VERSION: u32 = 1;
+/// The compact store's files: keys from the window start on, B's part, the directory.
+const VERSION_COMPACT: u32 = 2;
 
 /// The checkpoint file of `rank`: `BASE.rankR`.
 pub fn rank_checkpoint_path(base: &Path, rank: usize) -> PathBuf {
@@ -94,9 +108,9 @@ impl Fields<'_> {
         Ok(x as usize)
     }
 
-    /// A non-decreasing list of ends, each at most `max`.
-    fn ends(&mut self, max: usize, what: &str) -> Result<Vec<usize>, String> {
-        let n = self.count(max as u64 + 1, what)?;
+    /// A non-decreasing list of at most `count` ends, each at most `max`.
+    fn ends(&mut self, count: usize, max: usize, what: &str) -> Result<Vec<usize>, String> {
+        let n = self.count(count as u64, what)?;
         let mut ends = Vec::with_capacity(n);
         for _ in 0..n {
             let e = self.count(max as u64, what)?;
@@ -116,7 +130,9 @@ pub fn rank_checkpoint_origin(path: &Path) -> Result<Option<String>, OrbitError>
         bytes: &bytes,
         at: 0,
     };
-    read_origin(&mut f).map_err(|e| error(path, e))
+    read_origin(&mut f)
+        .map(|(_, origin)| origin)
+        .map_err(|e| error(path, e))
 }
 
 /// The file's bytes before its checksum, after checking the checksum.
@@ -134,19 +150,29 @@ fn checked_bytes(path: &Path) -> Result<Vec<u8>, OrbitError> {
     Ok(bytes)
 }
 
-fn read_origin(f: &mut Fields<'_>) -> Result<Option<String>, String> {
+/// The format version and the recorded origin (`None` when none was recorded).
+fn read_origin(f: &mut Fields<'_>) -> Result<(u32, Option<String>), String> {
     if f.take(8)? != MAGIC {
         return Err("not a rank checkpoint of cyclorb".into());
     }
     let version = f.u32()?;
-    if version != VERSION {
+    if version != VERSION && version != VERSION_COMPACT {
         return Err(format!(
-            "rank checkpoint version {version}, expected {VERSION}"
+            "rank checkpoint version {version}, expected {VERSION} or {VERSION_COMPACT}"
         ));
     }
     let len = f.u32()? as usize;
     let text = std::str::from_utf8(f.take(len)?).map_err(|_| "the origin is not UTF-8")?;
-    Ok((len > 0).then(|| text.to_string()))
+    Ok((version, (len > 0).then(|| text.to_string())))
+}
+
+/// The first global index whose key a compact rank file holds: the start of the layer two
+/// before the frontier (the last finished layer), or 0.
+fn window_start(layer_ends: &[usize]) -> usize {
+    match layer_ends.len() {
+        n if n >= 4 => layer_ends[n - 4],
+        _ => 0,
+    }
 }
 
 impl OrbitProblem {
@@ -157,10 +183,7 @@ impl OrbitProblem {
         rank: usize,
         path: &Path,
     ) -> Result<(), OrbitError> {
-        let keys = orbit.local.set.memory_keys().ok_or_else(|| {
-            OrbitError::Invalid("a distributed orbit is held in the memory store".into())
-        })?;
-        write_hashed(path, |w| self.write_rank_state(orbit, rank, keys, w))
+        write_hashed(path, |w| self.write_rank_state(orbit, rank, w))
     }
 
     /// The header, then the lines one by one (nothing of the size of the state is built in
@@ -169,12 +192,15 @@ impl OrbitProblem {
         &self,
         orbit: &DistributedOrbit,
         rank: usize,
-        keys: &KeyArena,
         w: &mut HashingWriter<W>,
     ) -> std::io::Result<()> {
+        let version = match orbit.compact {
+            Some(_) => VERSION_COMPACT,
+            None => VERSION,
+        };
         let mut b = Vec::new();
         b.extend_from_slice(MAGIC);
-        b.extend_from_slice(&VERSION.to_le_bytes());
+        b.extend_from_slice(&version.to_le_bytes());
         let origin = self.origin.as_deref().unwrap_or("");
         b.extend_from_slice(&(origin.len() as u32).to_le_bytes());
         b.extend_from_slice(origin.as_bytes());
@@ -196,15 +222,69 @@ impl OrbitProblem {
         b.extend_from_slice(&(orbit.local.processed as u64).to_le_bytes());
         put_ends(&mut b, &orbit.local.layer_ends);
         b.extend_from_slice(&orbit.local.compute_seconds.to_bits().to_le_bytes());
+        let start = window_start(&orbit.layer_ends);
+        if let Some(share) = &orbit.compact {
+            b.extend_from_slice(&(start as u64).to_le_bytes());
+            match &share.sums {
+                Some(sums) => {
+                    let text =
+                        serde_json::to_vec(&matrix_text(sums.part())).expect("text serialises");
+                    b.push(1);
+                    b.extend_from_slice(&(text.len() as u64).to_le_bytes());
+                    b.extend_from_slice(&text);
+                }
+                None => b.push(0),
+            }
+            let records: Vec<_> = share.directory.records().collect();
+            b.extend_from_slice(&(records.len() as u64).to_le_bytes());
+            for (_, parent, generator) in records {
+                b.extend_from_slice(&parent.to_le_bytes());
+                b.push(generator);
+            }
+        }
         w.put(&b)?;
+        let mut buf = SparseNumerators::new(self.key_len());
         for (i, (index, parent, generator)) in orbit.local_records().enumerate() {
             b.clear();
             put_varint(&mut b, u64::from(index));
             let order = u64::from(parent) << 16 | u64::from(generator);
-            encode(&mut b, order, 0, &keys.key(i));
+            match orbit.local.set.wide_fingerprint(i) {
+                None => encode(
+                    &mut b,
+                    order,
+                    0,
+                    &self.held_key(&orbit.local.set, i, &mut buf)?,
+                ),
+                Some(fingerprint) if index as usize >= start => {
+                    let key = self.held_key(&orbit.local.set, i, &mut buf)?;
+                    encode(&mut b, order, fingerprint, &key);
+                }
+                Some(fingerprint) => {
+                    put_varint(&mut b, order);
+                    put_varint(&mut b, fingerprint);
+                }
+            }
             w.put(&b)?;
         }
         Ok(())
+    }
+
+    /// The key of local line i, which the store must hold (every key of the memory store;
+    /// the compact store's from the window start on).
+    fn held_key(
+        &self,
+        set: &LineStore,
+        i: usize,
+        buf: &mut SparseNumerators,
+    ) -> std::io::Result<KeyNumbers> {
+        match self.fetch(set, i, buf) {
+            Ok(Fetched::Small) => Ok(KeyNumbers::Small(buf.dense.clone())),
+            Ok(Fetched::Big(b)) => Ok(KeyNumbers::Big(b.into_owned())),
+            Ok(Fetched::NotHeld) => Err(std::io::Error::other(format!(
+                "the key of local line {i} is past the window"
+            ))),
+            Err(e) => Err(std::io::Error::other(e.to_string())),
+        }
     }
 
     fn header(&self) -> [u32; 4] {
@@ -223,11 +303,15 @@ impl OrbitProblem {
         ranks: usize,
         rank: usize,
     ) -> Result<DistributedOrbit, OrbitError> {
-        let mut set = LineStore::new(StoreKind::Memory, self.dimension(), self.kernel.degree());
-        let mut global = Vec::new();
+        let mut lines = Vec::new();
         let head = self.read_rank_file(path, |index, key, fingerprint, parent, generator| {
-            set.insert(key, fingerprint, parent, generator);
-            global.push(index);
+            lines.push(RankLine {
+                index,
+                key: key.cloned(),
+                fingerprint,
+                parent,
+                generator,
+            });
         })?;
         if (head.ranks, head.rank) != (ranks, rank) {
             return Err(error(
@@ -238,6 +322,19 @@ impl OrbitProblem {
                 ),
             ));
         }
+        let compact = match head.compact {
+            Some(section) => {
+                let directory =
+                    RecordDirectory::from_records(rank, ranks, section.records, head.total)
+                        .map_err(|e| error(path, e))?;
+                let sums = section.part.and_then(|b| LayerSums::resumed(self, b));
+                Some(CompactShare { directory, sums })
+            }
+            None => None,
+        };
+        let (set, global) = self
+            .local_store(lines, compact.is_some(), &head.layer_ends)
+            .map_err(|e| error(path, e))?;
         Ok(DistributedOrbit {
             local: Orbit {
                 set,
@@ -252,8 +349,7 @@ impl OrbitProblem {
             ranks,
             saturated: false,
             stop: None,
-            // rank checkpoints hold the memory store
-            compact: None,
+            compact,
         })
     }
 
@@ -261,7 +357,9 @@ impl OrbitProblem {
     /// `old_ranks` ranks in `base.rank0` … : every old file is read, the lines that this
     /// rank now owns are kept in order of their global indices, and the local layer ends
     /// and frontier start follow from those indices (the frontier is the last finished
-    /// layer, and a local line lies in a layer exactly when its global index does).
+    /// layer, and a local line lies in a layer exactly when its global index does). With
+    /// the compact store the rank also keeps the records of the indices it now holds, and
+    /// rank 0 the sum of every old part of B.
     pub(crate) fn read_regrouped_checkpoints(
         &self,
         base: &Path,
@@ -269,14 +367,22 @@ impl OrbitProblem {
         ranks: usize,
         rank: usize,
     ) -> Result<DistributedOrbit, OrbitError> {
-        let mut kept: Vec<(u32, KeyNumbers, u64, u32, u16)> = Vec::new();
+        let mut kept = Vec::new();
+        let mut records = Vec::new();
+        let mut parts = Vec::new();
         let mut first: Option<RankHeader> = None;
         for r in 0..old_ranks {
             let path = rank_checkpoint_path(base, r);
-            let head =
+            let mut head =
                 self.read_rank_file(&path, |index, key, fingerprint, parent, generator| {
                     if owner(fingerprint, ranks) == rank {
-                        kept.push((index, key.clone(), fingerprint, parent, generator));
+                        kept.push(RankLine {
+                            index,
+                            key: key.cloned(),
+                            fingerprint,
+                            parent,
+                            generator,
+                        });
                     }
                 })?;
             if (head.ranks, head.rank) != (old_ranks, r) {
@@ -287,6 +393,15 @@ impl OrbitProblem {
                         head.rank, head.ranks
                     ),
                 ));
+            }
+            if let Some(section) = head.compact.take() {
+                records.extend(
+                    section
+                        .records
+                        .into_iter()
+                        .filter(|&(index, ..)| index as usize % ranks == rank),
+                );
+                parts.push(section.part);
             }
             match &first {
                 None => first = Some(head),
@@ -301,21 +416,96 @@ impl OrbitProblem {
             }
         }
         let first = first.ok_or_else(|| error(base, "no rank files (0 ranks)"))?;
-        kept.sort_unstable_by_key(|line| line.0);
-        let mut set = LineStore::new(StoreKind::Memory, self.dimension(), self.kernel.degree());
-        let mut global = Vec::with_capacity(kept.len());
-        for (index, key, fingerprint, parent, generator) in kept {
-            set.insert(&key, fingerprint, parent, generator);
-            global.push(index);
+        if !parts.is_empty() && parts.len() != old_ranks {
+            return Err(error(
+                base,
+                "the rank files were written by runs in different stores",
+            ));
         }
-        Ok(share(
+        kept.sort_unstable_by_key(|line| line.index);
+        let compact = match parts.is_empty() {
+            true => None,
+            false => {
+                let directory = RecordDirectory::from_records(rank, ranks, records, first.total)
+                    .map_err(|e| error(base, e))?;
+                Some(CompactShare {
+                    directory,
+                    sums: self.regrouped_sums(parts, rank)?,
+                })
+            }
+        };
+        let (set, global) = self
+            .local_store(kept, compact.is_some(), &first.layer_ends)
+            .map_err(|e| error(base, e))?;
+        let mut orbit = share(
             set,
             global,
             first.layer_ends,
             first.total,
             first.compute_seconds,
             ranks,
-        ))
+        );
+        orbit.compact = compact;
+        Ok(orbit)
+    }
+
+    /// The part of B of new rank `rank` after regrouping: rank 0 takes the sum of the old
+    /// parts (B is exact, so where its terms are counted does not matter), the others zero;
+    /// `None` when the problem has no sum.
+    fn regrouped_sums(
+        &self,
+        parts: Vec<Option<Matrix>>,
+        rank: usize,
+    ) -> Result<Option<LayerSums>, OrbitError> {
+        let Some(mut sums) = LayerSums::new(self) else {
+            return Ok(None);
+        };
+        if rank == 0 {
+            for part in parts {
+                let part = part.ok_or_else(|| {
+                    OrbitError::Invalid("a rank file holds no part of B where others do".into())
+                })?;
+                sums.add_part(&self.field, &part)?;
+            }
+        }
+        Ok(Some(sums))
+    }
+
+    /// A rank's store from its lines in increasing global index: the memory store, or the
+    /// compact one (records global; a line with its key opens the window, each global layer
+    /// a layer of it, and lines before it keep no key).
+    fn local_store(
+        &self,
+        lines: Vec<RankLine>,
+        compact: bool,
+        layer_ends: &[usize],
+    ) -> Result<(LineStore, Vec<u32>), String> {
+        let kind = if compact {
+            StoreKind::Compact
+        } else {
+            StoreKind::Memory
+        };
+        let mut set =
+            LineStore::new(kind, self.dimension(), self.kernel.degree()).with_global_parents();
+        let mut global = Vec::with_capacity(lines.len());
+        let mut layer = None;
+        for line in lines {
+            match &line.key {
+                Some(key) => {
+                    let here = layer_ends.partition_point(|&e| e <= line.index as usize);
+                    if layer != Some(here) {
+                        set.open_layer(set.len()).map_err(|e| e.to_string())?;
+                        layer = Some(here);
+                    }
+                    set.insert(key, line.fingerprint, line.parent, line.generator);
+                }
+                None => set
+                    .insert_record(line.fingerprint, line.parent, line.generator)
+                    .map_err(|e| e.to_string())?,
+            }
+            global.push(line.index);
+        }
+        Ok((set, global))
     }
 
     /// This rank's share, among `ranks` ranks, of the one-process checkpoint at `path`
@@ -358,11 +548,12 @@ impl OrbitProblem {
     }
 
     /// Check and read the rank file at `path`: its header, then each line (global index,
-    /// key, fingerprint, parent's global index, generator) handed to `line` in file order.
+    /// key when the file holds it, fingerprint, parent's global index, generator) handed to
+    /// `line` in file order.
     fn read_rank_file(
         &self,
         path: &Path,
-        line: impl FnMut(u32, &KeyNumbers, u64, u32, u16),
+        line: impl FnMut(u32, Option<&KeyNumbers>, u64, u32, u16),
     ) -> Result<RankHeader, OrbitError> {
         let bytes = checked_bytes(path)?;
         let mut f = Fields {
@@ -376,9 +567,9 @@ impl OrbitProblem {
     fn read_rank_state(
         &self,
         f: &mut Fields<'_>,
-        mut line_at: impl FnMut(u32, &KeyNumbers, u64, u32, u16),
+        mut line_at: impl FnMut(u32, Option<&KeyNumbers>, u64, u32, u16),
     ) -> Result<RankHeader, String> {
-        read_origin(f)?;
+        let (version, _) = read_origin(f)?;
         let header = [f.u32()?, f.u32()?, f.u32()?, f.u32()?];
         if header != self.header() {
             return Err(format!(
@@ -394,21 +585,40 @@ impl OrbitProblem {
             return Err(format!("rank {rank} of {ranks} is out of range"));
         }
         let total = f.count(u64::from(u32::MAX), "line count")?;
-        let layer_ends = f.ends(total, "global layer ends")?;
+        // a layer holds a line at least
+        let layer_ends = f.ends(total, total, "global layer ends")?;
         let n = f.count(total as u64, "local line count")?;
         let processed = f.count(n as u64, "frontier start")?;
-        let local_ends = f.ends(n, "local layer ends")?;
+        // one end per global layer, though a rank may hold no line of some
+        let local_ends = f.ends(layer_ends.len(), n, "local layer ends")?;
         let compute_seconds = f64::from_bits(f.u64()?);
+        let compact = match version {
+            VERSION_COMPACT => Some(self.read_compact_section(f, rank, ranks, total)?),
+            _ => None,
+        };
+        // keys are held from here on (every key in a memory-store file)
+        let keys_from = compact.as_ref().map_or(0, |c| c.window_start);
         let generators = self.generators.operators().len() as u64;
         let mut reader = Reader::new(&f.bytes[f.at..], self.key_len(), format!("rank {rank}"));
         let mut last: Option<u64> = None;
         for i in 0..n {
             let index = reader.varint().map_err(|e| e.to_string())?;
-            let line = reader
-                .next_candidate()
-                .map_err(|e| e.to_string())?
-                .ok_or_else(|| format!("{n} lines announced, {i} found"))?;
-            let (parent, generator) = (line.order >> 16, line.order & 0xffff);
+            let (order, fingerprint, key) = if index >= keys_from as u64 {
+                let line = reader
+                    .next_candidate()
+                    .map_err(|e| e.to_string())?
+                    .ok_or_else(|| format!("{n} lines announced, {i} found"))?;
+                let fingerprint = self.key_fingerprint(&line.key, compact.is_some());
+                if compact.is_some() && fingerprint != line.fingerprint {
+                    return Err(format!("line {i}: its fingerprint is not its key's"));
+                }
+                (line.order, fingerprint, Some(line.key))
+            } else {
+                let order = reader.varint().map_err(|e| e.to_string())?;
+                let fingerprint = reader.varint().map_err(|e| e.to_string())?;
+                (order, fingerprint, None)
+            };
+            let (parent, generator) = (order >> 16, order & 0xffff);
             let seed = index == 0 && parent == u64::from(u32::MAX) && generator == 0xffff;
             let grows = last.map_or(true, |last| index > last);
             if index >= total as u64
@@ -419,13 +629,12 @@ impl OrbitProblem {
                     "line {i}: bad index {index} or record ({parent}, {generator})"
                 ));
             }
-            let fingerprint = self.key_fingerprint(&line.key, false);
             if owner(fingerprint, ranks) != rank {
                 return Err(format!("line {i} belongs to another rank"));
             }
             line_at(
                 index as u32,
-                &line.key,
+                key.as_ref(),
                 fingerprint,
                 parent as u32,
                 generator as u16,
@@ -446,6 +655,43 @@ impl OrbitProblem {
             processed,
             local_ends,
             compute_seconds,
+            compact,
+        })
+    }
+
+    /// The compact file's section before its lines: window start, part of B, records.
+    fn read_compact_section(
+        &self,
+        f: &mut Fields<'_>,
+        rank: usize,
+        ranks: usize,
+        total: usize,
+    ) -> Result<CompactSection, String> {
+        let window_start = f.count(total as u64, "window start")?;
+        let part = match f.take(1)?[0] {
+            0 => None,
+            1 => {
+                let len = f.count(f.bytes.len() as u64, "length of B's part")?;
+                let entries: Vec<String> = serde_json::from_slice(f.take(len)?)
+                    .map_err(|e| format!("B's part is not a list of entries: {e}"))?;
+                Some(
+                    self.matrix_from_text(&entries, rank)
+                        .map_err(|e| e.to_string())?,
+                )
+            }
+            flag => return Err(format!("B's part has flag {flag}")),
+        };
+        let count = f.count(total as u64, "record count")?;
+        let mut records = Vec::with_capacity(count);
+        for at in 0..count {
+            let parent = f.u32()?;
+            let generator = f.take(1)?[0];
+            records.push(((rank + ranks * at) as u32, parent, generator));
+        }
+        Ok(CompactSection {
+            window_start,
+            part,
+            records,
         })
     }
 }
@@ -489,6 +735,16 @@ fn share(
     }
 }
 
+/// One line of a rank file as read.
+struct RankLine {
+    index: u32,
+    /// The key, when the file holds it.
+    key: Option<KeyNumbers>,
+    fingerprint: u64,
+    parent: u32,
+    generator: u16,
+}
+
 /// The fixed fields of a rank file.
 struct RankHeader {
     ranks: usize,
@@ -498,6 +754,18 @@ struct RankHeader {
     processed: usize,
     local_ends: Vec<usize>,
     compute_seconds: f64,
+    /// Present in a compact file.
+    compact: Option<CompactSection>,
+}
+
+/// What a compact rank file holds besides its lines.
+struct CompactSection {
+    /// The first global index whose key the file holds.
+    window_start: usize,
+    /// The rank's part of B (`None` when the problem has no Poincaré sum).
+    part: Option<Matrix>,
+    /// The rank's share of the record directory: (global index, parent, generator).
+    records: Vec<(u32, u32, u8)>,
 }
 
 /// The number of ranks of the job that wrote rank file `path`.

@@ -267,6 +267,36 @@ impl LineStore {
     }
 
     /// A new breadth-first layer starts at element `start`.
+    /// Append a compact-store element without its key (a line before a rank checkpoint's
+    /// window); an error for the memory store or once a key is held.
+    pub(crate) fn insert_record(
+        &mut self,
+        fingerprint: u64,
+        parent: u32,
+        generator: u16,
+    ) -> Result<(), OrbitError> {
+        let appended = match self {
+            LineStore::Compact(s) => s.insert_record(fingerprint, parent, generator as u8),
+            LineStore::Memory(_) => false,
+        };
+        if appended {
+            Ok(())
+        } else {
+            Err(OrbitError::Invalid(
+                "a line without its key follows lines with keys".into(),
+            ))
+        }
+    }
+
+    /// The compact store's (wide) fingerprint of element i; `None` for the memory store,
+    /// which keeps 32 bits of it in its table only.
+    pub(crate) fn wide_fingerprint(&self, i: usize) -> Option<u64> {
+        match self {
+            LineStore::Compact(s) => Some(s.fingerprint(i)),
+            LineStore::Memory(_) => None,
+        }
+    }
+
     pub(crate) fn open_layer(&mut self, start: usize) -> Result<(), OrbitError> {
         match self {
             LineStore::Compact(s) => s.open_layer(start).map_err(spill_error),
