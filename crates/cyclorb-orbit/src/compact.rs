@@ -206,9 +206,8 @@ impl CompactSet {
         Ok(())
     }
 
-    /// First element whose key is kept.
-    #[cfg(test)]
-    fn window_start(&self) -> usize {
+    /// First element whose key is kept (the window holds every key from there on).
+    pub(crate) fn window_start(&self) -> usize {
         self.window.front().map_or(self.len(), |l| l.start)
     }
 

@@ -514,24 +514,28 @@ impl OrbitProblem {
         let mut old: Vec<u32> = layer.pending.iter().map(|&(_, o)| o).collect();
         old.sort_unstable();
         old.dedup();
-        let records: Vec<(u32, u16)> = old
+        let records: Vec<(u32, u8)> = old
             .iter()
             .map(|&o| {
                 let (parent, generator) = known.record(o as usize);
-                (parent as u32, generator as u16)
+                (parent as u32, generator as u8)
             })
             .collect();
         let words = words_of(comm, directory, &records)?;
+        // one old line at a time: its key is recomputed, compared with the new lines pending
+        // on it, and dropped (only the words, a byte a step, are held for all of them)
+        layer.pending.sort_unstable_by_key(|&(_, o)| o);
         let decided = (|| -> Result<(), OrbitError> {
-            let keys = old
-                .iter()
-                .zip(&words)
-                .map(|(&o, w)| Ok((o, self.key_of_word(w)?)))
-                .collect::<Result<hashbrown::HashMap<u32, KeyNumbers>, OrbitError>>()?;
             let lines = layer.lines.memory_keys().ok_or_else(held_in_memory)?;
-            for &(new, o) in &layer.pending {
-                if lines.key(new as usize) == keys[&o] {
-                    layer.known[new as usize] = true;
+            let mut pending = layer.pending.iter().peekable();
+            for (&o, word) in old.iter().zip(&words) {
+                let word: Vec<usize> = word.iter().map(|&g| usize::from(g)).collect();
+                let key = self.key_of_word(&word)?;
+                while let Some(&&(new, _)) = pending.peek().filter(|&&&(_, p)| p == o) {
+                    if lines.key(new as usize) == key {
+                        layer.known[new as usize] = true;
+                    }
+                    pending.next();
                 }
             }
             Ok(())

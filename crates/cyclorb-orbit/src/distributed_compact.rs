@@ -162,27 +162,22 @@ impl RecordDirectory {
     }
 }
 
-/// The words (generator indices in the order they are applied to the seed) of the lines
-/// whose records are `records` (parent's global index, generator; the seed's is
-/// (`u32::MAX`, `u16::MAX`)), followed back to the seed through the holders' records. Collective: every rank calls it, with its own lines
+/// The words (generator indices in the order they are applied to the seed, a byte each as
+/// the compact store records them) of the lines whose records are `records` (parent's
+/// global index, generator; the seed's is (`u32::MAX`, `u8::MAX`)), followed back to the
+/// seed through the holders' records. Collective: every rank calls it, with its own lines
 /// (possibly none); the exchanges run until the longest word of any rank is complete.
 pub(crate) fn words_of(
     comm: &dyn Collective,
     directory: &RecordDirectory,
-    records: &[(u32, u16)],
-) -> Result<Vec<Vec<usize>>, OrbitError> {
+    records: &[(u32, u8)],
+) -> Result<Vec<Vec<u8>>, OrbitError> {
     let ranks = comm.size();
     // each word grows from the line back to the seed; `at` is the next line to look up
     // (0, the seed, when the word is complete; the seed's own record gives the empty word)
-    let mut words: Vec<Vec<usize>> = records
+    let mut words: Vec<Vec<u8>> = records
         .iter()
-        .map(|&(p, g)| {
-            if p == u32::MAX {
-                vec![]
-            } else {
-                vec![g as usize]
-            }
-        })
+        .map(|&(p, g)| if p == u32::MAX { vec![] } else { vec![g] })
         .collect();
     let mut at: Vec<u32> = records
         .iter()
@@ -235,7 +230,7 @@ pub(crate) fn words_of(
                     at[i] = 0;
                     continue;
                 }
-                words[i].push(generator as usize);
+                words[i].push(generator);
                 at[i] = parent;
             }
         }

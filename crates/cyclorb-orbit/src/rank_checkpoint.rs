@@ -16,15 +16,15 @@
 //! | lines of all ranks, global layer ends (count, then each) | u64 + u64 + … |
 //! | this rank's lines N, frontier start, local layer ends (count, then each) | 3 × u64 + … |
 //! | compute seconds so far | f64 bits as u64 |
-//! | version 2 only: the window start W (a global index), this rank's part of B (a flag byte, then the length and the JSON array of its d² entries in the field's text syntax), its share of the record directory (count, then per record the parent u32 and the generator u8) | u64 + … |
+//! | version 2 only: the window start W (the global index of the rank's first line with its key held, or the line count), this rank's part of B (a flag byte, then the length and the JSON array of its d² entries in the field's text syntax), its share of the record directory (count, then per record the parent u32 and the generator u8) | u64 + … |
 //! | per line (version 1): its global index (varint), then the wire form of the `wire` module with the order key (parent's global index · 2¹⁶ + generator) and 0 for the fingerprint | … |
 //! | per line (version 2): its global index (varint), then from index W on the wire form with the order key and the 62-bit fingerprint, before W the order key and the fingerprint alone (varints) | … |
 //! | FNV-1a 128 of every byte above | u128 |
 //!
-//! A compact file holds the keys of its lines from the start W of the layer two before the
-//! frontier on (the rank's window always holds them: at most four layers, with a layer cut
-//! by the line limit); a resume rebuilds the window from them, and an older line is settled
-//! through its word as in the run (`distributed_compact`).
+//! A compact file holds the keys of its lines from W on, the global index of the first line
+//! of the rank's window; a resume rebuilds the window from them (from the largest W of the
+//! files when regrouping, so that the keys held are a suffix of every rank's lines), and an
+//! older line is settled through its word as in the run (`distributed_compact`).
 //!
 //! Reading checks the checksum first, then that the header is this problem's, that the file
 //! is this rank's of R (or, with another number of ranks, file r's of R for every r), and
@@ -39,6 +39,7 @@ use cyclorb_field::Fnv128;
 
 use crate::checkpoint::{write_hashed, HashingWriter};
 use crate::collective::owner;
+use crate::compact::reserve_gently;
 use crate::distributed::matrix_text;
 use crate::distributed::DistributedOrbit;
 use crate::distributed_compact::{CompactShare, LayerSums, RecordDirectory};
@@ -49,6 +50,7 @@ use crate::problem::OrbitProblem;
 use crate::set::Fetched;
 use crate::set::{LineStore, StoreKind};
 use crate::sparse_numerators::SparseNumerators;
+use crate::store::KeyArena;
 use crate::wire::{encode, put_varint, Reader};
 use cyclorb_matrix::Matrix;
 
@@ -166,15 +168,6 @@ fn read_origin(f: &mut Fields<'_>) -> Result<(u32, Option<String>), String> {
     Ok((version, (len > 0).then(|| text.to_string())))
 }
 
-/// The first global index whose key a compact rank file holds: the start of the layer two
-/// before the frontier (the last finished layer), or 0.
-fn window_start(layer_ends: &[usize]) -> usize {
-    match layer_ends.len() {
-        n if n >= 4 => layer_ends[n - 4],
-        _ => 0,
-    }
-}
-
 impl OrbitProblem {
     /// Write this rank's state to `path` (through `path.tmp` and a rename).
     pub(crate) fn write_rank_checkpoint(
@@ -222,7 +215,11 @@ impl OrbitProblem {
         b.extend_from_slice(&(orbit.local.processed as u64).to_le_bytes());
         put_ends(&mut b, &orbit.local.layer_ends);
         b.extend_from_slice(&orbit.local.compute_seconds.to_bits().to_le_bytes());
-        let start = window_start(&orbit.layer_ends);
+        // the global index from which this rank holds every key of its lines
+        let start = orbit
+            .global
+            .get(orbit.local.set.first_held())
+            .map_or(orbit.total, |&g| g as usize);
         if let Some(share) = &orbit.compact {
             b.extend_from_slice(&(start as u64).to_le_bytes());
             match &share.sums {
@@ -296,23 +293,19 @@ impl OrbitProblem {
         ]
     }
 
-    /// Read rank `rank`'s checkpoint of a job of `ranks` ranks.
+    /// Read rank `rank`'s checkpoint of a job of `ranks` ranks (its lines go straight
+    /// into the store).
     pub(crate) fn read_rank_checkpoint(
         &self,
         path: &Path,
         ranks: usize,
         rank: usize,
     ) -> Result<DistributedOrbit, OrbitError> {
-        let mut lines = Vec::new();
-        let head = self.read_rank_file(path, |index, key, fingerprint, parent, generator| {
-            lines.push(RankLine {
-                index,
-                key: key.cloned(),
-                fingerprint,
-                parent,
-                generator,
-            });
-        })?;
+        let (mut head, built) = self.read_rank_file(
+            path,
+            |head| StoreBuilder::new(self, head.compact.is_some()),
+            |builder, line| builder.push(line),
+        )?;
         if (head.ranks, head.rank) != (ranks, rank) {
             return Err(error(
                 path,
@@ -322,7 +315,7 @@ impl OrbitProblem {
                 ),
             ));
         }
-        let compact = match head.compact {
+        let compact = match head.compact.take() {
             Some(section) => {
                 let directory =
                     RecordDirectory::from_records(rank, ranks, section.records, head.total)
@@ -332,18 +325,15 @@ impl OrbitProblem {
             }
             None => None,
         };
-        let (set, global) = self
-            .local_store(lines, compact.is_some(), &head.layer_ends)
-            .map_err(|e| error(path, e))?;
         Ok(DistributedOrbit {
             local: Orbit {
-                set,
+                set: built.set,
                 processed: head.processed,
                 layer_ends: head.local_ends,
                 stop: None,
                 compute_seconds: head.compute_seconds,
             },
-            global,
+            global: built.global,
             layer_ends: head.layer_ends,
             total: head.total,
             ranks,
@@ -355,11 +345,11 @@ impl OrbitProblem {
 
     /// This rank's share, among `ranks` ranks, of the state checkpointed by a job of
     /// `old_ranks` ranks in `base.rank0` … : every old file is read, the lines that this
-    /// rank now owns are kept in order of their global indices, and the local layer ends
-    /// and frontier start follow from those indices (the frontier is the last finished
-    /// layer, and a local line lies in a layer exactly when its global index does). With
-    /// the compact store the rank also keeps the records of the indices it now holds, and
-    /// rank 0 the sum of every old part of B.
+    /// rank now owns are kept (their keys packed) and stored in order of their global
+    /// indices, and the local layer ends and frontier start follow from those indices (the
+    /// frontier is the last finished layer, and a local line lies in a layer exactly when
+    /// its global index does). With the compact store the rank also keeps the records of
+    /// the indices it now holds, and rank 0 the sum of every old part of B.
     pub(crate) fn read_regrouped_checkpoints(
         &self,
         base: &Path,
@@ -367,24 +357,35 @@ impl OrbitProblem {
         ranks: usize,
         rank: usize,
     ) -> Result<DistributedOrbit, OrbitError> {
-        let mut kept = Vec::new();
+        let mut kept: Vec<KeptLine> = Vec::new();
+        let mut keys = KeyArena::new(self.dimension(), self.kernel.degree());
         let mut records = Vec::new();
         let mut parts = Vec::new();
+        let mut keys_from = 0;
         let mut first: Option<RankHeader> = None;
         for r in 0..old_ranks {
             let path = rank_checkpoint_path(base, r);
-            let mut head =
-                self.read_rank_file(&path, |index, key, fingerprint, parent, generator| {
-                    if owner(fingerprint, ranks) == rank {
-                        kept.push(RankLine {
-                            index,
-                            key: key.cloned(),
-                            fingerprint,
-                            parent,
-                            generator,
+            let (mut head, ()) = self.read_rank_file(
+                &path,
+                |_| (),
+                |(), line| {
+                    if owner(line.fingerprint, ranks) == rank {
+                        let key = line.key.map(|k| {
+                            keys.push(k);
+                            keys.len() as u32 - 1
+                        });
+                        kept.push(KeptLine {
+                            index: line.index,
+                            key,
+                            fingerprint: line.fingerprint,
+                            parent: line.parent,
+                            generator: line.generator,
+                            layer: line.layer as u32,
                         });
                     }
-                })?;
+                    Ok(())
+                },
+            )?;
             if (head.ranks, head.rank) != (old_ranks, r) {
                 return Err(error(
                     &path,
@@ -395,6 +396,7 @@ impl OrbitProblem {
                 ));
             }
             if let Some(section) = head.compact.take() {
+                keys_from = keys_from.max(section.window_start);
                 records.extend(
                     section
                         .records
@@ -423,6 +425,25 @@ impl OrbitProblem {
             ));
         }
         kept.sort_unstable_by_key(|line| line.index);
+        let mut builder = StoreBuilder::new(self, !parts.is_empty());
+        for line in &kept {
+            // keys from the largest window start of the files on: a suffix of the lines
+            let key = line
+                .key
+                .filter(|_| line.index as usize >= keys_from)
+                .map(|j| keys.key(j as usize));
+            builder
+                .push(LineRead {
+                    index: line.index,
+                    key: key.as_ref(),
+                    fingerprint: line.fingerprint,
+                    parent: line.parent,
+                    generator: line.generator,
+                    layer: line.layer as usize,
+                })
+                .map_err(|e| error(base, e))?;
+        }
+        drop(keys);
         let compact = match parts.is_empty() {
             true => None,
             false => {
@@ -434,12 +455,9 @@ impl OrbitProblem {
                 })
             }
         };
-        let (set, global) = self
-            .local_store(kept, compact.is_some(), &first.layer_ends)
-            .map_err(|e| error(base, e))?;
         let mut orbit = share(
-            set,
-            global,
+            builder.set,
+            builder.global,
             first.layer_ends,
             first.total,
             first.compute_seconds,
@@ -469,43 +487,6 @@ impl OrbitProblem {
             }
         }
         Ok(Some(sums))
-    }
-
-    /// A rank's store from its lines in increasing global index: the memory store, or the
-    /// compact one (records global; a line with its key opens the window, each global layer
-    /// a layer of it, and lines before it keep no key).
-    fn local_store(
-        &self,
-        lines: Vec<RankLine>,
-        compact: bool,
-        layer_ends: &[usize],
-    ) -> Result<(LineStore, Vec<u32>), String> {
-        let kind = if compact {
-            StoreKind::Compact
-        } else {
-            StoreKind::Memory
-        };
-        let mut set =
-            LineStore::new(kind, self.dimension(), self.kernel.degree()).with_global_parents();
-        let mut global = Vec::with_capacity(lines.len());
-        let mut layer = None;
-        for line in lines {
-            match &line.key {
-                Some(key) => {
-                    let here = layer_ends.partition_point(|&e| e <= line.index as usize);
-                    if layer != Some(here) {
-                        set.open_layer(set.len()).map_err(|e| e.to_string())?;
-                        layer = Some(here);
-                    }
-                    set.insert(key, line.fingerprint, line.parent, line.generator);
-                }
-                None => set
-                    .insert_record(line.fingerprint, line.parent, line.generator)
-                    .map_err(|e| e.to_string())?,
-            }
-            global.push(line.index);
-        }
-        Ok((set, global))
     }
 
     /// This rank's share, among `ranks` ranks, of the one-process checkpoint at `path`
@@ -547,28 +528,27 @@ impl OrbitProblem {
         ))
     }
 
-    /// Check and read the rank file at `path`: its header, then each line (global index,
-    /// key when the file holds it, fingerprint, parent's global index, generator) handed to
-    /// `line` in file order.
-    fn read_rank_file(
+    /// Check and read the rank file at `path`: its header, from which `start` makes the
+    /// reader's state, then each line handed to `line` with that state, in file order.
+    fn read_rank_file<T>(
         &self,
         path: &Path,
-        line: impl FnMut(u32, Option<&KeyNumbers>, u64, u32, u16),
-    ) -> Result<RankHeader, OrbitError> {
+        start: impl FnOnce(&RankHeader) -> T,
+        mut line: impl FnMut(&mut T, LineRead<'_>) -> Result<(), String>,
+    ) -> Result<(RankHeader, T), OrbitError> {
         let bytes = checked_bytes(path)?;
         let mut f = Fields {
             bytes: &bytes,
             at: 0,
         };
-        self.read_rank_state(&mut f, line)
-            .map_err(|e| error(path, e))
+        let head = self.read_rank_header(&mut f).map_err(|e| error(path, e))?;
+        let mut state = start(&head);
+        self.read_rank_lines(&mut f, &head, |l| line(&mut state, l))
+            .map_err(|e| error(path, e))?;
+        Ok((head, state))
     }
 
-    fn read_rank_state(
-        &self,
-        f: &mut Fields<'_>,
-        mut line_at: impl FnMut(u32, Option<&KeyNumbers>, u64, u32, u16),
-    ) -> Result<RankHeader, String> {
+    fn read_rank_header(&self, f: &mut Fields<'_>) -> Result<RankHeader, String> {
         let (version, _) = read_origin(f)?;
         let header = [f.u32()?, f.u32()?, f.u32()?, f.u32()?];
         if header != self.header() {
@@ -591,13 +571,39 @@ impl OrbitProblem {
         let processed = f.count(n as u64, "frontier start")?;
         // one end per global layer, though a rank may hold no line of some
         let local_ends = f.ends(layer_ends.len(), n, "local layer ends")?;
+        if local_ends.last().is_some_and(|&e| e > n) || local_ends.last() < Some(&processed) {
+            return Err("the frontier lies outside the local layers".into());
+        }
         let compute_seconds = f64::from_bits(f.u64()?);
         let compact = match version {
             VERSION_COMPACT => Some(self.read_compact_section(f, rank, ranks, total)?),
             _ => None,
         };
+        Ok(RankHeader {
+            ranks,
+            rank,
+            total,
+            lines: n,
+            layer_ends,
+            processed,
+            local_ends,
+            compute_seconds,
+            compact,
+        })
+    }
+
+    /// The lines after the header, each checked (index growing, record pointing back, owned
+    /// by the file's rank, a held key matching its fingerprint) and handed to `line_at`.
+    fn read_rank_lines(
+        &self,
+        f: &mut Fields<'_>,
+        head: &RankHeader,
+        mut line_at: impl FnMut(LineRead<'_>) -> Result<(), String>,
+    ) -> Result<(), String> {
+        let (n, total, rank, ranks) = (head.lines, head.total, head.rank, head.ranks);
+        let compact = head.compact.is_some();
         // keys are held from here on (every key in a memory-store file)
-        let keys_from = compact.as_ref().map_or(0, |c| c.window_start);
+        let keys_from = head.compact.as_ref().map_or(0, |c| c.window_start);
         let generators = self.generators.operators().len() as u64;
         let mut reader = Reader::new(&f.bytes[f.at..], self.key_len(), format!("rank {rank}"));
         let mut last: Option<u64> = None;
@@ -608,8 +614,8 @@ impl OrbitProblem {
                     .next_candidate()
                     .map_err(|e| e.to_string())?
                     .ok_or_else(|| format!("{n} lines announced, {i} found"))?;
-                let fingerprint = self.key_fingerprint(&line.key, compact.is_some());
-                if compact.is_some() && fingerprint != line.fingerprint {
+                let fingerprint = self.key_fingerprint(&line.key, compact);
+                if compact && fingerprint != line.fingerprint {
                     return Err(format!("line {i}: its fingerprint is not its key's"));
                 }
                 (line.order, fingerprint, Some(line.key))
@@ -632,31 +638,20 @@ impl OrbitProblem {
             if owner(fingerprint, ranks) != rank {
                 return Err(format!("line {i} belongs to another rank"));
             }
-            line_at(
-                index as u32,
-                key.as_ref(),
+            line_at(LineRead {
+                index: index as u32,
+                key: key.as_ref(),
                 fingerprint,
-                parent as u32,
-                generator as u16,
-            );
+                parent: parent as u32,
+                generator: generator as u16,
+                layer: head.layer_ends.partition_point(|&e| e <= index as usize),
+            })?;
             last = Some(index);
         }
         if !reader.at_end() {
             return Err("unexpected bytes after the lines".into());
         }
-        if local_ends.last().is_some_and(|&e| e > n) || local_ends.last() < Some(&processed) {
-            return Err("the frontier lies outside the local layers".into());
-        }
-        Ok(RankHeader {
-            ranks,
-            rank,
-            total,
-            layer_ends,
-            processed,
-            local_ends,
-            compute_seconds,
-            compact,
-        })
+        Ok(())
     }
 
     /// The compact file's section before its lines: window start, part of B, records.
@@ -735,14 +730,76 @@ fn share(
     }
 }
 
-/// One line of a rank file as read.
-struct RankLine {
+/// A line kept while regrouping: its key (when the file held it) is in an arena of packed
+/// keys, at position `key`.
+struct KeptLine {
     index: u32,
-    /// The key, when the file holds it.
-    key: Option<KeyNumbers>,
+    key: Option<u32>,
     fingerprint: u64,
     parent: u32,
     generator: u16,
+    layer: u32,
+}
+
+/// A rank's store built from its lines in increasing global index: the memory store, or
+/// the compact one (records global; the lines with keys, a suffix, fill the window, one
+/// window layer per global layer; the lines before them keep no key).
+struct StoreBuilder {
+    set: LineStore,
+    global: Vec<u32>,
+    /// The global layer of the window layer being filled.
+    layer: Option<usize>,
+}
+
+impl StoreBuilder {
+    fn new(problem: &OrbitProblem, compact: bool) -> StoreBuilder {
+        let kind = if compact {
+            StoreKind::Compact
+        } else {
+            StoreKind::Memory
+        };
+        StoreBuilder {
+            set: LineStore::new(kind, problem.dimension(), problem.kernel.degree())
+                .with_global_parents(),
+            global: Vec::new(),
+            layer: None,
+        }
+    }
+
+    fn push(&mut self, line: LineRead<'_>) -> Result<(), String> {
+        match line.key {
+            Some(key) => {
+                if self.layer != Some(line.layer) {
+                    self.set
+                        .open_layer(self.set.len())
+                        .map_err(|e| e.to_string())?;
+                    self.layer = Some(line.layer);
+                }
+                self.set
+                    .insert(key, line.fingerprint, line.parent, line.generator);
+            }
+            None => self
+                .set
+                .insert_record(line.fingerprint, line.parent, line.generator)
+                .map_err(|e| e.to_string())?,
+        }
+        reserve_gently(&mut self.global);
+        self.global.push(line.index);
+        Ok(())
+    }
+}
+
+/// One line of a rank file as it is read.
+struct LineRead<'a> {
+    index: u32,
+    /// The key, when the file holds it.
+    key: Option<&'a KeyNumbers>,
+    fingerprint: u64,
+    parent: u32,
+    generator: u16,
+    /// The global layer of the line (the number of finished layers for a layer cut by the
+    /// line limit).
+    layer: usize,
 }
 
 /// The fixed fields of a rank file.
@@ -750,6 +807,8 @@ struct RankHeader {
     ranks: usize,
     rank: usize,
     total: usize,
+    /// This rank's lines.
+    lines: usize,
     layer_ends: Vec<usize>,
     processed: usize,
     local_ends: Vec<usize>,

@@ -288,6 +288,14 @@ impl LineStore {
         }
     }
 
+    /// The first element from which the store holds every key (0 for the memory store).
+    pub(crate) fn first_held(&self) -> usize {
+        match self {
+            LineStore::Compact(s) => s.window_start(),
+            LineStore::Memory(_) => 0,
+        }
+    }
+
     /// The compact store's (wide) fingerprint of element i; `None` for the memory store,
     /// which keeps 32 bits of it in its table only.
     pub(crate) fn wide_fingerprint(&self, i: usize) -> Option<u64> {
