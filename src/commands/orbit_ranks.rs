@@ -12,7 +12,7 @@ use std::sync::Arc;
 use std::time::Instant;
 
 use cyclorb_orbit::{
-    checkpoint_origin, gather_numbers, rank_checkpoint_origin, rank_checkpoint_path, Collective,
+    checkpoint_origin, first_rank_checkpoint, gather_numbers, rank_checkpoint_origin, Collective,
     OrbitOptions, Silent,
 };
 use cyclorb_pipeline::listing::{Listing, Origin};
@@ -53,7 +53,7 @@ impl Collective for Alone {
 pub fn names_rank_files(args: &OrbitArgs) -> bool {
     args.resume
         .as_ref()
-        .is_some_and(|base| !base.is_file() && rank_checkpoint_path(base, 0).exists())
+        .is_some_and(|base| !base.is_file() && first_rank_checkpoint(base).exists())
 }
 
 /// Continue a job's rank files in this process, as one rank (no MPI needed).
@@ -108,7 +108,7 @@ fn set_up(args: &OrbitArgs, stop: Arc<AtomicBool>) -> Result<(Listing, OrbitOpti
     let completed;
     let args = match &args.resume {
         Some(base) if args.spec.is_none() && args.matrices.is_none() => {
-            let first = rank_checkpoint_path(base, 0);
+            let first = first_rank_checkpoint(base);
             // no rank files but a file BASE: a one-process checkpoint
             let (path, recorded) = if !first.exists() && base.is_file() {
                 (base.clone(), checkpoint_origin(base))

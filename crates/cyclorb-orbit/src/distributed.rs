@@ -40,7 +40,10 @@ use crate::error::OrbitError;
 use crate::key::KeyNumbers;
 use crate::poincare::PoincareSum;
 use crate::problem::OrbitProblem;
-use crate::rank_checkpoint::{rank_checkpoint_path, rank_checkpoint_ranks};
+use crate::rank_checkpoint::{
+    first_rank_checkpoint, next_rank_checkpoint_path, rank_checkpoint_path, rank_checkpoint_ranks,
+    rank_file,
+};
 use crate::regenerate::layer_ranges;
 use crate::set::{LineStore, StoreKind};
 use crate::sparse_numerators::SparseNumerators;
@@ -244,19 +247,44 @@ impl OrbitProblem {
         options: &OrbitOptions,
         observer: &mut dyn ProgressObserver,
     ) -> Result<DistributedOrbit, OrbitError> {
-        let first = rank_checkpoint_path(base, 0);
-        let path = rank_checkpoint_path(base, comm.rank());
-        let read = if !first.exists() && base.is_file() {
-            self.read_single_checkpoint_as_rank(base, comm.size(), comm.rank())
-        } else {
+        let first = first_rank_checkpoint(base);
+        if !first.exists() && base.is_file() {
+            let read = self.read_single_checkpoint_as_rank(base, comm.size(), comm.rank());
+            let orbit = self.agreed_state(comm, base, read)?;
+            return self.extend_distributed(orbit, comm, options, observer);
+        }
+        // the newest files first (a job stopped while its ranks replaced their files has a
+        // complete new set, some still named `.next`); when those are not one state, the
+        // old files, which no rank replaces before every rank has written its new one
+        let read_files = |newest: bool| {
             rank_checkpoint_ranks(&first).and_then(|old| {
                 if old == comm.size() {
+                    let path = rank_file(base, comm.rank(), newest);
                     self.read_rank_checkpoint(&path, comm.size(), comm.rank())
                 } else {
-                    self.read_regrouped_checkpoints(base, old, comm.size(), comm.rank())
+                    self.read_regrouped_checkpoints(base, newest, old, comm.size(), comm.rank())
                 }
             })
         };
+        let newest = self.agreed_state(comm, base, read_files(true));
+        let any_next = (0..comm.size().max(rank_checkpoint_ranks(&first).unwrap_or(0)))
+            .any(|r| next_rank_checkpoint_path(base, r).exists());
+        let orbit = match newest {
+            Ok(orbit) => orbit,
+            Err(_) if any_next => self.agreed_state(comm, base, read_files(false))?,
+            Err(e) => return Err(e),
+        };
+        self.extend_distributed(orbit, comm, options, observer)
+    }
+
+    /// This rank's state as read, once every rank has read its own and all are at the
+    /// same layers; otherwise an error on every rank. Collective.
+    fn agreed_state(
+        &self,
+        comm: &dyn Collective,
+        base: &Path,
+        read: Result<DistributedOrbit, OrbitError>,
+    ) -> Result<DistributedOrbit, OrbitError> {
         let mine = match &read {
             Ok(o) => [1, o.total as u64, o.layer_ends.len() as u64],
             Err(_) => [0, 0, 0],
@@ -272,12 +300,12 @@ impl OrbitProblem {
         if all.iter().any(|v| v[1..] != all[0][1..]) {
             return Err(OrbitError::Checkpoint {
                 path: base.display().to_string(),
-                reason: "the ranks' checkpoints were written at different layers (a job \
-                         killed while writing them); no common state to resume from"
+                reason: "the ranks' checkpoints were written at different layers; no common \
+                         state to resume from"
                     .into(),
             });
         }
-        self.extend_distributed(orbit, comm, options, observer)
+        Ok(orbit)
     }
 
     fn extend_distributed(
@@ -412,8 +440,10 @@ impl OrbitProblem {
         }
     }
 
-    /// Every rank writes its checkpoint (when the options ask for them); an error on any
-    /// rank is an error on all.
+    /// Every rank writes its checkpoint (when the options ask for them) in two steps: each
+    /// writes `BASE.rankR.next`; once all have, each renames it to `BASE.rankR`. A job
+    /// stopped in between leaves either the old files whole or a whole new set (some still
+    /// `.next`), and the resume finds one of them. An error on any rank is an error on all.
     fn checkpoint_ranks(
         &self,
         comm: &dyn Collective,
@@ -423,11 +453,22 @@ impl OrbitProblem {
         let Some(plan) = &options.checkpoint else {
             return Ok(());
         };
-        let path = rank_checkpoint_path(&plan.path, comm.rank());
-        let written = self.write_rank_checkpoint(orbit, comm.rank(), &path);
+        let next = next_rank_checkpoint_path(&plan.path, comm.rank());
+        let written = self.write_rank_checkpoint(orbit, comm.rank(), &next);
         agreed_or(comm, written, |rank| OrbitError::Checkpoint {
-            path: rank_checkpoint_path(&plan.path, rank).display().to_string(),
+            path: next_rank_checkpoint_path(&plan.path, rank)
+                .display()
+                .to_string(),
             reason: "rank could not write its checkpoint (its message is on stderr)".into(),
+        })?;
+        let path = rank_checkpoint_path(&plan.path, comm.rank());
+        let renamed = std::fs::rename(&next, &path).map_err(|e| OrbitError::Checkpoint {
+            path: path.display().to_string(),
+            reason: e.to_string(),
+        });
+        agreed_or(comm, renamed, |rank| OrbitError::Checkpoint {
+            path: rank_checkpoint_path(&plan.path, rank).display().to_string(),
+            reason: "rank could not replace its checkpoint (its message is on stderr)".into(),
         })
     }
 

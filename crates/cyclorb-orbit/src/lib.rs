@@ -118,6 +118,6 @@ pub use error::OrbitError;
 pub use pairs::{pair_orbit, PairOrbit};
 pub use poincare::PoincareSum;
 pub use problem::OrbitProblem;
-pub use rank_checkpoint::{rank_checkpoint_origin, rank_checkpoint_path};
+pub use rank_checkpoint::{first_rank_checkpoint, rank_checkpoint_origin, rank_checkpoint_path};
 pub use report::{InvariantReport, LabelledEntry, ModularInvariantReport, PoincareReport};
 pub use set::StoreKind;

@@ -67,6 +67,32 @@ pub fn rank_checkpoint_path(base: &Path, rank: usize) -> PathBuf {
     PathBuf::from(name)
 }
 
+/// Where `rank` writes its next checkpoint, `BASE.rankR.next`, before every rank has
+/// written its own and the files replace the old ones (module `distributed`,
+/// `checkpoint_ranks`).
+pub(crate) fn next_rank_checkpoint_path(base: &Path, rank: usize) -> PathBuf {
+    let mut name = rank_checkpoint_path(base, rank).into_os_string();
+    name.push(".next");
+    PathBuf::from(name)
+}
+
+/// The file to read for `rank`: its new file `BASE.rankR.next` when `newest` and there is
+/// one (a job stopped while the ranks replaced their files), else `BASE.rankR`.
+pub(crate) fn rank_file(base: &Path, rank: usize, newest: bool) -> PathBuf {
+    let next = next_rank_checkpoint_path(base, rank);
+    if newest && next.exists() {
+        next
+    } else {
+        rank_checkpoint_path(base, rank)
+    }
+}
+
+/// Rank 0's checkpoint of a job, the newest there is: the file that records the problem
+/// and the number of ranks (`BASE.rank0`, or `BASE.rank0.next` when only that is left).
+pub fn first_rank_checkpoint(base: &Path) -> PathBuf {
+    rank_file(base, 0, true)
+}
+
 fn error(path: &Path, reason: impl std::fmt::Display) -> OrbitError {
     OrbitError::Checkpoint {
         path: path.display().to_string(),
@@ -353,6 +379,7 @@ impl OrbitProblem {
     pub(crate) fn read_regrouped_checkpoints(
         &self,
         base: &Path,
+        newest: bool,
         old_ranks: usize,
         ranks: usize,
         rank: usize,
@@ -364,7 +391,7 @@ impl OrbitProblem {
         let mut keys_from = 0;
         let mut first: Option<RankHeader> = None;
         for r in 0..old_ranks {
-            let path = rank_checkpoint_path(base, r);
+            let path = rank_file(base, r, newest);
             let (mut head, ()) = self.read_rank_file(
                 &path,
                 |_| (),

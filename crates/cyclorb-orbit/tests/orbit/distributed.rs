@@ -335,6 +335,74 @@ fn compact_rank_checkpoints_resume_to_the_identical_answer() {
     }
 }
 
+#[test]
+fn a_job_stopped_while_replacing_its_files_resumes_from_a_whole_set() {
+    let g = clifford(3);
+    let problem = OrbitProblem::new(g.clone(), &vacuum(&g)).unwrap();
+    let single = run(&problem, 1, 64);
+    let expected: Vec<_> = (0..single.len()).map(|i| single.schreier(i)).collect();
+    let base = temp_path("distributed-replace");
+    let file = |r: usize, suffix: &str| {
+        let mut name = rank_checkpoint_path(&base, r).into_os_string();
+        name.push(suffix);
+        std::path::PathBuf::from(name)
+    };
+    let stop_at = |limit: usize| OrbitOptions {
+        limit: Some(limit),
+        checkpoint: Some(CheckpointPlan {
+            path: base.clone(),
+            every: Duration::from_secs(3600),
+        }),
+        ..options(1, 16)
+    };
+    // state A (200 lines), then state B (500 lines) written over it
+    distributed(&problem, 2, &stop_at(200));
+    for r in 0..2 {
+        std::fs::copy(file(r, ""), file(r, ".a")).unwrap();
+        assert!(!file(r, ".next").exists(), "a finished write leaves no .next file");
+    }
+    resumed(&problem, &base, 2, &stop_at(500));
+    for r in 0..2 {
+        std::fs::copy(file(r, ""), file(r, ".b")).unwrap();
+    }
+    let finish = |what: &str| {
+        for ranks in [2, 3] {
+            let done = resumed(&problem, &base, ranks, &options(1, 16));
+            assert!(done[0].0.is_saturated(), "{what}, {ranks} ranks");
+            assert!(records(&done) == expected, "{what}, {ranks} ranks");
+        }
+    };
+    let set = |files: &[(&str, usize, &str)]| {
+        for r in 0..2 {
+            std::fs::remove_file(file(r, "")).ok();
+            std::fs::remove_file(file(r, ".next")).ok();
+        }
+        for &(from, r, to) in files {
+            std::fs::copy(file(r, from), file(r, to)).unwrap();
+        }
+    };
+    // stopped while renaming: rank 0 holds B, rank 1 still A with B as .next
+    set(&[(".b", 0, ""), (".a", 1, ""), (".b", 1, ".next")]);
+    finish("B partly renamed");
+    // stopped before rank 1 had written B: both A, rank 0's B only as .next
+    set(&[(".a", 0, ""), (".a", 1, ""), (".b", 0, ".next")]);
+    finish("B partly written");
+    // two old files of different states and no .next are refused
+    set(&[(".b", 0, ""), (".a", 1, "")]);
+    let errors = on_ranks(2, |comm| {
+        problem
+            .resume_distributed(&base, comm, &options(1, 16), &mut Silent)
+            .unwrap_err()
+            .to_string()
+    });
+    assert!(errors[0].contains("different layers"), "{errors:?}");
+    for r in 0..2 {
+        for suffix in ["", ".a", ".b", ".next"] {
+            std::fs::remove_file(file(r, suffix)).ok();
+        }
+    }
+}
+
 /// Stops by a line limit and by the stop flag on three ranks in `store`, each resumed from
 /// the rank checkpoints, reach the one-process records and B; so do three ranks' files
 /// resumed on one and on two; a damaged file is named.
