@@ -249,14 +249,19 @@ impl CompactSet {
             return false;
         }
         let index = self.len();
+        self.push_record(fingerprint, parent, generator);
+        self.tables[shard_of(fingerprint)].place(index, &self.fingerprints);
+        true
+    }
+
+    /// Append an element's record and fingerprint (neither indexed nor with a key yet).
+    fn push_record(&mut self, fingerprint: u64, parent: u32, generator: u8) {
         reserve_gently(&mut self.parents);
         reserve_gently(&mut self.generators);
         reserve_gently(&mut self.fingerprints);
         self.parents.push(parent);
         self.generators.push(generator);
         self.fingerprints.push(fingerprint);
-        self.tables[shard_of(fingerprint)].place(index, &self.fingerprints);
-        true
     }
 
     /// The fingerprint of element i.
@@ -281,12 +286,7 @@ impl CompactSet {
         generator: u8,
     ) {
         let index = self.len();
-        reserve_gently(&mut self.parents);
-        reserve_gently(&mut self.generators);
-        reserve_gently(&mut self.fingerprints);
-        self.parents.push(parent);
-        self.generators.push(generator);
-        self.fingerprints.push(fingerprint);
+        self.push_record(fingerprint, parent, generator);
         if self.window.is_empty() {
             self.window.push_back(LayerKeys {
                 start: index,

@@ -276,10 +276,10 @@ impl LayerSums {
         keys: &KeyArena,
         threads: usize,
     ) -> Result<(), OrbitError> {
-        if let Some(part) = self.terms(problem, keys, threads)? {
-            self.b = self.b.add(&problem.field, &part)?;
+        match self.terms(problem, keys, threads)? {
+            Some(part) => self.add_part(&problem.field, &part),
+            None => Ok(()),
         }
-        Ok(())
     }
 
     /// Add a part of B summed elsewhere (another rank's, read from its checkpoint).

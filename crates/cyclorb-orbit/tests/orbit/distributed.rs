@@ -359,7 +359,10 @@ fn a_job_stopped_while_replacing_its_files_resumes_from_a_whole_set() {
     distributed(&problem, 2, &stop_at(200));
     for r in 0..2 {
         std::fs::copy(file(r, ""), file(r, ".a")).unwrap();
-        assert!(!file(r, ".next").exists(), "a finished write leaves no .next file");
+        assert!(
+            !file(r, ".next").exists(),
+            "a finished write leaves no .next file"
+        );
     }
     resumed(&problem, &base, 2, &stop_at(500));
     for r in 0..2 {
