@@ -117,6 +117,26 @@ fn a_line_limit_stops_every_rank_with_the_one_process_answer() {
     assert_eq!(v["stop_reason"], "limit");
 }
 
+#[test]
+fn a_memory_limit_stops_every_rank_by_its_resident_memory() {
+    // each rank's budget holds its whole process (README, "Running on a cluster"): 48 MiB
+    // is passed within the first layers of Ising at genus 3 on any rank
+    let (code, v) = mpirun_json(
+        2,
+        &["--memory-limit", "48", "orbit", "ising", "--genus", "3"],
+    );
+    assert_eq!(code, 3, "{v}");
+    assert_eq!(v["stop_reason"], "memory");
+    assert_eq!(v["saturated"], false);
+    assert!(v["orbit_size"].as_u64().unwrap() < 8_847_360, "{v}");
+    // the resident memory, not the store, stopped them: the stores (about 20 MB each when
+    // this was written) were far from the 48 MiB that the store and the layer being built
+    // must pass before the store's own rule stops a rank
+    for store in v["ranks"]["store_bytes"].as_array().unwrap() {
+        assert!(store.as_u64().unwrap() < 32 << 20, "{v}");
+    }
+}
+
 /// `mpirun -n RANKS cyclorb ARGS` (text), for exit codes and messages.
 fn mpirun(ranks: usize, args: &[&str]) -> std::process::Output {
     Command::new("mpirun")

@@ -188,7 +188,9 @@ impl Listing {
     }
 
     /// List the orbit over the ranks of `comm` (every rank calls this; docs/orbits.md §6):
-    /// from the start, or continuing the rank checkpoints `resume.rankR`.
+    /// from the start, or continuing the rank checkpoints `resume.rankR`. As in [`Self::run`]
+    /// the memory ceiling (each rank's own) also holds the rank's resident memory unless the
+    /// caller gives its own probe.
     pub fn run_distributed(
         &self,
         comm: &dyn Collective,
@@ -196,6 +198,11 @@ impl Listing {
         resume: Option<&Path>,
         progress: &mut dyn ProgressObserver,
     ) -> Result<DistributedOrbit, String> {
+        let options = OrbitOptions {
+            resident: options.resident.or(Some(runtime::resident_memory_bytes)),
+            ..options.clone()
+        };
+        let options = &options;
         match resume {
             Some(base) => self
                 .problem
