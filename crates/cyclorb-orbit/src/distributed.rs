@@ -562,11 +562,12 @@ impl OrbitProblem {
                 (parent as u32, generator as u8)
             })
             .collect();
-        let words = words_of(comm, directory, &records)?;
+        // collective; an error (a record no holder has) comes after every exchange
+        let words = words_of(comm, directory, &records);
         // one old line at a time: its key is recomputed, compared with the new lines pending
         // on it, and dropped (only the words, a byte a step, are held for all of them)
         layer.pending.sort_unstable_by_key(|&(_, o)| o);
-        let decided = (|| -> Result<(), OrbitError> {
+        let decided = words.and_then(|words| {
             let lines = layer.lines.memory_keys().ok_or_else(held_in_memory)?;
             let mut pending = layer.pending.iter().peekable();
             for (&o, word) in old.iter().zip(&words) {
@@ -580,7 +581,7 @@ impl OrbitProblem {
                 }
             }
             Ok(())
-        })();
+        });
         agreed(comm, decided, "could not settle its pending lines")
     }
 
@@ -646,11 +647,19 @@ impl OrbitProblem {
             filed.push((index, key_order));
         }
         if let Some(share) = &mut orbit.compact {
-            share.directory.file(comm, &filed)?;
-            if let Some(sums) = &mut share.sums {
-                sums.add(self, lines, options.threads)?;
-                sums.subtract(self, &left_out, options.threads)?;
-            }
+            // filing is collective; an error after it (or in the sum) is this rank's alone
+            let filed = share.directory.file(comm, &filed);
+            let summed = filed.and_then(|()| match &mut share.sums {
+                Some(sums) => sums
+                    .add(self, lines, options.threads)
+                    .and_then(|()| sums.subtract(self, &left_out, options.threads)),
+                None => Ok(()),
+            });
+            agreed(
+                comm,
+                summed,
+                "could not file its records or add its part of B",
+            )?;
         }
         let kept = new_lines.min(room);
         orbit.total += kept;
