@@ -193,7 +193,8 @@ pub struct OrbitArgs {
     pub store: Option<String>,
     /// With the compact store (implied): keep the keys of finished layers in files in this
     /// directory (removed as the run moves on), so that an orbit larger than
-    /// --memory-limit can complete; only the layer being built stays in memory.
+    /// --memory-limit can complete; only the layer being built stays in memory. Under MPI
+    /// each rank uses a directory of its own, DIR/rank0, DIR/rank1, ….
     #[arg(long, value_name = "DIR")]
     pub spill: Option<PathBuf>,
     /// Print the word (in generator names) of this many orbit elements, farthest first.
