@@ -815,3 +815,25 @@ fn ising_genus_three_completes_on_disk_under_a_third_of_its_memory_size() {
         let _ = std::fs::remove_file(ckpt);
     }
 }
+
+/// A build without the feature `mpi` started by a launcher as one of several processes
+/// refuses, naming the feature (each copy would list the whole orbit and write the same
+/// files); as the only process it runs.
+#[cfg(not(feature = "mpi"))]
+#[test]
+fn a_build_without_mpi_refuses_to_be_one_of_several_ranks() {
+    let out = run_cli::command()
+        .args(["orbit", "ising", "--genus", "1"])
+        .env("OMPI_COMM_WORLD_SIZE", "2")
+        .output()
+        .unwrap();
+    assert_eq!(out.status.code(), Some(1));
+    let stderr = String::from_utf8_lossy(&out.stderr);
+    assert!(stderr.contains("--features mpi"), "{stderr}");
+    let out = run_cli::command()
+        .args(["orbit", "ising", "--genus", "1"])
+        .env("PMI_SIZE", "1")
+        .output()
+        .unwrap();
+    assert_eq!(out.status.code(), Some(0));
+}

@@ -232,6 +232,15 @@ pub fn run(args: &OrbitArgs, as_json: bool) -> Outcome {
     if super::orbit_mpi::launched() {
         return super::orbit_mpi::run(args, as_json, started);
     }
+    #[cfg(not(feature = "mpi"))]
+    if let Some(ranks) = super::orbit_ranks::launcher_size().filter(|&r| r > 1) {
+        return Outcome::Invalid(format!(
+            "started by an MPI launcher as one of {ranks} processes, but this cyclorb was \
+             built without the feature `mpi`: each process would list the whole orbit alone \
+             and write the same files; build it with `cargo install --path . --features mpi` \
+             (README, \"Running on a cluster\"), or run one process"
+        ));
+    }
     if super::orbit_ranks::names_rank_files(args) {
         return super::orbit_ranks::resume_alone(args, as_json, started);
     }

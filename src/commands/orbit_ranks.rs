@@ -48,6 +48,17 @@ impl Collective for Alone {
     }
 }
 
+/// The number of processes an MPI launcher started, when it says so (Open MPI's
+/// `OMPI_COMM_WORLD_SIZE`; `PMI_SIZE` of MPICH's `mpiexec` and of Slurm's `srun` with PMI).
+/// A build without the feature `mpi` refuses to be one of several: each process would
+/// enumerate the whole orbit on its own and write the same files.
+#[cfg(not(feature = "mpi"))]
+pub fn launcher_size() -> Option<usize> {
+    ["OMPI_COMM_WORLD_SIZE", "PMI_SIZE"]
+        .iter()
+        .find_map(|name| std::env::var(name).ok()?.trim().parse().ok())
+}
+
 /// Whether `--resume BASE` names rank files (`BASE.rank0` exists) rather than a one-process
 /// checkpoint (a file `BASE`, which wins when both exist).
 pub fn names_rank_files(args: &OrbitArgs) -> bool {
