@@ -12,6 +12,8 @@
 //! from `cargo bench --bench orbit_store ising 3`. `CYCLORB_BENCH_STORES` (a comma-separated
 //! list of `memory`, `compact`, `compact+spill`) runs only those.
 
+mod support;
+
 use std::time::Instant;
 
 use cyclorb_orbit::{OrbitOptions, Progress, StoreKind};
@@ -65,18 +67,6 @@ fn main() {
     }
 }
 
-/// The process's user + system CPU seconds so far, from /proc/self/stat (Linux; ticks of
-/// USER_HZ = 100, the fixed unit of that file); `None` elsewhere.
-fn cpu_seconds() -> Option<f64> {
-    let stat = std::fs::read_to_string("/proc/self/stat").ok()?;
-    // the fields after the command name (which is in parentheses): utime and stime are
-    // fields 14 and 15 of the line, the 12th and 13th after the name
-    let rest = &stat[stat.rfind(')')? + 1..];
-    let fields: Vec<&str> = rest.split_whitespace().collect();
-    let ticks: u64 = fields.get(11)?.parse::<u64>().ok()? + fields.get(12)?.parse::<u64>().ok()?;
-    Some(ticks as f64 / 100.0)
-}
-
 /// One enumeration and sum, and its line of figures.
 fn run(
     problem: &cyclorb_orbit::OrbitProblem,
@@ -96,13 +86,13 @@ fn run(
     };
     let mut peak = 0usize;
     let mut observer = |p: &Progress| peak = peak.max(p.store_bytes);
-    let cpu_before = cpu_seconds();
+    let cpu_before = support::cpu_seconds(false);
     let started = Instant::now();
     let orbit = problem
         .enumerate(&options, &mut observer)
         .expect("the orbit enumerates");
     let enumerate = started.elapsed().as_secs_f64();
-    let cpu = match (cpu_before, cpu_seconds()) {
+    let cpu = match (cpu_before, support::cpu_seconds(false)) {
         (Some(a), Some(b)) => format!("{:.1}", b - a),
         _ => "-".into(),
     };

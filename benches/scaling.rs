@@ -16,6 +16,8 @@
 //! The orbit size, the layer sizes and B must be the same in every run, else the bench
 //! fails: a scaling figure of a wrong answer is worth nothing.
 
+mod support;
+
 use std::process::Command;
 use std::time::Instant;
 
@@ -117,14 +119,16 @@ fn counts(variable: &str, default: &str) -> Vec<usize> {
 
 /// Run `command` to its end and read its one JSON report; a failed run ends the bench.
 fn measure(label: String, workers: usize, mut command: Command) -> Run {
-    let cpu_before = children_cpu_seconds();
+    let cpu_before = support::cpu_seconds(true);
     let started = Instant::now();
     let out = command.output().unwrap_or_else(|e| {
         eprintln!("scaling: {label}: cannot start {command:?}: {e}");
         std::process::exit(1);
     });
     let wall = started.elapsed().as_secs_f64();
-    let cpu = children_cpu_seconds().zip(cpu_before).map(|(b, a)| b - a);
+    let cpu = support::cpu_seconds(true)
+        .zip(cpu_before)
+        .map(|(b, a)| b - a);
     let report: Value = match serde_json::from_slice(&out.stdout) {
         Ok(v) if out.status.success() => v,
         _ => {
@@ -182,17 +186,4 @@ fn print_row(runs: &[Run], thread_runs: usize, cores: usize) {
         store / lines,
         peak / 1048576.0,
     );
-}
-
-/// User + system CPU seconds of the waited-for child processes so far (their children
-/// included once waited for), from /proc/self/stat (Linux; ticks of USER_HZ = 100, the
-/// fixed unit of that file); `None` elsewhere.
-fn children_cpu_seconds() -> Option<f64> {
-    let stat = std::fs::read_to_string("/proc/self/stat").ok()?;
-    // after the command name (in parentheses) cutime and cstime are fields 16 and 17 of
-    // the line, the 14th and 15th after the name
-    let rest = &stat[stat.rfind(')')? + 1..];
-    let fields: Vec<&str> = rest.split_whitespace().collect();
-    let ticks: u64 = fields.get(13)?.parse::<u64>().ok()? + fields.get(14)?.parse::<u64>().ok()?;
-    Some(ticks as f64 / 100.0)
 }

@@ -256,8 +256,10 @@ impl OrbitProblem {
         // the newest files first (a job stopped while its ranks replaced their files has a
         // complete new set, some still named `.next`); when those are not one state, the
         // old files, which no rank replaces before every rank has written its new one
+        // read once (it checks the whole file); an error goes through `agreed_state`
+        let old_ranks = rank_checkpoint_ranks(&first);
         let read_files = |newest: bool| {
-            rank_checkpoint_ranks(&first).and_then(|old| {
+            old_ranks.clone().and_then(|old| {
                 if old == comm.size() {
                     let path = rank_file(base, comm.rank(), newest);
                     self.read_rank_checkpoint(&path, comm.size(), comm.rank())
@@ -267,7 +269,7 @@ impl OrbitProblem {
             })
         };
         let newest = self.agreed_state(comm, base, read_files(true));
-        let any_next = (0..comm.size().max(rank_checkpoint_ranks(&first).unwrap_or(0)))
+        let any_next = (0..*old_ranks.as_ref().unwrap_or(&0))
             .any(|r| next_rank_checkpoint_path(base, r).exists());
         let orbit = match newest {
             Ok(orbit) => orbit,
@@ -571,8 +573,7 @@ impl OrbitProblem {
             let lines = layer.lines.memory_keys().ok_or_else(held_in_memory)?;
             let mut pending = layer.pending.iter().peekable();
             for (&o, word) in old.iter().zip(&words) {
-                let word: Vec<usize> = word.iter().map(|&g| usize::from(g)).collect();
-                let key = self.key_of_word(&word)?;
+                let key = self.key_of_word(word.iter().map(|&g| usize::from(g)))?;
                 while let Some(&&(new, _)) = pending.peek().filter(|&&&(_, p)| p == o) {
                     if lines.key(new as usize) == key {
                         layer.known[new as usize] = true;

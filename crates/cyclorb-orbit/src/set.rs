@@ -404,17 +404,19 @@ impl OrbitProblem {
             word.push(generator);
             at = parent;
         }
-        word.reverse();
-        self.key_of_word(&word)
+        self.key_of_word(word.into_iter().rev())
     }
 
     /// The key of the line X_{w_k} ⋯ X_{w_1}·v₀ for the word w (generator indices in the
     /// order they are applied), each image normalised to its key (§1 of docs/orbits.md), so
     /// that the result is exactly the key the enumeration stored for the line.
-    pub(crate) fn key_of_word(&self, word: &[usize]) -> Result<KeyNumbers, OrbitError> {
+    pub(crate) fn key_of_word(
+        &self,
+        word: impl IntoIterator<Item = usize>,
+    ) -> Result<KeyNumbers, OrbitError> {
         let mut ws = Workspace::new(self);
         let mut key = self.seed_key.clone();
-        for &generator in word {
+        for generator in word {
             ws.load_key(&key);
             key = self.image_key(&mut ws, generator)?;
         }
